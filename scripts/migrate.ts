@@ -1,0 +1,34 @@
+/** Knex migrations under tsx: `node --import tsx scripts/migrate.ts latest|rollback|reset|status|make NAME`. */
+import knexFactory from 'knex';
+import config from '../knexfile';
+
+const knex = knexFactory(config);
+const [cmd = 'latest', name] = process.argv.slice(2);
+
+try {
+  if (cmd === 'latest') {
+    const [batch, files] = await knex.migrate.latest();
+    console.log(files.length ? `migrate: batch ${batch}, ${files.length} migration(s)` : 'migrate: up to date');
+  } else if (cmd === 'rollback') {
+    const [, files] = await knex.migrate.rollback();
+    console.log(`migrate: rolled back ${files.length}`);
+  } else if (cmd === 'reset') {
+    // Drops everything, for the throwaway test database only.
+    if (!/_test$/.test(new URL(String(config.connection)).pathname)) throw new Error('reset only runs on a *_test database');
+    await knex.raw('drop schema public cascade; create schema public');
+    const [, files] = await knex.migrate.latest();
+    console.log(`migrate: reset, ${files.length} migration(s)`);
+  } else if (cmd === 'status') {
+    const [done, pending] = await knex.migrate.list();
+    console.log(`migrate: ${done.length} applied, ${pending.length} pending`);
+  } else if (cmd === 'make' && name) {
+    console.log(await knex.migrate.make(name));
+  } else {
+    throw new Error('usage: migrate.ts latest|rollback|reset|status|make NAME');
+  }
+} catch (err) {
+  console.error(`migrate: ${(err as Error).message}`);
+  process.exitCode = 1;
+} finally {
+  await knex.destroy();
+}

@@ -1,0 +1,36 @@
+/**
+ * Seeds the invented demo scenario into an EMPTY database only: if any user exists, it does
+ * nothing, so it can never write over an authority's real data. One transaction.
+ */
+import { hashPassword } from 'better-auth/crypto';
+import { recordAudit } from '../src/lib/db/audit';
+import { db } from '../src/lib/db/client';
+import { insertUser, setPassword } from '../src/lib/db/users';
+import { DEMO_PASSWORD, DEMO_PEOPLE } from './demo/people';
+
+async function main(): Promise<void> {
+  const [{ n }] = await db('user').count<{ n: number }[]>('* as n');
+  if (Number(n) > 0) {
+    console.log('seed: the database already has users; demo data not added');
+    return;
+  }
+  const hash = await hashPassword(DEMO_PASSWORD);
+  await db.transaction(async (trx) => {
+    for (const p of DEMO_PEOPLE) {
+      const id = crypto.randomUUID();
+      await insertUser(trx, { id, ...p });
+      await setPassword(trx, id, hash);
+      await recordAudit(trx, { actorId: null, action: 'user.seed', entityType: 'user', entityId: id, details: { email: p.email } });
+    }
+  });
+  console.log(`seed: demo scenario added (${DEMO_PEOPLE.length} people)`);
+}
+
+try {
+  await main();
+} catch (err) {
+  console.error(`seed: ${(err as Error).message}`);
+  process.exitCode = 1;
+} finally {
+  await db.destroy();
+}

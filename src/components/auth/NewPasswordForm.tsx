@@ -1,0 +1,63 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { z } from 'zod';
+import { passwordProblem, PASSWORD_MIN } from '~/lib/auth/password-policy';
+import { apiFetch, ApiError } from '../ui/api-client';
+import { Field } from '../ui/Field';
+import { resetPassword } from './auth-requests';
+
+const schema = z
+  .object({ password: z.string(), confirm: z.string() })
+  .superRefine((v, ctx) => {
+    const problem = passwordProblem(v.password);
+    if (problem) ctx.addIssue({ code: 'custom', path: ['password'], message: problem });
+    if (v.password !== v.confirm) ctx.addIssue({ code: 'custom', path: ['confirm'], message: 'The two passwords differ.' });
+  });
+type Values = z.infer<typeof schema>;
+
+/** Sets a password from an invitation (mode "invite") or a reset link (mode "reset"). */
+export function NewPasswordForm({ token, mode }: { token: string; mode: 'invite' | 'reset' }) {
+  const [error, setError] = useState<string | null>(null);
+  const [done, setDone] = useState(false);
+  const { register, handleSubmit, formState } = useForm<Values>({ resolver: zodResolver(schema) });
+  const onSubmit = handleSubmit(async (v) => {
+    setError(null);
+    if (mode === 'reset') {
+      const problem = await resetPassword(token, v.password);
+      return problem ? setError(problem) : setDone(true);
+    }
+    try {
+      await apiFetch('/api/invitations/accept', { body: { token, password: v.password } });
+      setDone(true);
+    } catch (e) {
+      setError(e instanceof ApiError ? e.message : 'The password could not be set. Try again.');
+    }
+  });
+  if (done) {
+    return (
+      <p className="notice" role="status">
+        Your password is set. <a href="/sign-in">Sign in</a>.
+      </p>
+    );
+  }
+  const errors = formState.errors;
+  return (
+    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-3">
+      <Field label="New password" htmlFor="password" error={errors.password?.message} hint={`At least ${PASSWORD_MIN} characters. A short sentence works well.`}>
+        <input id="password" type="password" autoComplete="new-password" className="input" aria-invalid={!!errors.password} {...register('password')} />
+      </Field>
+      <Field label="The same password again" htmlFor="confirm" error={errors.confirm?.message}>
+        <input id="confirm" type="password" autoComplete="new-password" className="input" aria-invalid={!!errors.confirm} {...register('confirm')} />
+      </Field>
+      {error && (
+        <p className="notice notice-warn" role="alert">
+          {error}
+        </p>
+      )}
+      <button className="btn self-start" type="submit" disabled={formState.isSubmitting}>
+        {mode === 'invite' ? 'Set password' : 'Change password'}
+      </button>
+    </form>
+  );
+}

@@ -1,0 +1,33 @@
+/** Contracts of the admin-only read routes: the audit log and the captured-mail box. */
+import { z } from 'zod';
+import { defineSpec } from '../http/spec';
+
+const pageQuery = z.object({ limit: z.coerce.number().int().min(1).max(200).default(50), before: z.coerce.number().int().positive().optional() });
+
+export const listAudit = defineSpec({
+  method: 'GET',
+  path: '/api/audit',
+  tag: 'Admin',
+  summary: 'Audit log, newest first',
+  access: ['admin'],
+  query: pageQuery.extend({ entityType: z.string().max(50).optional(), entityId: z.string().max(100).optional() }),
+  response: z.object({
+    items: z.array(z.object({ id: z.number(), at: z.string(), actorId: z.string().nullable(), actorName: z.string().nullable(), action: z.string(), entityType: z.string(), entityId: z.string(), details: z.record(z.string(), z.unknown()) })),
+  }),
+});
+
+export const listCapturedMail = defineSpec({
+  method: 'GET',
+  path: '/api/mail/captured',
+  tag: 'Admin',
+  summary: 'Mail received by the local SMTP fake (development and demo)',
+  access: ['admin'],
+  query: pageQuery.extend({ to: z.string().max(200).optional() }),
+  response: z.object({
+    items: z.array(z.object({ id: z.number(), receivedAt: z.string(), from: z.string(), to: z.array(z.string()), subject: z.string(), text: z.string() })),
+  }),
+});
+
+export const health = defineSpec({ method: 'GET', path: '/api/health', tag: 'System', summary: 'Liveness and database check for the load balancer', access: 'public', response: z.object({ ok: z.boolean(), database: z.boolean() }) });
+
+export const openapi = defineSpec({ method: 'GET', path: '/api/openapi.json', tag: 'System', summary: 'This OpenAPI document', access: 'public', response: z.record(z.string(), z.unknown()) });

@@ -1,0 +1,20 @@
+/**
+ * Every API route's contract, in one list: the OpenAPI document and the role-matrix test are
+ * generated from it. A route file under src/pages/api without an entry here fails a test.
+ */
+import type { ApiSpec } from '../http/spec';
+import * as admin from './admin';
+import * as users from './users';
+
+export const allSpecs: ApiSpec[] = [
+  admin.health,
+  admin.openapi,
+  users.me,
+  users.listUsers,
+  users.inviteUser,
+  users.updateUser,
+  users.reinviteUser,
+  users.acceptInvitation,
+  admin.listAudit,
+  admin.listCapturedMail,
+];

@@ -1,0 +1,72 @@
+import { cautionsFor } from './cautions';
+import { C_TO_CO2_FACTOR, N2O_N_TO_N2O_FACTOR } from './constants';
+import { buildTrajectory, computeFigures } from './compute';
+import { EstimateInputError } from './errors';
+import type { FactorSetDocument } from './factor-set-schema';
+import { runMonteCarlo } from './monte-carlo';
+import { buildPlan } from './plan';
+import { estimateRequestSchema, type EstimateRequest, type EstimateResult } from './schemas';
+import type { UsedFactor } from './types';
+
+export { EstimateInputError } from './errors';
+
+/**
+ * IPCC Tier 1 estimate of the soil-carbon, biomass and N2O consequences of changing the
+ * use or management of one area, with values from ONE factor set.
+ *
+ * Throws EstimateInputError (issues naming the field) when the request does not parse,
+ * when a value the request needs is marked not applicable (e.g. a soil class with no
+ * reference stock in the region), or when the set lacks a value.
+ */
+export function estimateLandUseChange(input: EstimateRequest, set: FactorSetDocument): EstimateResult {
+  const parsed = estimateRequestSchema.safeParse(input);
+  if (!parsed.success)
+    throw new EstimateInputError(parsed.error.issues.map((i) => ({ path: i.path.map((p) => (typeof p === 'symbol' ? String(p) : p)), message: i.message })));
+  const req = parsed.data;
+  const plan = buildPlan(req, set);
+  const D = req.transitionYears;
+  const figures = computeFigures(plan, req.areaHa, D, (k) => plan.factors.get(k)!.value);
+
+  const factors: UsedFactor[] = [...plan.factors.values()].map(({ key, value, unit, source, status, role }) => ({ key, value, unit, source, status, role }));
+  factors.push(C_TO_CO2_FACTOR);
+  if (plan.n2o) factors.push(N2O_N_TO_N2O_FACTOR);
+
+  const cautions = cautionsFor(req, plan, factors);
+  let uncertainty: EstimateResult['uncertainty'];
+  if (req.uncertainty) {
+    const mc = runMonteCarlo(plan, req.areaHa, D, req.uncertainty.runs, req.uncertainty.seed);
+    uncertainty = { co2eLow: mc.co2eLow, co2eHigh: mc.co2eHigh, runs: mc.runs, seed: mc.seed };
+    cautions.push(...mc.cautions);
+  }
+
+  const result: EstimateResult = {
+    socBeforePerHa: figures.socBeforePerHa,
+    socAfterPerHa: figures.socAfterPerHa,
+    socChangeTotal: figures.socChangeTotal,
+    annualSocChange: figures.annualSocChange,
+    biomassChangeTotal: figures.biomassChangeTotal,
+    n2oTotal: figures.n2oTotal,
+    co2eTotal: figures.co2eTotal,
+    co2eParts: figures.co2eParts,
+    trajectory: buildTrajectory(figures, D),
+    factors,
+    factorSet: { id: set.id, version: set.version },
+    ...(uncertainty ? { uncertainty } : {}),
+    cautions,
+  };
+  assertAllFinite(result);
+  return result;
+}
+
+/** Guards the promise of the API: never NaN, Infinity, null or undefined in a result. */
+export function assertAllFinite(value: unknown, path = 'result'): void {
+  if (value === null || value === undefined) throw new Error(`${path} is ${value}`);
+  if (typeof value === 'number') {
+    if (!Number.isFinite(value)) throw new Error(`${path} is not a finite number (${value})`);
+    return;
+  }
+  if (Array.isArray(value)) return value.forEach((v, i) => assertAllFinite(v, `${path}[${i}]`));
+  if (typeof value === 'object') {
+    for (const [k, v] of Object.entries(value)) assertAllFinite(v, `${path}.${k}`);
+  }
+}

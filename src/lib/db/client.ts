@@ -1,0 +1,20 @@
+/** The single Knex instance (server-only). Nothing else calls knex(...). */
+import knexFactory, { type Knex } from 'knex';
+import pg from 'pg';
+import knexConfig from '../../../knexfile';
+import { config } from '../config';
+
+// int8 (count(*), bigserial ids) as JS numbers: our counts and ids stay far below 2^53.
+pg.types.setTypeParser(20, (v) => Number(v));
+// numeric as JS numbers: factor values and areas are stored as numeric for exactness at rest.
+pg.types.setTypeParser(1700, (v) => Number(v));
+
+export type Db = Knex | Knex.Transaction;
+
+export const db: Knex = knexFactory({ ...knexConfig, connection: config().DATABASE_URL });
+
+/** Runs fn in the given transaction, or opens one: services open it, repositories accept it. */
+export async function withTransaction<T>(outer: Db, fn: (trx: Knex.Transaction) => Promise<T>): Promise<T> {
+  if (outer.isTransaction) return fn(outer as Knex.Transaction);
+  return (outer as Knex).transaction(fn);
+}

@@ -1,0 +1,44 @@
+/**
+ * Delivers the outbox. Every app instance runs one loop; rows are claimed with
+ * FOR UPDATE SKIP LOCKED, so no mail is sent twice and none is lost if an instance dies
+ * (its claim ends with its transaction).
+ */
+import { db } from '../db/client';
+import { claimDueMail, markFailed, markSent } from './outbox';
+import { sendMail } from './send';
+
+const BATCH = 10;
+const INTERVAL_MS = 1500;
+let started = false;
+
+/** Sends what is due now; returns how many were sent. Exposed for tests and the CLI. */
+export async function deliverDueMail(): Promise<number> {
+  return db.transaction(async (trx) => {
+    const rows = await claimDueMail(trx, BATCH);
+    let sent = 0;
+    for (const row of rows) {
+      try {
+        await sendMail({ to: row.recipient, subject: row.subject, text: row.body_text, html: row.body_html });
+        await markSent(trx, row.id);
+        sent++;
+      } catch (err) {
+        await markFailed(trx, row, (err as Error).message);
+      }
+    }
+    return sent;
+  });
+}
+
+export function startMailWorker(): void {
+  if (started) return;
+  started = true;
+  const tick = async () => {
+    try {
+      while ((await deliverDueMail()) === BATCH);
+    } catch (err) {
+      console.error('mail worker:', (err as Error).message);
+    }
+    setTimeout(tick, INTERVAL_MS).unref();
+  };
+  setTimeout(tick, 200).unref();
+}

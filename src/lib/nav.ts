@@ -1,0 +1,17 @@
+/** The signed-in navigation: what each role sees (pure; the header renders it). */
+import type { Role } from './auth/roles';
+
+export type NavItem = { href: string; label: string; roles: readonly Role[] | 'all' };
+
+export const NAV: NavItem[] = [
+  { href: '/work', label: 'Home', roles: 'all' },
+  { href: '/calculator', label: 'Carbon calculator', roles: 'all' },
+  { href: '/admin/factor-sets', label: 'Factor sets', roles: ['admin', 'assessor'] },
+  { href: '/admin/users', label: 'Users', roles: ['admin'] },
+  { href: '/admin/mail', label: 'Mail box', roles: ['admin'] },
+  { href: '/admin/audit', label: 'Audit log', roles: ['admin'] },
+];
+
+export function navFor(roles: readonly Role[]): NavItem[] {
+  return NAV.filter((i) => i.roles === 'all' || i.roles.some((r) => roles.includes(r)));
+}

@@ -1,0 +1,8 @@
+import { health } from '~/lib/api/admin';
+import { db } from '~/lib/db/client';
+import { handle } from '~/lib/http/handle';
+
+export const GET = handle(health, async () => {
+  await db.raw('select 1');
+  return { ok: true, database: true };
+});
