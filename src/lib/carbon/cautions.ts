@@ -19,7 +19,7 @@ export function cautionsFor(req: EstimateRequest, plan: Plan, used: UsedFactor[]
   const out: string[] = [...STANDARD_CAUTIONS];
   for (const f of used) {
     if (f.status === 'unconfirmed')
-      out.push(`Unconfirmed value used: ${f.key} = ${fmt(f.value)} ${f.unit} (${f.source.table}) has not been checked against the published table; fine for exploration, not for a signed assessment.`);
+      out.push(`Unconfirmed value used: ${f.key} = ${fmt(f.value)} ${f.unit} (${f.source.chapter ? `${f.source.chapter}, ` : ""}${f.source.table}) has not been checked against the published table; fine for exploration, not for a signed assessment.`);
   }
   if (plan.organic)
     out.push(`Organic soil (${fmt(plan.organic.fraction * 100)}% of the area): counted with drained-organic-soil emission factors (t C/ha for each year drained), assuming the land is drained under both the current and the proposed use, over the ${req.transitionYears}-year horizon; emissions continue for as long as it stays drained. If the land is not drained today the emission is understated. N2O from drained organic soils (EF2) is not counted: Tier 1 gives cropland and grassland the same EF2.`);
