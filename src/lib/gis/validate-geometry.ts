@@ -31,7 +31,8 @@ function cleanVertices(open: Ring): { ring: Ring; repeated: boolean; spikes: boo
   let repeated = false;
   let spikes = false;
   const out: Ring = [];
-  for (const p of open) {
+  const body = isRingClosed(open) ? open.slice(0, -1) : open;
+  for (const p of body) {
     const position = [p[0]!, p[1]!];
     if (out.length > 0 && same(out[out.length - 1]!, position)) {
       repeated = true;
@@ -64,6 +65,16 @@ function checkPolygon(rings: Ring[], part: string, issues: ValidationIssue[]): R
     }
     cleaned.push(closeRing(open));
   }
+  const crossing = findSelfIntersection(cleaned);
+  if (crossing) {
+    issues.push({ code: 'self-intersection', message: `The boundary crosses or touches itself near ${fmt(crossing)} (lon, lat).`, severity: 'error' });
+    return null;
+  }
+  const strayHole = cleaned.slice(1).findIndex((hole) => !pointInRing(hole[0]!, cleaned[0]!));
+  if (strayHole >= 0) {
+    issues.push({ code: 'hole-outside', message: `Hole ${strayHole + 1} lies outside the outer ring.`, severity: 'error' });
+    return null;
+  }
   if (!isPolygonWoundRfc7946(cleaned)) {
     issues.push({
       code: 'ring-orientation',
@@ -71,18 +82,7 @@ function checkPolygon(rings: Ring[], part: string, issues: ValidationIssue[]): R
       severity: 'repaired',
     });
   }
-  const wound = rewindPolygon(cleaned);
-  const crossing = findSelfIntersection(wound);
-  if (crossing) {
-    issues.push({ code: 'self-intersection', message: `The boundary crosses or touches itself near ${fmt(crossing)} (lon, lat).`, severity: 'error' });
-    return null;
-  }
-  const strayHole = wound.slice(1).findIndex((hole) => !pointInRing(hole[0]!, wound[0]!));
-  if (strayHole >= 0) {
-    issues.push({ code: 'hole-outside', message: `Hole ${strayHole + 1} lies outside the outer ring.`, severity: 'error' });
-    return null;
-  }
-  return wound;
+  return rewindPolygon(cleaned);
 }
 
 /** Checks and normalises a geometry to a MultiPolygon; returns null geometry on any error. */
