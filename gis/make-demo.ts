@@ -5,7 +5,7 @@
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { deflateRawSync } from 'node:zlib';
-import type { Feature } from 'geojson';
+import type { Feature, Polygon } from 'geojson';
 import { crsFromEpsg } from '../src/lib/gis/crs-catalogue.server';
 import { reproject, type CrsDefinition } from '../src/lib/gis/crs';
 import { writePolygonShapefile } from '../src/lib/gis/export/shapefile-writer';
@@ -57,7 +57,8 @@ function referenceLayers(region: RegionSpec, crs: CrsDefinition) {
 function toGeoJsonFeatures(parcels: DemoParcel[], crs: CrsDefinition): Feature[] {
   return parcels.map((p) => {
     const g = p.geometry ? reproject(p.geometry, crs) : null;
-    return { type: 'Feature', properties: p.properties, geometry: g && { type: 'Polygon', coordinates: g.coordinates.map((r) => r.map((q) => q.map(round7))) } };
+    const geometry: Polygon | null = g && { type: 'Polygon', coordinates: g.coordinates.map((r) => r.map((q) => q.map(round7))) };
+    return { type: 'Feature', properties: p.properties, geometry } as Feature;
   });
 }
 
