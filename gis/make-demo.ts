@@ -14,7 +14,7 @@ import { DEMO_AS_OF, PARCEL_FIELDS } from './lib/attributes';
 import { addDefects, buildParcels, regionOrigin, type DemoParcel } from './lib/demo-parcels';
 import { boxFeatures, collection } from './lib/layers';
 import { seededRandom } from './lib/random';
-import { CORROWMERE, TAMARAU, type RegionSpec } from './lib/regions';
+import { CORROWMERE, VELOMARI, type RegionSpec } from './lib/regions';
 
 const OUT = new URL('./demo/', import.meta.url);
 const SEED = 20_250_630;
@@ -65,21 +65,21 @@ function toGeoJsonFeatures(parcels: DemoParcel[], crs: CrsDefinition): Feature[]
 async function main(): Promise<void> {
   mkdirSync(OUT, { recursive: true });
   const coolCrs = await crsFromEpsg(CORROWMERE.epsg);
-  const tropCrs = await crsFromEpsg(TAMARAU.epsg);
+  const tropCrs = await crsFromEpsg(VELOMARI.epsg);
   const cool = buildParcels(CORROWMERE, coolCrs, seededRandom(SEED), 'CM', 40);
   const coolDefects = addDefects(cool, 'CM', [5, 12, 44, 63, 88, 101, 137, 170, 205, 233, 260, 288]);
-  const trop = buildParcels(TAMARAU, tropCrs, seededRandom(SEED + 1), 'TM', 12);
-  const tropDefects = addDefects(trop, 'TM', [7, 22]);
+  const trop = buildParcels(VELOMARI, tropCrs, seededRandom(SEED + 1), 'VM', 12);
+  const tropDefects = addDefects(trop, 'VM', [7, 22]);
   // One GeoJSON parcel wound clockwise, which the validation report repairs (RFC 7946 §3.1.6).
   trop[15]!.geometry!.coordinates[0]!.reverse();
   tropDefects.push({ field_ref: String(trop[15]!.properties.field_ref), defect: 'outer ring clockwise (ring-orientation, repaired)' });
 
   write('corrowmere-parcels-utm28n.zip', shapefileZip(cool, 'corrowmere_parcels', prjWkt(CORROWMERE.epsg)));
   write('corrowmere-parcels-noprj.zip', shapefileZip(cool, 'corrowmere_parcels', null));
-  write('tamarau-parcels.geojson', JSON.stringify(collection(toGeoJsonFeatures(trop, tropCrs))));
+  write('velomari-parcels.geojson', JSON.stringify(collection(toGeoJsonFeatures(trop, tropCrs))));
 
   const a = referenceLayers(CORROWMERE, coolCrs);
-  const b = referenceLayers(TAMARAU, tropCrs);
+  const b = referenceLayers(VELOMARI, tropCrs);
   const layers = {
     'climate-regions.geojson': [...a.climate, ...b.climate],
     'soil-units.geojson': [...a.soil, ...b.soil],
@@ -95,7 +95,7 @@ async function main(): Promise<void> {
     parcels: [
       { file: 'corrowmere-parcels-utm28n.zip', layer: 'corrowmere_parcels', crs: 'EPSG:32628', features: cool.length, defects: coolDefects },
       { file: 'corrowmere-parcels-noprj.zip', layer: 'corrowmere_parcels', crs: 'none (.prj omitted; coordinates are EPSG:32628)', features: cool.length },
-      { file: 'tamarau-parcels.geojson', crs: 'EPSG:4326', features: trop.length, defects: tropDefects },
+      { file: 'velomari-parcels.geojson', crs: 'EPSG:4326', features: trop.length, defects: tropDefects },
     ],
     layers: Object.fromEntries(Object.entries(layers).map(([n, f]) => [n, { features: f.length, classes: [...new Set(f.map((x) => x.properties?.class))] }])),
   };

@@ -7,8 +7,8 @@ import type { Random } from './random';
  * codes. No real people, holdings or places.
  */
 const NAME_FIRST = ['Lower', 'Upper', 'Long', 'Broad', 'Old', 'Far', 'Near', 'Little', 'Great', 'West', 'East'];
-const NAME_SECOND = ['Fenmoor', 'Ashlea', 'Ríoghbrook', 'Haldene', 'Skarrow', 'Émbury Lea', 'Corrow Field', 'Tollin', 'Brackwater', 'Søndholm', 'Quarrel Hill', 'Mireside'];
-const TROPICAL_NAMES = ['Kebun Aru', 'Lembah Tiri', 'Padang Sura', 'Tanah Meru', 'Ladang Wai', 'Bukit Roa'];
+const NAME_SECOND = ['Fenmoor', 'Ashrindle', 'Ríoghbrook', 'Haldrennow', 'Skarrowen', 'Émbrenlea', 'Corrow Field', 'Tollivane', 'Brackwater', 'Søvrinholt', 'Quarrelby', 'Mireside'];
+const TROPICAL_NAMES = ['Keluvo Ridge', 'Tembiri Flats', 'Orapesi Slope', 'Lunavai Field', 'Marutesa Plot', 'Ivolani Bench'];
 
 /** Reference date for generated dates (fixed, so output never depends on the clock). */
 export const DEMO_AS_OF = '2025-06-30';

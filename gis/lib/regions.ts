@@ -52,16 +52,16 @@ export const CORROWMERE: RegionSpec = {
       ['steep', [[-1000, 2400, 2600, 4150]]],
     ],
     sensitive: [
-      { name: 'Skarrow Head grassland', code: 'SG-01', box: [300, 2300, 1300, 3400] },
+      { name: 'Skarrowen Head grassland', code: 'SG-01', box: [300, 2300, 1300, 3400] },
       { name: 'Fenbrook meadows', code: 'SG-02', box: [3500, 200, 4300, 900] },
     ],
     neverTilled: [[200, 2200, 1500, 3300]],
   },
 };
 
-export const TAMARAU: RegionSpec = {
-  key: 'tamarau',
-  label: 'Tamarau (invented island, tropical moist)',
+export const VELOMARI: RegionSpec = {
+  key: 'velomari',
+  label: 'Velomari (invented island, tropical moist)',
   epsg: 32747,
   originLonLat: [96.3, -7.8],
   cols: 8,
@@ -81,7 +81,7 @@ export const TAMARAU: RegionSpec = {
       ['moderate', [[-500, 350, 900, 1250]]],
       ['steep', [[900, 350, 1940, 1250]]],
     ],
-    sensitive: [{ name: 'Lembah Tiri grassland', code: 'SG-11', box: [100, 400, 500, 800] }],
+    sensitive: [{ name: 'Tembiri grassland', code: 'SG-11', box: [100, 400, 500, 800] }],
     neverTilled: [[1000, 450, 1400, 800]],
   },
 };

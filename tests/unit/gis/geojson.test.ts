@@ -54,7 +54,7 @@ describe('parseGeoJson (RFC 7946)', () => {
   });
 
   it('reads the committed tropical demo parcels', () => {
-    const text = readFileSync(new URL('../../../gis/demo/tamarau-parcels.geojson', import.meta.url), 'utf8');
+    const text = readFileSync(new URL('../../../gis/demo/velomari-parcels.geojson', import.meta.url), 'utf8');
     const layer = parseGeoJson(text);
     expect(layer.features).toHaveLength(40);
     expect(layer.columns.map((c) => c.name)).toEqual(['field_ref', 'name', 'land_use', 'management', 'last_till', 'owner_ref', 'stated_ha']);
