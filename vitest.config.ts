@@ -8,6 +8,8 @@ const alias = { '~': fileURLToPath(new URL('./src', import.meta.url)) };
 export default defineConfig({
   resolve: { alias },
   test: {
+    // Integration files share one server and database; run files one after another.
+    fileParallelism: false,
     projects: [
       { resolve: { alias }, test: { name: 'unit', environment: 'node', include: ['tests/unit/**/*.test.ts'] } },
       {
@@ -17,7 +19,6 @@ export default defineConfig({
           environment: 'node',
           include: ['tests/api/**/*.test.ts', 'tests/db/**/*.test.ts', 'tests/e2e/**/*.test.ts'],
           globalSetup: ['tests/global-setup.ts'],
-          fileParallelism: false,
           testTimeout: 60_000,
           hookTimeout: 120_000,
         },

@@ -104,7 +104,7 @@ async function start(): Promise<void> {
   const opts = `-c listen_addresses=127.0.0.1 -c port=${port} -c unix_socket_directories='' -c max_connections=200${fast}`;
   const started = run(pgBin('pg_ctl'), ['start', '-D', pgdata, '-l', log, '-w', '-t', '60', '-o', opts], { ...ids, cwd: base });
   if (started.status !== 0) {
-    const tail = existsSync(log) ? readFileSync(log, 'utf8').split('\n').slice(-15).join('\n') : '';
+    const tail = existsSync(log) ? String(readFileSync(log, 'utf8')).split('\n').slice(-15).join('\n') : '';
     fail(`PostgreSQL did not start (see ${log}):\n${tail}`);
   }
   console.log(`db: PostgreSQL running on 127.0.0.1:${port}`);
@@ -151,7 +151,7 @@ async function main(): Promise<void> {
   if (cmd === 'stop') {
     if (!isRunning(pgdata, ids)) return console.log('db: not running');
     const r = run(pgBin('pg_ctl'), ['stop', '-D', pgdata, '-m', 'fast', '-w'], { ...ids });
-    if (r.status !== 0) fail(r.stderr);
+    if (r.status !== 0) fail(String(r.stderr));
     return console.log('db: stopped');
   }
   if (cmd === 'status') return console.log(isRunning(pgdata, ids) ? `db: running on 127.0.0.1:${port}` : 'db: stopped');

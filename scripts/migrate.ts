@@ -5,10 +5,18 @@ import config from '../knexfile';
 const knex = knexFactory(config);
 const [cmd = 'latest', name] = process.argv.slice(2);
 
+/** Reference data that ships with the code (the IPCC factor sets) follows the schema. */
+async function syncReferenceData(): Promise<void> {
+  const { syncShippedSets } = await import('../src/lib/services/factor-sets');
+  const added = await syncShippedSets(knex);
+  if (added.length) console.log(`migrate: shipped factor sets added: ${added.join(', ')}`);
+}
+
 try {
   if (cmd === 'latest') {
     const [batch, files] = await knex.migrate.latest();
     console.log(files.length ? `migrate: batch ${batch}, ${files.length} migration(s)` : 'migrate: up to date');
+    await syncReferenceData();
   } else if (cmd === 'rollback') {
     const [, files] = await knex.migrate.rollback();
     console.log(`migrate: rolled back ${files.length}`);
@@ -18,6 +26,7 @@ try {
     await knex.raw('drop schema public cascade; create schema public');
     const [, files] = await knex.migrate.latest();
     console.log(`migrate: reset, ${files.length} migration(s)`);
+    await syncReferenceData();
   } else if (cmd === 'status') {
     const [done, pending] = await knex.migrate.list();
     console.log(`migrate: ${done.length} applied, ${pending.length} pending`);
@@ -31,4 +40,6 @@ try {
   process.exitCode = 1;
 } finally {
   await knex.destroy();
+  const { db } = await import('../src/lib/db/client');
+  await db.destroy();
 }

@@ -4,6 +4,8 @@
  */
 import type { ApiSpec } from '../http/spec';
 import * as admin from './admin';
+import * as estimates from './estimates';
+import * as factorSets from './factor-sets';
 import * as users from './users';
 
 export const allSpecs: ApiSpec[] = [
@@ -17,4 +19,14 @@ export const allSpecs: ApiSpec[] = [
   users.acceptInvitation,
   admin.listAudit,
   admin.listCapturedMail,
+  estimates.createEstimate,
+  factorSets.listFactorSets,
+  factorSets.getFactorSet,
+  factorSets.diffFactorSets,
+  factorSets.cloneFactorSet,
+  factorSets.startDraft,
+  factorSets.editDraft,
+  factorSets.publishDraft,
+  factorSets.confirmTable,
+  factorSets.putDefaultSet,
 ];

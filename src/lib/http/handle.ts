@@ -9,7 +9,8 @@ import { hasAnyRole, type Role } from '../auth/roles';
 import { errorResponse, HttpError, json, type Issue } from './errors';
 import type { ApiSpec } from './spec';
 
-type Infer<T> = T extends z.ZodType ? z.output<T> : undefined;
+// Optional spec fields read as `Schema | undefined`: infer from the schema when there is one.
+type Infer<T> = [Exclude<T, undefined>] extends [never] ? undefined : Exclude<T, undefined> extends z.ZodType ? z.output<Exclude<T, undefined>> : undefined;
 
 export type Caller = { id: string; name: string; email: string; roles: Role[] };
 

@@ -1,11 +1,11 @@
 /** SMTP transport (server-only): the local fake in development and tests, a real relay in production. */
-import nodemailer from 'nodemailer';
+import nodemailer, { type Transporter } from 'nodemailer';
 import { config } from '../config';
 import type { OutgoingMail } from './outbox';
 
-let transport: nodemailer.Transporter | null = null;
+let transport: Transporter | null = null;
 
-function getTransport(): nodemailer.Transporter {
+function getTransport(): Transporter {
   const c = config();
   transport ??= nodemailer.createTransport({
     host: c.SMTP_HOST,
