@@ -10,6 +10,8 @@ const extraHosts = (process.env.PUBLIC_HOSTNAMES ?? '').split(',').map((h) => h.
 
 export default defineConfig({
   output: 'server',
+  // A second build folder lets two people test different builds on one machine (see DEVELOPERS.md).
+  outDir: process.env.SWARDKEEP_DIST ?? './dist',
   adapter: node({ mode: 'standalone' }),
   integrations: [react()],
   security: {
@@ -19,6 +21,15 @@ export default defineConfig({
   server: { host: '127.0.0.1', port: 4321 },
   vite: {
     plugins: [tailwindcss()],
-    server: { strictPort: true, watch: { ignored: ['**/.data/**', '**/screenshots/**'] } },
+    server: { strictPort: true, watch: { ignored: ['**/.data/**', '**/screenshots/**', '**/dist*/**'] } },
+    build: {
+      rollupOptions: {
+        // zod 4 ships comments rollup cannot place; harmless, and they bury real warnings.
+        onwarn(warning, warn) {
+          if (warning.message.includes('contains an annotation that Rollup cannot interpret')) return;
+          warn(warning);
+        },
+      },
+    },
   },
 });

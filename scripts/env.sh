@@ -20,12 +20,12 @@ require_port() {
 
 # Rebuild only when a source file is newer than the last build.
 build_if_stale() {
-  if [ -f dist/.build-stamp ] && [ -z "$(find src public astro.config.mjs package-lock.json -newer dist/.build-stamp -print -quit)" ]; then
+  if [ -f "${SWARDKEEP_DIST:-dist}/.build-stamp" ] && [ -z "$(find src public astro.config.mjs package-lock.json -newer "${SWARDKEEP_DIST:-dist}/.build-stamp" -print -quit)" ]; then
     return 0
   fi
   echo "setup: building the app"
   npx astro build --silent
-  touch dist/.build-stamp
+  touch "${SWARDKEEP_DIST:-dist}/.build-stamp"
 }
 
 wait_http() { # url pid

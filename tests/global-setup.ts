@@ -4,21 +4,21 @@
  */
 import { execFileSync, type ChildProcess } from 'node:child_process';
 import { existsSync, mkdirSync } from 'node:fs';
-import { appEnv, APP_PORT, SMTP_PORT } from './support/env';
+import { appEnv, APP_PORT, DIST, SMTP_PORT, TEST_DATABASE_NAME } from './support/env';
 import { startAppInstance, startProcess, stopProcess, waitForPort } from './support/processes';
 
 let app: ChildProcess | undefined;
 let mail: ChildProcess | undefined;
 
 export async function setup(): Promise<void> {
-  if (!existsSync('dist/server/entry.mjs')) throw new Error('Build the app first (npm test does: astro build).');
+  if (!existsSync(`${DIST}/server/entry.mjs`)) throw new Error('Build the app first (npm test does: astro build).');
   mkdirSync('.data', { recursive: true });
   const env = appEnv();
-  const run = (script: string, ...args: string[]) => execFileSync(process.execPath, ['--import', 'tsx', script, ...args], { stdio: 'inherit', env: { ...env, SWARDKEEP_DATABASES: 'swardkeep,swardkeep_test' } });
+  const run = (script: string, ...args: string[]) => execFileSync(process.execPath, ['--import', 'tsx', script, ...args], { stdio: 'inherit', env: { ...env, SWARDKEEP_DATABASES: `swardkeep,${TEST_DATABASE_NAME}` } });
   run('scripts/db.ts', 'start');
   run('scripts/migrate.ts', 'reset');
   run('scripts/seed.ts');
-  mail = startProcess(['--import', 'tsx', 'scripts/mail-fake.ts'], env, '.data/test-mail.log');
+  mail = startProcess(['--import', 'tsx', 'scripts/mail-fake.ts'], env, `.data/test-mail-${SMTP_PORT}.log`);
   await waitForPort(SMTP_PORT, mail);
   app = await startAppInstance(env, APP_PORT);
 }

@@ -4,11 +4,11 @@
  */
 import type { ChildProcess } from 'node:child_process';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { appEnv, BASE_URL } from '../support/env';
+import { appEnv, BASE_URL, SECOND_APP_PORT } from '../support/env';
 import { api, DEMO, signIn } from '../support/http';
 import { startAppInstance, stopProcess } from '../support/processes';
 
-const SECOND_PORT = 4392;
+const SECOND_PORT = SECOND_APP_PORT;
 const SECOND = `http://127.0.0.1:${SECOND_PORT}`;
 let second: ChildProcess;
 

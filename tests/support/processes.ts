@@ -2,6 +2,7 @@
 import { spawn, type ChildProcess } from 'node:child_process';
 import { openSync } from 'node:fs';
 import net from 'node:net';
+import { DIST } from './env';
 
 export async function waitForHttp(url: string, child: ChildProcess, timeoutMs = 30_000): Promise<void> {
   const deadline = Date.now() + timeoutMs;
@@ -32,7 +33,7 @@ export async function stopProcess(child: ChildProcess | undefined): Promise<void
 
 /** Starts one more app instance on `port` against the test database (multi-instance tests). */
 export async function startAppInstance(env: NodeJS.ProcessEnv, port: number): Promise<ChildProcess> {
-  const child = startProcess(['dist/server/entry.mjs'], env, `.data/test-app-${port}.log`);
+  const child = startProcess([`${DIST}/server/entry.mjs`], env, `.data/test-app-${port}.log`);
   await waitForHttp(`http://127.0.0.1:${port}/api/health`, child);
   return child;
 }
