@@ -90,7 +90,7 @@ export const editDraft = defineSpec({
   body: z.object({
     tableKey: z.string().min(1),
     entryKey: z.string().min(1),
-    value: z.number().finite().nonnegative('Factor values are never negative.'),
+    value: z.number().nonnegative('Factor values are never negative.'),
     uncertainty: uncertaintySchema.optional(),
     reason: z.string().trim().min(10, 'Give the reason and source of the new value (at least 10 characters).').max(2000),
   }),
