@@ -1,0 +1,68 @@
+/** An admin invites someone through the pages; the invitee opens the mailed link, sets a password and signs in. */
+import type { Browser } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { BASE_URL } from '../support/env';
+import { launchBrowser, screenshotBoth, signInThroughForm, watchPage } from '../support/browser';
+import { linkIn, testDb, waitForMail } from '../support/db';
+import { DEMO, DEMO_PASSWORD } from '../support/http';
+
+let browser: Browser;
+beforeAll(async () => {
+  browser = await launchBrowser();
+});
+afterAll(async () => {
+  await browser?.close();
+  await testDb.destroy();
+});
+
+describe('invitation through the pages', () => {
+  const email = `wren.${Date.now()}@tarrow.example`;
+
+  it('admin invites; invitee sets a password from the mailed link and signs in', async () => {
+    const admin = await browser.newContext();
+    const page = await admin.newPage();
+    await signInThroughForm(page, DEMO.admin, DEMO_PASSWORD);
+    await page.goto(`${BASE_URL}/admin/users`);
+    await page.getByLabel('Name').fill('Wren Holloway');
+    await page.getByLabel('E-mail address').fill(email);
+    await page.getByRole('checkbox', { name: 'Assessor' }).first().check();
+    await page.getByRole('button', { name: 'Send invitation' }).click();
+    await page.getByText(`Invitation sent to ${email}.`).waitFor();
+
+    const mail = await waitForMail(email, /Swardkeep account/);
+    await page.goto(`${BASE_URL}/admin/mail`);
+    await page.getByText('Your Swardkeep account').first().waitFor();
+    await admin.close();
+
+    const invitee = await browser.newContext();
+    const p2 = await invitee.newPage();
+    const seen = watchPage(p2);
+    await p2.goto(linkIn(mail.body_text));
+    await screenshotBoth(p2, 'welcome-set-password');
+    await p2.getByLabel('New password').fill('short');
+    await p2.getByLabel('The same password again').fill('short');
+    await p2.getByRole('button', { name: 'Set password' }).click();
+    await p2.getByText('Use at least 10 characters.').waitFor();
+    await p2.getByLabel('New password').fill('curlew over the fen');
+    await p2.getByLabel('The same password again').fill('curlew over the fen');
+    await p2.getByRole('button', { name: 'Set password' }).click();
+    await p2.getByText('Your password is set.').waitFor();
+    await signInThroughForm(p2, email, 'curlew over the fen');
+    await expect(p2.locator('h1').textContent()).resolves.toBe('Assessment desk');
+    expect(seen.errors).toEqual([]);
+    await invitee.close();
+  });
+
+  it('the forgotten-password page answers the same for any address', async () => {
+    const context = await browser.newContext();
+    const page = await context.newPage();
+    await page.goto(`${BASE_URL}/forgot-password`);
+    await page.getByLabel('E-mail address').fill('nobody@tarrow.example');
+    await page.getByRole('button', { name: 'Send reset link' }).click();
+    await page.getByText('If an account uses that address').waitFor();
+    await screenshotBoth(page, 'forgot-password-sent');
+    await page.goto(`${BASE_URL}/reset-password?error=INVALID_TOKEN`);
+    await expect(page.getByRole('alert').textContent()).resolves.toMatch(/not valid any more/);
+    await context.close();
+  });
+});
