@@ -21,7 +21,8 @@ export const onRequest = defineMiddleware(async (ctx, next) => {
   }
   const response = await next();
   try {
-    if (ctx.url.pathname.startsWith('/api/') || ctx.locals.user) response.headers.set('cache-control', 'no-store');
+    // Routes that set their own caching (vector tiles: private, ETag by data version) keep it.
+    if ((ctx.url.pathname.startsWith('/api/') || ctx.locals.user) && !response.headers.has('cache-control')) response.headers.set('cache-control', 'no-store');
     response.headers.set('x-content-type-options', 'nosniff');
     response.headers.set('referrer-policy', 'same-origin');
   } catch {

@@ -6,6 +6,8 @@ import type { ApiSpec } from '../http/spec';
 import * as admin from './admin';
 import * as estimates from './estimates';
 import * as factorSets from './factor-sets';
+import * as parcels from './parcels';
+import * as uploads from './uploads';
 import * as users from './users';
 
 export const allSpecs: ApiSpec[] = [
@@ -29,4 +31,18 @@ export const allSpecs: ApiSpec[] = [
   factorSets.publishDraft,
   factorSets.confirmTable,
   factorSets.putDefaultSet,
+  uploads.stageUpload,
+  uploads.validateUpload,
+  uploads.saveUpload,
+  uploads.cancelUpload,
+  uploads.searchCrs,
+  parcels.getParcel,
+  parcels.drawParcel,
+  parcels.editBoundary,
+  parcels.recordEvent,
+  parcels.parcelsForSnapping,
+  parcels.mapConfig,
+  parcels.tile,
+  parcels.listReferenceLayers,
+  parcels.publishReferenceLayer,
 ];

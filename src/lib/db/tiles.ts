@@ -1,0 +1,28 @@
+/** Mapbox Vector Tiles straight from PostGIS (ST_AsMVT): parcels and the current reference layers. */
+import type { Db } from './client';
+
+/** Below this zoom a tile would hold thousands of parcels; they are left out (the map says so). */
+export const PARCEL_MIN_ZOOM = 12;
+
+/**
+ * One tile with two layers: "parcels" (id, reference, land_use, area_ha; never the owner) from
+ * PARCEL_MIN_ZOOM, and "reference" (kind, class, label) at every zoom. Empty tile → 0 bytes.
+ */
+export async function renderTile(db: Db, z: number, x: number, y: number): Promise<Uint8Array> {
+  const r = await db.raw(
+    `with b as (select st_tileenvelope(?, ?, ?) as env),
+     cur as (select distinct on (kind) id, kind from reference_layer_version where status = 'published' order by kind, version desc),
+     parcels as (
+       select st_asmvtgeom(p.geom_3857, b.env, 4096, 64, true) as geom, p.id, p.reference, p.land_use, round(p.area_ha::numeric, 2)::float8 as area_ha
+       from parcel p, b where ? and p.geom_3857 && b.env
+     ),
+     refs as (
+       select st_asmvtgeom(f.geom_3857, b.env, 4096, 64, true) as geom, cur.kind, f.class, f.label
+       from cur join reference_feature f on f.version_id = cur.id, b where f.geom_3857 && b.env
+     )
+     select coalesce((select st_asmvt(parcels.*, 'parcels', 4096, 'geom', 'id') from parcels where geom is not null), ''::bytea)
+         || coalesce((select st_asmvt(refs.*, 'reference', 4096, 'geom') from refs where geom is not null), ''::bytea) as tile`,
+    [z, x, y, z >= PARCEL_MIN_ZOOM],
+  );
+  return new Uint8Array(r.rows[0].tile);
+}

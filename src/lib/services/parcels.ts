@@ -1,0 +1,118 @@
+/** Parcel use cases: detail for the side panel, drawing a new parcel, editing a boundary, recording history. */
+import type { Geometry, MultiPolygon } from 'geojson';
+import { hasAnyRole } from '../auth/roles';
+import { recordAudit } from '../db/audit';
+import { db, withTransaction, type Db } from '../db/client';
+import { getGisSettings } from '../db/gis-settings';
+import { computeOverlay, overlayOfParcel } from '../db/overlay';
+import * as parcels from '../db/parcels';
+import { currentVersions } from '../db/reference-layers';
+import { deriveLandUseFlags, type LandUseEvent } from '../gis/land-use-history';
+import { summariseOverlay } from '../gis/overlay-summary';
+import { validateFeatures } from '../gis/validate';
+import { HttpError } from '../http/errors';
+import type { Caller } from '../http/handle';
+import { validationOptions } from './upload-validate';
+
+const today = () => new Date().toISOString().slice(0, 10);
+
+export async function parcelDetail(by: Caller, id: number) {
+  const p = await parcels.getParcel(db, id);
+  if (!p) throw new HttpError('NOT_FOUND', `No parcel with id ${id}.`);
+  const [events, overlay, settings] = await Promise.all([parcels.listEvents(db, id), overlayOfParcel(db, id), getGisSettings(db)]);
+  const asOf = today();
+  const flags = deriveLandUseFlags(
+    events.map((e): LandUseEvent => ({ date: e.event_date, kind: e.kind, value: e.value, cultivation: e.cultivation })),
+    {
+      asOf,
+      permanentGrasslandYears: settings['land-use.permanent-grassland-years'],
+      uncultivatedYears: settings['land-use.uncultivated-years'],
+      tillageEndsGrassland: settings['land-use.tillage-ends-grassland'],
+    },
+  );
+  const seesOwner = hasAnyRole(by.roles, ['planner', 'admin']);
+  return {
+    id: p.id,
+    reference: p.reference,
+    name: p.name,
+    areaHa: p.area_ha,
+    statedAreaHa: p.stated_area_ha,
+    landUse: p.land_use,
+    management: p.management,
+    ownerRef: seesOwner ? p.owner_ref : null,
+    geometry: p.geometry,
+    version: p.version,
+    source: p.batch_id ? { kind: 'upload' as const, fileName: p.batch_file_name, savedAt: p.batch_saved_at?.toISOString() ?? null } : { kind: 'drawn' as const, fileName: null, savedAt: p.created_at.toISOString() },
+    flags: { asOf, ...flags },
+    overlay: summariseOverlay(overlay),
+    history: events.map((e) => ({ id: e.id, date: e.event_date, kind: e.kind, value: e.value, cultivation: e.cultivation, evidence: e.evidence, recordedBy: e.recorded_by_name, recordedAt: e.recorded_at.toISOString() })),
+    proposals: [] as { id: string; title: string; status: string }[],
+  };
+}
+
+/** Same checks as an upload (pure validation + register duplicates); returns the normalised geometry. */
+async function checkBoundary(trx: Db, geometry: Geometry, reference: string, exceptId?: number): Promise<MultiPolygon> {
+  const settings = await getGisSettings(trx);
+  const report = validateFeatures([{ geometry, reference }], validationOptions(settings, null, 'parcels'));
+  const f = report.features[0]!;
+  const errors = f.issues.filter((i) => i.severity === 'error');
+  if (f.status === 'rejected' || !f.geometry) {
+    throw new HttpError('UNPROCESSABLE_CONTENT', `The boundary is not valid: ${errors.map((e) => e.message).join(' ')}`, errors.map((e) => ({ path: ['geometry'], message: e.message })));
+  }
+  const twin = await parcels.sameBoundary(trx, f.geometry, exceptId);
+  if (twin) throw new HttpError('CONFLICT', `Parcel ${twin} already has exactly this boundary.`);
+  return f.geometry;
+}
+
+async function overlayAndBump(trx: Db, parcelId: number): Promise<void> {
+  await computeOverlay(trx, { parcelIds: [parcelId] }, (await currentVersions(trx)).map((v) => v.id));
+  await parcels.bumpMapVersion(trx);
+}
+
+export async function drawParcel(by: Caller, input: { reference: string; name?: string; geometry: Geometry; landUse?: string; management?: string; evidence: string }) {
+  return withTransaction(db, async (trx) => {
+    if (await parcels.referenceTaken(trx, input.reference)) throw new HttpError('CONFLICT', `Parcel reference "${input.reference}" is already in the register.`);
+    const geometry = await checkBoundary(trx, input.geometry, input.reference);
+    const id = await parcels.insertDrawnParcel(trx, { reference: input.reference, name: input.name ?? null, geometry, by: by.id });
+    for (const [kind, value] of [['land-use', input.landUse], ['management', input.management]] as const) {
+      if (value) await parcels.insertEvent(trx, { parcelId: id, date: today(), kind, value: value.toLowerCase(), cultivation: false, evidence: input.evidence, by: by.id });
+    }
+    await parcels.refreshCurrentState(trx, id, by.id);
+    await overlayAndBump(trx, id);
+    await recordAudit(trx, { actorId: by.id, action: 'parcel.draw', entityType: 'parcel', entityId: String(id), details: { reference: input.reference } });
+    return { id };
+  });
+}
+
+export async function editBoundary(by: Caller, id: number, input: { geometry: Geometry; version: number; reason: string }) {
+  return withTransaction(db, async (trx) => {
+    const before = await parcels.getParcel(trx, id);
+    if (!before) throw new HttpError('NOT_FOUND', `No parcel with id ${id}.`);
+    if (before.version !== input.version) throw new HttpError('CONFLICT', `Parcel ${before.reference} was changed by someone else (version ${before.version}, you edited ${input.version}); reload it.`);
+    const geometry = await checkBoundary(trx, input.geometry, before.reference, id);
+    await parcels.updateBoundary(trx, id, geometry, by.id);
+    await overlayAndBump(trx, id);
+    const after = await parcels.getParcel(trx, id);
+    await recordAudit(trx, {
+      actorId: by.id,
+      action: 'parcel.edit-boundary',
+      entityType: 'parcel',
+      entityId: String(id),
+      details: { reference: before.reference, reason: input.reason, areaHaBefore: before.area_ha, areaHaAfter: after!.area_ha, geometryBefore: before.geometry },
+    });
+    return { id, version: after!.version, areaHa: after!.area_ha };
+  });
+}
+
+export async function recordEvent(by: Caller, id: number, e: { date: string; kind: LandUseEvent['kind']; value?: string; cultivation: boolean; evidence: string }) {
+  if (e.date > today()) throw new HttpError('UNPROCESSABLE_CONTENT', 'The event date lies in the future.', [{ path: ['date'], message: 'future date' }]);
+  return withTransaction(db, async (trx) => {
+    const p = await parcels.getParcel(trx, id);
+    if (!p) throw new HttpError('NOT_FOUND', `No parcel with id ${id}.`);
+    const eventId = await parcels.insertEvent(trx, { parcelId: id, date: e.date, kind: e.kind, value: e.value?.trim().toLowerCase() || null, cultivation: e.cultivation, evidence: e.evidence, by: by.id });
+    await parcels.refreshCurrentState(trx, id, by.id);
+    await parcels.bumpMapVersion(trx);
+    await recordAudit(trx, { actorId: by.id, action: 'parcel.record-event', entityType: 'parcel', entityId: String(id), details: { eventId, ...e } });
+    return { id: eventId };
+  });
+}

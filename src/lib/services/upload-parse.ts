@@ -1,0 +1,107 @@
+/**
+ * Reading an uploaded file (zipped shapefile or GeoJSON) into layers, with the authority's
+ * limits, and finding each layer's CRS. Every expected failure becomes a 4xx HttpError whose
+ * message names the file part and the problem.
+ */
+import type { CrsDefinition } from '../gis/crs';
+import { crsFromEpsg, crsFromPrj } from '../gis/crs-catalogue.server';
+import { isGisInputError, type GisInputError } from '../gis/errors';
+import { parseGeoJson } from '../gis/ingest/geojson';
+import { parseShapefileZip } from '../gis/ingest/shapefile-zip';
+import { layerBbox } from '../gis/ingest/to-wgs84';
+import { bboxLooksLikeDegrees } from '../gis/crs';
+import type { GisSettings } from '../gis/settings';
+import type { ColumnInfo, RawFeature } from '../gis/types';
+import { HttpError } from '../http/errors';
+
+export type UploadFormat = 'shapefile-zip' | 'geojson';
+
+export interface ParsedLayer {
+  name: string;
+  features: RawFeature[];
+  columns: ColumnInfo[];
+  geometryType: string;
+  prjWkt: string | null;
+  /** EPSG code a GeoJSON states (4326 unless a legacy "crs" member says otherwise). */
+  geojsonEpsg: number | null;
+}
+
+export interface LayerCrs {
+  crs: CrsDefinition | null;
+  source: 'prj' | 'geojson' | null;
+  /** Why the planner must choose, or a hint; null when the CRS is known. */
+  note: string | null;
+}
+
+const PAYLOAD = new Set(['file-too-large', 'uncompressed-too-large']);
+
+export function gisError(error: GisInputError): HttpError {
+  return new HttpError(PAYLOAD.has(error.code) ? 'PAYLOAD_TOO_LARGE' : 'UNPROCESSABLE_CONTENT', error.message, [{ path: ['file'], message: error.code }]);
+}
+
+/** Zip by magic bytes or name; GeoJSON by name or a leading "{". Anything else is refused. */
+export function detectFormat(fileName: string, bytes: Uint8Array): UploadFormat {
+  const lower = fileName.toLowerCase();
+  if (lower.endsWith('.zip') || (bytes[0] === 0x50 && bytes[1] === 0x4b)) return 'shapefile-zip';
+  let i = bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf ? 3 : 0;
+  while (i < bytes.length && i < 1000 && [0x20, 0x09, 0x0a, 0x0d].includes(bytes[i]!)) i++;
+  if (lower.endsWith('.geojson') || lower.endsWith('.json') || bytes[i] === 0x7b) return 'geojson';
+  throw new HttpError('UNSUPPORTED_MEDIA_TYPE', `"${fileName}" is neither a zipped shapefile (.zip) nor a GeoJSON file (.geojson); upload one of those.`);
+}
+
+export async function parseUpload(bytes: Uint8Array, format: UploadFormat, fileName: string, settings: GisSettings): Promise<ParsedLayer[]> {
+  try {
+    if (format === 'shapefile-zip') {
+      const layers = await parseShapefileZip(bytes, { maxUncompressedBytes: settings['upload.max-uncompressed-bytes'], maxEntries: settings['upload.max-zip-entries'] });
+      return layers.map((l) => ({ name: l.name, features: l.features, columns: l.columns, geometryType: l.shapeType, prjWkt: l.prjWkt, geojsonEpsg: null }));
+    }
+    let text: string;
+    try {
+      text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
+    } catch {
+      throw new HttpError('UNPROCESSABLE_CONTENT', `"${fileName}" is not UTF-8 text; GeoJSON must be UTF-8 (RFC 7946 §1).`, [{ path: ['file'], message: 'unreadable-encoding' }]);
+    }
+    const layer = parseGeoJson(text.replace(/^\uFEFF/, ''), settings['upload.max-bytes']);
+    const types = [...new Set(layer.features.map((f) => f.geometry?.type ?? 'null'))].join(', ');
+    const name = fileName.replace(/\.(geo)?json$/i, '') || 'features';
+    return [{ name, features: layer.features, columns: layer.columns, geometryType: types, prjWkt: null, geojsonEpsg: layer.epsg }];
+  } catch (error) {
+    if (isGisInputError(error)) throw gisError(error);
+    throw error;
+  }
+}
+
+/** The CRS a layer declares, or null with the reason the planner must pick one. */
+export async function detectLayerCrs(layer: ParsedLayer): Promise<LayerCrs> {
+  try {
+    if (layer.geojsonEpsg !== null) return { crs: await crsFromEpsg(layer.geojsonEpsg), source: 'geojson', note: null };
+    if (layer.prjWkt) return { crs: await crsFromPrj(layer.prjWkt), source: 'prj', note: null };
+  } catch (error) {
+    if (!isGisInputError(error)) throw error;
+    return { crs: null, source: null, note: `${error.message} Choose the coordinate reference system by EPSG code.` };
+  }
+  const box = layerBbox(layer.features);
+  const degrees = box !== null && bboxLooksLikeDegrees(box);
+  return {
+    crs: null,
+    source: null,
+    note: degrees
+      ? 'The file has no .prj. Its coordinates look like longitude/latitude, so EPSG:4326 (WGS 84) is likely; confirm it or choose another.'
+      : 'The file has no .prj and its coordinates are not longitude/latitude. Choose its coordinate reference system by EPSG code.',
+  };
+}
+
+/** The CRS to use: the planner's EPSG choice, else the declared one; refuses when neither. */
+export async function resolveCrs(layer: ParsedLayer, epsg: number | undefined): Promise<{ crs: CrsDefinition; source: 'picked' | 'prj' | 'geojson' }> {
+  if (epsg !== undefined) {
+    try {
+      return { crs: await crsFromEpsg(epsg), source: 'picked' };
+    } catch (error) {
+      if (isGisInputError(error)) throw new HttpError('UNPROCESSABLE_CONTENT', error.message, [{ path: ['epsg'], message: error.message }]);
+      throw error;
+    }
+  }
+  const found = await detectLayerCrs(layer);
+  if (!found.crs || !found.source) throw new HttpError('UNPROCESSABLE_CONTENT', found.note ?? 'Choose the coordinate reference system by EPSG code.', [{ path: ['epsg'], message: 'needed' }]);
+  return { crs: found.crs, source: found.source };
+}

@@ -1,0 +1,130 @@
+/**
+ * Step 2 of an upload: the chosen layer, CRS and column mapping → a per-feature validation
+ * report. Reprojects with proj4, validates (pure, src/lib/gis/validate.ts), then in PostGIS
+ * tries ST_MakeValid on self-intersections and rejects duplicates of the register. The staged
+ * features replace any earlier validation of the same upload, in one transaction.
+ */
+import type { Geometry } from 'geojson';
+import { toSquareMetres } from '../gis/area-units';
+import { mapParcelFeature, mappedColumns, mapReferenceFeature, parcelMappingSchema, referenceMappingSchema, type ParcelMapping, type ReferenceMapping } from '../gis/field-mapping';
+import { layerToWgs84 } from '../gis/ingest/to-wgs84';
+import type { GisSettings } from '../gis/settings';
+import type { RawFeature } from '../gis/types';
+import { validateFeatures, type FeatureToValidate, type ValidationIssue } from '../gis/validate';
+import type { CrsDefinition } from '../gis/crs';
+import { db, withTransaction } from '../db/client';
+import { getGisSettings } from '../db/gis-settings';
+import * as uploads from '../db/uploads';
+import { HttpError } from '../http/errors';
+import { zodIssues, type Caller } from '../http/handle';
+import { loadOwnStaging, sourceKey } from './upload-stage';
+import { parseUpload, resolveCrs } from './upload-parse';
+
+export interface ValidationInput {
+  layer: string;
+  epsg?: number;
+  mapping: unknown;
+}
+
+/** Reference layers: 1 m² floor; anything smaller is digitising noise (common practice). */
+const REFERENCE_MIN_AREA_M2 = 1;
+const REPORT_LIMIT = 2000;
+
+function parseMapping(purpose: 'parcels' | 'reference', mapping: unknown): ParcelMapping | ReferenceMapping {
+  const schema = purpose === 'parcels' ? parcelMappingSchema : referenceMappingSchema;
+  const r = schema.safeParse(mapping);
+  if (!r.success) {
+    const issues = zodIssues(r.error).map((i) => ({ ...i, path: ['mapping', ...i.path] }));
+    throw new HttpError('UNPROCESSABLE_CONTENT', `Invalid column mapping (${issues[0]!.path.join('.')}): ${issues[0]!.message}`, issues);
+  }
+  return r.data;
+}
+
+export function validationOptions(settings: GisSettings, crs: CrsDefinition | null, purpose: 'parcels' | 'reference') {
+  return {
+    minAreaM2: purpose === 'parcels' ? settings['validation.min-area-m2'] : REFERENCE_MIN_AREA_M2,
+    toleranceMetresPerPerimeterMetre: settings['validation.area-tolerance-m-per-m'],
+    toleranceCapM2: settings['validation.area-tolerance-cap-m2'],
+    areaMismatch: settings['validation.area-mismatch'],
+    sourceCrs: crs,
+  };
+}
+
+function isSelfIntersectingPolygon(raw: Geometry | null, issues: ValidationIssue[]): boolean {
+  return !!raw && (raw.type === 'Polygon' || raw.type === 'MultiPolygon') && issues.some((i) => i.code === 'self-intersection');
+}
+
+/** Maps and validates reprojected features (pure apart from nothing: no I/O). */
+export function buildStagedFeatures(features: RawFeature[], purpose: 'parcels' | 'reference', mapping: ParcelMapping | ReferenceMapping, options: ReturnType<typeof validationOptions>): uploads.StagedFeature[] {
+  const mapped = features.map((f) => {
+    if ('kind' in mapping) {
+      const r = mapReferenceFeature(f.properties, mapping);
+      return { reference: null, fields: { class: r.cls, label: r.label }, issues: r.issues, stated: null };
+    }
+    const r = mapParcelFeature(f.properties, mapping);
+    const statedAreaHa = r.fields.statedArea ? toSquareMetres(r.fields.statedArea.value, r.fields.statedArea.unit) / 10_000 : null;
+    return { reference: r.reference, fields: { ...r.fields, statedAreaHa }, issues: r.issues, stated: r.fields.statedArea };
+  });
+  const toValidate: FeatureToValidate[] = features.map((f, i) => ({ geometry: f.geometry, reference: purpose === 'parcels' ? mapped[i]!.reference : null, statedArea: mapped[i]!.stated }));
+  const report = validateFeatures(toValidate, options);
+  return report.features.map((r, i) => {
+    const issues = [...mapped[i]!.issues, ...r.issues];
+    const rejected = issues.some((x) => x.severity === 'error');
+    const status = rejected ? 'rejected' : r.status;
+    const raw = features[i]!.geometry;
+    return {
+      idx: i,
+      status,
+      reference: mapped[i]!.reference,
+      issues,
+      fields: mapped[i]!.fields,
+      geom: rejected ? null : r.geometry,
+      rawGeom: rejected && isSelfIntersectingPolygon(raw, r.issues) ? raw : null,
+    };
+  });
+}
+
+export async function validateUpload(by: Caller, id: string, input: ValidationInput) {
+  const staging = await loadOwnStaging(db, by, id);
+  const mapping = parseMapping(staging.purpose, input.mapping);
+  const settings = await getGisSettings(db);
+  const started = performance.now();
+  const layers = await parseUpload(await uploads.getStagingBytes(db, id), staging.format, staging.file_name, settings);
+  const layer = layers.find((l) => l.name === input.layer);
+  if (!layer) throw new HttpError('UNPROCESSABLE_CONTENT', `The file has no layer "${input.layer}"; it has ${layers.map((l) => `"${l.name}"`).join(', ')}.`, [{ path: ['layer'], message: 'unknown layer' }]);
+  const names = new Set(layer.columns.map((c) => c.name));
+  const missing = mappedColumns(mapping).filter((c) => !names.has(c));
+  if (missing.length) throw new HttpError('UNPROCESSABLE_CONTENT', `Layer "${layer.name}" has no column ${missing.map((c) => `"${c}"`).join(', ')}.`, [{ path: ['mapping'], message: 'unknown column' }]);
+  const { crs, source } = await resolveCrs(layer, input.epsg);
+  const parseMs = Math.round(performance.now() - started);
+  const t1 = performance.now();
+  const wgs84 = layerToWgs84(layer.features, crs, layer.name);
+  const staged = buildStagedFeatures(wgs84, staging.purpose, mapping, validationOptions(settings, crs, staging.purpose));
+  const result = await withTransaction(db, async (trx) => {
+    await uploads.replaceStagedFeatures(trx, id, staged);
+    await uploads.repairWithMakeValid(trx, id, validationOptions(settings, crs, staging.purpose).minAreaM2);
+    if (staging.purpose === 'parcels') await uploads.rejectRegisterDuplicates(trx, id);
+    const summary = await uploads.stagedSummary(trx, id);
+    const sourceCrs = { epsg: crs.epsg, name: crs.name, definition: crs.definition, source };
+    await uploads.updateStagingValidation(trx, id, { layerName: layer.name, sourceCrs, mapping, summary });
+    await uploads.rememberMapping(trx, sourceKey(staging.purpose, layer.columns.map((c) => c.name)), staging.purpose, mapping, by.id);
+    const problems = await uploads.stagedProblems(trx, id, REPORT_LIMIT);
+    return { summary, problems };
+  });
+  const listed = result.problems.length;
+  const withIssues = result.summary.total - result.summary.ok + (await countOkWithWarnings(id));
+  return {
+    id,
+    layer: layer.name,
+    crs: { epsg: crs.epsg, name: crs.name, source },
+    summary: result.summary,
+    features: result.problems.map((p) => ({ index: p.idx, reference: p.reference, status: p.status, issues: p.issues, areaHa: p.area_ha })),
+    omitted: Math.max(0, withIssues - listed),
+    timings: { parseMs, validateMs: Math.round(performance.now() - t1) },
+  };
+}
+
+async function countOkWithWarnings(id: string): Promise<number> {
+  const r = await db('upload_staging_feature').where({ staging_id: id, status: 'ok' }).andWhereRaw('jsonb_array_length(issues) > 0').count<{ n: number }[]>('* as n');
+  return Number(r[0]?.n ?? 0);
+}
