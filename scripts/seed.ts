@@ -1,12 +1,15 @@
 /**
  * Seeds the invented demo scenario into an EMPTY database only: if any user exists, it does
- * nothing, so it can never write over an authority's real data. One transaction.
+ * nothing, so it can never write over an authority's real data. The people go in one
+ * transaction; the demo region (scripts/demo/region.ts) then goes through the app's own upload
+ * services, one transaction per step, as an admin and a planner would.
  */
 import { hashPassword } from 'better-auth/crypto';
 import { recordAudit } from '../src/lib/db/audit';
 import { db } from '../src/lib/db/client';
 import { insertUser, setPassword } from '../src/lib/db/users';
 import { DEMO_PASSWORD, DEMO_PEOPLE } from './demo/people';
+import { seedDemoRegion } from './demo/region';
 
 async function main(): Promise<void> {
   const [{ n }] = await db('user').count<{ n: number }[]>('* as n');
@@ -14,6 +17,13 @@ async function main(): Promise<void> {
     console.log('seed: the database already has users; demo data not added');
     return;
   }
+  await seedPeople();
+  const admin = DEMO_PEOPLE.find((p) => p.roles.includes('admin'))!;
+  const planner = DEMO_PEOPLE.find((p) => p.roles.includes('planner'))!;
+  console.log(`seed: ${await seedDemoRegion(admin.email, planner.email)}`);
+}
+
+async function seedPeople(): Promise<void> {
   const hash = await hashPassword(DEMO_PASSWORD);
   await db.transaction(async (trx) => {
     for (const p of DEMO_PEOPLE) {
