@@ -10,6 +10,7 @@ export default defineConfig({
   test: {
     // Integration files share one server and database; run files one after another.
     fileParallelism: false,
+    reporters: ['default', './tests/support/summary-reporter.ts'],
     projects: [
       { resolve: { alias }, test: { name: 'unit', environment: 'node', include: ['tests/unit/**/*.test.ts'] } },
       {

@@ -12,6 +12,7 @@ import { config } from '../config';
 import { enqueueMail } from '../mail/outbox';
 import { db } from '../db/client';
 import { passwordResetMail } from '../mail/templates';
+import { recordAudit } from '../db/audit';
 
 const ac = createAccessControl({ ...defaultStatements, register: ['read', 'file', 'assess', 'decide'] } as const);
 
@@ -60,6 +61,19 @@ export const auth = betterAuth({
     ipAddress: { ipAddressHeaders: ['x-client-ip'] },
     useSecureCookies: cfg.BETTER_AUTH_URL.startsWith('https://'),
     defaultCookieAttributes: { httpOnly: true, sameSite: 'lax' },
+  },
+  // Sign-ins and password changes go into the audit log like every other change.
+  databaseHooks: {
+    session: {
+      create: { after: async (session) => recordAudit(db, { actorId: session.userId, action: 'user.sign-in', entityType: 'user', entityId: session.userId, details: { ip: session.ipAddress ?? null } }) },
+    },
+    account: {
+      update: {
+        after: async (account) => {
+          if (account.providerId === 'credential') await recordAudit(db, { actorId: account.userId, action: 'user.password-reset', entityType: 'user', entityId: account.userId });
+        },
+      },
+    },
   },
   plugins: [admin({ ac, roles, defaultRole: 'planner', adminRoles: ['admin'] })],
 });
