@@ -84,6 +84,19 @@ describe('sign-in, reset and sign-out', () => {
     expect(unknown.body.message).toBe(wrong.body.message);
   });
 
+  it('the sign-in page also works as a plain form post (no script), without putting the password in the URL', async () => {
+    const form = (password: string) => new URLSearchParams({ email: DEMO.planner, password }).toString();
+    const headers = { 'content-type': 'application/x-www-form-urlencoded' };
+    const ok = await api('POST', '/sign-in?next=%2Fcalculator', { body: form('meadow-lark-2026'), headers });
+    expect(ok.status).toBe(303);
+    expect(ok.headers.get('location')).toBe('/calculator');
+    const cookie = ok.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+    expect((await api('GET', '/api/me', { session: { cookie } })).body.email).toBe(DEMO.planner);
+    const bad = await api('POST', '/sign-in', { body: form('not the password'), headers });
+    expect(bad.status).toBe(401);
+    expect(bad.body).toMatch(/password is not right/);
+  });
+
   it('the session cookie is HttpOnly and SameSite', async () => {
     const res = await fetch(`${BASE_URL}/api/auth/sign-in/email`, {
       method: 'POST',

@@ -2,7 +2,7 @@
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { BASE_URL } from '../support/env';
-import { launchBrowser, screenshotBoth, signInThroughForm, watchPage } from '../support/browser';
+import { hydrated, launchBrowser, screenshotBoth, signInThroughForm, watchPage } from '../support/browser';
 import { DEMO, DEMO_PASSWORD } from '../support/http';
 
 let browser: Browser;
@@ -18,6 +18,7 @@ describe('carbon calculator', () => {
     const seen = watchPage(page);
     await signInThroughForm(page, DEMO.assessor, DEMO_PASSWORD);
     await page.goto(`${BASE_URL}/calculator`);
+    await hydrated(page);
     await screenshotBoth(page, 'calculator-empty');
     // Worked example 1 of tests/fixtures/worked-examples.ts: warm temperate moist, HAC, 1 ha, AR5 → 114.2 t CO2e.
     await page.getByLabel('IPCC climate region').selectOption('warm-temperate-moist');
@@ -39,6 +40,7 @@ describe('carbon calculator', () => {
     const page = await context.newPage();
     await signInThroughForm(page, DEMO.planner, DEMO_PASSWORD);
     await page.goto(`${BASE_URL}/calculator`);
+    await hydrated(page);
     await page.getByLabel('Share %').fill('80');
     await page.getByRole('button', { name: 'Estimate' }).click();
     await expect(page.getByText('Soil shares must add up to 100%', { exact: false }).count()).resolves.toBe(1);

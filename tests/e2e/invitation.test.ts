@@ -2,7 +2,7 @@
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { BASE_URL } from '../support/env';
-import { launchBrowser, screenshotBoth, signInThroughForm, watchPage } from '../support/browser';
+import { hydrated, launchBrowser, screenshotBoth, signInThroughForm, watchPage } from '../support/browser';
 import { linkIn, testDb, waitForMail } from '../support/db';
 import { DEMO, DEMO_PASSWORD } from '../support/http';
 
@@ -23,10 +23,11 @@ describe('invitation through the pages', () => {
     const page = await admin.newPage();
     await signInThroughForm(page, DEMO.admin, DEMO_PASSWORD);
     await page.goto(`${BASE_URL}/admin/users`);
+    await hydrated(page);
     await page.getByLabel('Name').fill('Wren Holloway');
     await page.getByLabel('E-mail address').fill(email);
     await page.getByRole('checkbox', { name: 'Assessor' }).first().check();
-    await page.getByRole('button', { name: 'Send invitation' }).click();
+    await page.getByRole('button', { name: 'Send invitation', exact: true }).click();
     await page.getByText(`Invitation sent to ${email}.`).waitFor();
 
     const mail = await waitForMail(email, /Swardkeep account/);
@@ -38,6 +39,7 @@ describe('invitation through the pages', () => {
     const p2 = await invitee.newPage();
     const seen = watchPage(p2);
     await p2.goto(linkIn(mail.body_text));
+    await hydrated(p2);
     await screenshotBoth(p2, 'welcome-set-password');
     await p2.getByLabel('New password').fill('short');
     await p2.getByLabel('The same password again').fill('short');
@@ -57,6 +59,7 @@ describe('invitation through the pages', () => {
     const context = await browser.newContext();
     const page = await context.newPage();
     await page.goto(`${BASE_URL}/forgot-password`);
+    await hydrated(page);
     await page.getByLabel('E-mail address').fill('nobody@tarrow.example');
     await page.getByRole('button', { name: 'Send reset link' }).click();
     await page.getByText('If an account uses that address').waitFor();

@@ -3,7 +3,7 @@ import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ROLE_HOMES } from '~/lib/role-homes';
 import { BASE_URL } from '../support/env';
-import { launchBrowser, screenshotBoth, signInThroughForm, watchPage } from '../support/browser';
+import { hydrated, launchBrowser, screenshotBoth, signInThroughForm, watchPage } from '../support/browser';
 import { DEMO, DEMO_PASSWORD } from '../support/http';
 
 let browser: Browser;
@@ -20,6 +20,7 @@ describe('public pages', () => {
     await expect(page.locator('h1').textContent()).resolves.toMatch(/plough or change grassland/);
     await screenshotBoth(page, 'public-landing');
     await page.goto(`${BASE_URL}/sign-in`);
+    await hydrated(page);
     await screenshotBoth(page, 'public-sign-in');
     await page.getByLabel('E-mail address').fill(DEMO.planner);
     await page.getByLabel('Password').fill('wrong password!');

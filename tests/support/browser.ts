@@ -24,8 +24,14 @@ export async function screenshotBoth(page: Page, name: string): Promise<void> {
   await page.setViewportSize({ width: WIDTHS.desktop, height: 900 });
 }
 
+/** Waits until every island on the page has hydrated (Astro drops the `ssr` attribute then). */
+export async function hydrated(page: Page): Promise<void> {
+  await page.waitForFunction(() => document.querySelectorAll('astro-island[ssr]').length === 0);
+}
+
 export async function signInThroughForm(page: Page, email: string, password: string): Promise<void> {
   await page.goto(`${BASE_URL}/sign-in`);
+  await hydrated(page);
   await page.getByLabel('E-mail address').fill(email);
   await page.getByLabel('Password').fill(password);
   await page.getByRole('button', { name: 'Sign in' }).click();

@@ -8,8 +8,8 @@ import { signIn } from './auth-requests';
 const schema = z.object({ email: z.email('Give your e-mail address.'), password: z.string().min(1, 'Give your password.') });
 type Values = z.infer<typeof schema>;
 
-export function SignInForm({ next }: { next: string }) {
-  const [error, setError] = useState<string | null>(null);
+export function SignInForm({ next, initialError = null }: { next: string; initialError?: string | null }) {
+  const [error, setError] = useState<string | null>(initialError);
   const { register, handleSubmit, formState } = useForm<Values>({ resolver: zodResolver(schema) });
   const onSubmit = handleSubmit(async (v) => {
     setError(null);
@@ -19,7 +19,7 @@ export function SignInForm({ next }: { next: string }) {
   });
   const errors = formState.errors;
   return (
-    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-3" aria-describedby={error ? 'signin-error' : undefined}>
+    <form method="post" action={`/sign-in?next=${encodeURIComponent(next)}`} onSubmit={onSubmit} noValidate className="flex flex-col gap-3" aria-describedby={error ? 'signin-error' : undefined}>
       <Field label="E-mail address" htmlFor="email" error={errors.email?.message}>
         <input id="email" type="email" autoComplete="username" className="input" aria-invalid={!!errors.email} {...register('email')} />
       </Field>
