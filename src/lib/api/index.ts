@@ -41,6 +41,7 @@ export const allSpecs: ApiSpec[] = [
   parcels.editBoundary,
   parcels.recordEvent,
   parcels.parcelsForSnapping,
+  parcels.searchParcels,
   parcels.mapConfig,
   parcels.tile,
   parcels.listReferenceLayers,

@@ -102,11 +102,11 @@ export const mapConfig = defineSpec({
   method: 'GET',
   path: '/api/map',
   tag: 'Map',
-  summary: 'Map set-up: data version (for tile URLs), parcel extent, legend of the current reference layers, optional basemap URL',
+  summary: 'Map set-up: data version (for tile URLs), where the parcels are (per upload), legend of the current reference layers, optional basemap URL',
   access: 'signed-in',
   response: z.object({
     dataVersion: z.number(),
-    extent: z.array(z.number()).length(4).nullable(),
+    areas: z.array(z.object({ label: z.string(), count: z.number(), extent: z.array(z.number()).length(4) })),
     legend: z.array(z.object({ kind: z.string(), label: z.string(), version: z.number().nullable(), classes: z.record(z.string(), z.object({ label: z.string(), colour: z.string(), pattern: z.string() })) })),
     basemapUrl: z.string().nullable(),
     parcelMinZoom: z.number(),
@@ -145,4 +145,14 @@ export const publishReferenceLayer = defineSpec({
   params: z.object({ id: z.coerce.number().int().positive() }),
   body: z.object({ note: z.string().trim().max(500).optional() }),
   response: z.object({ id: z.number(), kind: z.string(), version: z.number(), timings: z.object({ overlayMs: z.number() }) }),
+});
+
+export const searchParcels = defineSpec({
+  method: 'GET',
+  path: '/api/parcels/search',
+  tag: 'Parcels',
+  summary: 'Find parcels by reference or field name (for keyboard users of the map)',
+  access: 'signed-in',
+  query: z.object({ q: z.string().trim().min(1, 'Type part of a reference or name.').max(60) }),
+  response: z.object({ items: z.array(z.object({ id: z.number(), reference: z.string(), name: z.string().nullable(), areaHa: z.number() })) }),
 });

@@ -45,8 +45,8 @@ export async function insertEventsFromStaging(db: Db, stagingId: string, batchId
     `insert into land_use_event (parcel_id, event_date, kind, value, evidence, recorded_by, batch_id)
      ${part('land-use', 'current_date', "f.fields->>'landUse'", 'landUse')}
      union all ${part('management', 'current_date', "f.fields->>'management'", 'management')}
-     union all ${part('tillage', "(f.fields->>'lastTillage')::date", "'recorded in upload'", 'lastTillage')}
-     union all ${part('reseeding', "(f.fields->>'lastReseeding')::date", "'recorded in upload'", 'lastReseeding')}`,
+     union all ${part('tillage', "(f.fields->>'lastTillage')::date", 'null', 'lastTillage')}
+     union all ${part('reseeding', "(f.fields->>'lastReseeding')::date", 'null', 'lastReseeding')}`,
     [...args, ...args, ...args, ...args],
   );
 }
@@ -122,11 +122,16 @@ export async function parcelsInBox(db: Db, box: [number, number, number, number]
   return r.rows as { id: number; reference: string; geometry: MultiPolygon }[];
 }
 
-/** Lon/lat extent of all parcels, or null when there are none. */
-export async function parcelExtent(db: Db): Promise<[number, number, number, number] | null> {
-  const r = await db.raw('select st_xmin(e) w, st_ymin(e) s, st_xmax(e) e, st_ymax(e) n from (select st_extent(geom)::geometry e from parcel) x where e is not null');
-  const row = r.rows[0];
-  return row ? [row.w, row.s, row.e, row.n] : null;
+/** Where parcels are: one lon/lat extent per upload batch (drawn parcels together), largest first. */
+export async function parcelAreas(db: Db, limit = 20): Promise<{ label: string; count: number; extent: [number, number, number, number] }[]> {
+  const r = await db.raw(
+    `select label, n, st_xmin(e) w, st_ymin(e) s, st_xmax(e) e, st_ymax(e) n2 from (
+       select coalesce(b.file_name, 'Parcels drawn on the map') as label, count(*)::int as n, st_extent(p.geom)::geometry as e, max(b.saved_at) as saved_at
+       from parcel p left join upload_batch b on b.id = p.batch_id group by b.id, b.file_name
+     ) x order by n desc, saved_at desc nulls last limit ?`,
+    [limit],
+  );
+  return r.rows.map((x: { label: string; n: number; w: number; s: number; e: number; n2: number }) => ({ label: x.label, count: x.n, extent: [x.w, x.s, x.e, x.n2] }));
 }
 
 export async function bumpMapVersion(db: Db): Promise<number> {
@@ -137,4 +142,14 @@ export async function bumpMapVersion(db: Db): Promise<number> {
 export async function mapVersion(db: Db): Promise<number> {
   const r = await db.raw("select version from map_data_version where name = 'map'");
   return Number(r.rows[0]?.version ?? 0);
+}
+
+export async function searchParcels(db: Db, q: string, limit: number) {
+  const like = `%${q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+  return db('parcel')
+    .select('id', 'reference', 'name', 'area_ha')
+    .whereILike('reference', like)
+    .orWhereILike('name', like)
+    .orderByRaw('lower(reference) = lower(?) desc, reference', [q])
+    .limit(limit) as Promise<{ id: number; reference: string; name: string | null; area_ha: number }[]>;
 }

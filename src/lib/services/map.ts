@@ -1,14 +1,14 @@
 /** The map: its configuration (data version, extent, legend, basemap) and vector tiles cached by data version. */
 import { db } from '../db/client';
 import { getGisSettings } from '../db/gis-settings';
-import { mapVersion, parcelExtent, parcelsInBox } from '../db/parcels';
+import { mapVersion, parcelAreas, parcelsInBox } from '../db/parcels';
 import { PARCEL_MIN_ZOOM, renderTile } from '../db/tiles';
 import { HttpError } from '../http/errors';
 import { currentLegend } from './reference-layers';
 
 export async function mapConfig() {
-  const [version, extent, legend, settings] = await Promise.all([mapVersion(db), parcelExtent(db), currentLegend(), getGisSettings(db)]);
-  return { dataVersion: version, extent, legend, basemapUrl: settings['map.basemap-url'], parcelMinZoom: PARCEL_MIN_ZOOM };
+  const [version, areas, legend, settings] = await Promise.all([mapVersion(db), parcelAreas(db), currentLegend(), getGisSettings(db)]);
+  return { dataVersion: version, areas, legend, basemapUrl: settings['map.basemap-url'], parcelMinZoom: PARCEL_MIN_ZOOM };
 }
 
 /**
