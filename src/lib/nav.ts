@@ -5,8 +5,11 @@ export type NavItem = { href: string; label: string; roles: readonly Role[] | 'a
 
 export const NAV: NavItem[] = [
   { href: '/work', label: 'Home', roles: 'all' },
+  { href: '/map', label: 'Map', roles: 'all' },
+  { href: '/parcels/upload', label: 'Upload parcels', roles: ['planner', 'admin'] },
   { href: '/calculator', label: 'Carbon calculator', roles: 'all' },
   { href: '/admin/factor-sets', label: 'Factor sets', roles: ['admin', 'assessor'] },
+  { href: '/admin/reference-layers', label: 'Reference layers', roles: ['admin'] },
   { href: '/admin/users', label: 'Users', roles: ['admin'] },
   { href: '/admin/mail', label: 'Mail box', roles: ['admin'] },
   { href: '/admin/audit', label: 'Audit log', roles: ['admin'] },

@@ -12,7 +12,11 @@ export const ROLE_HOMES: Record<Role, RoleHome> = {
       'Record each parcel’s current land use and its dated history of tillage and reseeding.',
       'File proposals: which parcels, the new land use and management, the start year and supporting documents.',
     ],
-    links: [{ href: '/calculator', label: 'Try an estimate in the carbon calculator' }],
+    links: [
+      { href: '/parcels/upload', label: 'Upload parcels' },
+      { href: '/map', label: 'Map of parcels and reference layers' },
+      { href: '/calculator', label: 'Try an estimate in the carbon calculator' },
+    ],
   },
   assessor: {
     title: 'Assessment desk',
@@ -45,6 +49,7 @@ export const ROLE_HOMES: Record<Role, RoleHome> = {
     duties: ['Invite users and manage their roles.', 'Maintain factor sets, reference map layers and the authority’s rules.', 'Read the audit log and the outgoing mail.'],
     links: [
       { href: '/admin/users', label: 'Users' },
+      { href: '/admin/reference-layers', label: 'Reference layers' },
       { href: '/admin/factor-sets', label: 'Factor sets' },
       { href: '/admin/mail', label: 'Mail box' },
       { href: '/admin/audit', label: 'Audit log' },

@@ -1,0 +1,40 @@
+/** The legend: parcels plus each reference layer, switched on and off, every class named and symbolised. */
+import { Swatch } from './Swatch';
+import type { LegendKind } from './types';
+
+type Props = { legend: LegendKind[]; visible: Set<string>; onToggle: (kind: string) => void; parcelMinZoom: number };
+
+export function Legend({ legend, visible, onToggle, parcelMinZoom }: Props) {
+  return (
+    <section aria-labelledby="legend-heading" className="flex flex-col gap-2 text-sm">
+      <h2 id="legend-heading" className="text-base">Layers</h2>
+      <div className="flex items-center gap-2">
+        <Swatch colour="#1d2320" pattern="outline" id="sw-parcels" />
+        <span>Parcels (boundaries from zoom {parcelMinZoom}; click one for details)</span>
+      </div>
+      {legend.map((k) => {
+        const classes = Object.entries(k.classes);
+        return (
+          <fieldset key={k.kind} className="border-t border-line pt-2">
+            <legend className="sr-only">{k.label}</legend>
+            <label className="flex items-center gap-2 font-medium">
+              <input type="checkbox" checked={visible.has(k.kind)} onChange={() => onToggle(k.kind)} disabled={k.version === null} />
+              {k.label}
+              <span className="text-xs font-normal text-muted">{k.version === null ? '(not published yet)' : `v${k.version}`}</span>
+            </label>
+            {classes.length > 0 && (
+              <ul className="mt-1 flex flex-col gap-0.5 pl-6">
+                {classes.map(([cls, e]) => (
+                  <li key={cls} className="flex items-center gap-2">
+                    <Swatch colour={e.colour} pattern={e.pattern} id={`sw-${k.kind}-${cls}`} />
+                    {e.label}
+                  </li>
+                ))}
+              </ul>
+            )}
+          </fieldset>
+        );
+      })}
+    </section>
+  );
+}

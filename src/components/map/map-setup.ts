@@ -1,0 +1,77 @@
+/** Builds the OpenLayers map: optional basemap, one vector-tile layer (parcels + reference layers), a highlight and an edit layer. */
+import OlMap from 'ol/Map';
+import View from 'ol/View';
+import { defaults as defaultControls, ScaleLine } from 'ol/control';
+import type { FeatureLike } from 'ol/Feature';
+import MVT from 'ol/format/MVT';
+import TileLayer from 'ol/layer/Tile';
+import VectorLayer from 'ol/layer/Vector';
+import VectorTileLayer from 'ol/layer/VectorTile';
+import { transformExtent } from 'ol/proj';
+import VectorSource from 'ol/source/Vector';
+import VectorTileSource from 'ol/source/VectorTile';
+import XYZ from 'ol/source/XYZ';
+import { Fill, Stroke, Style } from 'ol/style';
+import CircleStyle from 'ol/style/Circle';
+import { fillFor } from './patterns';
+import type { MapConfig } from './types';
+
+export const tileUrl = (version: number) => `/api/tiles/{z}/{x}/{y}.mvt?v=${version}`;
+
+const PARCEL = new Style({ stroke: new Stroke({ color: '#1d2320', width: 1 }), fill: new Fill({ color: 'rgba(255,255,255,0.01)' }) });
+const PARCEL_ARABLE = new Style({ stroke: new Stroke({ color: '#1d2320', width: 1, lineDash: [4, 3] }), fill: new Fill({ color: 'rgba(255,255,255,0.01)' }) });
+export const HIGHLIGHT = [new Style({ stroke: new Stroke({ color: '#ffffff', width: 6 }) }), new Style({ stroke: new Stroke({ color: '#1f5a85', width: 3 }) })];
+export const EDIT = new Style({
+  stroke: new Stroke({ color: '#9a3b17', width: 2.5 }),
+  fill: new Fill({ color: 'rgba(154,59,23,0.12)' }),
+  image: new CircleStyle({ radius: 5, fill: new Fill({ color: '#9a3b17' }), stroke: new Stroke({ color: '#fff', width: 1.5 }) }),
+});
+
+export type MapHandles = { map: OlMap; tiles: VectorTileSource; tileLayer: VectorTileLayer; highlight: VectorSource; edit: VectorSource; snap: VectorSource };
+
+/** Style by MVT layer: parcels always (arable dashed), reference features only when their kind is switched on. */
+export function styleFor(config: MapConfig, visible: () => Set<string>) {
+  const cache = new Map<string, Style>();
+  return (feature: FeatureLike) => {
+    if (feature.get('layer') === 'parcels') return feature.get('land_use') === 'arable' ? PARCEL_ARABLE : PARCEL;
+    const kind = feature.get('kind') as string;
+    if (!visible().has(kind)) return undefined;
+    const cls = feature.get('class') as string;
+    const key = `${kind}|${cls}`;
+    let style = cache.get(key);
+    if (!style) {
+      const e = config.legend.find((l) => l.kind === kind)?.classes[cls];
+      const colour = e?.colour ?? '#55605a';
+      style = new Style({ fill: new Fill({ color: fillFor(colour, e?.pattern ?? 'solid') }), stroke: new Stroke({ color: colour, width: 1.5 }) });
+      cache.set(key, style);
+    }
+    return style;
+  };
+}
+
+export function createMap(target: HTMLElement, config: MapConfig, visible: () => Set<string>): MapHandles {
+  const tiles = new VectorTileSource({ format: new MVT({ idProperty: undefined }), url: tileUrl(config.dataVersion), maxZoom: 16 });
+  const tileLayer = new VectorTileLayer({ source: tiles, style: styleFor(config, visible), renderMode: 'hybrid' });
+  const highlight = new VectorSource();
+  const edit = new VectorSource();
+  const snap = new VectorSource();
+  const layers = [
+    ...(config.basemapUrl ? [new TileLayer({ source: new XYZ({ url: config.basemapUrl, crossOrigin: 'anonymous' }) })] : []),
+    tileLayer,
+    new VectorLayer({ source: highlight, style: HIGHLIGHT }),
+    new VectorLayer({ source: snap, style: new Style({ stroke: new Stroke({ color: 'rgba(31,90,133,0.5)', width: 1 }) }) }),
+    new VectorLayer({ source: edit, style: EDIT }),
+  ];
+  const map = new OlMap({
+    target,
+    layers,
+    controls: defaultControls({ attribution: false }).extend([new ScaleLine({ units: 'metric', bar: true, steps: 4, text: true, minWidth: 110 })]),
+    view: new View({ center: [0, 0], zoom: 2, maxZoom: 20 }),
+  });
+  if (config.areas[0]) fitLonLat(map, config.areas[0].extent);
+  return { map, tiles, tileLayer, highlight, edit, snap };
+}
+
+export function fitLonLat(map: OlMap, extent: [number, number, number, number], maxZoom = 15): void {
+  map.getView().fit(transformExtent(extent, 'EPSG:4326', 'EPSG:3857'), { padding: [30, 30, 30, 30], maxZoom, duration: 0 });
+}
