@@ -33,7 +33,8 @@ const concrete = (p: string) => p.replace(/\{[^}]+\}/g, 'no-such-id');
 
 describe('role matrix', () => {
   for (const spec of allSpecs) {
-    for (const caller of callers) {
+    // better-auth's public endpoints are called anonymously only: sign-out would end the shared sessions.
+    for (const caller of spec.path.startsWith('/api/auth/') ? (['anonymous'] as const) : callers) {
       const want = expected(spec.access, caller);
       it(`${spec.method} ${spec.path} as ${caller} → ${want}`, async () => {
         const body = spec.method === 'GET' || spec.method === 'DELETE' ? undefined : {};
@@ -72,6 +73,7 @@ describe('route contracts', () => {
       for (const m of readFileSync(file, 'utf8').matchAll(/export const (GET|POST|PUT|PATCH|DELETE)\b/g)) found.add(`${m[1]} ${route}`);
     }
     expect([...found].filter((r) => !declared.has(r))).toEqual([]);
-    expect([...declared].filter((r) => !found.has(r))).toEqual([]);
+    // better-auth's endpoints are served by the catch-all route file.
+    expect([...declared].filter((r) => !found.has(r) && !r.includes(' /api/auth/'))).toEqual([]);
   });
 });

@@ -4,6 +4,7 @@
  */
 import type { ApiSpec } from '../http/spec';
 import * as admin from './admin';
+import * as authRoutes from './auth';
 import * as estimates from './estimates';
 import * as factorSets from './factor-sets';
 import * as parcels from './parcels';
@@ -12,6 +13,11 @@ import * as users from './users';
 
 export const allSpecs: ApiSpec[] = [
   admin.health,
+  authRoutes.signIn,
+  authRoutes.signOut,
+  authRoutes.getSession,
+  authRoutes.requestPasswordReset,
+  authRoutes.resetPassword,
   admin.openapi,
   users.me,
   users.listUsers,
