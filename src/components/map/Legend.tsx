@@ -12,6 +12,10 @@ export function Legend({ legend, visible, onToggle, parcelMinZoom }: Props) {
         <Swatch colour="#1d2320" pattern="outline" id="sw-parcels" />
         <span>Parcels (boundaries from zoom {parcelMinZoom}; click one for details)</span>
       </div>
+      <div className="flex items-center gap-2">
+        <svg width="22" height="16" aria-hidden="true" className="shrink-0"><rect x="1" y="1" width="20" height="14" fill="none" stroke="#1d2320" strokeWidth="1.5" strokeDasharray="4 3" /></svg>
+        <span>Parcel now in arable use (dashed)</span>
+      </div>
       {legend.map((k) => {
         const classes = Object.entries(k.classes);
         return (
@@ -26,7 +30,7 @@ export function Legend({ legend, visible, onToggle, parcelMinZoom }: Props) {
               <ul className="mt-1 flex flex-col gap-0.5 pl-6">
                 {classes.map(([cls, e]) => (
                   <li key={cls} className="flex items-center gap-2">
-                    <Swatch colour={e.colour} pattern={e.pattern} id={`sw-${k.kind}-${cls}`} />
+                    <Swatch colour={e.colour} pattern={e.pattern} id={`sw-${k.kind}-${cls}`} dashed={k.kind === 'sensitive' || k.kind === 'never-tilled'} />
                     {e.label}
                   </li>
                 ))}

@@ -140,7 +140,7 @@ export function ParcelMap({ canEdit }: { canEdit: boolean }) {
   const actions = canEdit && mode === 'view' && detail ? <button className="btn btn-quiet self-start" onClick={() => void begin('edit')}>Edit boundary</button> : null;
   return (
     <div className="grid gap-3 lg:grid-cols-[16rem_minmax(0,1fr)_22rem]">
-      <aside className="panel order-2 flex flex-col gap-3 lg:order-1">
+      <aside className="panel order-3 flex flex-col gap-3 lg:order-1">
         {config && (
           <>
             <ParcelSearch onPick={(id) => void select(id, true)} />
@@ -164,7 +164,7 @@ export function ParcelMap({ canEdit }: { canEdit: boolean }) {
         </div>
         <div ref={target} className="h-[60vh] min-h-[22rem] w-full rounded border border-line bg-[#eef1ec] lg:h-[calc(100vh-12rem)]" role="region" aria-label="Map of parcels and reference layers" tabIndex={0} />
       </div>
-      <aside className="panel order-3 max-h-[calc(100vh-10rem)] overflow-y-auto" aria-live="polite">
+      <aside className="panel order-2 overflow-y-auto lg:order-3 lg:max-h-[calc(100vh-10rem)]" aria-live="polite">
         {mode === 'draw' && <DrawForm ready={drawn} busy={busy} onSave={(v) => void saveDrawn(v)} onCancel={endEditing} />}
         {mode === 'edit' && detail && <BoundaryForm reference={detail.reference} busy={busy} onSave={(r) => void saveBoundary(r)} onCancel={endEditing} />}
         {mode === 'view' && detail && <ParcelPanel p={detail} actions={actions} onClose={() => (setDetail(null), handles.current?.highlight.clear())} />}

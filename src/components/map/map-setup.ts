@@ -42,7 +42,9 @@ export function styleFor(config: MapConfig, visible: () => Set<string>) {
     if (!style) {
       const e = config.legend.find((l) => l.kind === kind)?.classes[cls];
       const colour = e?.colour ?? '#55605a';
-      style = new Style({ fill: new Fill({ color: fillFor(colour, e?.pattern ?? 'solid') }), stroke: new Stroke({ color: colour, width: 1.5 }) });
+      // Designations are outlined heavier and dashed so they stand out over soil or slope patterns.
+      const designation = kind === 'sensitive' || kind === 'never-tilled';
+      style = new Style({ fill: new Fill({ color: fillFor(colour, e?.pattern ?? 'solid') }), stroke: new Stroke({ color: colour, width: designation ? 3 : 1.5, lineDash: designation ? [8, 4] : undefined }) });
       cache.set(key, style);
     }
     return style;

@@ -46,7 +46,7 @@ export function ReferenceLayersAdmin() {
                     <tr key={v.id}>
                       <td>v{v.version}</td>
                       <td className="whitespace-nowrap">{statusText(v)}</td>
-                      <td className="break-all">{v.fileName ?? '—'}</td>
+                      <td className="[overflow-wrap:anywhere]">{v.fileName ?? '—'}</td>
                       <td>{v.classes.map(classLabel).join(', ')} <span className="text-xs text-muted">({v.classAttribute})</span></td>
                       <td className="num">{v.featureCount}</td>
                       <td>{v.createdAt.slice(0, 10)}{v.createdBy ? `, ${v.createdBy}` : ''}</td>
