@@ -34,9 +34,13 @@ export interface StagedUpload {
   timings: { parseMs: number };
 }
 
-/** Remembered mappings are found by the purpose and the set of column names (the same source gives the same columns). */
-export function sourceKey(purpose: UploadPurpose, columns: string[]): string {
-  return `${purpose}:${[...columns].sort().join(',')}`;
+/**
+ * Remembered mappings are found by the purpose and the set of column names (the same source
+ * gives the same columns). Reference layers of different kinds often share their columns
+ * ("class"), so for them the layer name is part of the key too.
+ */
+export function sourceKey(purpose: UploadPurpose, columns: string[], layerName: string): string {
+  return `${purpose}:${purpose === 'reference' ? `${layerName}:` : ''}${[...columns].sort().join(',')}`;
 }
 
 export function assertPurposeAllowed(by: Caller, purpose: UploadPurpose): void {
@@ -69,7 +73,7 @@ export async function stageUpload(by: Caller, input: { purpose: UploadPurpose; f
         columns: layer.columns,
         crs: found.crs && found.source ? { epsg: found.crs.epsg, name: found.crs.name, source: found.source } : null,
         crsNote: found.note,
-        rememberedMapping: await uploads.getRememberedMapping(trx, sourceKey(input.purpose, layer.columns.map((c) => c.name))),
+        rememberedMapping: await uploads.getRememberedMapping(trx, sourceKey(input.purpose, layer.columns.map((c) => c.name), layer.name)),
       });
     }
     await uploads.insertStaging(trx, {

@@ -107,7 +107,7 @@ export async function validateUpload(by: Caller, id: string, input: ValidationIn
     const summary = await uploads.stagedSummary(trx, id);
     const sourceCrs = { epsg: crs.epsg, name: crs.name, definition: crs.definition, source };
     await uploads.updateStagingValidation(trx, id, { layerName: layer.name, sourceCrs, mapping, summary });
-    await uploads.rememberMapping(trx, sourceKey(staging.purpose, layer.columns.map((c) => c.name)), staging.purpose, mapping, by.id);
+    await uploads.rememberMapping(trx, sourceKey(staging.purpose, layer.columns.map((c) => c.name), layer.name), staging.purpose, mapping, by.id);
     const problems = await uploads.stagedProblems(trx, id, REPORT_LIMIT);
     return { summary, problems };
   });

@@ -1,0 +1,103 @@
+/**
+ * A planner uploads the demo shapefile without .prj through the wizard (columns with samples,
+ * CRS search, report, save), then sees the parcels on the map and opens one. Screenshots at
+ * 1280 and 390 px go to screenshots/. The admin's reference-layer pages are shot as well.
+ */
+import type { Browser, Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { hydrated, launchBrowser, screenshotBoth, signInThroughForm, watchPage } from '../support/browser';
+import { testDb } from '../support/db';
+import { BASE_URL } from '../support/env';
+import { DEMO, DEMO_PASSWORD } from '../support/http';
+
+let browser: Browser;
+beforeAll(async () => {
+  browser = await launchBrowser();
+  // The seed imported these parcels already; remove them so the upload below is not 285 duplicates.
+  await testDb('parcel').whereIn('batch_id', testDb('upload_batch').select('id').where('file_name', 'like', 'corrowmere-parcels-%')).delete();
+});
+afterAll(async () => {
+  await browser?.close();
+  await testDb.destroy();
+});
+
+const heading = (page: Page) => page.locator('#step-heading');
+
+describe('parcel upload and map', () => {
+  it('walks file → columns → CRS → report → save, then finds the parcels on the map', async () => {
+    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const page = await context.newPage();
+    const seen = watchPage(page);
+    await signInThroughForm(page, DEMO.planner, DEMO_PASSWORD);
+    await page.goto(`${BASE_URL}/parcels/upload`);
+    await hydrated(page);
+    await screenshotBoth(page, 'upload-1-file');
+    await page.setInputFiles('#upload-file', 'gis/demo/corrowmere-parcels-noprj.zip');
+    await page.getByRole('button', { name: 'Upload and read' }).click();
+    await expect.poll(() => heading(page).textContent()).toBe('Columns');
+    // The seed mapped a file with the same columns, so the mapping is remembered.
+    expect(await page.locator('#map-reference').inputValue()).toBe('field_ref');
+    expect(await page.locator('#map-lastTillage').inputValue()).toBe('last_till');
+    await expect(page.getByRole('table').first().textContent()).resolves.toMatch(/CM-0001/);
+    await screenshotBoth(page, 'upload-2-columns');
+    await page.getByRole('button', { name: 'Next: coordinates' }).click();
+    await expect(page.getByRole('status').filter({ hasText: 'no .prj' }).count()).resolves.toBe(1);
+    await page.locator('#crs-search').fill('32628');
+    await page.getByLabel(/EPSG:32628 WGS 84 \/ UTM zone 28N/).check();
+    await screenshotBoth(page, 'upload-3-crs');
+    await page.getByRole('button', { name: 'Check every feature' }).click();
+    await expect.poll(() => heading(page).textContent(), { timeout: 30_000 }).toBe('Check');
+    // gis/demo/manifest.json: 303 features, 18 deliberate defects rejected, the unclosed ring repaired.
+    const save = page.getByRole('button', { name: 'Save 285 valid parcels' });
+    await expect(save.count()).resolves.toBe(1);
+    await expect(page.getByText('bow-tie', { exact: false }).count()).resolves.toBe(0);
+    await expect(page.locator('table').textContent()).resolves.toMatch(/crosses or touches itself/);
+    await screenshotBoth(page, 'upload-4-report');
+    await save.click();
+    await expect.poll(() => heading(page).textContent(), { timeout: 30_000 }).toBe('Saved');
+    await expect(page.getByRole('status').filter({ hasText: 'Saved 285 parcels' }).count()).resolves.toBe(1);
+    await screenshotBoth(page, 'upload-5-saved');
+    const batch = await testDb('upload_batch').where({ file_name: 'corrowmere-parcels-noprj.zip' }).first();
+    expect(batch.source_crs).toMatchObject({ epsg: 32628, source: 'picked' });
+
+    const tiles: number[] = [];
+    page.on('response', (r) => r.url().includes('/api/tiles/') && tiles.push(r.status()));
+    await page.goto(`${BASE_URL}/map`);
+    await page.locator('.ol-viewport canvas').first().waitFor();
+    await expect.poll(() => tiles.filter((s) => s === 200).length, { timeout: 15_000 }).toBeGreaterThan(0);
+    await page.waitForTimeout(800);
+    await screenshotBoth(page, 'map-1-parcels');
+    const box = (await page.getByRole('region', { name: 'Map of parcels and reference layers' }).boundingBox())!;
+    await page.mouse.click(box.x + box.width / 2, box.y + box.height / 2);
+    await expect.poll(() => page.locator('#parcel-heading').textContent().catch(() => ''), { timeout: 10_000 }).toMatch(/^Parcel CM-\d{4}$/);
+    await expect(page.getByText('Soil classes (area fractions)').count()).resolves.toBe(1);
+    await screenshotBoth(page, 'map-2-parcel');
+    await page.locator('#parcel-search').fill('CM-0150');
+    await page.getByRole('button', { name: /CM-0150/ }).click();
+    await expect.poll(() => page.locator('#parcel-heading').textContent()).toBe('Parcel CM-0150');
+    expect(seen.errors).toEqual([]);
+    expect(seen.foreign).toEqual([]);
+    await context.close();
+  });
+
+  it('shows the admin the reference layers and the reference upload wizard', async () => {
+    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const page = await context.newPage();
+    const seen = watchPage(page);
+    await signInThroughForm(page, DEMO.admin, DEMO_PASSWORD);
+    await page.goto(`${BASE_URL}/admin/reference-layers`);
+    await expect.poll(() => page.getByText('● Current').count()).toBe(5);
+    await screenshotBoth(page, 'reference-layers');
+    await page.goto(`${BASE_URL}/admin/reference-layers/upload`);
+    await hydrated(page);
+    await page.setInputFiles('#upload-file', 'gis/demo/soil-units.geojson');
+    await page.getByRole('button', { name: 'Upload and read' }).click();
+    await expect.poll(() => heading(page).textContent()).toBe('Columns');
+    expect(await page.locator('#map-kind').inputValue()).toBe('soil');
+    await screenshotBoth(page, 'reference-upload-columns');
+    await page.getByRole('button', { name: 'Cancel upload' }).click();
+    await expect.poll(() => heading(page).textContent()).toBe('File');
+    expect(seen.errors).toEqual([]);
+    await context.close();
+  });
+});
