@@ -1,0 +1,133 @@
+/**
+ * Ingest and tile benchmark against the real built server (started here on BENCH_PORT, against
+ * the database in DATABASE_URL that scripts/bench.sh has reset and seeded). Steps:
+ *  1. as admin, publish bench-sized climate and soil layers covering the whole bench grid
+ * *     (soil blocks of 4 km × 3 km cycling the 7 IPCC classes, boundaries densified every 100 m like the demo layers);
+ *  2. as planner, upload → validate → save the 20 000-parcel zip (EPSG:32628), timing each
+ *     step (client wall time and the server's own split), and the server's peak memory (VmHWM);
+ *  3. fetch a fixed set of tiles at zooms 12-16 and report p50/p95.
+ */
+import { spawn } from 'node:child_process';
+import { readFileSync } from 'node:fs';
+import type { Position } from 'geojson';
+import { crsFromEpsg } from '../src/lib/gis/crs-catalogue.server';
+import { fromWgs84 } from '../src/lib/gis/crs';
+import { boxFeatures, collection, type Box } from '../gis/lib/layers';
+import { CORROWMERE } from '../gis/lib/regions';
+
+const PORT = Number(process.env.BENCH_PORT ?? 4395);
+const BASE = `http://127.0.0.1:${PORT}`;
+const ZIP = process.env.BENCH_ZIP!;
+const COUNT = Number(process.env.BENCH_COUNT ?? 20_000);
+const SOILS = ['hac', 'lac', 'sandy', 'spodic', 'volcanic', 'wetland', 'organic'];
+
+const server = spawn(process.execPath, [`${process.env.SWARDKEEP_DIST ?? 'dist'}/server/entry.mjs`], {
+  env: { ...process.env, NODE_ENV: 'production', HOST: '127.0.0.1', PORT: String(PORT), BETTER_AUTH_URL: BASE, MAIL_WORKER: 'off', AUTH_SIGNIN_MAX: '1000' },
+  stdio: ['ignore', 'inherit', 'inherit'],
+});
+const vm = (key: 'VmHWM' | 'VmRSS') => Number(new RegExp(`${key}:\\s+(\\d+)`).exec(readFileSync(`/proc/${server.pid}/status`, 'utf8'))![1]) / 1024;
+
+async function up(): Promise<void> {
+  for (let i = 0; i < 150; i++) {
+    if (server.exitCode !== null) throw new Error('the server exited');
+    if (await fetch(`${BASE}/api/health`).then((r) => r.ok, () => false)) return;
+    await new Promise((r) => setTimeout(r, 200));
+  }
+  throw new Error('the server did not start');
+}
+
+async function session(email: string): Promise<string> {
+  const r = await fetch(`${BASE}/api/auth/sign-in/email`, { method: 'POST', headers: { 'content-type': 'application/json', origin: BASE }, body: JSON.stringify({ email, password: 'meadow-lark-2026' }) });
+  if (!r.ok) throw new Error(`sign-in ${email}: ${r.status}`);
+  return r.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+}
+
+async function call<T>(cookie: string, method: string, path: string, body?: unknown): Promise<{ data: T; ms: number }> {
+  const t0 = performance.now();
+  const isForm = body instanceof FormData;
+  const r = await fetch(`${BASE}${path}`, { method, headers: { cookie, origin: BASE, ...(body && !isForm ? { 'content-type': 'application/json' } : {}) }, body: isForm ? body : body ? JSON.stringify(body) : undefined });
+  const text = await r.text();
+  if (!r.ok) throw new Error(`${method} ${path}: ${r.status} ${text.slice(0, 300)}`);
+  return { data: text ? JSON.parse(text) : null, ms: performance.now() - t0 };
+}
+
+async function importFile(cookie: string, purpose: string, name: string, bytes: Uint8Array, mapping: object) {
+  const form = new FormData();
+  form.set('purpose', purpose);
+  form.set('file', new Blob([bytes as BlobPart]), name);
+  const staged = await call<{ id: string; layers: { name: string }[]; timings: { parseMs: number } }>(cookie, 'POST', '/api/uploads', form);
+  const report = await call<{ summary: { total: number; rejected: number }; timings: { parseMs: number; validateMs: number } }>(cookie, 'POST', `/api/uploads/${staged.data.id}/validation`, { layer: staged.data.layers[0]!.name, mapping });
+  const saved = await call<{ saved: number; referenceVersion: { id: number } | null; timings: { storeMs: number; overlayMs: number } }>(cookie, 'POST', `/api/uploads/${staged.data.id}/save`);
+  return { staged, report, saved };
+}
+
+async function benchLayers(admin: string): Promise<void> {
+  const crs = await crsFromEpsg(CORROWMERE.epsg);
+  const origin: Position = fromWgs84(CORROWMERE.originLonLat, crs).map((n) => Math.round(n));
+  const cols = Math.ceil(Math.sqrt(COUNT * 2));
+  const [w, h] = [cols * CORROWMERE.cellWidthM, Math.ceil(COUNT / cols) * CORROWMERE.cellHeightM];
+  const soil: ReturnType<typeof boxFeatures> = [];
+  let i = 0;
+  for (let x = -1000; x < w + 1000; x += 4000) for (let y = -1000; y < h + 1000; y += 3000) soil.push(...boxFeatures(origin, crs, SOILS[i++ % SOILS.length]!, [[x, y, x + 4000, y + 3000] as Box]));
+  const climate = boxFeatures(origin, crs, 'cool-temperate-moist', [[-1000, -1000, w + 1000, h + 1000]]);
+  for (const [kind, features] of [['climate', climate], ['soil', soil]] as const) {
+    const { saved } = await importFile(admin, 'reference', `bench-${kind}.geojson`, new TextEncoder().encode(JSON.stringify(collection(features))), { kind, classAttribute: 'class' });
+    await call(admin, 'POST', `/api/reference-layers/${saved.data.referenceVersion!.id}/publish`, {});
+  }
+  console.log(`bench layers: climate 1 polygon, soil ${soil.length} polygons over ${(w / 1000).toFixed(0)} km × ${(h / 1000).toFixed(0)} km`);
+}
+
+const pct = (xs: number[], p: number) => [...xs].sort((a, b) => a - b)[Math.min(xs.length - 1, Math.ceil((p / 100) * xs.length) - 1)]!;
+const s = (ms: number) => `${(ms / 1000).toFixed(2)} s`;
+
+function tileOf(lon: number, lat: number, z: number): [number, number] {
+  const n = 2 ** z;
+  const r = (lat * Math.PI) / 180;
+  return [Math.floor(((lon + 180) / 360) * n), Math.floor(((1 - Math.log(Math.tan(r) + 1 / Math.cos(r)) / Math.PI) / 2) * n)];
+}
+
+async function tiles(cookie: string, extent: number[]): Promise<void> {
+  const [cx, cy] = [(extent[0]! + extent[2]!) / 2, (extent[1]! + extent[3]!) / 2];
+  const all: number[] = [];
+  for (const z of [12, 13, 14, 15, 16]) {
+    const [x0, y0] = tileOf(cx, cy, z);
+    const times: number[] = [];
+    let bytes = 0;
+    for (let dx = -2; dx < 2; dx++) {
+      for (let dy = -2; dy < 2; dy++) {
+        const t0 = performance.now();
+        const r = await fetch(`${BASE}/api/tiles/${z}/${x0 + dx}/${y0 + dy}.mvt`, { headers: { cookie } });
+        bytes += (await r.arrayBuffer()).byteLength;
+        if (!r.ok) throw new Error(`tile ${z}/${x0 + dx}/${y0 + dy}: ${r.status}`);
+        times.push(performance.now() - t0);
+      }
+    }
+    all.push(...times);
+    console.log(`tiles z${z}: 16 tiles, p50 ${pct(times, 50).toFixed(1)} ms, p95 ${pct(times, 95).toFixed(1)} ms, avg ${(bytes / 16 / 1024).toFixed(0)} kB`);
+  }
+  console.log(`tiles all zooms: ${all.length} tiles, p50 ${pct(all, 50).toFixed(1)} ms, p95 ${pct(all, 95).toFixed(1)} ms (aim: p95 < 50 ms)`);
+}
+
+try {
+  await up();
+  const admin = await session('admin@tarrow.example');
+  const planner = await session('planner@tarrow.example');
+  await benchLayers(admin);
+  const rssBefore = vm('VmRSS');
+  const bytes = new Uint8Array(readFileSync(ZIP));
+  const mapping = { reference: 'field_ref', name: 'name', landUse: 'land_use', management: 'management', lastTillage: 'last_till', ownerRef: 'owner_ref', statedArea: 'stated_ha', statedAreaUnit: 'ha' };
+  const { staged, report, saved } = await importFile(planner, 'parcels', 'bench.zip', bytes, mapping);
+  const total = staged.ms + report.ms + saved.ms;
+  console.log(`\ningest of ${ZIP} (${(bytes.length / 1e6).toFixed(1)} MB, ${report.data.summary.total} features, ${saved.data.saved} saved):`);
+  console.log(`  upload + parse      ${s(staged.ms)}   (server parse ${s(staged.data.timings.parseMs)})`);
+  console.log(`  validate            ${s(report.ms)}   (server: re-parse ${s(report.data.timings.parseMs)}, reproject + validate + stage ${s(report.data.timings.validateMs)})`);
+  console.log(`  store               ${s(saved.data.timings.storeMs)}`);
+  console.log(`  overlay             ${s(saved.data.timings.overlayMs)}`);
+  console.log(`  save request total  ${s(saved.ms)}`);
+  console.log(`  upload-to-saved     ${s(total)}   (aim: < 60 s)`);
+  console.log(`  server memory: RSS before ingest ${rssBefore.toFixed(0)} MB, peak (VmHWM) ${vm('VmHWM').toFixed(0)} MB (aim: < 500 MB)\n`);
+  const map = await call<{ areas: { label: string; extent: number[] }[] }>(planner, 'GET', '/api/map');
+  await tiles(planner, map.data.areas.find((a) => a.label === 'bench.zip')!.extent);
+} finally {
+  server.kill('SIGTERM');
+}
