@@ -2,7 +2,7 @@
  * Ingest and tile benchmark against the real built server (started here on BENCH_PORT, against
  * the database in DATABASE_URL that scripts/bench.sh has reset and seeded). Steps:
  *  1. as admin, publish bench-sized climate and soil layers covering the whole bench grid
- * *     (soil blocks of 4 km × 3 km cycling the 7 IPCC classes, boundaries densified every 100 m like the demo layers);
+ *     (soil blocks of 4 km × 3 km cycling the 7 IPCC classes, boundaries densified every 100 m like the demo layers);
  *  2. as planner, upload → validate → save the 20 000-parcel zip (EPSG:32628), timing each
  *     step (client wall time and the server's own split), and the server's peak memory (VmHWM);
  *  3. fetch a fixed set of tiles at zooms 12-16 and report p50/p95.
