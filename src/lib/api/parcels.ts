@@ -1,5 +1,6 @@
 /** Contracts of the parcel and map routes. */
 import { z } from 'zod';
+import { EVENT_VALUES } from '../gis/land-use-events';
 import { defineSpec } from '../http/spec';
 
 const idParams = z.object({ id: z.coerce.number().int().positive('Parcel ids are positive whole numbers.') });
@@ -68,14 +69,14 @@ export const recordEvent = defineSpec({
   method: 'POST',
   path: '/api/parcels/{id}/events',
   tag: 'Parcels',
-  summary: 'Record a dated land-use, management, tillage or reseeding event with its evidence',
+  summary: 'Record a dated land-use, management, tillage or reseeding event with its evidence (date 1900 to today; value valid for the kind)',
   access: ['planner', 'admin'],
   params: idParams,
   body: z.object({
     date: z.iso.date('Use a date in the form YYYY-MM-DD.'),
     kind: z.enum(['land-use', 'management', 'tillage', 'reseeding']),
-    value: z.string().trim().max(120).optional(),
-    cultivation: z.boolean().default(false),
+    value: z.string().trim().max(120).optional().describe(`Required for land-use and management, optional for tillage and reseeding. ${Object.entries(EVENT_VALUES).map(([k, v]) => `${k}: ${Object.keys(v).join(', ')}`).join('; ')}`),
+    cultivation: z.boolean().default(false).describe('marks a management event as cultivation; lime and fertiliser always are'),
     evidence,
   }),
   response: z.object({ id: z.number() }),

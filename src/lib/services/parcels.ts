@@ -7,6 +7,7 @@ import { getGisSettings } from '../db/gis-settings';
 import { computeOverlay, overlayOfParcel } from '../db/overlay';
 import * as parcels from '../db/parcels';
 import { currentVersions } from '../db/reference-layers';
+import { checkLandUseEvent, cultivationMark } from '../gis/land-use-events';
 import { deriveLandUseFlags, type LandUseEvent } from '../gis/land-use-history';
 import { summariseOverlay } from '../gis/overlay-summary';
 import { validateFeatures } from '../gis/validate';
@@ -104,15 +105,19 @@ export async function editBoundary(by: Caller, id: number, input: { geometry: Ge
   });
 }
 
+/** Records one dated event after the shared checks (date 1900..today, value valid for the kind, evidence); 422 names the field. */
 export async function recordEvent(by: Caller, id: number, e: { date: string; kind: LandUseEvent['kind']; value?: string; cultivation: boolean; evidence: string }) {
-  if (e.date > today()) throw new HttpError('UNPROCESSABLE_CONTENT', 'The event date lies in the future.', [{ path: ['date'], message: 'future date' }]);
+  const value = e.value?.trim().toLowerCase() || null;
+  const issues = checkLandUseEvent({ ...e, value }, today());
+  if (issues.length) throw new HttpError('UNPROCESSABLE_CONTENT', `Invalid body (${issues[0]!.path[0]}): ${issues[0]!.message}`, issues);
+  const cultivation = cultivationMark(e.kind, value, e.cultivation);
   return withTransaction(db, async (trx) => {
     const p = await parcels.getParcel(trx, id);
     if (!p) throw new HttpError('NOT_FOUND', `No parcel with id ${id}.`);
-    const eventId = await parcels.insertEvent(trx, { parcelId: id, date: e.date, kind: e.kind, value: e.value?.trim().toLowerCase() || null, cultivation: e.cultivation, evidence: e.evidence, by: by.id });
+    const eventId = await parcels.insertEvent(trx, { parcelId: id, date: e.date, kind: e.kind, value, cultivation, evidence: e.evidence, by: by.id });
     await parcels.refreshCurrentState(trx, id, by.id);
     await parcels.bumpMapVersion(trx);
-    await recordAudit(trx, { actorId: by.id, action: 'parcel.record-event', entityType: 'parcel', entityId: String(id), details: { eventId, ...e } });
+    await recordAudit(trx, { actorId: by.id, action: 'parcel.record-event', entityType: 'parcel', entityId: String(id), details: { eventId, reference: p.reference, date: e.date, kind: e.kind, value, cultivation, evidence: e.evidence } });
     return { id: eventId };
   });
 }
