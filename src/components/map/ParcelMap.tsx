@@ -5,6 +5,7 @@ import GeoJSON from 'ol/format/GeoJSON';
 import { apiFetch, ApiError } from '../ui/api-client';
 import { BoundaryForm, DrawForm, type DrawValues } from './EditPanel';
 import { EDIT_MIN_ZOOM, editedGeometry, loadSnapTargets, startDrawing, startEditing } from './edit-interactions';
+import { EventForm } from './EventForm';
 import { Legend } from './Legend';
 import { createMap, fitLonLat, tileUrl, type MapHandles } from './map-setup';
 import { ParcelPanel } from './ParcelPanel';
@@ -28,7 +29,7 @@ export function ParcelMap({ canEdit }: { canEdit: boolean }) {
   const [note, setNote] = useState<{ ok: boolean; text: string } | null>(null);
   const [zoom, setZoom] = useState(0);
 
-  const select = useCallback(async (id: number, fit = false) => {
+  const select = useCallback(async (id: number, fit = false, focus = true) => {
     const h = handles.current;
     try {
       const d = await apiFetch<ParcelDetail>(`/api/parcels/${id}`);
@@ -37,7 +38,7 @@ export function ParcelMap({ canEdit }: { canEdit: boolean }) {
       h?.highlight.addFeatures(geojson.readFeatures({ type: 'Feature', properties: {}, geometry: d.geometry }));
       const box = h?.highlight.getExtent();
       if (fit && h && box) h.map.getView().fit(box, { padding: [60, 60, 60, 60], maxZoom: 17 });
-      setTimeout(() => document.getElementById('parcel-heading')?.focus(), 0);
+      if (focus) setTimeout(() => document.getElementById('parcel-heading')?.focus(), 0);
     } catch (e) {
       setNote({ ok: false, text: e instanceof ApiError ? e.message : 'The parcel could not be loaded.' });
     }
@@ -137,6 +138,12 @@ export function ParcelMap({ canEdit }: { canEdit: boolean }) {
     }
   }
 
+  async function afterEvent(id: number) {
+    await refreshTiles();
+    await select(id, false, false);
+  }
+
+  const recordForm = canEdit && detail ? <EventForm key={detail.id} parcelId={detail.id} onRecorded={() => afterEvent(detail.id)} /> : null;
   const actions = canEdit && mode === 'view' && detail ? <button className="btn btn-quiet self-start" onClick={() => void begin('edit')}>Edit boundary</button> : null;
   return (
     <div className="grid gap-3 lg:grid-cols-[16rem_minmax(0,1fr)_22rem]">
@@ -167,7 +174,7 @@ export function ParcelMap({ canEdit }: { canEdit: boolean }) {
       <aside className="panel order-2 overflow-y-auto lg:order-3 lg:max-h-[calc(100vh-10rem)]" aria-live="polite">
         {mode === 'draw' && <DrawForm ready={drawn} busy={busy} onSave={(v) => void saveDrawn(v)} onCancel={endEditing} />}
         {mode === 'edit' && detail && <BoundaryForm reference={detail.reference} busy={busy} onSave={(r) => void saveBoundary(r)} onCancel={endEditing} />}
-        {mode === 'view' && detail && <ParcelPanel p={detail} actions={actions} onClose={() => (setDetail(null), handles.current?.highlight.clear())} />}
+        {mode === 'view' && detail && <ParcelPanel p={detail} actions={actions} recordForm={recordForm} onClose={() => (setDetail(null), handles.current?.highlight.clear())} />}
         {mode === 'view' && !detail && <p className="text-sm text-muted">Click a parcel on the map, or find it by reference, to see its details here.</p>}
       </aside>
     </div>

@@ -1,4 +1,6 @@
 /** Side panel of one parcel: area of record, land use, status flags with reasons, overlay, history. */
+import { EVENT_KIND_LABELS, EVENT_VALUES } from '~/lib/gis/land-use-events';
+import type { LandUseEventKind } from '~/lib/gis/land-use-history';
 import { classLabel } from '~/lib/gis/reference-kinds';
 import type { Flag, KindSummary, ParcelDetail } from './types';
 
@@ -12,6 +14,17 @@ function FlagRow({ label, flag }: { label: string; flag: Flag }) {
       <dt className="font-medium">{label}</dt>
       <dd><span aria-hidden="true">{t.mark} </span>{t.word}. <span className="text-muted">{flag.reason}</span></dd>
     </div>
+  );
+}
+
+function HistoryItem({ e }: { e: ParcelDetail['history'][number] }) {
+  const kind = EVENT_KIND_LABELS[e.kind as LandUseEventKind] ?? e.kind;
+  const value = e.value ? (EVENT_VALUES[e.kind as LandUseEventKind]?.[e.value] ?? e.value) : null;
+  return (
+    <li>
+      <strong>{e.date}</strong> {kind}{value ? `: ${value}` : ''}{e.cultivation && e.kind === 'management' ? ' (cultivation)' : ''}
+      <span className="block text-xs text-muted">Evidence: {e.evidence} · recorded {e.recordedAt.slice(0, 10)}{e.recordedBy ? ` by ${e.recordedBy}` : ''}</span>
+    </li>
   );
 }
 
@@ -36,7 +49,7 @@ function Shares({ title, s, empty }: { title: string; s: KindSummary | undefined
   );
 }
 
-export function ParcelPanel({ p, onClose, actions }: { p: ParcelDetail; onClose: () => void; actions?: React.ReactNode }) {
+export function ParcelPanel({ p, onClose, actions, recordForm }: { p: ParcelDetail; onClose: () => void; actions?: React.ReactNode; recordForm?: React.ReactNode }) {
   const o = p.overlay;
   return (
     <article aria-labelledby="parcel-heading" className="flex flex-col gap-3">
@@ -71,13 +84,12 @@ export function ParcelPanel({ p, onClose, actions }: { p: ParcelDetail; onClose:
         <Shares title="Never-tilled grassland (mapped)" s={o['never-tilled']} empty="Not inside mapped never-tilled grassland." />
         <Shares title="Slope" s={o.slope} empty="No slope class." />
       </section>
-      <section aria-labelledby="history-heading">
-        <h3 id="history-heading" className="mb-1">Land-use history</h3>
+      <section aria-labelledby="history-heading" className="flex flex-col gap-2">
+        <h3 id="history-heading">Land-use history</h3>
+        {recordForm}
         {p.history.length === 0 ? <p className="text-sm text-muted">Nothing recorded.</p> : (
-          <ol className="flex flex-col gap-1 text-sm">
-            {[...p.history].reverse().map((e) => (
-              <li key={e.id}><strong>{e.date}</strong> {e.kind}{e.value ? `: ${e.value}` : ''} <span className="block text-xs text-muted">{e.evidence}{e.recordedBy ? `; recorded by ${e.recordedBy}` : ''}</span></li>
-            ))}
+          <ol className="flex flex-col gap-1 text-sm" aria-label="Events, newest first">
+            {[...p.history].reverse().map((e) => <HistoryItem key={e.id} e={e} />)}
           </ol>
         )}
       </section>

@@ -19,6 +19,6 @@ export type ParcelDetail = {
   source: { kind: 'upload' | 'drawn'; fileName: string | null; savedAt: string | null };
   flags: { asOf: string; permanentGrassland: Flag; uncultivated: Flag; neverTilled: Flag };
   overlay: Record<string, KindSummary>;
-  history: { id: number; date: string; kind: string; value: string | null; evidence: string; recordedBy: string | null }[];
+  history: { id: number; date: string; kind: string; value: string | null; cultivation: boolean; evidence: string; recordedBy: string | null; recordedAt: string }[];
   proposals: { id: string; title: string; status: string }[];
 };

@@ -54,7 +54,8 @@ export type EventIssue = { path: ['date' | 'kind' | 'value' | 'evidence']; messa
 /** Every problem with an event, each naming its field; empty when it may be recorded. */
 export function checkLandUseEvent(e: EventInput, today: string): EventIssue[] {
   const issues: EventIssue[] = [];
-  if (!/^\d{4}-\d{2}-\d{2}$/.test(e.date)) issues.push({ path: ['date'], message: 'Use a date in the form YYYY-MM-DD.' });
+  if (e.date.trim() === '') issues.push({ path: ['date'], message: 'Give the date of the event.' });
+  else if (!/^\d{4}-\d{2}-\d{2}$/.test(e.date)) issues.push({ path: ['date'], message: 'Use a date in the form YYYY-MM-DD.' });
   else if (e.date > today) issues.push({ path: ['date'], message: `The date lies in the future (today is ${today}).` });
   else if (e.date < EARLIEST_EVENT_DATE) issues.push({ path: ['date'], message: `The date lies before ${EARLIEST_EVENT_DATE.slice(0, 4)}; give a date from 1900 on.` });
   const choices = EVENT_VALUES[e.kind];
