@@ -4,7 +4,7 @@ import raw2006 from '~/lib/carbon/factor-sets/ipcc-2006.json';
 import { NONE, REGIMES, SOILS, checker, pct, range } from './factor-check';
 
 // Every shipped default of src/lib/carbon/factor-sets/ipcc-2006.json, checked against the
-// published table it comes from, as transcribed in /work/shared/reference/ipcc-tier1.md.
+// published table it comes from, as transcribed in the team reference shared/reference/ipcc-tier1.md.
 // None of the IPCC PDFs could be opened: unless a check says "read in S.." the value is
 // FROM MEMORY (high confidence, [M-H]) and ships as "unconfirmed". Pages are not recorded
 // in the reference ("page not recorded"), except Eq 2.25 on p. 2.30 (from memory).
