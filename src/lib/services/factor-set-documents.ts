@@ -1,4 +1,5 @@
 /** Pure helpers over factor-set documents: merging confirmations, editing one entry, re-identifying a clone. */
+import { sameJsonContent } from '../canonical-json';
 import { factorSetDocumentSchema, type FactorSetDocument, type Uncertainty } from '../carbon';
 
 export type TableConfirmation = { tableKey: string; by: string; at: string; document: string; page: string };
@@ -43,6 +44,7 @@ export function cloneDocument(doc: FactorSetDocument, id: string, title: string,
   return { ...doc, id, version: 1, title, description };
 }
 
+/** Same content after a round trip through jsonb (which reorders keys): compared in canonical form. */
 export function sameDocument(a: FactorSetDocument, b: FactorSetDocument): boolean {
-  return JSON.stringify(a) === JSON.stringify(b);
+  return sameJsonContent(a, b);
 }

@@ -13,10 +13,10 @@ export const DEFAULT_SET_KEY = 'default-factor-set';
  * Puts each shipped set's version into the database when it is missing. A shipped file whose
  * content changed without a new version number is refused: old estimates name that version.
  */
-export async function syncShippedSets(conn: Db = db): Promise<string[]> {
+export async function syncShippedSets(conn: Db = db, shipped: readonly FactorSetDocument[] = BUILT_IN_FACTOR_SETS): Promise<string[]> {
   const added: string[] = [];
   await withTransaction(conn, async (trx) => {
-    for (const doc of BUILT_IN_FACTOR_SETS) {
+    for (const doc of shipped) {
       if (!(await sets.getSet(trx, doc.id))) await sets.insertSet(trx, { id: doc.id, title: doc.title, description: doc.description, origin: 'shipped', createdBy: null });
       const stored = await sets.getVersion(trx, doc.id, doc.version);
       if (stored && !sameDocument(stored.document, doc)) {
