@@ -6,9 +6,13 @@
  *  2. as planner, upload → validate → save the 20 000-parcel zip (EPSG:32628), timing each
  *     step (client wall time and the server's own split), and the server's peak memory (VmHWM);
  *  3. fetch a fixed set of tiles at zooms 12-16 and report p50/p95.
+ * BENCH_STATE=fresh: the database was just reset and seeded (layers published here).
+ * BENCH_STATE=warm: the database has taken this upload before; its parcels are deleted and the
+ * staging and parcel statistics taken while empty, as autovacuum leaves them, before saving again.
  */
 import { spawn } from 'node:child_process';
-import { readFileSync } from 'node:fs';
+import { appendFileSync, readFileSync } from 'node:fs';
+import knexFactory from 'knex';
 import type { Position } from 'geojson';
 import { crsFromEpsg } from '../src/lib/gis/crs-catalogue.server';
 import { fromWgs84 } from '../src/lib/gis/crs';
@@ -19,6 +23,7 @@ const PORT = Number(process.env.BENCH_PORT ?? 4395);
 const BASE = `http://127.0.0.1:${PORT}`;
 const ZIP = process.env.BENCH_ZIP!;
 const COUNT = Number(process.env.BENCH_COUNT ?? 20_000);
+const STATE = process.env.BENCH_STATE === 'warm' ? 'warm' : 'fresh';
 const SOILS = ['hac', 'lac', 'sandy', 'spodic', 'volcanic', 'wetland', 'organic'];
 
 const server = spawn(process.execPath, [`${process.env.SWARDKEEP_DIST ?? 'dist'}/server/entry.mjs`], {
@@ -108,11 +113,25 @@ async function tiles(cookie: string, extent: number[]): Promise<void> {
   console.log(`tiles all zooms: ${all.length} tiles, p50 ${pct(all, 50).toFixed(1)} ms, p95 ${pct(all, 95).toFixed(1)} ms (aim: p95 < 50 ms)`);
 }
 
+/** The state an earlier upload leaves: its parcels gone again (so the references are free), statistics stale. */
+async function forgetEarlierUpload(): Promise<void> {
+  const knex = knexFactory({ client: 'pg', connection: process.env.DATABASE_URL });
+  try {
+    const gone = await knex('parcel').whereIn('batch_id', knex('upload_batch').select('id').where({ file_name: 'bench.zip' })).delete();
+    await knex.raw('vacuum analyze upload_staging_feature');
+    await knex.raw('vacuum analyze parcel');
+    console.log(`warm database: removed the ${gone} parcels of the earlier bench upload; statistics taken with staging empty`);
+  } finally {
+    await knex.destroy();
+  }
+}
+
 try {
   await up();
   const admin = await session('admin@tarrow.example');
   const planner = await session('planner@tarrow.example');
-  await benchLayers(admin);
+  if (STATE === 'fresh') await benchLayers(admin);
+  else await forgetEarlierUpload();
   const rssBefore = vm('VmRSS');
   const bytes = new Uint8Array(readFileSync(ZIP));
   const mapping = { reference: 'field_ref', name: 'name', landUse: 'land_use', management: 'management', lastTillage: 'last_till', ownerRef: 'owner_ref', statedArea: 'stated_ha', statedAreaUnit: 'ha' };
@@ -125,9 +144,10 @@ try {
   console.log(`  overlay             ${s(saved.data.timings.overlayMs)}`);
   console.log(`  save request total  ${s(saved.ms)}`);
   console.log(`  upload-to-saved     ${s(total)}   (aim: < 60 s)`);
+  if (process.env.BENCH_RESULTS) appendFileSync(process.env.BENCH_RESULTS, `${COUNT} ${STATE} ${(total / 1000).toFixed(3)}\n`);
   console.log(`  server memory: RSS before ingest ${rssBefore.toFixed(0)} MB, peak (VmHWM) ${vm('VmHWM').toFixed(0)} MB (aim: < 500 MB)\n`);
   const map = await call<{ areas: { label: string; extent: number[] }[] }>(planner, 'GET', '/api/map');
-  await tiles(planner, map.data.areas.find((a) => a.label === 'bench.zip')!.extent);
+  await tiles(planner, map.data.areas.filter((a) => a.label === 'bench.zip').at(-1)!.extent);
 } finally {
   server.kill('SIGTERM');
 }

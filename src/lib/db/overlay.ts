@@ -6,6 +6,7 @@
 import type { ReferenceKind } from '../gis/reference-kinds';
 import type { OverlayRow } from '../gis/overlay-summary';
 import type { Knex } from 'knex';
+import { analyzeAfterBulkWrite } from './bulk';
 import type { Db } from './client';
 
 export type ParcelSelector = { batchId: string } | { parcelIds: number[] } | { all: true };
@@ -20,6 +21,8 @@ function parcelFilter(sel: ParcelSelector, alias = 'parcel'): { sql: string; arg
 export async function computeOverlay(db: Db, sel: ParcelSelector, versionIds: number[]): Promise<void> {
   if (versionIds.length === 0) return;
   const f = parcelFilter(sel);
+  // A batch or every parcel is a bulk write; one drawn or edited parcel is not (see analyzeAfterBulkWrite).
+  const bulk = !('parcelIds' in sel) || sel.parcelIds.length > 100;
   const fp = parcelFilter(sel, 'p');
   await db.raw(`delete from parcel_overlay_run where layer_version_id = any(?::bigint[]) and parcel_id in (select id from parcel where ${f.sql})`, [versionIds, ...f.args]);
   await db.raw(
@@ -27,6 +30,7 @@ export async function computeOverlay(db: Db, sel: ParcelSelector, versionIds: nu
      select p.id, v, 0 from parcel p cross join unnest(?::bigint[]) v where ${fp.sql}`,
     [versionIds, ...fp.args],
   );
+  if (bulk) await analyzeAfterBulkWrite(db, 'parcel_overlay_run');
   await db.raw(
     `insert into parcel_overlay (parcel_id, layer_version_id, class, area_ha, share)
      select pid, vid, class, a / 10000, least(1, a / 10000 / nullif(parcel_ha, 0))
@@ -41,6 +45,7 @@ export async function computeOverlay(db: Db, sel: ParcelSelector, versionIds: nu
      ) x where a > 0`,
     [versionIds, ...fp.args],
   );
+  if (bulk) await analyzeAfterBulkWrite(db, 'parcel_overlay');
   await db.raw(
     `update parcel_overlay_run r set covered_share = least(1, s.total)
      from (select parcel_id, layer_version_id, sum(share) total from parcel_overlay where layer_version_id = any(?::bigint[]) group by 1, 2) s

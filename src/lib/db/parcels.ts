@@ -1,5 +1,6 @@
 /** Parcels, their land-use events and the map data version (server-only). */
 import type { MultiPolygon } from 'geojson';
+import { analyzeAfterBulkWrite } from './bulk';
 import type { Db } from './client';
 
 export type ParcelRow = {
@@ -32,6 +33,7 @@ export async function insertParcelsFromStaging(db: Db, stagingId: string, batchI
      from upload_staging_feature f where f.staging_id = ? and f.status <> 'rejected' order by f.idx`,
     [batchId, by, by, stagingId],
   );
+  await analyzeAfterBulkWrite(db, 'parcel');
   return r.rowCount ?? 0;
 }
 
@@ -49,6 +51,7 @@ export async function insertEventsFromStaging(db: Db, stagingId: string, batchId
      union all ${part('reseeding', "(f.fields->>'lastReseeding')::date", 'null', 'lastReseeding')}`,
     [...args, ...args, ...args, ...args],
   );
+  await analyzeAfterBulkWrite(db, 'land_use_event');
 }
 
 export async function getParcel(db: Db, id: number): Promise<ParcelRow | null> {

@@ -1,5 +1,6 @@
 /** Reference layer versions and their features (server-only). */
 import type { ReferenceKind } from '../gis/reference-kinds';
+import { analyzeAfterBulkWrite } from './bulk';
 import type { Db } from './client';
 
 export type LayerVersionRow = {
@@ -57,6 +58,7 @@ export async function insertVersionFromStaging(
      select ?, fields->>'class', fields->>'label', geom from upload_staging_feature where staging_id = ? and status <> 'rejected' order by idx`,
     [row.id, v.stagingId],
   );
+  await analyzeAfterBulkWrite(db, 'reference_feature');
   await db('reference_layer_version').where({ id: row.id }).update({ feature_count: inserted.rowCount ?? 0 });
   return { id: row.id, version: next };
 }

@@ -1,4 +1,5 @@
 /** Staged uploads and their validated features (server-only). */
+import { analyzeAfterBulkWrite } from './bulk';
 import type { Db } from './client';
 
 export type StagingRow = {
@@ -69,6 +70,7 @@ export async function replaceStagedFeatures(db: Db, stagingId: string, features:
       [stagingId, JSON.stringify(chunk)],
     );
   }
+  await analyzeAfterBulkWrite(db, 'upload_staging_feature');
 }
 
 const push = (code: string, message: string) => `issues || jsonb_build_array(jsonb_build_object('code', '${code}', 'message', ${message}, 'severity', 'error'))`;
