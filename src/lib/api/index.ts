@@ -8,6 +8,7 @@ import * as authRoutes from './auth';
 import * as estimates from './estimates';
 import * as factorSets from './factor-sets';
 import * as parcels from './parcels';
+import * as proposals from './proposals';
 import * as uploads from './uploads';
 import * as users from './users';
 
@@ -52,4 +53,11 @@ export const allSpecs: ApiSpec[] = [
   parcels.tile,
   parcels.listReferenceLayers,
   parcels.publishReferenceLayer,
+  proposals.createProposal,
+  proposals.listProposals,
+  proposals.getProposal,
+  proposals.updateProposal,
+  proposals.transitionProposal,
+  proposals.addAttachment,
+  proposals.getAttachment,
 ];

@@ -15,7 +15,7 @@ export {
 } from './factor-set-schema';
 export { estimateLandUseChange, assertAllFinite } from './estimate';
 export { EstimateInputError, type EstimateInputIssue } from './errors';
-export { runMonteCarlo, type MonteCarloResult } from './monte-carlo';
+export { runMonteCarlo, runJointMonteCarlo, type JointItem, type MonteCarloResult } from './monte-carlo';
 export { buildPlan, type Plan } from './plan';
 export { diffFactorSets, unconfirmedTables, canSignOff, tablesUsed, type EntryDifference, type EntrySide } from './factor-set-diff';
 export { STANDARD_CAUTIONS } from './cautions';

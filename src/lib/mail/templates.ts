@@ -38,3 +38,34 @@ export function passwordResetMail(p: { name: string; url: string }): MailContent
     { url: p.url, label: 'Choose a new password' },
   );
 }
+
+type ProposalRef = { reference: string; title: string; url: string };
+
+export function proposalSubmittedMail(p: ProposalRef & { name: string; by: string; decisionDue: string }): MailContent {
+  return render(
+    `Proposal ${p.reference} submitted for assessment`,
+    [`Hello ${p.name},`, `${p.by} has submitted proposal ${p.reference}, "${p.title}", for assessment.`, `The decision is due by ${p.decisionDue}.`],
+    { url: p.url, label: 'Open the proposal' },
+  );
+}
+
+export function proposalReturnedMail(p: ProposalRef & { name: string; by: string; reason: string }): MailContent {
+  return render(
+    `Proposal ${p.reference} returned: more information needed`,
+    [`Hello ${p.name},`, `${p.by} has returned proposal ${p.reference}, "${p.title}", and asks for more information:`, p.reason, 'Edit the proposal and submit it again; the decision period starts again from the new submission.'],
+    { url: p.url, label: 'Open the proposal' },
+  );
+}
+
+export function assessmentSignedMail(p: ProposalRef & { name: string; by: string; number: number; level: string; co2e: string; forChair: boolean }): MailContent {
+  return render(
+    `Assessment of ${p.reference} signed off`,
+    [
+      `Hello ${p.name},`,
+      `${p.by} has signed off assessment ${p.number} of proposal ${p.reference}, "${p.title}".`,
+      `Risk: ${p.level}. Estimated emissions over the transition period: ${p.co2e}.`,
+      p.forChair ? 'It is ready to be put on a board agenda.' : 'The proposal now goes to the board.',
+    ],
+    { url: p.url, label: 'Read the assessment' },
+  );
+}
