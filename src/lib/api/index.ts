@@ -8,6 +8,7 @@ import * as authRoutes from './auth';
 import * as estimates from './estimates';
 import * as factorSets from './factor-sets';
 import * as parcels from './parcels';
+import * as ruleSets from './rule-sets';
 import * as uploads from './uploads';
 import * as users from './users';
 
@@ -52,4 +53,12 @@ export const allSpecs: ApiSpec[] = [
   parcels.tile,
   parcels.listReferenceLayers,
   parcels.publishReferenceLayer,
+  ruleSets.listRuleSets,
+  ruleSets.getRuleSet,
+  ruleSets.diffRuleSets,
+  ruleSets.cloneRuleSet,
+  ruleSets.startRuleDraft,
+  ruleSets.editRuleDraft,
+  ruleSets.publishRuleDraft,
+  ruleSets.putDefaultRuleSet,
 ];
