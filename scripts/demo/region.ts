@@ -1,6 +1,6 @@
 /**
- * Loads the invented demo region (gis/demo/) through the same services as the app: the five
- * reference layers are uploaded, validated, saved and published by the demo admin; the
+ * Loads the invented demo region (gis/demo/) through the same services as the app: the six
+ * reference layers (climate, soil, sensitive, slope, never-tilled, accounting regions) are uploaded, validated, saved and published by the demo admin; the
  * Corrowmere parcels (zipped shapefile in EPSG:32628, so reprojection runs) and the Velomari
  * parcels (GeoJSON) are imported by the demo planner. Then each parcel gets an invented,
  * deterministic land-use history so the status flags have something to derive from.
@@ -23,6 +23,7 @@ const LAYERS = [
   { file: 'sensitive-grassland.geojson', kind: 'sensitive', labelAttribute: 'name' },
   { file: 'slope-classes.geojson', kind: 'slope' },
   { file: 'never-tilled-grassland.geojson', kind: 'never-tilled' },
+  { file: 'districts.geojson', kind: 'region', labelAttribute: 'name' },
 ] as const;
 
 const PARCEL_MAPPING = { reference: 'field_ref', name: 'name', landUse: 'land_use', management: 'management', lastTillage: 'last_till', ownerRef: 'owner_ref', statedArea: 'stated_ha', statedAreaUnit: 'ha' };
@@ -73,5 +74,5 @@ export async function seedDemoRegion(adminEmail: string, plannerEmail: string): 
   const cm = await importFile(planner, 'parcels', 'corrowmere-parcels-utm28n.zip', PARCEL_MAPPING);
   const vm = await importFile(planner, 'parcels', 'velomari-parcels.geojson', PARCEL_MAPPING);
   const events = await addHistories(planner);
-  return `demo region added: 5 reference layers; Corrowmere ${cm.saved.saved} parcels from EPSG:${cm.crs.epsg} (${cm.saved.rejected} rejected by validation), Velomari ${vm.saved.saved} (${vm.saved.rejected} rejected); ${events} history events`;
+  return `demo region added: ${LAYERS.length} reference layers; Corrowmere ${cm.saved.saved} parcels from EPSG:${cm.crs.epsg} (${cm.saved.rejected} rejected by validation), Velomari ${vm.saved.saved} (${vm.saved.rejected} rejected); ${events} history events`;
 }
