@@ -8,6 +8,7 @@ import * as authRoutes from './auth';
 import * as estimates from './estimates';
 import * as factorSets from './factor-sets';
 import * as parcels from './parcels';
+import * as regions from './regions';
 import * as ruleSets from './rule-sets';
 import * as uploads from './uploads';
 import * as users from './users';
@@ -61,4 +62,6 @@ export const allSpecs: ApiSpec[] = [
   ruleSets.editRuleDraft,
   ruleSets.publishRuleDraft,
   ruleSets.putDefaultRuleSet,
+  regions.listRegions,
+  regions.enterReferenceRatio,
 ];
