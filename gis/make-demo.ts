@@ -51,6 +51,7 @@ function referenceLayers(region: RegionSpec, crs: CrsDefinition) {
     slope: l.slope.flatMap(([cls, boxes]) => boxFeatures(o, crs, cls, boxes, tag)),
     sensitive: l.sensitive.flatMap((s) => boxFeatures(o, crs, 'sensitive-grassland', [s.box], { ...tag, name: s.name, site_code: s.code })),
     neverTilled: boxFeatures(o, crs, 'never-tilled', l.neverTilled, tag),
+    districts: l.districts.flatMap((d) => boxFeatures(o, crs, d.key, d.boxes, { ...tag, name: d.name })),
   };
 }
 
@@ -86,6 +87,7 @@ async function main(): Promise<void> {
     'slope-classes.geojson': [...a.slope, ...b.slope],
     'sensitive-grassland.geojson': [...a.sensitive, ...b.sensitive],
     'never-tilled-grassland.geojson': [...a.neverTilled, ...b.neverTilled],
+    'districts.geojson': [...a.districts, ...b.districts],
   };
   for (const [name, features] of Object.entries(layers)) write(name, JSON.stringify(collection(features)));
   const manifest = {

@@ -5,11 +5,14 @@ import config from '../knexfile';
 const knex = knexFactory(config);
 const [cmd = 'latest', name] = process.argv.slice(2);
 
-/** Reference data that ships with the code (the IPCC factor sets) follows the schema. */
+/** Reference data that ships with the code (the IPCC factor sets, the default rule set) follows the schema. */
 async function syncReferenceData(): Promise<void> {
   const { syncShippedSets } = await import('../src/lib/services/factor-sets');
   const added = await syncShippedSets(knex);
   if (added.length) console.log(`migrate: shipped factor sets added: ${added.join(', ')}`);
+  const { syncShippedRuleSets } = await import('../src/lib/services/rule-sets');
+  const rules = await syncShippedRuleSets(knex);
+  if (rules.length) console.log(`migrate: shipped rule sets added: ${rules.join(', ')}`);
 }
 
 try {

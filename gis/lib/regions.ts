@@ -24,6 +24,8 @@ export interface RegionSpec {
     slope: [string, Box[]][];
     sensitive: { name: string; code: string; box: Box }[];
     neverTilled: Box[];
+    /** Accounting regions (districts): key, invented name, boxes. */
+    districts: { key: string; name: string; boxes: Box[] }[];
   };
 }
 
@@ -56,6 +58,10 @@ export const CORROWMERE: RegionSpec = {
       { name: 'Fenbrook meadows', code: 'SG-02', box: [3500, 200, 4300, 900] },
     ],
     neverTilled: [[200, 2200, 1500, 3300]],
+    districts: [
+      { key: 'skarrow', name: 'Skarrow district', boxes: [[-1000, -1000, 2600, 4150]] },
+      { key: 'fenbrook', name: 'Fenbrook district', boxes: [[2600, -1000, 6200, 4150]] },
+    ],
   },
 };
 
@@ -83,5 +89,6 @@ export const VELOMARI: RegionSpec = {
     ],
     sensitive: [{ name: 'Tembiri grassland', code: 'SG-11', box: [100, 400, 500, 800] }],
     neverTilled: [[1000, 450, 1400, 800]],
+    districts: [{ key: 'tembiri', name: 'Tembiri district', boxes: [[-500, -500, 1940, 1250]] }],
   },
 };

@@ -1,6 +1,6 @@
 /**
- * Loads the invented demo region (gis/demo/) through the same services as the app: the five
- * reference layers are uploaded, validated, saved and published by the demo admin; the
+ * Loads the invented demo region (gis/demo/) through the same services as the app: the six
+ * reference layers (climate, soil, sensitive, slope, never-tilled, accounting regions) are uploaded, validated, saved and published by the demo admin; the
  * Corrowmere parcels (zipped shapefile in EPSG:32628, so reprojection runs) and the Velomari
  * parcels (GeoJSON) are imported by the demo planner. Then each parcel gets an invented,
  * deterministic land-use history so the status flags have something to derive from.
@@ -11,6 +11,7 @@ import { db } from '../../src/lib/db/client';
 import { parseRoles } from '../../src/lib/auth/roles';
 import type { Caller } from '../../src/lib/http/handle';
 import { publishLayerVersion } from '../../src/lib/services/reference-layers';
+import { enterReferenceRatio } from '../../src/lib/services/regions';
 import { saveUpload } from '../../src/lib/services/upload-save';
 import { stageUpload, type UploadPurpose } from '../../src/lib/services/upload-stage';
 import { validateUpload } from '../../src/lib/services/upload-validate';
@@ -23,6 +24,7 @@ const LAYERS = [
   { file: 'sensitive-grassland.geojson', kind: 'sensitive', labelAttribute: 'name' },
   { file: 'slope-classes.geojson', kind: 'slope' },
   { file: 'never-tilled-grassland.geojson', kind: 'never-tilled' },
+  { file: 'districts.geojson', kind: 'region', labelAttribute: 'name' },
 ] as const;
 
 const PARCEL_MAPPING = { reference: 'field_ref', name: 'name', landUse: 'land_use', management: 'management', lastTillage: 'last_till', ownerRef: 'owner_ref', statedArea: 'stated_ha', statedAreaUnit: 'ha' };
@@ -60,6 +62,18 @@ async function addHistories(by: Caller): Promise<number> {
   return r.rowCount ?? 0;
 }
 
+/**
+ * Reference ratios (2018) of the demo districts: the invented history does not reach back to
+ * 2018, so the demo admin enters them, as an authority would from its census.
+ */
+export const DEMO_REFERENCE_RATIOS = { skarrow: 0.82, fenbrook: 0.72, tembiri: 0.78 } as const;
+
+async function addReferenceRatios(by: Caller): Promise<void> {
+  for (const [key, ratio] of Object.entries(DEMO_REFERENCE_RATIOS)) {
+    await enterReferenceRatio(by, key, { referenceYear: 2018, ratio, source: 'Upper Tarrow farm census 2018, table 3 (invented demo figure)' });
+  }
+}
+
 export async function seedDemoRegion(adminEmail: string, plannerEmail: string): Promise<string> {
   const [{ n }] = await db('parcel').count<{ n: number }[]>('* as n');
   const [{ m }] = await db('reference_layer_version').count<{ m: number }[]>('* as m');
@@ -73,5 +87,6 @@ export async function seedDemoRegion(adminEmail: string, plannerEmail: string): 
   const cm = await importFile(planner, 'parcels', 'corrowmere-parcels-utm28n.zip', PARCEL_MAPPING);
   const vm = await importFile(planner, 'parcels', 'velomari-parcels.geojson', PARCEL_MAPPING);
   const events = await addHistories(planner);
-  return `demo region added: 5 reference layers; Corrowmere ${cm.saved.saved} parcels from EPSG:${cm.crs.epsg} (${cm.saved.rejected} rejected by validation), Velomari ${vm.saved.saved} (${vm.saved.rejected} rejected); ${events} history events`;
+  await addReferenceRatios(admin);
+  return `demo region added: ${LAYERS.length} reference layers; Corrowmere ${cm.saved.saved} parcels from EPSG:${cm.crs.epsg} (${cm.saved.rejected} rejected by validation), Velomari ${vm.saved.saved} (${vm.saved.rejected} rejected); ${events} history events; reference ratios of ${Object.keys(DEMO_REFERENCE_RATIOS).length} districts`;
 }

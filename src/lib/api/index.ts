@@ -9,6 +9,8 @@ import * as estimates from './estimates';
 import * as factorSets from './factor-sets';
 import * as parcels from './parcels';
 import * as proposals from './proposals';
+import * as regions from './regions';
+import * as ruleSets from './rule-sets';
 import * as uploads from './uploads';
 import * as users from './users';
 
@@ -60,4 +62,14 @@ export const allSpecs: ApiSpec[] = [
   proposals.transitionProposal,
   proposals.addAttachment,
   proposals.getAttachment,
+  ruleSets.listRuleSets,
+  ruleSets.getRuleSet,
+  ruleSets.diffRuleSets,
+  ruleSets.cloneRuleSet,
+  ruleSets.startRuleDraft,
+  ruleSets.editRuleDraft,
+  ruleSets.publishRuleDraft,
+  ruleSets.putDefaultRuleSet,
+  regions.listRegions,
+  regions.enterReferenceRatio,
 ];

@@ -7,7 +7,7 @@
  */
 import { CLIMATE_REGIONS, SOIL_TYPES } from '../carbon/types';
 
-export const REFERENCE_KINDS = ['climate', 'soil', 'sensitive', 'slope', 'never-tilled'] as const;
+export const REFERENCE_KINDS = ['climate', 'soil', 'sensitive', 'slope', 'never-tilled', 'region'] as const;
 export type ReferenceKind = (typeof REFERENCE_KINDS)[number];
 
 /** How a parcel's overlay with a kind is summarised (see overlay-summary.ts). */
@@ -28,6 +28,8 @@ export const KIND_INFO: Record<ReferenceKind, KindInfo> = {
   sensitive: { label: 'Designated sensitive grassland', rule: 'shares', classes: null, flagUncovered: false },
   slope: { label: 'Slope and erosion classes', rule: 'shares', classes: null, flagUncovered: false },
   'never-tilled': { label: 'Never-tilled grassland', rule: 'shares', classes: null, flagUncovered: false },
+  /** Accounting regions for the permanent-grassland ratio; a parcel belongs to the one with its largest share. */
+  region: { label: 'Accounting regions (districts)', rule: 'largest-share', classes: null, flagUncovered: false },
 };
 
 /** Fill patterns drawn by the map legend and layer styles. */

@@ -107,4 +107,6 @@ export type Grade = {
   label: string;
   reasons: GradeReason[];
   ruleSet: { id: string; version: number };
+  /** Optional (added by the grader): rules that could not be decided for want of data, e.g. no reference ratio. */
+  undecided?: { rule: string; citation: string; text: string }[];
 };
