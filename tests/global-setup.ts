@@ -3,7 +3,7 @@
  * local SMTP fake and the BUILT app (`astro build` ran before vitest) on loopback ports.
  */
 import { execFileSync, type ChildProcess } from 'node:child_process';
-import { existsSync, mkdirSync } from 'node:fs';
+import { existsSync, mkdirSync, writeFileSync } from 'node:fs';
 import { appEnv, APP_PORT, DIST, SMTP_PORT, TEST_DATABASE_NAME } from './support/env';
 import { startAppInstance, startProcess, stopProcess, waitForPort } from './support/processes';
 
@@ -20,6 +20,8 @@ export async function setup(): Promise<void> {
   run('scripts/seed.ts');
   mail = startProcess(['--import', 'tsx', 'scripts/mail-fake.ts'], env, `.data/test-mail-${SMTP_PORT}.log`);
   await waitForPort(SMTP_PORT, mail);
+  // Tests that stop the mail server for a while (the outbox must hold the mail) find it here.
+  writeFileSync(`.data/test-mail-${SMTP_PORT}.pid`, String(mail.pid));
   app = await startAppInstance(env, APP_PORT);
 }
 

@@ -4,6 +4,7 @@
  */
 import type { ApiSpec } from '../http/spec';
 import * as admin from './admin';
+import * as assessments from './assessments';
 import * as authRoutes from './auth';
 import * as estimates from './estimates';
 import * as factorSets from './factor-sets';
@@ -62,6 +63,12 @@ export const allSpecs: ApiSpec[] = [
   proposals.transitionProposal,
   proposals.addAttachment,
   proposals.getAttachment,
+  assessments.runAssessment,
+  assessments.listAssessments,
+  assessments.getAssessment,
+  assessments.saveFindings,
+  assessments.signOffAssessment,
+  assessments.reproduceAssessment,
   ruleSets.listRuleSets,
   ruleSets.getRuleSet,
   ruleSets.diffRuleSets,

@@ -15,6 +15,7 @@ export {
 } from './factor-set-schema';
 export { estimateLandUseChange, assertAllFinite } from './estimate';
 export { EstimateInputError, type EstimateInputIssue } from './errors';
+export { mergeLinearRequests } from './merge-requests';
 export { runMonteCarlo, runJointMonteCarlo, type JointItem, type MonteCarloResult } from './monte-carlo';
 export { buildPlan, type Plan } from './plan';
 export { diffFactorSets, unconfirmedTables, canSignOff, tablesUsed, type EntryDifference, type EntrySide } from './factor-set-diff';

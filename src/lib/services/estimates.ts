@@ -1,24 +1,35 @@
 /** Runs an estimate against a stored, published factor set (never mixing sets). */
-import { canSignOff, estimateLandUseChange, EstimateInputError, tablesUsed, unconfirmedTables } from '../carbon';
+import { canSignOff, estimateLandUseChange, EstimateInputError, tablesUsed, unconfirmedTables, type FactorSetDocument } from '../carbon';
 import type { z } from 'zod';
 import type { estimateBodySchema } from '../api/estimates';
 import { db } from '../db/client';
 import { HttpError } from '../http/errors';
 import { defaultSetId, loadPublished } from './factor-sets';
 
-export async function runEstimate(body: z.output<typeof estimateBodySchema>) {
+export type EstimateBody = z.output<typeof estimateBodySchema>;
+
+/** What `POST /api/estimates` answers for `body`, computed with the already loaded `set`. */
+export function estimateWithSet(body: EstimateBody & { factorSet: string }, set: FactorSetDocument) {
+  const result = estimateLandUseChange(body, set);
+  const used = tablesUsed(result.factors);
+  const open = new Set(unconfirmedTables(set));
+  return { ...result, signOffReady: canSignOff(set, used), unconfirmedTablesUsed: used.filter((t) => open.has(t)) };
+}
+
+export function asHttpError(err: unknown): unknown {
+  if (err instanceof EstimateInputError) {
+    const first = err.issues[0];
+    return new HttpError('UNPROCESSABLE_CONTENT', first ? `${first.path.join('.') || 'request'}: ${first.message}` : err.message, err.issues);
+  }
+  return err;
+}
+
+export async function runEstimate(body: EstimateBody) {
   const setId = body.factorSet ?? (await defaultSetId(db));
   const set = await loadPublished(db, setId, body.factorSetVersion);
   try {
-    const result = estimateLandUseChange({ ...body, factorSet: setId }, set);
-    const used = tablesUsed(result.factors);
-    const open = new Set(unconfirmedTables(set));
-    return { ...result, signOffReady: canSignOff(set, used), unconfirmedTablesUsed: used.filter((t) => open.has(t)) };
+    return estimateWithSet({ ...body, factorSet: setId }, set);
   } catch (err) {
-    if (err instanceof EstimateInputError) {
-      const first = err.issues[0];
-      throw new HttpError('UNPROCESSABLE_CONTENT', first ? `${first.path.join('.') || 'request'}: ${first.message}` : err.message, err.issues);
-    }
-    throw err;
+    throw asHttpError(err);
   }
 }

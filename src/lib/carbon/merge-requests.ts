@@ -1,0 +1,35 @@
+/**
+ * Folding many areas into one calculation per kind of change (pure).
+ *
+ * For one climate region, before state and after state, every stock-change, biomass and N2O
+ * factor is the same for every area, so the method of compute.ts is linear in (area x soil
+ * fraction) for each soil class: mineral SOC change = sum of area x fraction x SOC_REF x
+ * (F_after - F_before); drained organic soil = area x fraction x EF difference x years; biomass
+ * = area x stock difference; and N2O follows the mineral loss, whose sign is the sign of
+ * (F_after - F_before), the same for every area of the group. So the sum of the areas' figures
+ * equals the figures of ONE request with the summed area and area-weighted soil fractions, for
+ * the point estimate and for every Monte Carlo draw. This lets a proposal of thousands of
+ * parcels, and every alternative, run its joint range over a handful of calculations.
+ */
+import canonicalize from 'canonicalize';
+import type { EstimateRequest } from './schemas';
+
+export function mergeLinearRequests(requests: EstimateRequest[]): EstimateRequest[] {
+  const groups = new Map<string, { req: EstimateRequest; areaHa: number; soilHa: Map<string, number> }>();
+  for (const r of requests) {
+    const { soils: _s, areaHa: _a, uncertainty: _u, ...rest } = r;
+    const key = canonicalize(rest)!;
+    const g = groups.get(key) ?? { req: r, areaHa: 0, soilHa: new Map<string, number>() };
+    g.areaHa += r.areaHa;
+    for (const s of r.soils) g.soilHa.set(s.type, (g.soilHa.get(s.type) ?? 0) + s.fraction * r.areaHa);
+    groups.set(key, g);
+  }
+  return [...groups.values()].map((g) => {
+    const types = [...g.soilHa.keys()].sort();
+    const soils = types.map((type) => ({ type, fraction: g.soilHa.get(type)! / g.areaHa })) as EstimateRequest['soils'];
+    // Make the fractions sum to 1 exactly, whatever the rounding of the division.
+    const rest = soils.slice(0, -1).reduce((s, x) => s + x.fraction, 0);
+    soils[soils.length - 1]!.fraction = 1 - rest;
+    return { ...g.req, soils, areaHa: g.areaHa };
+  });
+}

@@ -1,0 +1,80 @@
+/**
+ * The figures of an assessment from the per-parcel estimate requests (pure): every parcel's
+ * estimate exactly as POST /api/estimates gives it, the totals (sum of the parcels), the joint
+ * 95 % range, and each alternative estimated in full. Shared by a run and by its reproduction.
+ */
+import {
+  buildPlan, estimateLandUseChange, estimateRequestSchema, mergeLinearRequests, runJointMonteCarlo,
+  type EstimateRequest, type FactorSetDocument, type LandUseState,
+} from '../carbon';
+import { canSignOff, tablesUsed, unconfirmedTables } from '../carbon';
+import { alternativeSpecs, RESTORED_STATE, type AlternativeKey } from './alternatives';
+
+export type ParcelRequest = EstimateRequest & { factorSet: string; factorSetVersion: number };
+
+export type Totals = { areaHa: number; socChangeTotal: number; biomassChangeTotal: number; n2oTotal: number; co2eTotal: number; co2eLow: number; co2eHigh: number; runs: number; seed: number };
+
+export type Alternative = {
+  key: AlternativeKey; label: string; description: string; available: boolean; note: string | null;
+  areaHa: number; co2eTotal: number | null; co2eLow: number | null; co2eHigh: number | null; differenceFromProposal: number | null;
+};
+
+/** Same as `estimateWithSet` of the estimates service, kept pure here. */
+export function estimateAsApi(req: ParcelRequest, set: FactorSetDocument) {
+  const result = estimateLandUseChange(req, set);
+  const used = tablesUsed(result.factors);
+  const open = new Set(unconfirmedTables(set));
+  return { ...result, signOffReady: canSignOff(set, used), unconfirmedTablesUsed: used.filter((t) => open.has(t)) };
+}
+
+/** Point total and joint range of a set of areas: merged by kind of change (linear), one draw per factor per run. */
+export function jointTotal(requests: EstimateRequest[], set: FactorSetDocument, runs: number, seed: number): { co2eTotal: number; co2eLow: number; co2eHigh: number; cautions: string[] } {
+  if (requests.length === 0) return { co2eTotal: 0, co2eLow: 0, co2eHigh: 0, cautions: [] };
+  const merged = mergeLinearRequests(requests.map((r) => estimateRequestSchema.parse(r)));
+  const years = merged[0]!.transitionYears;
+  const point = merged.reduce((s, r) => s + estimateLandUseChange(r, set).co2eTotal, 0);
+  const mc = runJointMonteCarlo(merged.map((r) => ({ plan: buildPlan(r, set), areaHa: r.areaHa })), years, runs, seed);
+  return { co2eTotal: point, co2eLow: mc.co2eLow, co2eHigh: mc.co2eHigh, cautions: mc.cautions };
+}
+
+export type FigureInput = {
+  /** Per parcel: its request, or null when something blocks its estimate. */
+  requests: ({ parcelId: number; areaHa: number; request: ParcelRequest | null })[];
+  proposed: LandUseState;
+  sharePercent: number;
+  /** The restoration offered as compensation, when a parcel was named and can be restored. */
+  compensation: { request: ParcelRequest | null; note: string | null } | null;
+  runs: number;
+  seed: number;
+};
+
+export function assessmentFigures(input: FigureInput, set: FactorSetDocument) {
+  const estimates = input.requests.map((p) => (p.request ? estimateAsApi(p.request, set) : null));
+  const ok = input.requests.flatMap((p) => (p.request ? [p.request] : []));
+  const sum = (k: 'socChangeTotal' | 'biomassChangeTotal' | 'n2oTotal' | 'co2eTotal') => estimates.reduce((s, e) => s + (e ? e[k] : 0), 0);
+  const joint = jointTotal(ok, set, input.runs, input.seed);
+  const totals: Totals = {
+    areaHa: input.requests.reduce((s, p) => s + p.areaHa, 0),
+    socChangeTotal: sum('socChangeTotal'), biomassChangeTotal: sum('biomassChangeTotal'), n2oTotal: sum('n2oTotal'), co2eTotal: sum('co2eTotal'),
+    co2eLow: joint.co2eLow, co2eHigh: joint.co2eHigh, runs: input.runs, seed: input.seed,
+  };
+  const alternatives: Alternative[] = alternativeSpecs(input.proposed, input.sharePercent).map(({ spec, unavailable }) => {
+    const base = { key: spec.key, label: spec.label, description: spec.description };
+    if (unavailable) return { ...base, available: false, note: unavailable, areaHa: 0, co2eTotal: null, co2eLow: null, co2eHigh: null, differenceFromProposal: null };
+    const reqs = ok.map((r) => ({ ...r, after: spec.after ? spec.after(r.after, r.before) : r.after, areaHa: r.areaHa * spec.areaShare }));
+    const t = spec.key === 'proposal' ? joint : jointTotal(reqs, set, input.runs, input.seed);
+    return { ...base, available: true, note: null, areaHa: reqs.reduce((s, r) => s + r.areaHa, 0), co2eTotal: t.co2eTotal, co2eLow: t.co2eLow, co2eHigh: t.co2eHigh, differenceFromProposal: t.co2eTotal - joint.co2eTotal };
+  });
+  if (input.compensation) {
+    const c = input.compensation;
+    const base = { key: 'compensation' as const, label: 'With compensation', description: 'The proposal, and a named cropland parcel restored to grassland.' };
+    if (!c.request) alternatives.push({ ...base, available: false, note: c.note, areaHa: 0, co2eTotal: null, co2eLow: null, co2eHigh: null, differenceFromProposal: null });
+    else {
+      const t = jointTotal([...ok, c.request], set, input.runs, input.seed);
+      alternatives.push({ ...base, note: c.note, available: true, areaHa: totals.areaHa + c.request.areaHa, co2eTotal: t.co2eTotal, co2eLow: t.co2eLow, co2eHigh: t.co2eHigh, differenceFromProposal: t.co2eTotal - joint.co2eTotal });
+    }
+  }
+  return { estimates, totals, alternatives, jointCautions: joint.cautions };
+}
+
+export { RESTORED_STATE };
