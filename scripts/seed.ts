@@ -9,6 +9,7 @@ import { recordAudit } from '../src/lib/db/audit';
 import { db } from '../src/lib/db/client';
 import { insertUser, setPassword } from '../src/lib/db/users';
 import { DEMO_PASSWORD, DEMO_PEOPLE } from './demo/people';
+import { seedDemoProposals } from './demo/proposals';
 import { seedDemoRegion } from './demo/region';
 
 async function main(): Promise<void> {
@@ -21,6 +22,8 @@ async function main(): Promise<void> {
   const admin = DEMO_PEOPLE.find((p) => p.roles.includes('admin'))!;
   const planner = DEMO_PEOPLE.find((p) => p.roles.includes('planner'))!;
   console.log(`seed: ${await seedDemoRegion(admin.email, planner.email)}`);
+  const assessor = DEMO_PEOPLE.find((p) => p.roles.includes('assessor'))!;
+  console.log(`seed: ${await seedDemoProposals(planner.email, assessor.email)}`);
 }
 
 async function seedPeople(): Promise<void> {

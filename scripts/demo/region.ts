@@ -29,7 +29,7 @@ const LAYERS = [
 
 const PARCEL_MAPPING = { reference: 'field_ref', name: 'name', landUse: 'land_use', management: 'management', lastTillage: 'last_till', ownerRef: 'owner_ref', statedArea: 'stated_ha', statedAreaUnit: 'ha' };
 
-async function caller(email: string): Promise<Caller> {
+export async function caller(email: string): Promise<Caller> {
   const u = await db('user').where({ email }).first();
   if (!u) throw new Error(`demo user ${email} is missing`);
   return { id: u.id, name: u.name, email: u.email, roles: parseRoles(u.role) };

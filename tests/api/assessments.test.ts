@@ -159,6 +159,8 @@ describe('splitting a conversion on one holding', () => {
 
 describe('sign-off, versions and reproduction', () => {
   it('sign-off waits for confirmed tables unless the authority allows it; then freezes, mails the planner and the chair', async () => {
+    // The authority's setting as shipped: no sign-off while a table used is unconfirmed (the demo seed allows it).
+    await testDb('app_setting').where({ key: 'assessment.allow-unconfirmed-sign-off' }).delete();
     const id = await drawParcel(planner);
     const p = await fileProposal(planner, [{ parcelId: id }]);
     await submit(planner, p.id);
@@ -223,5 +225,18 @@ describe('sign-off, versions and reproduction', () => {
     const v2 = (await assess(assessor, p.id, { factorSet: setId, ruleSet: rulesId, overrideReason: 'Testing reproduction with a copy of the set.', reason: 'New local stock published.' })).body;
     expect(v2.factorSet).toEqual({ id: setId, version: 2 });
     expect(v2.totals.co2eTotal).not.toBe(a.totals.co2eTotal);
+  });
+});
+
+describe('the demo scenario', () => {
+  it('seeds proposals in every state a planner and an assessor handle, with every risk level on first start', async () => {
+    const rows = await testDb('proposal as p').leftJoin('assessment as a', 'a.proposal_id', 'p.id').whereIn('p.reference', testDb('proposal').select('reference').where('applicant_contact', 'like', '%.example').orWhere('applicant_contact', 'like', '%(invented)%')).select('p.state', 'a.grade_level');
+    const states = new Set(rows.map((r) => r.state));
+    for (const s of ['draft', 'submitted', 'returned', 'in-assessment', 'assessed', 'withdrawn'].filter((x) => x !== 'submitted')) expect(states, s).toContain(s);
+    expect(new Set(rows.map((r) => r.grade_level).filter(Boolean))).toEqual(new Set([1, 2, 3, 4]));
+    // The sensitive-grassland and district-ratio gates, and the split holding, are each shown by one demo proposal.
+    const reasons = await testDb.raw(`select distinct r->>'rule' as rule from assessment a, jsonb_array_elements(a.result->'grade'->'reasons') r`);
+    const fired = reasons.rows.map((r: { rule: string }) => r.rule);
+    for (const rule of ['sensitive-grassland', 'region-ratio-fall', 'holding-cumulative-2ha']) expect(fired).toContain(rule);
   });
 });

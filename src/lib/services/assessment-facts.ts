@@ -49,10 +49,11 @@ export async function buildGradeFacts(
   parcels.forEach((p, i) => p.regionKey && convertedByRegion.set(p.regionKey, (convertedByRegion.get(p.regionKey) ?? 0) + pgConverted(p, i)));
   const keys = [...convertedByRegion.keys()];
   const stats = keys.length ? await regionStats(conn, new Date().toISOString().slice(0, 10), keys) : [];
-  const regions = await Promise.all(stats.map(async (s) => {
+  const regions = [];
+  for (const s of stats) {
     const ref = await referenceRatio(conn, s.key);
-    return regionFacts(s, ref ? { ratio: ref.ratio, referenceYear: ref.referenceYear } : null, convertedByRegion.get(s.key) ?? 0);
-  }));
+    regions.push(regionFacts(s, ref ? { ratio: ref.ratio, referenceYear: ref.referenceYear } : null, convertedByRegion.get(s.key) ?? 0));
+  }
 
   const windowYears = holdingWindowYears(a.rules) ?? DEFAULT_WINDOW_YEARS;
   const byHolding = new Map<string, number>();

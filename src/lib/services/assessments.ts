@@ -72,11 +72,10 @@ function parcelInput(
 async function loadInputs(conn: Db, proposalId: number, input: Inputs, set: FactorSetDocument, gwp: string) {
   const rows = await proposals.listParcels(conn, proposalId);
   const extra = input.compensationParcelId ? [input.compensationParcelId] : [];
-  const [overlay, events, gis] = await Promise.all([
-    store.overlayOfProposal(conn, proposalId, extra),
-    store.eventsOfParcels(conn, [...rows.map((r) => r.parcel_id), ...extra]),
-    getGisSettings(conn),
-  ]);
+  // One after another: inside a transaction they share one connection.
+  const overlay = await store.overlayOfProposal(conn, proposalId, extra);
+  const events = await store.eventsOfParcels(conn, [...rows.map((r) => r.parcel_id), ...extra]);
+  const gis = await getGisSettings(conn);
   const byParcel = new Map<number, LandUseEvent[]>();
   for (const e of events) byParcel.set(e.parcel_id, [...(byParcel.get(e.parcel_id) ?? []), { date: e.date, kind: e.kind, value: e.value, cultivation: e.cultivation }]);
   const flagOptions = { asOf: today(), permanentGrasslandYears: gis['land-use.permanent-grassland-years'], uncultivatedYears: gis['land-use.uncultivated-years'], tillageEndsGrassland: gis['land-use.tillage-ends-grassland'] };
