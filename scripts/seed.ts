@@ -9,6 +9,7 @@ import { recordAudit } from '../src/lib/db/audit';
 import { db } from '../src/lib/db/client';
 import { insertUser, setPassword } from '../src/lib/db/users';
 import { DEMO_PASSWORD, DEMO_PEOPLE } from './demo/people';
+import { recomputeScreening } from '../src/lib/services/screening';
 import { seedDemoProposals } from './demo/proposals';
 import { seedDemoRegion } from './demo/region';
 
@@ -24,6 +25,8 @@ async function main(): Promise<void> {
   console.log(`seed: ${await seedDemoRegion(admin.email, planner.email)}`);
   const assessor = DEMO_PEOPLE.find((p) => p.roles.includes('assessor'))!;
   console.log(`seed: ${await seedDemoProposals(planner.email, assessor.email)}`);
+  const screened = await db.transaction((trx) => recomputeScreening(trx, null, 'Demo scenario seeded'));
+  console.log(`seed: screening map of ${screened.screened} permanent-grassland parcels computed in ${screened.ms} ms`);
 }
 
 async function seedPeople(): Promise<void> {

@@ -43,6 +43,8 @@ describe('figures', () => {
     const direct = await api('POST', '/api/estimates', { session: assessor, body: parcel.request });
     expect(direct.status).toBe(200);
     expect(parcel.estimate).toEqual(direct.body);
+    // Read back later, each parcel's estimate is rebuilt from its stored request with the pinned set: the same.
+    expect((await api('GET', `/api/assessments/${a.id}`, { session: board })).body.parcels[0].estimate).toEqual(direct.body);
     // One parcel: the total is the parcel.
     expect(a.totals.co2eTotal).toBe(parcel.estimate.co2eTotal);
     expect(a.totals.co2eLow).toBeLessThan(a.totals.co2eTotal);

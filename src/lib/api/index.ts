@@ -11,6 +11,7 @@ import * as factorSets from './factor-sets';
 import * as parcels from './parcels';
 import * as proposals from './proposals';
 import * as regions from './regions';
+import * as screening from './screening';
 import * as ruleSets from './rule-sets';
 import * as uploads from './uploads';
 import * as users from './users';
@@ -69,6 +70,8 @@ export const allSpecs: ApiSpec[] = [
   assessments.saveFindings,
   assessments.signOffAssessment,
   assessments.reproduceAssessment,
+  screening.listScreening,
+  screening.recomputeScreening,
   ruleSets.listRuleSets,
   ruleSets.getRuleSet,
   ruleSets.diffRuleSets,

@@ -22,16 +22,32 @@ export function estimateLandUseChange(input: EstimateRequest, set: FactorSetDocu
   const parsed = estimateRequestSchema.safeParse(input);
   if (!parsed.success)
     throw new EstimateInputError(parsed.error.issues.map((i) => ({ path: i.path.map((p) => (typeof p === 'symbol' ? String(p) : p)), message: i.message })));
-  const req = parsed.data;
-  const plan = buildPlan(req, set);
-  const D = req.transitionYears;
-  const figures = computeFigures(plan, req.areaHa, D, (k) => plan.factors.get(k)!.value);
+  return estimateParsed(parsed.data, set, null);
+}
 
+/** What does not depend on the area: the plan, the factors used and the cautions (see estimateBatch). */
+type Shape = { plan: ReturnType<typeof buildPlan>; factors: UsedFactor[]; cautions: string[] };
+
+function shapeOf(req: EstimateRequest, set: FactorSetDocument): Shape {
+  const plan = buildPlan(req, set);
   const factors: UsedFactor[] = [...plan.factors.values()].map(({ key, value, unit, source, status, role }) => ({ key, value, unit, source, status, role }));
   factors.push(C_TO_CO2_FACTOR);
   if (plan.n2o) factors.push(N2O_N_TO_N2O_FACTOR);
+  return { plan, factors, cautions: cautionsFor(req, plan, factors) };
+}
 
-  const cautions = cautionsFor(req, plan, factors);
+function estimateParsed(req: EstimateRequest, set: FactorSetDocument, shapes: Map<string, Shape> | null): EstimateResult {
+  let shape: Shape;
+  if (shapes && !req.uncertainty) {
+    const { areaHa: _a, ...rest } = req;
+    const key = JSON.stringify(rest);
+    shape = shapes.get(key) ?? shapes.set(key, shapeOf(req, set)).get(key)!;
+  } else shape = shapeOf(req, set);
+  const { plan } = shape;
+  const D = req.transitionYears;
+  const figures = computeFigures(plan, req.areaHa, D, (k) => plan.factors.get(k)!.value);
+  const factors = shapes ? shape.factors.map((f) => ({ ...f })) : shape.factors;
+  const cautions = [...shape.cautions];
   let uncertainty: EstimateResult['uncertainty'];
   if (req.uncertainty) {
     const mc = runMonteCarlo(plan, req.areaHa, D, req.uncertainty.runs, req.uncertainty.seed);
@@ -56,6 +72,21 @@ export function estimateLandUseChange(input: EstimateRequest, set: FactorSetDocu
   };
   assertAllFinite(result);
   return result;
+}
+
+/**
+ * Many estimates with one factor set: the same results as estimateLandUseChange for each
+ * request, computed with one plan per kind of request (everything but the area), which is
+ * what makes thousands of parcels cheap. Requests are parsed like the single estimate.
+ */
+export function estimateBatch(inputs: EstimateRequest[], set: FactorSetDocument): EstimateResult[] {
+  const shapes = new Map<string, Shape>();
+  return inputs.map((input) => {
+    const parsed = estimateRequestSchema.safeParse(input);
+    if (!parsed.success)
+      throw new EstimateInputError(parsed.error.issues.map((i) => ({ path: i.path.map((p) => (typeof p === 'symbol' ? String(p) : p)), message: i.message })));
+    return estimateParsed(parsed.data, set, shapes);
+  });
 }
 
 /** Guards the promise of the API: never NaN, Infinity, null or undefined in a result. */

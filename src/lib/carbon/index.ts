@@ -13,10 +13,10 @@ export {
   factorSetDocumentSchema, factorTableSchema, factorEntrySchema, uncertaintySchema, confirmationSchema, entryStatus,
   type FactorSetDocument, type FactorTable, type FactorEntry, type Uncertainty,
 } from './factor-set-schema';
-export { estimateLandUseChange, assertAllFinite } from './estimate';
+export { estimateLandUseChange, estimateBatch, assertAllFinite } from './estimate';
 export { EstimateInputError, type EstimateInputIssue } from './errors';
 export { mergeLinearRequests } from './merge-requests';
-export { runMonteCarlo, runJointMonteCarlo, type JointItem, type MonteCarloResult } from './monte-carlo';
+export { runMonteCarlo, runJointMonteCarlo, jointSamplesPerItem, type JointItem, type MonteCarloResult } from './monte-carlo';
 export { buildPlan, type Plan } from './plan';
 export { diffFactorSets, unconfirmedTables, canSignOff, tablesUsed, type EntryDifference, type EntrySide } from './factor-set-diff';
 export { STANDARD_CAUTIONS } from './cautions';

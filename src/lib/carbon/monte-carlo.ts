@@ -89,3 +89,27 @@ export function runJointMonteCarlo(items: JointItem[], years: number, runs: numb
     cautions.push(`Uncertainty of these values is a stand-in (this set's own range was not available; see each table's note): ${standIns.join(', ')}.`);
   return { co2eLow: percentile(sorted, 0.025), co2eHigh: percentile(sorted, 0.975), runs, seed, samples, cautions };
 }
+
+/**
+ * The runs of several areas with shared draws, kept apart: in run i every factor takes one value
+ * for all the areas, and `perItem[k][i]` is area k's CO2e in that run. Any weighted sum of the
+ * items' runs is then the run of that combination (estimates are linear in area for a given set
+ * of draws), which lets many parcels share the runs of a few unit areas.
+ */
+export function jointSamplesPerItem(items: JointItem[], years: number, runs: number, seed: number): Float64Array[] {
+  const rng = xoroshiro128plus(seed);
+  const all = new Map<string, PlanFactor>();
+  for (const it of items) for (const [k, f] of it.plan.factors) if (!all.has(k)) all.set(k, f);
+  const sampled = [...all.values()].flatMap((f) => {
+    const spread = FIXED_TABLES.has(f.table) ? null : spreadOf(f.value, f.uncertainty);
+    return spread ? [{ key: f.key, value: f.value, spread }] : [];
+  });
+  const draw = new Map<string, number>();
+  const value = (k: string) => draw.get(k) ?? all.get(k)!.value;
+  const out = items.map(() => new Float64Array(runs));
+  for (let i = 0; i < runs; i++) {
+    for (const s of sampled) draw.set(s.key, drawTruncated(rng, s.value, s.spread));
+    items.forEach((it, k) => (out[k]![i] = computeFigures(it.plan, it.areaHa, years, value).co2eTotal));
+  }
+  return out;
+}

@@ -34,13 +34,28 @@ export async function getAssessment(db: Db, id: number, opts: { lock?: boolean }
   return r.rows[0] ?? null;
 }
 
-export async function draftOf(db: Db, proposalId: number): Promise<AssessmentRow | null> {
-  const r = await db.raw(`select ${COLUMNS} ${FROM} where a.proposal_id = ? and a.status = 'draft' for update of a`, [proposalId]);
+/** The draft of a proposal, locked; without its (large) inputs and result. */
+export async function draftOf(db: Db, proposalId: number): Promise<{ id: number; number: number; version: number } | null> {
+  const r = await db.raw(`select id::int as id, number, version from assessment where proposal_id = ? and status = 'draft' for update`, [proposalId]);
   return r.rows[0] ?? null;
 }
 
-export async function listForProposal(db: Db, proposalId: number): Promise<AssessmentRow[]> {
-  const r = await db.raw(`select ${COLUMNS} ${FROM} where a.proposal_id = ? order by a.number desc`, [proposalId]);
+/** Everything but the inputs and the result. */
+export async function getAssessmentMeta(db: Db, id: number): Promise<Omit<AssessmentRow, 'inputs' | 'result'> | null> {
+  const r = await db.raw(
+    `select a.id::int as id, a.proposal_id::int as proposal_id, a.number, a.status, a.version, a.factor_set_id, a.factor_set_version, a.rule_set_id, a.rule_set_version,
+            a.grade_level, a.grade_label, a.co2e_total, a.findings, a.signed_at, a.created_at, a.updated_at, s.name as signed_by_name, c.name as created_by_name ${FROM} where a.id = ?`,
+    [id],
+  );
+  return r.rows[0] ?? null;
+}
+
+export async function listForProposal(db: Db, proposalId: number): Promise<Omit<AssessmentRow, 'inputs' | 'result'>[]> {
+  const r = await db.raw(
+    `select a.id::int as id, a.proposal_id::int as proposal_id, a.number, a.status, a.version, a.factor_set_id, a.factor_set_version, a.rule_set_id, a.rule_set_version,
+            a.grade_level, a.grade_label, a.co2e_total, a.findings, a.signed_at, a.created_at, a.updated_at, s.name as signed_by_name, c.name as created_by_name ${FROM} where a.proposal_id = ? order by a.number desc`,
+    [proposalId],
+  );
   return r.rows;
 }
 

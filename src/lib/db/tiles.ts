@@ -5,7 +5,7 @@ import type { Db } from './client';
 export const PARCEL_MIN_ZOOM = 12;
 
 /**
- * One tile with two layers: "parcels" (id, reference, land_use, area_ha; never the owner) from
+ * One tile with two layers: "parcels" (id, reference, land_use, area_ha, screening_level; never the owner) from
  * PARCEL_MIN_ZOOM, and "reference" (kind, class, label) at every zoom. Empty tile → 0 bytes.
  */
 export async function renderTile(db: Db, z: number, x: number, y: number): Promise<Uint8Array> {
@@ -13,8 +13,9 @@ export async function renderTile(db: Db, z: number, x: number, y: number): Promi
     `with b as (select st_tileenvelope(?, ?, ?) as env),
      cur as (select distinct on (kind) id, kind from reference_layer_version where status = 'published' order by kind, version desc),
      parcels as (
-       select st_asmvtgeom(p.geom_3857, b.env, 4096, 64, true) as geom, p.id, p.reference, p.land_use, round(p.area_ha::numeric, 2)::float8 as area_ha
-       from parcel p, b where ? and p.geom_3857 && b.env
+       select st_asmvtgeom(p.geom_3857, b.env, 4096, 64, true) as geom, p.id, p.reference, p.land_use, round(p.area_ha::numeric, 2)::float8 as area_ha,
+              s.level as screening_level
+       from parcel p cross join b left join screening_result s on s.parcel_id = p.id where ? and p.geom_3857 && b.env
      ),
      refs as (
        select st_asmvtgeom(f.geom_3857, b.env, 4096, 64, true) as geom, cur.kind, f.class, f.label

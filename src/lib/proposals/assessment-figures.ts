@@ -4,8 +4,8 @@
  * 95 % range, and each alternative estimated in full. Shared by a run and by its reproduction.
  */
 import {
-  buildPlan, estimateLandUseChange, estimateRequestSchema, mergeLinearRequests, runJointMonteCarlo,
-  type EstimateRequest, type FactorSetDocument, type LandUseState,
+  buildPlan, estimateBatch, estimateLandUseChange, estimateRequestSchema, mergeLinearRequests, runJointMonteCarlo,
+  type EstimateRequest, type EstimateResult, type FactorSetDocument, type LandUseState,
 } from '../carbon';
 import { canSignOff, tablesUsed, unconfirmedTables } from '../carbon';
 import { alternativeSpecs, RESTORED_STATE, type AlternativeKey } from './alternatives';
@@ -19,12 +19,21 @@ export type Alternative = {
   areaHa: number; co2eTotal: number | null; co2eLow: number | null; co2eHigh: number | null; differenceFromProposal: number | null;
 };
 
-/** Same as `estimateWithSet` of the estimates service, kept pure here. */
-export function estimateAsApi(req: ParcelRequest, set: FactorSetDocument) {
-  const result = estimateLandUseChange(req, set);
+/** What `POST /api/estimates` answers for a result (see the estimates service), kept pure here. */
+function asApi(result: EstimateResult, set: FactorSetDocument, open: Set<string>) {
   const used = tablesUsed(result.factors);
-  const open = new Set(unconfirmedTables(set));
   return { ...result, signOffReady: canSignOff(set, used), unconfirmedTablesUsed: used.filter((t) => open.has(t)) };
+}
+
+export type ApiEstimate = ReturnType<typeof asApi>;
+
+/** The API answers for many requests of one set (one plan per kind of request); null where there is no request. */
+export function estimatesAsApi(requests: (ParcelRequest | null)[], set: FactorSetDocument): (ApiEstimate | null)[] {
+  const open = new Set(unconfirmedTables(set));
+  const present = requests.filter((r): r is ParcelRequest => r !== null);
+  const results = estimateBatch(present, set);
+  let at = 0;
+  return requests.map((r) => (r ? asApi(results[at++]!, set, open) : null));
 }
 
 /** Point total and joint range of a set of areas: merged by kind of change (linear), one draw per factor per run. */
@@ -49,7 +58,7 @@ export type FigureInput = {
 };
 
 export function assessmentFigures(input: FigureInput, set: FactorSetDocument) {
-  const estimates = input.requests.map((p) => (p.request ? estimateAsApi(p.request, set) : null));
+  const estimates = estimatesAsApi(input.requests.map((p) => p.request), set);
   const ok = input.requests.flatMap((p) => (p.request ? [p.request] : []));
   const sum = (k: 'socChangeTotal' | 'biomassChangeTotal' | 'n2oTotal' | 'co2eTotal') => estimates.reduce((s, e) => s + (e ? e[k] : 0), 0);
   const joint = jointTotal(ok, set, input.runs, input.seed);

@@ -17,7 +17,7 @@ import { HttpError } from '../http/errors';
 import type { Caller } from '../http/handle';
 import { enqueueMail } from '../mail/outbox';
 import { assessmentSignedMail } from '../mail/templates';
-import { assessmentFigures, RESTORED_STATE, type FigureInput, type ParcelRequest } from '../proposals/assessment-figures';
+import { assessmentFigures, estimatesAsApi, RESTORED_STATE, type ApiEstimate, type FigureInput, type ParcelRequest } from '../proposals/assessment-figures';
 import { stateFromRecord } from '../proposals/current-state';
 import { checkPlausibility } from '../proposals/plausibility';
 import { gradeProposal, levelInfo, type GradeFacts } from '../rules';
@@ -131,6 +131,13 @@ async function compute(conn: Db, proposal: proposals.ProposalRow, input: Inputs)
 
 type Computed = Awaited<ReturnType<typeof compute>>;
 
+/** The figures of an estimate that a signed assessment keeps; the rest (trajectory, factors, cautions) follows from the request and the pinned set. */
+function compactFigures(e: ApiEstimate | null) {
+  if (!e) return null;
+  const { socBeforePerHa, socAfterPerHa, socChangeTotal, annualSocChange, biomassChangeTotal, n2oTotal, co2eTotal, co2eParts } = e;
+  return { socBeforePerHa, socAfterPerHa, socChangeTotal, annualSocChange, biomassChangeTotal, n2oTotal, co2eTotal, co2eParts };
+}
+
 function resultOf(c: Computed) {
   const { parcels, figures, set, grade } = c;
   const converting = parcels.filter((p, i) => figures.estimates[i] && p.state?.landUse === 'grassland' && c.figureInput.proposed.landUse === 'cropland');
@@ -148,7 +155,7 @@ function resultOf(c: Computed) {
   const info = levelInfo(grade.level);
   return {
     totals: figures.totals,
-    parcels: parcels.map((p, i) => ({ parcelId: p.parcelId, reference: p.reference, areaHa: p.areaHa, part: p.part, request: p.request, estimate: figures.estimates[i], currentState: p.currentState, overlay: p.overlay, problems: p.problems })),
+    parcels: parcels.map((p, i) => ({ parcelId: p.parcelId, reference: p.reference, areaHa: p.areaHa, part: p.part, request: p.request, figures: compactFigures(figures.estimates[i]!), currentState: p.currentState, overlay: p.overlay, problems: p.problems })),
     overlayUsed: Object.fromEntries(parcels.map((p) => [p.parcelId, p.overlayRows])),
     grade: { level: grade.level, label: info.label, shape: info.shape, reasons: grade.reasons, ruleSet: grade.ruleSet },
     alternatives: figures.alternatives,
@@ -165,11 +172,14 @@ function resultOf(c: Computed) {
 
 export type StoredResult = ReturnType<typeof resultOf>;
 
-function respond(row: store.AssessmentRow) {
-  const r = row.result as unknown as StoredResult;
-  const { overlayUsed: _o, compensationRequest: _c, compensationNote: _n, facts, ...rest } = r;
+/** The API answer: the stored result, each parcel's estimate in full (recomputed from its request with the pinned set unless at hand). */
+async function respond(row: Omit<store.AssessmentRow, 'result' | 'inputs'> & { result: unknown }, estimates?: (ApiEstimate | null)[]) {
+  const r = row.result as StoredResult;
+  const { overlayUsed: _o, compensationRequest: _c, compensationNote: _n, facts, parcels, ...rest } = r;
+  const full = estimates ?? estimatesAsApi(parcels.map((p) => p.request as ParcelRequest | null), await loadPublished(db, row.factor_set_id, row.factor_set_version));
   return {
     id: row.id, proposalId: row.proposal_id, number: row.number, version: row.version, status: row.status, ...rest,
+    parcels: parcels.map(({ figures: _f, ...p }, i) => ({ ...p, estimate: full[i] ?? null })),
     facts: publicFacts(facts as GradeFacts), findings: row.findings, signedBy: row.signed_by_name, signedAt: row.signed_at?.toISOString() ?? null,
     createdBy: row.created_by_name, createdAt: row.created_at.toISOString(), updatedAt: row.updated_at.toISOString(),
   };
@@ -180,7 +190,7 @@ export async function runAssessment(by: Caller, proposalId: number, input: Input
     const p = await proposals.getProposal(trx, proposalId, { lock: true });
     if (!p) throw new HttpError('NOT_FOUND', `No proposal with id ${proposalId}.`);
     if (!['submitted', 'in-assessment', 'assessed'].includes(p.state)) throw new HttpError('CONFLICT', `Proposal ${p.reference} is "${p.state}"; only submitted proposals are assessed.`);
-    let draft = await store.draftOf(trx, proposalId);
+    const draft = await store.draftOf(trx, proposalId);
     if (draft && input.version !== undefined && draft.version !== input.version) {
       throw new HttpError('CONFLICT', `Someone else re-ran or edited this assessment after you opened it (it is at version ${draft.version}, you sent ${input.version}). Reload it; nothing was saved.`);
     }
@@ -189,14 +199,10 @@ export async function runAssessment(by: Caller, proposalId: number, input: Input
     const c = await compute(trx, p, input);
     const result = resultOf(c);
     const write = { inputs: input, result, factorSet: result.factorSet, ruleSet: c.rules.ref, gradeLevel: c.grade.level, gradeLabel: result.grade.label, co2eTotal: result.totals.co2eTotal, by: by.id };
-    let id: number;
-    if (draft) {
-      await store.updateDraft(trx, draft.id, write);
-      id = draft.id;
-    } else id = (await store.insertAssessment(trx, proposalId, write)).id;
-    await recordAudit(trx, { actorId: by.id, action: draft ? 'assessment.rerun' : 'assessment.start', entityType: 'assessment', entityId: String(id), details: { proposal: p.reference, factorSet: result.factorSet, ruleSet: c.rules.ref, level: c.grade.level, co2eTotal: result.totals.co2eTotal, overrideReason: input.overrideReason ?? null } });
-    draft = await store.getAssessment(trx, id);
-    return respond(draft!);
+    const saved = draft ? { id: draft.id, number: draft.number, version: await store.updateDraft(trx, draft.id, write) } : { ...(await store.insertAssessment(trx, proposalId, write)), version: 1 };
+    await recordAudit(trx, { actorId: by.id, action: draft ? 'assessment.rerun' : 'assessment.start', entityType: 'assessment', entityId: String(saved.id), details: { proposal: p.reference, factorSet: result.factorSet, ruleSet: c.rules.ref, level: c.grade.level, co2eTotal: result.totals.co2eTotal, overrideReason: input.overrideReason ?? null } });
+    const meta = (await store.getAssessmentMeta(trx, saved.id))!;
+    return respond({ ...meta, result }, c.figures.estimates);
   });
 }
 
@@ -287,8 +293,8 @@ export async function reproduceAssessment(id: number) {
     compensation: inputs.compensationParcelId ? { request: stored.compensationRequest as ParcelRequest | null, note: stored.compensationNote } : null,
   }, set);
   const grade = gradeProposal(stored.facts as GradeFacts, rules.document, rules.ref);
-  const again = { totals: figures.totals, estimates: figures.estimates, alternatives: figures.alternatives, grade: { level: grade.level, reasons: grade.reasons } };
-  const before = { totals: stored.totals, estimates: stored.parcels.map((p) => p.estimate), alternatives: stored.alternatives, grade: { level: stored.grade.level, reasons: stored.grade.reasons } };
+  const again = { totals: figures.totals, figures: figures.estimates.map(compactFigures), alternatives: figures.alternatives, grade: { level: grade.level, reasons: grade.reasons } };
+  const before = { totals: stored.totals, figures: stored.parcels.map((p) => p.figures), alternatives: stored.alternatives, grade: { level: stored.grade.level, reasons: stored.grade.reasons } };
   const diffs = differences(JSON.parse(JSON.stringify(before)), JSON.parse(JSON.stringify(again)));
   return { identical: diffs.length === 0, differences: diffs.slice(0, 50), factorSet: { id: set.id, version: set.version }, ruleSet: rules.ref };
 }

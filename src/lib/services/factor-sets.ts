@@ -5,6 +5,7 @@ import { db, withTransaction, type Db } from '../db/client';
 import * as sets from '../db/factor-sets';
 import { HttpError } from '../http/errors';
 import type { Caller } from '../http/handle';
+import { recomputeScreening } from './screening';
 import { cloneDocument, sameDocument, withConfirmations, withEditedEntry } from './factor-set-documents';
 
 export const DEFAULT_SET_KEY = 'default-factor-set';
@@ -112,6 +113,7 @@ export async function publishDraft(by: Caller, setId: string, note: string): Pro
     factorSetDocumentSchema.parse(draft.document);
     await sets.markPublished(trx, setId, draft.version, by.id, note);
     await recordAudit(trx, { actorId: by.id, action: 'factor-set.publish', entityType: 'factor-set', entityId: `${setId}@${draft.version}`, details: { note } });
+    if ((await defaultSetId(trx)) === setId) await recomputeScreening(trx, by.id, `Factor set ${setId} version ${draft.version} published`);
     return { version: draft.version };
   });
 }
@@ -135,5 +137,6 @@ export async function setDefaultSet(by: Caller, setId: string): Promise<void> {
     const before = await defaultSetId(trx);
     await sets.putSetting(trx, DEFAULT_SET_KEY, setId, by.id);
     await recordAudit(trx, { actorId: by.id, action: 'setting.default-factor-set', entityType: 'setting', entityId: DEFAULT_SET_KEY, details: { before, after: setId } });
+    if (before !== setId) await recomputeScreening(trx, by.id, `Default factor set changed to ${setId}`);
   });
 }

@@ -1,5 +1,6 @@
 /** Reference layers: list versions, publish a draft (then every parcel is overlaid with it). */
 import { recordAudit } from '../db/audit';
+import { recomputeScreening } from './screening';
 import { db, withTransaction } from '../db/client';
 import { computeOverlay } from '../db/overlay';
 import { bumpMapVersion } from '../db/parcels';
@@ -50,6 +51,7 @@ export async function publishLayerVersion(by: Caller, id: number, note: string |
     const overlayMs = Math.round(performance.now() - t0);
     await bumpMapVersion(trx);
     await recordAudit(trx, { actorId: by.id, action: 'reference-layer.publish', entityType: 'reference-layer', entityId: `${v.kind}@${v.version}`, details: { note, previous: current?.version ?? null } });
+    await recomputeScreening(trx, by.id, `${KIND_INFO[v.kind].label} version ${v.version} published`);
     return { id, kind: v.kind, version: v.version, timings: { overlayMs } };
   });
 }

@@ -1,5 +1,6 @@
 /** Rule-set use cases: shipping the built-in set, loading for grading, cloning, editing drafts, publishing, the default. */
 import { recordAudit } from '../db/audit';
+import { recomputeScreening } from './screening';
 import { db, withTransaction, type Db } from '../db/client';
 import { getSetting, putSetting } from '../db/factor-sets';
 import * as rs from '../db/rule-sets';
@@ -116,6 +117,7 @@ export async function publishRuleDraft(by: Caller, setId: string, input: { note:
     ruleSetDocumentSchema.parse(draft.document);
     await rs.markRuleSetPublished(trx, setId, draft.version, by.id, input.note);
     await recordAudit(trx, { actorId: by.id, action: 'rule-set.publish', entityType: 'rule-set', entityId: `${setId}@${draft.version}`, details: { note: input.note } });
+    if ((await defaultRuleSetId(trx)) === setId) await recomputeScreening(trx, by.id, `Rule set ${setId} version ${draft.version} published`);
     return { version: draft.version };
   });
 }
@@ -126,5 +128,6 @@ export async function setDefaultRuleSet(by: Caller, setId: string): Promise<void
     const before = await defaultRuleSetId(trx);
     await putSetting(trx, DEFAULT_RULE_SET_KEY, setId, by.id);
     await recordAudit(trx, { actorId: by.id, action: 'setting.default-rule-set', entityType: 'setting', entityId: DEFAULT_RULE_SET_KEY, details: { before, after: setId } });
+    if (before !== setId) await recomputeScreening(trx, by.id, `Default rule set changed to ${setId}`);
   });
 }
