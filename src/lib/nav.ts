@@ -9,6 +9,7 @@ export const NAV: NavItem[] = [
   { href: '/parcels/upload', label: 'Upload parcels', roles: ['planner', 'admin'] },
   { href: '/calculator', label: 'Carbon calculator', roles: 'all' },
   { href: '/admin/factor-sets', label: 'Factor sets', roles: ['admin', 'assessor'] },
+  { href: '/admin/rule-sets', label: 'Rule sets', roles: ['admin', 'assessor', 'board', 'chair'] },
   { href: '/admin/reference-layers', label: 'Reference layers', roles: ['admin'] },
   { href: '/admin/users', label: 'Users', roles: ['admin'] },
   { href: '/admin/mail', label: 'Mail box', roles: ['admin'] },

@@ -86,7 +86,7 @@ describe('parcel upload and map', () => {
     const seen = watchPage(page);
     await signInThroughForm(page, DEMO.admin, DEMO_PASSWORD);
     await page.goto(`${BASE_URL}/admin/reference-layers`);
-    await expect.poll(() => page.getByText('● Current').count()).toBe(5);
+    await expect.poll(() => page.getByText('● Current').count()).toBe(6);
     await screenshotBoth(page, 'reference-layers');
     await page.goto(`${BASE_URL}/admin/reference-layers/upload`);
     await hydrated(page);

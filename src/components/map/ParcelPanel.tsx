@@ -83,6 +83,7 @@ export function ParcelPanel({ p, onClose, actions, recordForm }: { p: ParcelDeta
         <Shares title="Designated sensitive grassland" s={o.sensitive} empty="None: not designated." />
         <Shares title="Never-tilled grassland (mapped)" s={o['never-tilled']} empty="Not inside mapped never-tilled grassland." />
         <Shares title="Slope" s={o.slope} empty="No slope class." />
+        {o.region && <Shares title="Accounting region (district)" s={o.region} empty="Outside every accounting region." />}
       </section>
       <section aria-labelledby="history-heading" className="flex flex-col gap-2">
         <h3 id="history-heading">Land-use history</h3>

@@ -35,7 +35,7 @@ export function RiskShape({ level, size = 16 }: { level: RiskLevel; size?: numbe
 export function RiskBadge({ level, compact = false }: { level: RiskLevel; compact?: boolean }) {
   const info = levelInfo(level);
   return (
-    <span className={`inline-flex items-center gap-1.5 rounded border px-2 py-0.5 text-sm font-medium ${TONE[level]}`} role="img" aria-label={`Risk level ${level} of 4: ${info.label}`} title={info.meaning}>
+    <span className={`inline-flex items-center gap-1.5 whitespace-nowrap rounded border px-2 py-0.5 text-sm font-medium ${TONE[level]}`} role="img" aria-label={`Risk level ${level} of 4: ${info.label}`} title={info.meaning}>
       <RiskShape level={level} />
       <span aria-hidden="true">{compact ? level : `${level} · ${info.label}`}</span>
     </span>

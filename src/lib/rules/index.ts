@@ -5,4 +5,6 @@ export { LEVELS, RISK_LEVELS, levelInfo, type LevelInfo, type LevelShape, type R
 export { RULE_KINDS, RULE_KIND_LABELS, RULE_KIND_PARAMS, type RuleKind } from './rule-kinds';
 export { citationText, ruleSchema, ruleSetDocumentSchema, ruleSetIdSchema, type Rule, type RuleSetDocument } from './schema';
 export { diffRuleSets, sameJson, type RuleDifference } from './diff';
+export { thresholdText } from './describe';
+export { regionFacts, type ReferenceRatioInput } from './region-facts';
 export { BUILT_IN_RULE_SETS, DEFAULT_RULE_SET_ID, TARROW_SCREENING } from './rule-sets';

@@ -22,7 +22,7 @@ export async function listRuleSetSummaries(conn: Db = db) {
         revision: v.revision,
         ruleCount: v.document.rules.length,
         publishedAt: v.published_at?.toISOString() ?? null,
-        publishedBy: v.published_by_name ?? (s.origin === 'shipped' && v.status === 'published' ? 'Shipped with Swardkeep' : null),
+        publishedBy: v.published_by_name,
         note: v.publish_note,
       })),
   }));
