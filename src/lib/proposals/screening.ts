@@ -61,6 +61,7 @@ export type ScreeningContext = {
 export function screenParcels(parcels: ScreeningParcel[], ctx: ScreeningContext): ScreeningResult[] {
   const units = unitRuns(parcels, ctx.set, ctx.gwp, ctx.runs, ctx.seed);
   const runs = new Float64Array(ctx.runs);
+  const scratch = new Float64Array(ctx.runs);
   return parcels.map((p) => {
     const none = { parcelId: p.parcelId, level: null, label: null, co2eTotal: null, co2eHigh: null, socLossPerHa: null, rules: [] };
     if (!p.climate || p.soils.length === 0) return { ...none, problem: 'The parcel is not wholly inside the climate and soil layers.' };
@@ -76,14 +77,48 @@ export function screenParcels(parcels: ScreeningParcel[], ctx: ScreeningContext)
       after += u.point.socAfterPerHa * ha;
       for (let i = 0; i < runs.length; i++) runs[i]! += u.runs[i]! * ha;
     }
-    const sorted = Float64Array.from(runs).sort();
-    const h = (sorted.length - 1) * 0.975;
-    const lo = Math.floor(h);
-    const high = sorted[lo]! + (h - lo) * ((sorted[Math.min(lo + 1, sorted.length - 1)] ?? sorted[lo]!) - sorted[lo]!);
+    const high = percentileInPlace(scratch, runs, 0.975);
     const facts = factsFor(p, { co2e, soc, before, after, high }, ctx);
     const grade = gradeProposal(facts, ctx.rules.document, ctx.rules.ref);
     return { parcelId: p.parcelId, level: grade.level, label: levelInfo(grade.level).label, co2eTotal: co2e, co2eHigh: high, socLossPerHa: -soc / p.areaHa, rules: grade.reasons.map((r) => r.rule), problem: null };
   });
+}
+
+/** The p-quantile of `values` with linear interpolation (as carbon/sampling.ts `percentile`), by selection in `scratch` (no sort, no allocation). */
+export function percentileInPlace(scratch: Float64Array, values: Float64Array, p: number): number {
+  scratch.set(values);
+  const h = (values.length - 1) * p;
+  const lo = Math.floor(h);
+  const a = select(scratch, lo);
+  if (lo + 1 >= values.length || h === lo) return a;
+  // The next order statistic is the smallest value right of position lo after selection.
+  let b = Infinity;
+  for (let i = lo + 1; i < scratch.length; i++) if (scratch[i]! < b) b = scratch[i]!;
+  return a + (h - lo) * (b - a);
+}
+
+/** Hoare's quickselect: puts the k-th smallest at index k, smaller ones left of it, larger right. */
+function select(x: Float64Array, k: number): number {
+  let [left, right] = [0, x.length - 1];
+  while (left < right) {
+    const pivot = x[(left + right) >> 1]!;
+    let [i, j] = [left, right];
+    while (i <= j) {
+      while (x[i]! < pivot) i++;
+      while (x[j]! > pivot) j--;
+      if (i <= j) {
+        const t = x[i]!;
+        x[i] = x[j]!;
+        x[j] = t;
+        i++;
+        j--;
+      }
+    }
+    if (k <= j) right = j;
+    else if (k >= i) left = i;
+    else return x[k]!;
+  }
+  return x[k]!;
 }
 
 function factsFor(p: ScreeningParcel, f: { co2e: number; soc: number; before: number; after: number; high: number }, ctx: ScreeningContext): GradeFacts {
