@@ -52,6 +52,7 @@ export async function up(knex: Knex): Promise<void> {
         create role swardkeep_register_writer nologin;
       end if;
     end $$;
+    do $$ begin execute format('grant usage on schema %I to swardkeep_register_writer', current_schema()); end $$;
     grant select, insert on register_entry to swardkeep_register_writer;
     revoke update, delete, truncate on register_entry from swardkeep_register_writer;
   `);

@@ -189,13 +189,14 @@ describe('exports', () => {
 });
 
 describe('no personal data in public answers', () => {
-  it('list, entries, verify and exports hold no applicant, owner, holding reference, member name or vote comment', async () => {
+  it('list, entries, verify, exports and the register pages hold no applicant, owner, holding reference, member name or vote comment', async () => {
     const applicants = await testDb('proposal').distinct('applicant_name', 'applicant_contact');
     const owners = (await testDb('parcel').whereNotNull('owner_ref').distinct('owner_ref')).map((r) => r.owner_ref as string);
     expect(owners).toContain('HLD-TEST-77');
     const secrets = [APPLICANT.name, APPLICANT.contact, VOTE_COMMENT, ...applicants.flatMap((a) => [a.applicant_name, a.applicant_contact]), ...owners, ...DEMO_PEOPLE.flatMap((p) => [p.name, p.email])];
     const seqs = (await testDb('register_entry').select('seq')).map((r) => Number(r.seq));
-    const paths = ['/api/register?pageSize=200', '/api/register/verify', '/api/register.csv', '/api/register.geojson', ...seqs.map((q) => `/api/register/${q}`)];
+    const paths = ['/api/register?pageSize=200', '/api/register/verify', '/api/register.csv', '/api/register.geojson', ...seqs.map((q) => `/api/register/${q}`),
+      '/register', ...seqs.map((q) => `/register/${q}`)];
     for (const p of paths) {
       const res = await fetch(`${BASE_URL}${p}`);
       expect(res.status, p).toBe(200);
