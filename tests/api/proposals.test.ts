@@ -31,8 +31,8 @@ const ALLOWED: Record<string, 'planner' | 'assessor'> = {
   'submitted>in-assessment': 'assessor', 'submitted>returned': 'assessor', 'in-assessment>returned': 'assessor', 'assessed>in-assessment': 'assessor',
   'draft>withdrawn': 'planner', 'submitted>withdrawn': 'planner', 'returned>withdrawn': 'planner', 'in-assessment>withdrawn': 'planner', 'assessed>withdrawn': 'planner', 'on-agenda>withdrawn': 'planner',
 };
-/** Moves the state machine knows but only another action makes (signing off): asked for directly, 409 for its role. */
-const VIA_ACTION: Record<string, 'assessor'> = { 'in-assessment>assessed': 'assessor' };
+/** Moves the state machine knows but only another action makes (signing off; the board's agenda and decision): asked for directly, 409 for its role. */
+const VIA_ACTION: Record<string, 'assessor' | 'chair'> = { 'in-assessment>assessed': 'assessor', 'assessed>on-agenda': 'chair', 'on-agenda>decided': 'chair' };
 
 describe('filing a proposal', () => {
   it('a planner files a draft; the applicant stays private', async () => {

@@ -6,12 +6,14 @@ import type { ApiSpec } from '../http/spec';
 import * as admin from './admin';
 import * as assessments from './assessments';
 import * as authRoutes from './auth';
+import * as board from './board';
 import * as estimates from './estimates';
 import * as factorSets from './factor-sets';
 import * as parcels from './parcels';
 import * as proposals from './proposals';
 import * as regions from './regions';
 import * as screening from './screening';
+import * as register from './register';
 import * as ruleSets from './rule-sets';
 import * as uploads from './uploads';
 import * as users from './users';
@@ -82,4 +84,17 @@ export const allSpecs: ApiSpec[] = [
   ruleSets.putDefaultRuleSet,
   regions.listRegions,
   regions.enterReferenceRatio,
+  board.createMeeting,
+  board.listMeetings,
+  board.getMeeting,
+  board.addMeetingItem,
+  board.declareConflict,
+  board.castVote,
+  board.recordDecision,
+  register.listRegister,
+  register.getRegisterEntry,
+  register.verifyRegister,
+  register.registerCsv,
+  register.registerGeoJson,
+  register.correctRegisterEntry,
 ];

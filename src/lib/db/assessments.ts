@@ -144,7 +144,7 @@ export async function eventsOfParcels(db: Db, ids: number[]) {
 
 /**
  * Permanent grassland converted on each holding by OTHER proposals (submitted or later, not
- * withdrawn) submitted within the window before this one. Parcels count when the other proposal
+ * withdrawn; decided ones only when approved) submitted within the window before this one. Parcels count when the other proposal
  * turns grassland into cropland; their area is the area that proposal names.
  */
 export async function earlierOnHoldings(db: Db, proposalId: number, ownerRefs: string[], windowYears: number) {
@@ -152,7 +152,8 @@ export async function earlierOnHoldings(db: Db, proposalId: number, ownerRefs: s
     `select pr.owner_ref, p.reference, sum(pp.area_ha) as area_ha
      from proposal p join proposal_parcel pp on pp.proposal_id = p.id join parcel pr on pr.id = pp.parcel_id
      where p.id <> ? and pr.owner_ref = any(?::text[])
-       and p.state in ('submitted', 'in-assessment', 'assessed', 'on-agenda')
+       and (p.state in ('submitted', 'in-assessment', 'assessed', 'on-agenda')
+            or (p.state = 'decided' and exists (select 1 from board_decision d where d.proposal_id = p.id and d.outcome in ('approved', 'approved-with-conditions'))))
        and p.proposed->>'landUse' = 'cropland'
        and p.submitted_at >= now() - make_interval(years => ?)
        and p.submitted_at <= coalesce((select submitted_at from proposal where id = ?), now())

@@ -69,3 +69,19 @@ export function assessmentSignedMail(p: ProposalRef & { name: string; by: string
     { url: p.url, label: 'Read the assessment' },
   );
 }
+
+export function boardDecisionMail(p: ProposalRef & { name: string; outcome: string; reasons: string; conditions: { text: string; dueDate: string; checkedBy: string }[]; appealUntil: string | null; effectiveDate: string; registerSeq: number }): MailContent {
+  const outcome = { approved: 'approved', 'approved-with-conditions': 'approved with conditions', refused: 'refused' }[p.outcome] ?? p.outcome;
+  return render(
+    `Board decision on ${p.reference}: ${outcome}`,
+    [
+      `Hello ${p.name},`,
+      `The board has decided on proposal ${p.reference}, "${p.title}": ${outcome}.`,
+      `Reasons: ${p.reasons}`,
+      ...p.conditions.map((c, i) => `Condition ${i + 1}: ${c.text} (due ${c.dueDate}; checked by ${c.checkedBy}).`),
+      `Effective from ${p.effectiveDate}.${p.appealUntil ? ` An appeal may be lodged until ${p.appealUntil}; local law sets how.` : ''}`,
+      `The decision is entry ${p.registerSeq} of the public register.`,
+    ],
+    { url: p.url, label: 'Open the proposal' },
+  );
+}

@@ -36,6 +36,8 @@ export const TRANSITIONS: readonly Transition[] = [
   { to: 'returned', from: ['submitted', 'in-assessment'], roles: ['assessor'], reasonRequired: true, label: 'Return to the planner for more information' },
   { to: 'assessed', from: ['in-assessment'], roles: ['assessor'], reasonRequired: false, viaAction: 'sign the assessment off', label: 'Sign off' },
   { to: 'in-assessment', from: ['assessed'], roles: ['assessor'], reasonRequired: true, label: 'Reopen the assessment' },
+  { to: 'on-agenda', from: ['assessed'], roles: ['chair', 'admin'], reasonRequired: false, viaAction: 'put it on a board meeting’s agenda', label: 'Put on an agenda' },
+  { to: 'decided', from: ['on-agenda'], roles: ['chair', 'admin'], reasonRequired: false, viaAction: 'record the board’s decision', label: 'Record the decision' },
   { to: 'withdrawn', from: ['draft', 'submitted', 'returned', 'in-assessment', 'assessed', 'on-agenda'], roles: ['planner'], reasonRequired: true, label: 'Withdraw' },
 ];
 

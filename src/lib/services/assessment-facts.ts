@@ -8,6 +8,7 @@ import * as store from '../db/assessments';
 import type { Db } from '../db/client';
 import type { ProposalRow } from '../db/proposals';
 import { referenceRatio, regionStats } from '../db/regions';
+import { committedCo2e } from '../db/register';
 import type { LandUseFlags } from '../gis/land-use-history';
 import { summariseOverlay, type OverlayRow } from '../gis/overlay-summary';
 import type { ProposalSettings } from '../proposals/settings';
@@ -82,8 +83,8 @@ export async function buildGradeFacts(
     },
     regions,
     holdings,
-    // Decisions are not yet recorded by the board, so nothing is committed against the budget.
-    budget: { year: a.proposal.start_year, budgetT, committedT: 0, proposalShare: budgetT ? a.totals.co2eTotal / budgetT : null },
+    // Committed: the CO2e of approvals in the register (current entries) for proposals starting that year.
+    budget: { year: a.proposal.start_year, budgetT, committedT: await committedCo2e(conn, a.proposal.start_year), proposalShare: budgetT ? a.totals.co2eTotal / budgetT : null },
   };
 }
 

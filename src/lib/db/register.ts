@@ -1,0 +1,98 @@
+/** SQL of the register: append under a lock, head, list with filters, one entry, batches for verify and exports. */
+import type { Knex } from 'knex';
+import { entryHash, GENESIS_HASH, type StoredEntry } from '../register/chain';
+import type { RegisterContent } from '../register/content';
+import type { Db } from './client';
+
+/** One lock key for appends to the register, shared by every instance (pg_advisory_xact_lock). */
+const APPEND_LOCK = 0x5257_4b01;
+
+export type RegisterRow = StoredEntry & { supersedes_seq: number | null; created_at: Date; superseded_by: number | null };
+
+export async function head(db: Db): Promise<{ seq: number; hash: string } | null> {
+  const r = await db.raw('select seq, hash from register_entry order by seq desc limit 1');
+  return r.rows[0] ? { seq: Number(r.rows[0].seq), hash: r.rows[0].hash } : null;
+}
+
+/** Appends an entry in the caller's transaction; the advisory lock makes concurrent appends queue, so the chain cannot fork. */
+export async function appendEntry(trx: Db, content: RegisterContent): Promise<{ seq: number; hash: string }> {
+  await trx.raw('select pg_advisory_xact_lock(?)', [APPEND_LOCK]);
+  const last = await head(trx);
+  const seq = (last?.seq ?? 0) + 1;
+  const prevHash = last?.hash ?? GENESIS_HASH;
+  const hash = entryHash(seq, prevHash, content);
+  await trx('register_entry').insert({ seq, prev_hash: prevHash, hash, content: JSON.stringify(content), supersedes_seq: content.supersedes });
+  return { seq, hash };
+}
+
+/** Entries in seq order after `afterSeq`, `limit` at a time (keyset paging for verify and exports). */
+export async function batchAfter(db: Db, afterSeq: number, limit: number, where = 'true', args: Knex.Value[] = []): Promise<RegisterRow[]> {
+  const r = await db.raw(
+    `select seq::float8 as seq, prev_hash, hash, content, supersedes_seq::float8 as supersedes_seq, created_at,
+            (select min(s.seq)::float8 from register_entry s where s.supersedes_seq = e.seq) as superseded_by
+     from register_entry e where seq > ? and ${where} order by seq limit ?`,
+    [afterSeq, ...args, limit],
+  );
+  return r.rows;
+}
+
+/** Only what verify needs (seq, hashes, content as text parsed once), in seq order. */
+export async function chainBatch(db: Db, afterSeq: number, limit: number): Promise<StoredEntry[]> {
+  const r = await db.raw('select seq::float8 as seq, prev_hash, hash, content from register_entry where seq > ? order by seq limit ?', [afterSeq, limit]);
+  return r.rows;
+}
+
+export async function getEntry(db: Db, seq: number): Promise<RegisterRow | null> {
+  return (await batchAfter(db, seq - 1, 1, 'seq = ?', [seq]))[0] ?? null;
+}
+
+export type RegisterFilter = { outcome?: string; year?: number; risk?: number; areaMin?: number; areaMax?: number; region?: string; q?: string; current?: boolean };
+
+export function filterSql(f: RegisterFilter): { where: string; args: Knex.Value[] } {
+  const where: string[] = ['true'];
+  const args: Knex.Value[] = [];
+  if (f.outcome) where.push('outcome = ?') && args.push(f.outcome);
+  if (f.year) where.push('decided_year = ?') && args.push(f.year);
+  if (f.risk) where.push('risk_level = ?') && args.push(f.risk);
+  if (f.areaMin !== undefined) where.push('area_ha >= ?') && args.push(f.areaMin);
+  if (f.areaMax !== undefined) where.push('area_ha <= ?') && args.push(f.areaMax);
+  if (f.region) where.push('region = ?') && args.push(f.region);
+  if (f.q) {
+    const like = `%${f.q.replace(/[%_\\]/g, '\\$&')}%`;
+    where.push("(reference ilike ? or content->'proposal'->>'title' ilike ? or exists (select 1 from jsonb_array_elements(content->'parcels') p where p->>'reference' ilike ?))");
+    args.push(like, like, like);
+  }
+  if (f.current) where.push('not exists (select 1 from register_entry s where s.supersedes_seq = e.seq)');
+  return { where: where.join(' and '), args };
+}
+
+const SORTS: Record<string, string> = { seq: 'seq', decided: "content->>'decidedOn'", area: 'area_ha', risk: 'risk_level', co2e: "(content->'figures'->>'co2eTotal')::float8", reference: 'reference' };
+
+export type ListRow = { seq: number; hash: string; supersedes_seq: number | null; superseded_by: number | null; created_at: Date; summary: Record<string, unknown> };
+
+export async function listEntries(db: Db, f: RegisterFilter & { sort: string; dir: 'asc' | 'desc'; page: number; pageSize: number }) {
+  const { where, args } = filterSql(f);
+  const order = `${SORTS[f.sort] ?? 'seq'} ${f.dir === 'asc' ? 'asc' : 'desc'} nulls last, seq ${f.dir === 'asc' ? 'asc' : 'desc'}`;
+  const [rows, total] = await Promise.all([
+    db.raw(
+      `select seq::float8 as seq, hash, supersedes_seq::float8 as supersedes_seq, created_at,
+              (select min(s.seq)::float8 from register_entry s where s.supersedes_seq = e.seq) as superseded_by,
+              content - 'parcels' || jsonb_build_object('parcelReferences', (select coalesce(jsonb_agg(p->'reference'), '[]') from jsonb_array_elements(content->'parcels') p)) as summary
+       from register_entry e where ${where} order by ${order} limit ? offset ?`,
+      [...args, f.pageSize, (f.page - 1) * f.pageSize],
+    ),
+    db.raw(`select count(*)::int as n from register_entry e where ${where}`, args),
+  ]);
+  return { rows: rows.rows as ListRow[], total: Number(total.rows[0].n) };
+}
+
+/** Approved CO2e committed in a budget year: current (not superseded) approvals of proposals starting that year. */
+export async function committedCo2e(db: Db, year: number): Promise<number> {
+  const r = await db.raw(
+    `select coalesce(sum((content->'figures'->>'co2eTotal')::float8), 0) as t from register_entry e
+     where outcome in ('approved', 'approved-with-conditions') and (content->'proposal'->>'startYear')::int = ?
+       and not exists (select 1 from register_entry s where s.supersedes_seq = e.seq)`,
+    [year],
+  );
+  return Number(r.rows[0].t);
+}

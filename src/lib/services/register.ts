@@ -1,0 +1,152 @@
+/**
+ * The public register: list, one entry, verify the chain, streamed CSV and GeoJSON exports,
+ * corrections and appeal outcomes (new entries that name the one they supersede).
+ */
+import { stringify } from 'csv-stringify/sync';
+import { recordAudit } from '../db/audit';
+import { db, withTransaction } from '../db/client';
+import * as store from '../db/register';
+import { HttpError } from '../http/errors';
+import type { Caller } from '../http/handle';
+import { ChainVerifier } from '../register/chain';
+import type { Condition, Outcome, RegisterContent } from '../register/content';
+
+const VERIFY_BATCH = 5000;
+const EXPORT_BATCH = 1000;
+
+export async function verifyRegister() {
+  const v = new ChainVerifier();
+  let after = 0;
+  for (;;) {
+    const rows = await store.chainBatch(db, after, VERIFY_BATCH);
+    for (const r of rows) v.add(r);
+    if (rows.length < VERIFY_BATCH) break;
+    after = rows[rows.length - 1]!.seq;
+  }
+  return { ...v.result(), checkedAt: new Date().toISOString() };
+}
+
+export async function registerHead() {
+  const h = await store.head(db);
+  return { headSeq: h?.seq ?? 0, headHash: h?.hash ?? null };
+}
+
+function summary(r: store.ListRow) {
+  const c = r.summary as unknown as Omit<RegisterContent, 'parcels'> & { parcelReferences: string[] };
+  return {
+    seq: r.seq, hash: r.hash, kind: c.kind, reference: c.proposal.reference, title: c.proposal.title, proposedUse: c.proposal.proposedUse,
+    outcome: c.outcome, decidedOn: c.decidedOn, effectiveDate: c.effectiveDate, areaHa: c.areaHa, region: c.region, riskLevel: c.risk.level, riskLabel: c.risk.label,
+    co2eTotal: c.figures.co2eTotal, co2eLow: c.figures.co2eLow, co2eHigh: c.figures.co2eHigh, parcelReferences: c.parcelReferences, conditions: c.conditions.length,
+    supersedesSeq: r.supersedes_seq, supersededBy: r.superseded_by,
+  };
+}
+
+export type ListQuery = store.RegisterFilter & { sort: string; dir: 'asc' | 'desc'; page: number; pageSize: number };
+
+export async function listRegister(q: ListQuery) {
+  const [{ rows, total }, h] = await Promise.all([store.listEntries(db, q), registerHead()]);
+  return { items: rows.map(summary), total, page: q.page, pageSize: q.pageSize, ...h };
+}
+
+export async function registerEntry(seq: number) {
+  const r = await store.getEntry(db, seq);
+  if (!r) throw new HttpError('NOT_FOUND', `The register has no entry ${seq}.`);
+  return { seq: r.seq, hash: r.hash, prevHash: r.prev_hash, supersedesSeq: r.supersedes_seq, supersededBy: r.superseded_by, createdAt: r.created_at.toISOString(), content: r.content as RegisterContent, ...(await registerHead()) };
+}
+
+/** Rows of the filtered register in seq order, batch by batch (flat memory however long the register). */
+async function* filteredRows(f: store.RegisterFilter) {
+  const { where, args } = store.filterSql(f);
+  let after = 0;
+  for (;;) {
+    const rows = await store.batchAfter(db, after, EXPORT_BATCH, where, args);
+    yield rows;
+    if (rows.length < EXPORT_BATCH) return;
+    after = rows[rows.length - 1]!.seq;
+  }
+}
+
+function streamOf(parts: AsyncGenerator<string>): ReadableStream<Uint8Array> {
+  const enc = new TextEncoder();
+  return new ReadableStream({
+    async pull(controller) {
+      const next = await parts.next();
+      if (next.done) controller.close();
+      else controller.enqueue(enc.encode(next.value));
+    },
+    async cancel() {
+      await parts.return(undefined);
+    },
+  });
+}
+
+export const CSV_COLUMNS = [
+  'seq', 'hash', 'kind', 'reference', 'title', 'proposed_use', 'outcome', 'decided_on', 'effective_date', 'appeal_until', 'parcels', 'area_ha', 'region',
+  'risk_level', 'risk_label', 'co2e_t', 'co2e_low_t', 'co2e_high_t', 'gwp', 'factor_set', 'rule_set', 'meeting_date', 'conditions', 'reasons', 'supersedes_seq', 'superseded_by',
+] as const;
+
+function csvRow(r: store.RegisterRow): (string | number)[] {
+  const c = r.content as RegisterContent;
+  return [
+    r.seq, r.hash, c.kind, c.proposal.reference, c.proposal.title, c.proposal.proposedUse, c.outcome, c.decidedOn, c.effectiveDate, c.appealUntil ?? '',
+    c.parcels.map((p) => p.reference).join(' '), c.areaHa, c.region ?? '', c.risk.level, c.risk.label, c.figures.co2eTotal, c.figures.co2eLow, c.figures.co2eHigh, c.figures.gwp,
+    `${c.factorSet.id}@${c.factorSet.version}`, c.ruleSet ? `${c.ruleSet.id}@${c.ruleSet.version}` : '', c.meeting?.date ?? '',
+    c.conditions.map((x: Condition) => `${x.text} (due ${x.dueDate}; checked by ${x.checkedBy})`).join(' | '), c.reasons, r.supersedes_seq ?? '', r.superseded_by ?? '',
+  ];
+}
+
+export function registerCsv(f: store.RegisterFilter): ReadableStream<Uint8Array> {
+  return streamOf((async function* () {
+    yield stringify([[...CSV_COLUMNS]]);
+    for await (const rows of filteredRows(f)) if (rows.length) yield stringify(rows.map(csvRow));
+  })());
+}
+
+/** RFC 7946 FeatureCollection: one Feature per entry, its parcels as one MultiPolygon (WGS 84 lon/lat). */
+export function registerGeoJson(f: store.RegisterFilter): ReadableStream<Uint8Array> {
+  return streamOf((async function* () {
+    yield '{"type":"FeatureCollection","features":[';
+    let first = true;
+    for await (const rows of filteredRows(f)) {
+      if (!rows.length) continue;
+      const features = rows.map((r) => {
+        const c = r.content as RegisterContent;
+        const { parcels, ...props } = c;
+        return JSON.stringify({
+          type: 'Feature',
+          id: r.seq,
+          geometry: { type: 'MultiPolygon', coordinates: parcels.flatMap((p) => p.geometry.coordinates) },
+          properties: { seq: r.seq, hash: r.hash, supersededBy: r.superseded_by, parcelReferences: parcels.map((p) => p.reference), ...props },
+        });
+      });
+      yield (first ? '' : ',') + features.join(',');
+      first = false;
+    }
+    yield ']}';
+  })());
+}
+
+export type CorrectionInput = { kind: 'correction' | 'appeal-outcome'; note: string; outcome?: Outcome; reasons?: string; conditions?: Condition[]; effectiveDate?: string };
+
+/** A correction or appeal outcome: a new entry carrying the superseded one's content with the changes and a note. */
+export async function correctEntry(by: Caller, seq: number, input: CorrectionInput) {
+  return withTransaction(db, async (trx) => {
+    await trx.raw('select pg_advisory_xact_lock(?)', [0x5257_4b01]);
+    const old = await store.getEntry(trx, seq);
+    if (!old) throw new HttpError('NOT_FOUND', `The register has no entry ${seq}.`);
+    if (old.superseded_by) throw new HttpError('CONFLICT', `Entry ${seq} has already been superseded by entry ${old.superseded_by}; correct that one instead.`);
+    const c = old.content as RegisterContent;
+    const outcome = input.outcome ?? c.outcome;
+    const conditions = input.conditions ?? (outcome === 'approved-with-conditions' ? c.conditions : []);
+    if (outcome === 'approved-with-conditions' && conditions.length === 0) throw new HttpError('UNPROCESSABLE_CONTENT', 'An approval with conditions needs at least one condition.', [{ path: ['conditions'], message: 'at least one condition' }]);
+    if (outcome !== 'approved-with-conditions' && conditions.length) throw new HttpError('UNPROCESSABLE_CONTENT', 'Only an approval with conditions carries conditions.', [{ path: ['conditions'], message: 'remove them or choose approved-with-conditions' }]);
+    const now = new Date();
+    const content: RegisterContent = {
+      ...c, kind: input.kind, outcome, conditions, reasons: input.reasons ?? c.reasons, effectiveDate: input.effectiveDate ?? c.effectiveDate,
+      decidedOn: now.toISOString().slice(0, 10), recordedAt: now.toISOString(), supersedes: seq, note: input.note,
+    };
+    const entry = await store.appendEntry(trx, content);
+    await recordAudit(trx, { actorId: by.id, action: `register.${input.kind}`, entityType: 'register_entry', entityId: String(entry.seq), details: { supersedes: seq, outcome, hash: entry.hash } });
+    return { seq: entry.seq, hash: entry.hash, supersedesSeq: seq, outcome };
+  });
+}

@@ -1,0 +1,8 @@
+import { registerGeoJson } from '~/lib/api/register';
+import { handle } from '~/lib/http/handle';
+import { registerGeoJson as geojson } from '~/lib/services/register';
+
+export const GET = handle(registerGeoJson, async ({ query }) =>
+  new Response(geojson({ ...query, current: query.current === 'true' }), {
+    headers: { 'content-type': 'application/geo+json', 'content-disposition': 'attachment; filename="register.geojson"', 'cache-control': 'no-store' },
+  }));

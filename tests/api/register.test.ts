@@ -1,0 +1,207 @@
+/**
+ * The public register: append-only in the database, a hash chain anyone can recompute, verify
+ * naming exactly the entry edited by hand, corrections as new entries, filters and paging, CSV and
+ * GeoJSON exports that round-trip, and no personal data in any public answer.
+ */
+import { check as checkGeoJson } from '@placemarkio/check-geojson';
+import type { FeatureCollection } from 'geojson';
+import * as turf from '@turf/turf';
+import canonicalize from 'canonicalize';
+import { parse as parseCsv } from 'csv-parse/sync';
+import { createHash } from 'node:crypto';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { DEMO_PEOPLE } from '../../scripts/demo/people';
+import { testDb } from '../support/db';
+import { BASE_URL } from '../support/env';
+import { api, DEMO, signIn, type Session } from '../support/http';
+import { decidedProposal } from '../support/board';
+import { APPLICANT } from '../support/proposals';
+
+let s: { planner: Session; assessor: Session; board: Session; chair: Session; admin: Session };
+const VOTE_COMMENT = 'Private remark of a member, never public 8841';
+let decided: Awaited<ReturnType<typeof decidedProposal>>[] = [];
+beforeAll(async () => {
+  const [planner, assessor, board, chair, admin] = await Promise.all([DEMO.planner, DEMO.assessor, DEMO.board, DEMO.chair, DEMO.admin].map((e) => signIn(e)));
+  s = { planner, assessor, board, chair, admin };
+  await testDb('app_setting').where({ key: 'board.quorum' }).delete();
+  decided = [await decidedProposal(s, 'approved', VOTE_COMMENT), await decidedProposal(s, 'refused', VOTE_COMMENT), await decidedProposal(s, 'approved-with-conditions', VOTE_COMMENT)];
+}, 180_000);
+afterAll(() => testDb.destroy());
+
+/** The hash rule written out from the issue, with the `canonicalize` package and node:crypto directly (not the code under test). */
+const hashOf = (seq: number, prevHash: string, content: unknown) => createHash('sha256').update(canonicalize({ content, prevHash, seq })!, 'utf8').digest('hex');
+
+describe('append-only in the database', () => {
+  it('refuses UPDATE, DELETE and TRUNCATE by the owner (trigger) and UPDATE and DELETE by the writer role (privileges)', async () => {
+    const seq = decided[0]!.seq;
+    await expect(testDb.raw(`update register_entry set content = jsonb_set(content, '{outcome}', '"refused"') where seq = ?`, [seq])).rejects.toThrow(/append-only: UPDATE/);
+    await expect(testDb.raw('delete from register_entry where seq = ?', [seq])).rejects.toThrow(/append-only: DELETE/);
+    await expect(testDb.raw('truncate register_entry cascade')).rejects.toThrow(/append-only: TRUNCATE/);
+    await expect(testDb.transaction(async (trx) => {
+      await trx.raw('set local role swardkeep_register_writer');
+      await trx.raw(`update register_entry set content = '{}' where seq = ${seq}`);
+    })).rejects.toThrow(/permission denied for table register_entry/);
+    await expect(testDb.transaction(async (trx) => {
+      await trx.raw('set local role swardkeep_register_writer');
+      await trx.raw(`delete from register_entry where seq = ${seq}`);
+    })).rejects.toThrow(/permission denied for table register_entry/);
+    // The writer may read and append (the app's path).
+    await testDb.transaction(async (trx) => {
+      await trx.raw('set local role swardkeep_register_writer');
+      expect((await trx.raw('select count(*)::int as n from register_entry')).rows[0].n).toBeGreaterThan(0);
+    });
+    expect((await testDb('register_entry').where({ seq }).first()).content.outcome).toBe('approved');
+  });
+});
+
+describe('the hash chain', () => {
+  it('every entry hashes { content, prevHash, seq } in RFC 8785 form and names the previous hash; verify agrees', async () => {
+    const rows = await testDb('register_entry').orderBy('seq');
+    let prev = '0'.repeat(64);
+    rows.forEach((r, i) => {
+      expect(Number(r.seq)).toBe(i + 1);
+      expect(r.prev_hash).toBe(prev);
+      expect(hashOf(Number(r.seq), r.prev_hash, r.content)).toBe(r.hash);
+      prev = r.hash;
+    });
+    const v = await api('GET', '/api/register/verify');
+    expect(v.status).toBe(200);
+    expect(v.body).toMatchObject({ ok: true, entries: rows.length, firstBrokenEntry: null, headHash: prev });
+  });
+
+  it('content edited by hand (trigger disabled by the owner) makes verify name exactly that entry', async () => {
+    const target = decided[1]!.seq;
+    const original = (await testDb.raw('select content::text as c from register_entry where seq = ?', [target])).rows[0].c;
+    const edit = async (sql: string, args: unknown[]) => testDb.transaction(async (trx) => {
+      await trx.raw('alter table register_entry disable trigger register_entry_no_update');
+      await trx.raw(sql, args as never[]);
+      await trx.raw('alter table register_entry enable trigger register_entry_no_update');
+    });
+    await edit(`update register_entry set content = jsonb_set(content, '{outcome}', '"approved"') where seq = ?`, [target]);
+    try {
+      const v = (await api('GET', '/api/register/verify')).body;
+      expect(v).toMatchObject({ ok: false, firstBrokenEntry: target });
+      expect(v.problem).toMatch(new RegExp(`content of entry ${target}`));
+    } finally {
+      await edit('update register_entry set content = ?::jsonb where seq = ?', [original, target]);
+    }
+    expect((await api('GET', '/api/register/verify')).body).toMatchObject({ ok: true, firstBrokenEntry: null });
+  });
+
+  it('concurrent appends queue behind the lock: no fork, no gap', async () => {
+    const before = (await api('GET', '/api/register/verify')).body.entries;
+    const extra = [await decidedProposal(s, 'approved'), await decidedProposal(s, 'approved')];
+    const res = await Promise.all([...decided, ...extra].map((d, i) =>
+      api('POST', `/api/register/${d.seq}/corrections`, { session: i % 2 ? s.admin : s.chair, body: { kind: 'correction', note: `Parcel reference spelt out in full (${i}).` } })));
+    expect(res.map((r) => r.status)).toEqual(res.map(() => 201));
+    const seqs = res.map((r) => r.body.seq).sort((a, b) => a - b);
+    expect(seqs).toEqual(seqs.map((_, i) => before + 2 + 1 + i));
+    expect((await api('GET', '/api/register/verify')).body).toMatchObject({ ok: true, entries: before + 2 + res.length });
+    decided = [...decided, ...extra].map((d, i) => ({ ...d, seq: res[i]!.body.seq }));
+  });
+});
+
+describe('corrections and appeal outcomes', () => {
+  it('a new entry names the one it supersedes; the old one stays, marked; it cannot be superseded twice', async () => {
+    const d = decided[1]!; // refused, corrected once above
+    const appeal = await api('POST', `/api/register/${d.seq}/corrections`, { session: s.chair, body: { kind: 'appeal-outcome', note: 'The appeal was allowed: the board approves with a condition.', outcome: 'approved-with-conditions', conditions: [{ text: 'Sow a grass margin of 6 m.', dueDate: '2028-04-30', checkedBy: 'Field officer' }] } });
+    expect(appeal.status).toBe(201);
+    const entry = (await api('GET', `/api/register/${appeal.body.seq}`)).body;
+    expect(entry.content).toMatchObject({ kind: 'appeal-outcome', supersedes: d.seq, outcome: 'approved-with-conditions', proposal: { reference: d.proposal.reference } });
+    expect(entry.supersedesSeq).toBe(d.seq);
+    expect((await api('GET', `/api/register/${d.seq}`)).body.supersededBy).toBe(appeal.body.seq);
+    const twice = await api('POST', `/api/register/${d.seq}/corrections`, { session: s.chair, body: { kind: 'correction', note: 'Trying to correct an old entry again.' } });
+    expect(twice.status).toBe(409);
+    expect((await api('POST', `/api/register/${appeal.body.seq}/corrections`, { session: s.board, body: { kind: 'correction', note: 'A member may not correct the register.' } })).status).toBe(403);
+    const current = (await api('GET', `/api/register?current=true&q=${d.proposal.reference}`)).body;
+    expect(current.items.map((i: { seq: number }) => i.seq)).toEqual([appeal.body.seq]);
+    decided[1] = { ...d, seq: appeal.body.seq };
+  });
+});
+
+describe('listing', () => {
+  it('filters, sorts and pages on the server, with the head hash', async () => {
+    const all = await testDb('register_entry').orderBy('seq');
+    const head = all[all.length - 1]!;
+    const page = (await api('GET', '/api/register?pageSize=2&page=1&sort=seq&dir=asc')).body;
+    expect(page).toMatchObject({ total: all.length, page: 1, pageSize: 2, headSeq: Number(head.seq), headHash: head.hash });
+    expect(page.items.map((i: { seq: number }) => i.seq)).toEqual([1, 2]);
+    const refused = (await api('GET', '/api/register?outcome=refused&pageSize=200')).body;
+    expect(refused.total).toBe(all.filter((r) => r.content.outcome === 'refused').length);
+    expect(refused.items.every((i: { outcome: string }) => i.outcome === 'refused')).toBe(true);
+    const year = Number(all[0]!.content.decidedOn.slice(0, 4));
+    expect((await api('GET', `/api/register?year=${year}`)).body.total).toBe(all.length);
+    expect((await api('GET', `/api/register?year=${year - 1}`)).body.total).toBe(0);
+    const level = all[0]!.content.risk.level;
+    expect((await api('GET', `/api/register?risk=${level}`)).body.total).toBe(all.filter((r) => r.content.risk.level === level).length);
+    const area = all[0]!.content.areaHa;
+    expect((await api('GET', `/api/register?areaMin=${area - 0.0001}&areaMax=${area + 0.0001}`)).body.total).toBe(all.filter((r) => Math.abs(r.content.areaHa - area) <= 0.0001).length);
+    expect((await api('GET', `/api/register?areaMin=${area + 1000}`)).body.total).toBe(0);
+    const region = all[0]!.content.region;
+    if (region) expect((await api('GET', `/api/register?region=${encodeURIComponent(region)}`)).body.total).toBe(all.filter((r) => r.content.region === region).length);
+    const byCo2e = (await api('GET', '/api/register?sort=co2e&dir=desc&pageSize=200')).body.items.map((i: { co2eTotal: number }) => i.co2eTotal);
+    expect(byCo2e).toEqual([...byCo2e].sort((a, b) => b - a));
+    const bad = await api('GET', '/api/register?risk=9');
+    expect(bad.status).toBe(422);
+    expect((await api('GET', '/api/register/999999')).status).toBe(404);
+  });
+});
+
+describe('exports', () => {
+  it('CSV: a spreadsheet-compatible parser reads the same rows as the database, filters included', async () => {
+    const res = await fetch(`${BASE_URL}/api/register.csv`);
+    expect(res.headers.get('content-type')).toMatch(/^text\/csv/);
+    const records: Record<string, string>[] = parseCsv(await res.text(), { columns: true, skip_empty_lines: true });
+    const rows = await testDb('register_entry').orderBy('seq');
+    expect(records).toHaveLength(rows.length);
+    records.forEach((r, i) => {
+      const db = rows[i]!;
+      expect(Number(r.seq)).toBe(Number(db.seq));
+      expect(r.hash).toBe(db.hash);
+      expect(r.reference).toBe(db.content.proposal.reference);
+      expect(r.outcome).toBe(db.content.outcome);
+      expect(Number(r.area_ha)).toBe(db.content.areaHa);
+      expect(Number(r.co2e_t)).toBe(db.content.figures.co2eTotal);
+      expect(r.reasons).toBe(db.content.reasons);
+    });
+    const refused = parseCsv(await (await fetch(`${BASE_URL}/api/register.csv?outcome=refused`)).text(), { columns: true });
+    expect(refused).toHaveLength(rows.filter((r) => r.content.outcome === 'refused').length);
+  });
+
+  it('GeoJSON: valid RFC 7946, one feature per entry, areas as in the database', async () => {
+    const res = await fetch(`${BASE_URL}/api/register.geojson`);
+    expect(res.headers.get('content-type')).toBe('application/geo+json');
+    const text = await res.text();
+    const fc = checkGeoJson(text) as FeatureCollection; // throws with the RFC 7946 problems when invalid
+    const rows = await testDb('register_entry').orderBy('seq');
+    expect(fc.features).toHaveLength(rows.length);
+    fc.features.forEach((f, i) => {
+      const db = rows[i]!;
+      expect(f.properties!.seq).toBe(Number(db.seq));
+      expect(f.properties!.areaHa).toBe(db.content.areaHa);
+      // Spherical area (turf) against the stored ellipsoidal area: within 0.5 % at this latitude (common practice).
+      expect(turf.area(f as never) / 10_000).toBeCloseTo(db.content.areaHa, 1);
+      expect(Math.abs(turf.area(f as never) / 10_000 / db.content.areaHa - 1)).toBeLessThan(0.005);
+    });
+    const approved = JSON.parse(await (await fetch(`${BASE_URL}/api/register.geojson?outcome=approved`)).text());
+    expect(approved.features).toHaveLength(rows.filter((r) => r.content.outcome === 'approved').length);
+  });
+});
+
+describe('no personal data in public answers', () => {
+  it('list, entries, verify, exports and the register pages hold no applicant, owner, holding reference, member name or vote comment', async () => {
+    const applicants = await testDb('proposal').distinct('applicant_name', 'applicant_contact');
+    const owners = (await testDb('parcel').whereNotNull('owner_ref').distinct('owner_ref')).map((r) => r.owner_ref as string);
+    expect(owners).toContain('HLD-TEST-77');
+    const secrets = [APPLICANT.name, APPLICANT.contact, VOTE_COMMENT, ...applicants.flatMap((a) => [a.applicant_name, a.applicant_contact]), ...owners, ...DEMO_PEOPLE.flatMap((p) => [p.name, p.email])];
+    const seqs = (await testDb('register_entry').select('seq')).map((r) => Number(r.seq));
+    const paths = ['/api/register?pageSize=200', '/api/register/verify', '/api/register.csv', '/api/register.geojson', ...seqs.map((q) => `/api/register/${q}`),
+      '/register', ...seqs.map((q) => `/register/${q}`)];
+    for (const p of paths) {
+      const res = await fetch(`${BASE_URL}${p}`);
+      expect(res.status, p).toBe(200);
+      const text = await res.text();
+      for (const secret of secrets) expect(text.includes(secret), `${p} contains "${secret}"`).toBe(false);
+    }
+  });
+});
