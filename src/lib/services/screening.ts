@@ -11,6 +11,7 @@ import { bumpMapVersion, mapVersion } from '../db/parcels';
 import { getProposalSettings } from '../db/proposals';
 import { currentVersions } from '../db/reference-layers';
 import { referenceRatio, regionStats } from '../db/regions';
+import { committedCo2e } from '../db/register';
 import * as store from '../db/screening';
 import { deriveLandUseFlags, type LandUseEvent } from '../gis/land-use-history';
 import { COVER_EPSILON } from '../gis/overlay-summary';
@@ -63,10 +64,11 @@ export async function recomputeScreening(trx: Db, by: string | null, reason: str
   }
   const windowYears = holdingWindowYears(rules.document) ?? 5;
   const earlierOnHolding = new Map((await store.proposalsByHolding(trx, windowYears)).map((h) => [h.owner_ref, { ha: h.ha, references: h.refs }]));
+  const year = new Date().getUTCFullYear();
   const results = screenParcels(parcels, {
     set, gwp: settings['assessment.gwp'], runs: settings['assessment.runs'], seed: SEED, rules, regions, earlierOnHolding, windowYears,
-    // Decisions are not yet recorded by the board, so nothing is committed against the budget.
-    budget: { year: new Date().getUTCFullYear(), budgetT: settings['budget.yearly-co2e-t'], committedT: 0 },
+    // Committed: the CO2e of approvals in the register for proposals starting this year.
+    budget: { year, budgetT: settings['budget.yearly-co2e-t'], committedT: await committedCo2e(trx, year) },
   });
   const layers = Object.fromEntries((await currentVersions(trx)).map((v) => [v.kind, v.version]));
   const ms = Math.round(performance.now() - t0);
