@@ -18,6 +18,25 @@ export default defineConfig({
     checkOrigin: true,
     allowedDomains: [{ hostname: '127.0.0.1' }, { hostname: 'localhost' }, ...extraHosts.map((hostname) => ({ hostname }))],
   },
+  // Content-Security-Policy as a response header on every page: Astro adds script-src and
+  // style-src with the SHA-256 hashes of the scripts and styles it emits (island hydration
+  // included), so no 'unsafe-inline' is needed. The map page adds a configured basemap's origin.
+  experimental: {
+    csp: {
+      algorithm: 'SHA-256',
+      directives: [
+        "default-src 'self'",
+        "img-src 'self' data: blob:",
+        "connect-src 'self'",
+        "font-src 'self'",
+        "worker-src 'self' blob:",
+        "object-src 'none'",
+        "base-uri 'self'",
+        "form-action 'self'",
+        "frame-ancestors 'none'",
+      ],
+    },
+  },
   server: { host: '127.0.0.1', port: 4321 },
   vite: {
     plugins: [tailwindcss()],
