@@ -39,9 +39,11 @@ export function passwordProblem(password: string, context: { email?: string; nam
   const length = passwordLengthProblem(password);
   if (length) return length;
   const result = zxcvbn().check(password, contextWords(context));
-  if (result.score >= PASSWORD_MIN_SCORE) return null;
+  // Mostly made of the person's name, address or this service's name: guessed first, whatever the score.
+  const contextChars = result.sequence.filter((m) => m.pattern === 'dictionary' && m.dictionaryName === 'userInputs').reduce((n, m) => n + m.token.length, 0);
+  const mostlyContext = contextChars * 2 >= password.length;
+  if (result.score >= PASSWORD_MIN_SCORE && !mostlyContext) return null;
   if (isCommon(result)) return 'This password is too common: it is on the lists of passwords attackers try first. Choose another.';
-  const usesContext = result.sequence.some((m) => m.pattern === 'dictionary' && m.dictionaryName === 'userInputs');
-  const why = usesContext ? 'It contains your name, your e-mail address or the name of this service.' : (result.feedback.warning ?? '');
+  const why = contextChars > 0 ? 'It is made of your name, your e-mail address or the name of this service.' : (result.feedback.warning ?? '');
   return `This password is too easy to guess. ${why} Make it longer: a short sentence of four or more ordinary words works well.`.replace(/\s+/g, ' ');
 }
