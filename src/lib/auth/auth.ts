@@ -84,12 +84,13 @@ export const auth = betterAuth({
     storage: 'database',
     window: 60,
     max: 100,
-    // A coarse flood limit per client address (the trusted one: see scripts/serve.mjs). Failed
-    // sign-ins are throttled per account and per address with back-off in lib/auth/throttle.ts.
+    // Coarse flood limits per client address (the trusted one: see scripts/serve.mjs), high enough
+    // for an office behind one address. Failed sign-ins are throttled per account and per address
+    // with back-off, and reset mails per account, in lib/auth/throttle.ts.
     customRules: {
       '/sign-in/email': { window: cfg.AUTH_SIGNIN_WINDOW_S, max: cfg.AUTH_SIGNIN_MAX },
-      '/request-password-reset': { window: 300, max: 5 },
-      '/reset-password': { window: 300, max: 10 },
+      '/request-password-reset': { window: 300, max: 20 },
+      '/reset-password': { window: 300, max: 20 },
     },
   },
   advanced: {

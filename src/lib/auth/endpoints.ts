@@ -68,7 +68,7 @@ async function signIn(request: Request, clientAddress: string, body: string, dat
   const ticket = await beginSignIn(db, email, clientAddress);
   if (ticket.wait > 0) return tooMany(ticket.wait, `Too many wrong passwords. Wait ${waitWords(ticket.wait)}, then try again, or reset your password.`);
   const res = await forward(request, clientAddress, body);
-  await settleSignIn(db, ticket, email, res.status === 401);
+  await settleSignIn(db, ticket, email, res.ok ? 'signed-in' : res.status === 401 ? 'wrong-password' : 'other');
   return res;
 }
 

@@ -41,12 +41,12 @@ export async function beginSignIn(db: Db, email: string, address: string, now = 
   return { wait, ids };
 }
 
-/** A wrong password stays counted; anything else (signed in, deactivated, error) is not a guess. */
-export async function settleSignIn(db: Db, ticket: SignInTicket, email: string, failed: boolean): Promise<void> {
-  if (failed) return;
+/** A wrong password stays counted; anything else (signed in, deactivated, refused) is not a guess. */
+export async function settleSignIn(db: Db, ticket: SignInTicket, email: string, outcome: 'signed-in' | 'wrong-password' | 'other'): Promise<void> {
+  if (outcome === 'wrong-password') return;
   await db('auth_attempt').whereIn('id', ticket.ids).del();
   // Signed in: the account's owner knows the password, earlier typos no longer count against it.
-  await clearSignInFailures(db, email);
+  if (outcome === 'signed-in') await clearSignInFailures(db, email);
 }
 
 export async function clearSignInFailures(db: Db, email: string): Promise<void> {
