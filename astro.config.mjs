@@ -3,6 +3,7 @@ import { defineConfig } from 'astro/config';
 import node from '@astrojs/node';
 import react from '@astrojs/react';
 import tailwindcss from '@tailwindcss/vite';
+import { cspHashOf, ZOD_JITLESS_SCRIPT } from './src/lib/inline-scripts.mjs';
 
 // Host names the app may be reached under. Astro's node adapter ignores the Host header
 // unless it is listed here, and then refuses same-origin form posts (see DEVELOPERS.md).
@@ -35,6 +36,7 @@ export default defineConfig({
         "form-action 'self'",
         "frame-ancestors 'none'",
       ],
+      scriptDirective: { hashes: [/** @type {`sha256-${string}`} */ (cspHashOf(ZOD_JITLESS_SCRIPT))] },
     },
   },
   server: { host: '127.0.0.1', port: 4321 },

@@ -60,6 +60,7 @@ function secure(response: Response, ctx: { url: URL; locals: App.Locals }): Resp
     response.headers.set('x-content-type-options', 'nosniff');
     response.headers.set('referrer-policy', 'same-origin');
     response.headers.set('x-frame-options', 'DENY');
+    if (config().BETTER_AUTH_URL.startsWith('https://')) response.headers.set('strict-transport-security', 'max-age=31536000');
     // Pages get Astro's policy (hashes of its scripts and styles, astro.config.mjs); anything else none at all.
     if (!response.headers.has('content-security-policy')) response.headers.set('content-security-policy', "default-src 'none'; frame-ancestors 'none'; base-uri 'none'; form-action 'none'");
   } catch {
