@@ -4,6 +4,7 @@ import { parseRoles } from './lib/auth/roles';
 import { useSession } from './lib/auth/session-idle';
 import { config } from './lib/config';
 import { db } from './lib/db/client';
+import { getGisSettings } from './lib/db/gis-settings';
 import { matchApiRoute } from './lib/http/api-routes';
 import { declaredTooLarge, MAX_JSON_BYTES } from './lib/http/body';
 import { errorResponse, type ErrorCode } from './lib/http/errors';
@@ -53,6 +54,20 @@ function gate(ctx: { request: Request; url: URL }): Response | null {
   return null;
 }
 
+/**
+ * The map page's policy, widened for the map only: OpenLayers' scale line sizes itself with
+ * style attributes (styles, never scripts), and a configured basemap's host serves images.
+ * (Done here because Astro 5's Astro.csp.insertDirective repeats a new directive many times.)
+ */
+async function widenMapPolicy(response: Response): Promise<void> {
+  const csp = response.headers.get('content-security-policy');
+  if (!csp) return;
+  const basemap = (await getGisSettings(db))['map.basemap-url'];
+  const imgSrc = basemap ? `img-src 'self' data: blob: ${new URL(basemap).origin}` : null;
+  const widened = (imgSrc ? csp.replace("img-src 'self' data: blob:", imgSrc) : csp).trim().replace(/;?$/, "; style-src-attr 'unsafe-inline';");
+  response.headers.set('content-security-policy', widened);
+}
+
 function secure(response: Response, ctx: { url: URL; locals: App.Locals }): Response {
   try {
     // Routes that set their own caching (vector tiles: private, ETag by data version) keep it.
@@ -88,5 +103,7 @@ export const onRequest = defineMiddleware(async (ctx, next) => {
     ctx.locals.user = { id: u.id, name: u.name, email: u.email, roles: parseRoles(u.role) };
     ctx.locals.sessionId = found.session.id;
   }
-  return secure(await next(), ctx);
+  const response = await next();
+  if (ctx.url.pathname === '/map' && response.status === 200) await widenMapPolicy(response);
+  return secure(response, ctx);
 });
