@@ -1,44 +1,40 @@
-/** Requests fetch() will not make: TRACE, and bodies streamed in chunks that may be cut off by the server. */
+/** Requests fetch() will not make: TRACE, and bodies the server must refuse before they end. */
 import http from 'node:http';
 import { APP_PORT } from './env';
 
-export type RawResponse = { status: number; headers: http.IncomingHttpHeaders; body: string; sentBytes: number };
+export type RawResponse = { status: number; headers: http.IncomingHttpHeaders; body: string };
 
 /**
- * Sends `totalBytes` of `chunk` repeated, chunked (no Content-Length) unless `declareLength`,
- * and resolves with the answer as soon as it comes, even while the body is still being sent.
+ * Sends the headers, then `body` or `totalBytes` of spaces (chunked unless `declaredLength` is
+ * given). With `holdOpen` the request is never finished: an answer then proves the server
+ * decided before the body ended (it stopped reading at its cap, or never started).
  */
-export function rawRequest(opts: { method: string; path: string; headers?: Record<string, string>; body?: string; totalBytes?: number; declareLength?: boolean; port?: number }): Promise<RawResponse> {
+export function rawRequest(opts: { method: string; path: string; headers?: Record<string, string>; body?: string; totalBytes?: number; declaredLength?: number; holdOpen?: boolean; port?: number }): Promise<RawResponse> {
   return new Promise((resolve, reject) => {
-    const total = opts.totalBytes ?? 0;
     const headers: Record<string, string> = { ...(opts.headers ?? {}) };
-    if (total > 0 && opts.declareLength) headers['content-length'] = String(total);
+    if (opts.declaredLength !== undefined) headers['content-length'] = String(opts.declaredLength);
     const req = http.request({ host: '127.0.0.1', port: opts.port ?? APP_PORT, method: opts.method, path: opts.path, headers });
-    let sent = 0;
-    let answered = false;
+    const timer = setTimeout(() => {
+      req.destroy();
+      reject(new Error(`${opts.method} ${opts.path}: no answer within 20 s`));
+    }, 20_000);
     req.on('response', (res) => {
-      answered = true;
       let body = '';
       res.setEncoding('utf8');
       res.on('data', (d) => (body += d));
       res.on('end', () => {
-        resolve({ status: res.statusCode ?? 0, headers: res.headers, body, sentBytes: sent });
+        clearTimeout(timer);
+        resolve({ status: res.statusCode ?? 0, headers: res.headers, body });
         req.destroy();
       });
     });
     req.on('error', (err) => {
-      if (!answered) reject(err);
+      clearTimeout(timer);
+      reject(err);
     });
-    const piece = Buffer.alloc(64 * 1024, 0x20); // spaces: valid JSON whitespace, so only the size can be refused
-    const pump = () => {
-      while (!answered && sent < total) {
-        const n = Math.min(piece.length, total - sent);
-        sent += n;
-        if (!req.write(n === piece.length ? piece : piece.subarray(0, n))) return void req.once('drain', pump);
-      }
-      if (!answered) req.end();
-    };
-    if (total > 0) pump();
-    else req.end(opts.body);
+    if (opts.totalBytes) req.write(Buffer.alloc(opts.totalBytes, 0x20)); // spaces: valid JSON whitespace, so only the size can be refused
+    else if (opts.body !== undefined) req.write(opts.body);
+    if (opts.holdOpen) req.flushHeaders();
+    else req.end();
   });
 }
