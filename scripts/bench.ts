@@ -26,7 +26,7 @@ const COUNT = Number(process.env.BENCH_COUNT ?? 20_000);
 const STATE = process.env.BENCH_STATE === 'warm' ? 'warm' : 'fresh';
 const SOILS = ['hac', 'lac', 'sandy', 'spodic', 'volcanic', 'wetland', 'organic'];
 
-const server = spawn(process.execPath, [`${process.env.SWARDKEEP_DIST ?? 'dist'}/server/entry.mjs`], {
+const server = spawn(process.execPath, [`scripts/serve.mjs`], {
   env: { ...process.env, NODE_ENV: 'production', HOST: '127.0.0.1', PORT: String(PORT), BETTER_AUTH_URL: BASE, MAIL_WORKER: 'off', AUTH_SIGNIN_MAX: '1000' },
   stdio: ['ignore', 'inherit', 'inherit'],
 });

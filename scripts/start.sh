@@ -24,7 +24,7 @@ if [ -z "${SMTP_HOST:-}" ]; then
   require_port "$SMTP_PORT" "the local mail fake" SMTP_PORT
   node --import tsx scripts/mail-fake.ts & pids+=($!)
 fi
-node "${SWARDKEEP_DIST:-dist}/server/entry.mjs" & server=$!; pids+=($server)
+node scripts/serve.mjs & server=$!; pids+=($server)
 if ! wait_http "http://${HOST}:${PORT}/api/health" "$server"; then
   echo "start: the app did not come up; see the messages above." >&2
   exit 1

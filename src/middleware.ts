@@ -1,32 +1,109 @@
 import { defineMiddleware } from 'astro:middleware';
 import { auth } from './lib/auth/auth';
 import { parseRoles } from './lib/auth/roles';
+import { useSession } from './lib/auth/session-idle';
 import { config } from './lib/config';
+import { db } from './lib/db/client';
+import { getGisSettings } from './lib/db/gis-settings';
+import { matchApiRoute } from './lib/http/api-routes';
+import { declaredTooLarge, MAX_JSON_BYTES } from './lib/http/body';
+import { errorResponse, type ErrorCode } from './lib/http/errors';
 import { startMailWorker } from './lib/mail/worker';
 
+const STATE_CHANGING = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
+const NEVER = new Set(['TRACE', 'TRACK', 'CONNECT']);
+
+function refuse(api: boolean, code: ErrorCode, message: string, headers: Record<string, string> = {}): Response {
+  const res = api ? errorResponse(code, message) : new Response(message, { status: errorResponse(code, message).status, headers: { 'content-type': 'text/plain; charset=utf-8' } });
+  for (const [k, v] of Object.entries(headers)) res.headers.set(k, v);
+  return res;
+}
+
 /**
- * Puts the signed-in user (or null) on locals. Sessions live in PostgreSQL, so any instance
- * can answer any request. A database outage is an error, never "signed out".
+ * A state-changing request must come from our own pages: its Origin must be the configured public
+ * URL (BETTER_AUTH_URL); without Origin, the browser's Sec-Fetch-Site must say "same-origin".
+ * Other ports of the same host are other origins (cookies would count them as same-site).
+ */
+function foreignOrigin(request: Request): string | null {
+  const origin = request.headers.get('origin');
+  if (origin !== null) return origin === new URL(config().BETTER_AUTH_URL).origin ? null : `the request came from ${origin === 'null' ? 'an opaque origin' : 'another site'}`;
+  const site = request.headers.get('sec-fetch-site');
+  if (site === 'same-origin') return null;
+  return 'the request did not say where it came from (send an Origin header)';
+}
+
+/** Checks every request may go on before anything reads it; a Response means refused. */
+function gate(ctx: { request: Request; url: URL }): Response | null {
+  const { request, url } = ctx;
+  const api = url.pathname.startsWith('/api/');
+  if (NEVER.has(request.method)) return refuse(api, 'METHOD_NOT_ALLOWED', `${request.method} is not served.`, { allow: 'GET, HEAD, POST' });
+  let multipart = false;
+  if (api && !url.pathname.startsWith('/api/auth/')) {
+    const route = matchApiRoute(url.pathname, request.method);
+    if (!route) return refuse(true, 'NOT_FOUND', 'No such API route.');
+    if (request.method === 'OPTIONS') return new Response(null, { status: 204, headers: { allow: [...route.allowed, 'OPTIONS'].join(', ') } });
+    if (!route.allowed.includes(request.method)) return refuse(true, 'METHOD_NOT_ALLOWED', `Use ${route.allowed.join(' or ')} here.`, { allow: route.allowed.join(', ') });
+    multipart = route.multipart;
+  }
+  if (STATE_CHANGING.has(request.method)) {
+    const why = foreignOrigin(request);
+    if (why) return refuse(api, 'FORBIDDEN', `Refused: ${why}.`);
+    // Uploads have their own, larger cap (lib/http/multipart.ts); everything else stays small.
+    if (!multipart && declaredTooLarge(request, MAX_JSON_BYTES)) return refuse(api, 'PAYLOAD_TOO_LARGE', `The request body is larger than the allowed ${MAX_JSON_BYTES} bytes.`);
+  }
+  return null;
+}
+
+/**
+ * The map page's policy, widened for the map only: OpenLayers' scale line sizes itself with
+ * style attributes (styles, never scripts), and a configured basemap's host serves images.
+ * (Done here because Astro 5's Astro.csp.insertDirective repeats a new directive many times.)
+ */
+async function widenMapPolicy(response: Response): Promise<void> {
+  const csp = response.headers.get('content-security-policy');
+  if (!csp) return;
+  const basemap = (await getGisSettings(db))['map.basemap-url'];
+  const imgSrc = basemap ? `img-src 'self' data: blob: ${new URL(basemap).origin}` : null;
+  const widened = (imgSrc ? csp.replace("img-src 'self' data: blob:", imgSrc) : csp).trim().replace(/;?$/, "; style-src-attr 'unsafe-inline';");
+  response.headers.set('content-security-policy', widened);
+}
+
+function secure(response: Response, ctx: { url: URL; locals: App.Locals }): Response {
+  try {
+    // Routes that set their own caching (vector tiles: private, ETag by data version) keep it.
+    if ((ctx.url.pathname.startsWith('/api/') || ctx.locals.user) && !response.headers.has('cache-control')) response.headers.set('cache-control', 'no-store');
+    response.headers.set('x-content-type-options', 'nosniff');
+    response.headers.set('referrer-policy', 'same-origin');
+    response.headers.set('x-frame-options', 'DENY');
+    if (config().BETTER_AUTH_URL.startsWith('https://')) response.headers.set('strict-transport-security', 'max-age=31536000');
+    // Pages get Astro's policy (hashes of its scripts and styles, astro.config.mjs); anything else none at all.
+    if (!response.headers.has('content-security-policy')) response.headers.set('content-security-policy', "default-src 'none'; frame-ancestors 'none'; base-uri 'none'; form-action 'none'");
+  } catch {
+    // Redirect responses have immutable headers; they carry no content to protect.
+  }
+  return response;
+}
+
+/**
+ * Refuses what must never reach a route (TRACE, unknown API paths and methods, foreign origins,
+ * oversized bodies), then puts the signed-in user (or null) on locals. Sessions live in
+ * PostgreSQL, so any instance can answer any request; a session idle too long ends here.
+ * A database outage is an error, never "signed out".
  */
 export const onRequest = defineMiddleware(async (ctx, next) => {
   if (config().MAIL_WORKER === 'on') startMailWorker();
   ctx.locals.user = null;
   ctx.locals.sessionId = null;
   if (ctx.isPrerendered) return next();
+  const refused = gate(ctx);
+  if (refused) return secure(refused, ctx);
   const found = await auth.api.getSession({ headers: ctx.request.headers });
-  if (found && !found.user.banned) {
+  if (found && !found.user.banned && (await useSession(db, found.session))) {
     const u = found.user as typeof found.user & { role?: string | null };
     ctx.locals.user = { id: u.id, name: u.name, email: u.email, roles: parseRoles(u.role) };
     ctx.locals.sessionId = found.session.id;
   }
   const response = await next();
-  try {
-    // Routes that set their own caching (vector tiles: private, ETag by data version) keep it.
-    if ((ctx.url.pathname.startsWith('/api/') || ctx.locals.user) && !response.headers.has('cache-control')) response.headers.set('cache-control', 'no-store');
-    response.headers.set('x-content-type-options', 'nosniff');
-    response.headers.set('referrer-policy', 'same-origin');
-  } catch {
-    // Redirect responses have immutable headers; they carry no content to protect.
-  }
-  return response;
+  if (ctx.url.pathname === '/map' && response.status === 200) await widenMapPolicy(response);
+  return secure(response, ctx);
 });

@@ -15,7 +15,9 @@ const schema = z.object({
   SMTP_SECURE: z.enum(['true', 'false']).default('false'),
   MAIL_FROM: z.string().default('Swardkeep <no-reply@swardkeep.invalid>'),
   AUTH_RATE_LIMIT: z.enum(['on', 'off']).default('on'),
-  AUTH_SIGNIN_MAX: z.coerce.number().int().positive().default(5),
+  // Sign-in requests per address per window, successful ones included: a flood limit only, so high
+  // enough for an office signing in at nine. Wrong passwords are throttled in lib/auth/throttle.ts.
+  AUTH_SIGNIN_MAX: z.coerce.number().int().positive().default(120),
   AUTH_SIGNIN_WINDOW_S: z.coerce.number().int().positive().default(60),
   MAIL_WORKER: z.enum(['on', 'off']).default('on'),
 });

@@ -2,7 +2,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
-import { passwordProblem, PASSWORD_MIN } from '~/lib/auth/password-policy';
+import { passwordLengthProblem, PASSWORD_MIN } from '~/lib/auth/password-length';
 import { apiFetch, ApiError } from '../ui/api-client';
 import { Field } from '../ui/Field';
 import { resetPassword } from './auth-requests';
@@ -10,7 +10,8 @@ import { resetPassword } from './auth-requests';
 const schema = z
   .object({ password: z.string(), confirm: z.string() })
   .superRefine((v, ctx) => {
-    const problem = passwordProblem(v.password);
+    // The full check (common passwords, guessability) runs on the server, which explains a refusal.
+    const problem = passwordLengthProblem(v.password);
     if (problem) ctx.addIssue({ code: 'custom', path: ['password'], message: problem });
     if (v.password !== v.confirm) ctx.addIssue({ code: 'custom', path: ['confirm'], message: 'The two passwords differ.' });
   });

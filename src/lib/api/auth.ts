@@ -48,3 +48,15 @@ export const resetPassword = defineSpec({
   body: z.object({ token: z.string(), newPassword: z.string().min(10).max(128) }),
   response: ok,
 });
+
+export const resetPasswordLink = defineSpec({
+  method: 'GET',
+  path: '/api/auth/reset-password/{token}',
+  tag: 'Sign-in',
+  summary: 'The link in the reset mail: checks the token and redirects to the page that sets the new password',
+  access: 'public',
+  params: z.object({ token: z.string() }),
+  query: z.object({ callbackURL: z.string() }),
+  response: null,
+  status: 302,
+});

@@ -25,6 +25,7 @@ export const allSpecs: ApiSpec[] = [
   authRoutes.getSession,
   authRoutes.requestPasswordReset,
   authRoutes.resetPassword,
+  authRoutes.resetPasswordLink,
   admin.openapi,
   users.me,
   users.listUsers,

@@ -10,7 +10,23 @@ export async function guardPage(Astro: AstroGlobal, roles?: readonly Role[]): Pr
   return user;
 }
 
-/** Only same-site relative paths may be used as a post-sign-in destination. */
+const NEXT_BASE = 'http://swardkeep.invalid';
+
+/**
+ * A post-sign-in destination on this site, or /work. The value is parsed the way a browser parses
+ * a URL (WHATWG: tabs and newlines dropped, "\\" read as "/"), so "/\t/host" or "/\\host" cannot
+ * turn into "//host"; control characters and backslashes are refused outright.
+ */
 export function safeNext(next: string | null): string {
-  return next && next.startsWith('/') && !next.startsWith('//') && !next.startsWith('/\\') ? next : '/work';
+  if (!next || !next.startsWith('/') || /[\u0000-\u001f\u007f\\]/.test(next)) return '/work';
+  let url: URL;
+  try {
+    url = new URL(next, NEXT_BASE);
+  } catch {
+    return '/work';
+  }
+  const path = url.pathname + url.search + url.hash;
+  // "/..//host" resolves to the path "//host", which a browser reads as another host.
+  if (url.origin !== NEXT_BASE || path.startsWith('//')) return '/work';
+  return path;
 }

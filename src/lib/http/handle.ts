@@ -6,6 +6,7 @@
 import type { APIContext, APIRoute } from 'astro';
 import type { z } from 'zod';
 import { hasAnyRole, type Role } from '../auth/roles';
+import { readJson, rejectNul } from './body';
 import { errorResponse, HttpError, json, type Issue } from './errors';
 import type { ApiSpec } from './spec';
 
@@ -22,7 +23,9 @@ export type HandlerInput<S extends ApiSpec> = {
   params: Infer<S['params']>;
 };
 
-export const MAX_JSON_BYTES = 1_000_000;
+export { MAX_JSON_BYTES } from './body';
+/** Whole numbers in requests fit PostgreSQL's integer; bigger ones are refused at the edge (422), not by the database (500). */
+export const MAX_INT = 2_147_483_647;
 
 export function zodIssues(error: z.ZodError): Issue[] {
   return error.issues.map((i) => ({ path: i.path.map((p) => (typeof p === 'symbol' ? String(p) : p)), message: i.message }));
@@ -39,18 +42,27 @@ function parse<T extends z.ZodType>(schema: T, value: unknown, where: string): z
   return r.data;
 }
 
-async function readJson(request: Request): Promise<unknown> {
-  const type = request.headers.get('content-type') ?? '';
-  if (!type.includes('application/json')) throw new HttpError('UNSUPPORTED_MEDIA_TYPE', 'Send the request body as application/json.');
-  const length = Number(request.headers.get('content-length') ?? 0);
-  if (length > MAX_JSON_BYTES) throw new HttpError('PAYLOAD_TOO_LARGE', `The request body is larger than ${MAX_JSON_BYTES} bytes.`);
-  const text = await request.text();
-  if (text.length > MAX_JSON_BYTES) throw new HttpError('PAYLOAD_TOO_LARGE', `The request body is larger than ${MAX_JSON_BYTES} bytes.`);
-  try {
-    return JSON.parse(text);
-  } catch {
-    throw new HttpError('BAD_REQUEST', 'The request body is not valid JSON.');
+/** Refuses whole numbers outside PostgreSQL's integer range anywhere in parsed input. */
+function checkIntegers(value: unknown, where: string, path: (string | number)[] = []): void {
+  if (typeof value === 'number' && Number.isInteger(value) && Math.abs(value) > MAX_INT) {
+    const at = path.length ? ` (${path.join('.')})` : '';
+    throw new HttpError('UNPROCESSABLE_CONTENT', `Invalid ${where}${at}: whole numbers must lie between -${MAX_INT} and ${MAX_INT}.`, [{ path, message: 'out of range' }]);
   }
+  if (Array.isArray(value)) value.forEach((v, i) => checkIntegers(v, where, [...path, i]));
+  else if (value && typeof value === 'object' && !(value instanceof Date)) for (const [k, v] of Object.entries(value)) checkIntegers(v, where, [...path, k]);
+}
+
+function edge<T>(value: T, where: string): T {
+  checkIntegers(value, where);
+  return value;
+}
+
+/** PostgreSQL errors that mean bad input slipped past the schemas: a clear 4xx, never a 500. */
+function inputErrorOf(err: unknown): HttpError | null {
+  const code = (err as { code?: unknown })?.code;
+  if (code === '22003') return new HttpError('UNPROCESSABLE_CONTENT', 'A number in the request is out of range.');
+  if (code === '22021' || code === '22P05') return new HttpError('BAD_REQUEST', 'The request contains a character that cannot be stored (such as NUL).');
+  return null;
 }
 
 export function authorise(spec: ApiSpec, user: Caller | null): void {
@@ -66,15 +78,18 @@ export function handle<S extends ApiSpec>(spec: S, fn: (input: HandlerInput<S>) 
     try {
       const user = ctx.locals.user;
       authorise(spec, user);
-      const params = spec.params ? parse(spec.params, ctx.params, 'path parameter') : undefined;
-      const query = spec.query ? parse(spec.query, Object.fromEntries(ctx.url.searchParams), 'query') : undefined;
-      const body = spec.body && !spec.multipart ? parse(spec.body, await readJson(ctx.request), 'request') : undefined;
+      rejectNul(ctx.params, ['path']);
+      rejectNul(Object.fromEntries(ctx.url.searchParams), ['query']);
+      const params = spec.params ? edge(parse(spec.params, ctx.params, 'path parameter'), 'path parameter') : undefined;
+      const query = spec.query ? edge(parse(spec.query, Object.fromEntries(ctx.url.searchParams), 'query'), 'query') : undefined;
+      const body = spec.body && !spec.multipart ? edge(parse(spec.body, await readJson(ctx.request), 'request'), 'request') : undefined;
       const result = await fn({ ctx, user, body, query, params } as HandlerInput<S>);
       if (result instanceof Response) return result;
       if (result === undefined) return new Response(null, { status: 204 });
       return json(result, spec.status ?? 200);
     } catch (err) {
-      if (err instanceof HttpError) return errorResponse(err.code, err.message, err.issues);
+      const known = err instanceof HttpError ? err : inputErrorOf(err);
+      if (known) return errorResponse(known.code, known.message, known.issues);
       console.error(`${ctx.request.method} ${ctx.url.pathname} failed:`, err);
       return errorResponse('INTERNAL_SERVER_ERROR', 'Something went wrong on the server. The error has been logged.');
     }

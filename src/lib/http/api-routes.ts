@@ -1,0 +1,20 @@
+/**
+ * Which methods an API path answers, from the route contracts (lib/api/index.ts): the
+ * middleware gives unknown API paths a JSON 404 and a wrong method 405 with Allow.
+ */
+import { allSpecs } from '../api';
+
+const routes = allSpecs
+  .filter((s) => !s.path.startsWith('/api/auth/')) // better-auth's: lib/auth/endpoints.ts answers for them
+  .map((s) => ({ method: s.method as string, multipart: !!s.multipart, pattern: new RegExp(`^${s.path.replace(/[.]/g, '\\.').replace(/\{[^}]+\}/g, '[^/]+')}/?$`) }));
+
+export type ApiRouteMatch = { allowed: string[]; multipart: boolean } | null;
+
+/** The methods the path answers (HEAD with GET), or null for no such API path. */
+export function matchApiRoute(pathname: string, method: string): ApiRouteMatch {
+  const found = routes.filter((r) => r.pattern.test(pathname));
+  if (found.length === 0) return null;
+  const allowed = [...new Set(found.flatMap((r) => (r.method === 'GET' ? ['GET', 'HEAD'] : [r.method])))];
+  const multipart = found.some((r) => r.multipart && r.method === method);
+  return { allowed, multipart };
+}
