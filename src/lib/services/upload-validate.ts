@@ -1,14 +1,16 @@
 /**
  * Step 2 of an upload: the chosen layer, CRS and column mapping → a per-feature validation
  * report. Reprojects with proj4, validates (pure, src/lib/gis/validate.ts), then in PostGIS
- * tries ST_MakeValid on self-intersections and rejects duplicates of the register. The staged
+ * tries ST_MakeValid on self-intersections, rejects duplicates of the register and checks
+ * overlaps and near-duplicates within the file and with the register. The staged
  * features replace any earlier validation of the same upload, in one transaction.
  */
 import type { Geometry } from 'geojson';
 import { toSquareMetres } from '../gis/area-units';
 import { mapParcelFeature, mappedColumns, mapReferenceFeature, parcelMappingSchema, referenceMappingSchema, type ParcelMapping, type ReferenceMapping } from '../gis/field-mapping';
 import { layerToWgs84 } from '../gis/ingest/to-wgs84';
-import type { GisSettings } from '../gis/settings';
+import { referenceKey } from '../gis/references';
+import { overlapTolerance, type GisSettings } from '../gis/settings';
 import type { RawFeature } from '../gis/types';
 import { validateFeatures, type FeatureToValidate, type ValidationIssue } from '../gis/validate';
 import type { CrsDefinition } from '../gis/crs';
@@ -17,6 +19,7 @@ import { getGisSettings } from '../db/gis-settings';
 import * as uploads from '../db/uploads';
 import { HttpError } from '../http/errors';
 import { zodIssues, type Caller } from '../http/handle';
+import { checkStagedOverlaps } from './parcel-integrity';
 import { loadOwnStaging, sourceKey } from './upload-stage';
 import { parseUpload, resolveCrs } from './upload-parse';
 
@@ -63,7 +66,7 @@ export function buildStagedFeatures(features: RawFeature[], purpose: 'parcels' |
     }
     const r = mapParcelFeature(f.properties, mapping);
     const statedAreaHa = r.fields.statedArea ? toSquareMetres(r.fields.statedArea.value, r.fields.statedArea.unit) / 10_000 : null;
-    return { reference: r.reference, fields: { ...r.fields, statedAreaHa }, issues: r.issues, stated: r.fields.statedArea };
+    return { reference: r.reference, fields: { ...r.fields, statedAreaHa, referenceKey: r.reference ? referenceKey(r.reference) : null }, issues: r.issues, stated: r.fields.statedArea };
   });
   const toValidate: FeatureToValidate[] = features.map((f, i) => ({ geometry: f.geometry, reference: purpose === 'parcels' ? mapped[i]!.reference : null, statedArea: mapped[i]!.stated }));
   const report = validateFeatures(toValidate, options);
@@ -103,7 +106,10 @@ export async function validateUpload(by: Caller, id: string, input: ValidationIn
   const result = await withTransaction(db, async (trx) => {
     await uploads.replaceStagedFeatures(trx, id, staged);
     await uploads.repairWithMakeValid(trx, id, validationOptions(settings, crs, staging.purpose).minAreaM2);
-    if (staging.purpose === 'parcels') await uploads.rejectRegisterDuplicates(trx, id);
+    if (staging.purpose === 'parcels') {
+      await uploads.rejectRegisterDuplicates(trx, id);
+      await checkStagedOverlaps(trx, id, overlapTolerance(settings));
+    }
     const summary = await uploads.stagedSummary(trx, id);
     const sourceCrs = { epsg: crs.epsg, name: crs.name, definition: crs.definition, source };
     await uploads.updateStagingValidation(trx, id, { layerName: layer.name, sourceCrs, mapping, summary });
