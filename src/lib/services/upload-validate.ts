@@ -1,6 +1,6 @@
 /**
  * Step 2 of an upload: the chosen layer, CRS and column mapping → a per-feature validation
- * report. Reprojects with proj4, validates (pure, src/lib/gis/validate.ts), then in PostGIS
+ * report. Reprojects (PostGIS for datum shifts, else proj4; src/lib/db/transform.ts), validates (pure, src/lib/gis/validate.ts), then in PostGIS
  * tries ST_MakeValid on self-intersections, rejects duplicates of the register and checks
  * overlaps and near-duplicates within the file and with the register. The staged
  * features replace any earlier validation of the same upload, in one transaction.
@@ -8,7 +8,7 @@
 import type { Geometry } from 'geojson';
 import { toSquareMetres } from '../gis/area-units';
 import { mapParcelFeature, mappedColumns, mapReferenceFeature, parcelMappingSchema, referenceMappingSchema, type ParcelMapping, type ReferenceMapping } from '../gis/field-mapping';
-import { layerToWgs84 } from '../gis/ingest/to-wgs84';
+import { isGisInputError } from '../gis/errors';
 import { referenceKey } from '../gis/references';
 import { overlapTolerance, type GisSettings } from '../gis/settings';
 import type { RawFeature } from '../gis/types';
@@ -16,12 +16,13 @@ import { validateFeatures, type FeatureToValidate, type ValidationIssue } from '
 import type { CrsDefinition } from '../gis/crs';
 import { db, withTransaction } from '../db/client';
 import { getGisSettings } from '../db/gis-settings';
+import { reprojectLayer } from '../db/transform';
 import * as uploads from '../db/uploads';
 import { HttpError } from '../http/errors';
 import { zodIssues, type Caller } from '../http/handle';
 import { checkStagedOverlaps } from './parcel-integrity';
 import { loadOwnStaging, sourceKey } from './upload-stage';
-import { parseUpload, resolveCrs } from './upload-parse';
+import { gisError, parseUpload, resolveCrs } from './upload-parse';
 
 export interface ValidationInput {
   layer: string;
@@ -101,7 +102,9 @@ export async function validateUpload(by: Caller, id: string, input: ValidationIn
   const { crs, source } = await resolveCrs(layer, input.epsg);
   const parseMs = Math.round(performance.now() - started);
   const t1 = performance.now();
-  const wgs84 = layerToWgs84(layer.features, crs, layer.name);
+  const wgs84 = await reprojectLayer(db, layer.features, crs, layer.name).catch((error) => {
+    throw isGisInputError(error) ? gisError(error) : error;
+  });
   const staged = buildStagedFeatures(wgs84, staging.purpose, mapping, validationOptions(settings, crs, staging.purpose));
   const result = await withTransaction(db, async (trx) => {
     await uploads.replaceStagedFeatures(trx, id, staged);
