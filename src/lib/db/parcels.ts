@@ -124,11 +124,18 @@ export async function parcelsInBox(db: Db, box: [number, number, number, number]
   return r.rows as { id: number; reference: string; geometry: MultiPolygon }[];
 }
 
+/**
+ * Extent of a group of parcels that stays local across the antimeridian: when longitudes shifted
+ * to 0–360 (ST_ShiftLongitude) give a narrower box, that one (east edge beyond 180°) is used.
+ */
+const width = (g: string) => `(st_xmax(st_extent(${g})) - st_xmin(st_extent(${g})))`;
+const LOCAL_EXTENT = `case when ${width('st_shiftlongitude(p.geom)')} < ${width('p.geom')} then st_extent(st_shiftlongitude(p.geom)) else st_extent(p.geom) end::geometry`;
+
 /** Where parcels are: one lon/lat extent per upload batch (drawn parcels together), largest first. */
 export async function parcelAreas(db: Db, limit = 20): Promise<{ label: string; count: number; extent: [number, number, number, number] }[]> {
   const r = await db.raw(
     `select label, n, st_xmin(e) w, st_ymin(e) s, st_xmax(e) e, st_ymax(e) n2 from (
-       select coalesce(b.file_name, 'Parcels drawn on the map') as label, count(*)::int as n, st_extent(p.geom)::geometry as e, max(b.saved_at) as saved_at
+       select coalesce(b.file_name, 'Parcels drawn on the map') as label, count(*)::int as n, ${LOCAL_EXTENT} as e, max(b.saved_at) as saved_at
        from parcel p left join upload_batch b on b.id = p.batch_id group by b.id, b.file_name
      ) x order by n desc, saved_at desc nulls last limit ?`,
     [limit],

@@ -1,4 +1,5 @@
-import type { Geometry, MultiPolygon } from 'geojson';
+import type { Geometry, MultiPolygon, Polygon } from 'geojson';
+import { crossesAntimeridian, splitAtAntimeridian } from './antimeridian';
 import { measureGeometry } from './area';
 import { areaToleranceM2, toSquareMetres, type AreaUnit } from './area-units';
 import { firstOutsideAreaOfUse, firstOutsideWgs84, type CrsDefinition } from './crs';
@@ -100,8 +101,12 @@ export function validateFeatures(features: FeatureToValidate[], options: Validat
   const seenGeoms = new Map<string, number>();
   const reports = features.map((f, index): FeatureReport => {
     const reference = f.reference?.trim() || null;
-    const checked = checkGeometry(f.geometry);
+    const cut = crossesAntimeridian(f.geometry) ? splitAtAntimeridian(f.geometry as Polygon | MultiPolygon) : null;
+    const checked = checkGeometry(cut ?? f.geometry);
     const issues = [...checked.issues];
+    if (cut) {
+      issues.unshift({ code: 'antimeridian-split', message: `The boundary crosses the antimeridian (180°); it was cut there into ${cut.coordinates.length} parts, one on each side (RFC 7946 §3.1.9). The area is unchanged.`, severity: 'repaired' });
+    }
     let geometry = checked.geometry;
     let areaHa: number | null = null;
     let perimeterM: number | null = null;
