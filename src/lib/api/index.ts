@@ -8,6 +8,7 @@ import * as authRoutes from './auth';
 import * as estimates from './estimates';
 import * as factorSets from './factor-sets';
 import * as parcels from './parcels';
+import * as territory from './territory';
 import * as uploads from './uploads';
 import * as users from './users';
 
@@ -37,6 +38,8 @@ export const allSpecs: ApiSpec[] = [
   factorSets.publishDraft,
   factorSets.confirmTable,
   factorSets.putDefaultSet,
+  territory.getTerritory,
+  territory.putTerritory,
   uploads.stageUpload,
   uploads.validateUpload,
   uploads.saveUpload,

@@ -18,6 +18,7 @@ import { validateFeatures } from '../gis/validate';
 import { HttpError } from '../http/errors';
 import type { Caller } from '../http/handle';
 import { checkBoundaryAgainstRegister } from './parcel-integrity';
+import { assertInsideTerritory } from './territory';
 import { validationOptions } from './upload-validate';
 
 const today = () => new Date().toISOString().slice(0, 10);
@@ -57,7 +58,7 @@ export async function parcelDetail(by: Caller, id: number) {
 }
 
 /**
- * Same checks as an upload (pure validation, register duplicates, overlaps and near-duplicates
+ * Same checks as an upload (pure validation, territory, register duplicates, overlaps and near-duplicates
  * with the tolerances of the settings), under the register lock; returns the normalised
  * geometry and the warnings (overlaps within the tolerance).
  */
@@ -70,6 +71,7 @@ async function checkBoundary(trx: Db, geometry: Geometry, reference: string, exc
   if (f.status === 'rejected' || !f.geometry) {
     throw new HttpError('UNPROCESSABLE_CONTENT', `The boundary is not valid: ${errors.map((e) => e.message).join(' ')}`, errors.map((e) => ({ path: ['geometry'], message: e.message })));
   }
+  await assertInsideTerritory(trx, f.geometry);
   const twin = await parcels.sameBoundary(trx, f.geometry, exceptId);
   if (twin) throw new HttpError('CONFLICT', `Parcel ${twin} already has exactly this boundary.`);
   const warnings = await checkBoundaryAgainstRegister(trx, f.geometry, overlapTolerance(settings), exceptId);

@@ -1,8 +1,8 @@
 /**
  * Step 2 of an upload: the chosen layer, CRS and column mapping → a per-feature validation
  * report. Reprojects (PostGIS for datum shifts, else proj4; src/lib/db/transform.ts), validates (pure, src/lib/gis/validate.ts), then in PostGIS
- * tries ST_MakeValid on self-intersections, rejects duplicates of the register and checks
- * overlaps and near-duplicates within the file and with the register. The staged
+ * tries ST_MakeValid on self-intersections, rejects duplicates of the register and features
+ * outside the territory (naming swapped axes), and checks overlaps and near-duplicates within the file and with the register. The staged
  * features replace any earlier validation of the same upload, in one transaction.
  */
 import type { Geometry } from 'geojson';
@@ -20,7 +20,9 @@ import { reprojectLayer } from '../db/transform';
 import * as uploads from '../db/uploads';
 import { HttpError } from '../http/errors';
 import { zodIssues, type Caller } from '../http/handle';
+import { addStagedIssues } from '../db/parcel-integrity';
 import { checkStagedOverlaps } from './parcel-integrity';
+import { checkStagedTerritory } from './territory';
 import { loadOwnStaging, sourceKey } from './upload-stage';
 import { gisError, parseUpload, resolveCrs } from './upload-parse';
 
@@ -111,6 +113,7 @@ export async function validateUpload(by: Caller, id: string, input: ValidationIn
     await uploads.repairWithMakeValid(trx, id, validationOptions(settings, crs, staging.purpose).minAreaM2);
     if (staging.purpose === 'parcels') {
       await uploads.rejectRegisterDuplicates(trx, id);
+      await addStagedIssues(trx, id, await checkStagedTerritory(trx, id));
       await checkStagedOverlaps(trx, id, overlapTolerance(settings));
     }
     const summary = await uploads.stagedSummary(trx, id);
