@@ -10,6 +10,7 @@ export const NAV: NavItem[] = [
   { href: '/calculator', label: 'Carbon calculator', roles: 'all' },
   { href: '/admin/factor-sets', label: 'Factor sets', roles: ['admin', 'assessor'] },
   { href: '/admin/reference-layers', label: 'Reference layers', roles: ['admin'] },
+  { href: '/admin/territory', label: 'Territory', roles: ['admin'] },
   { href: '/admin/users', label: 'Users', roles: ['admin'] },
   { href: '/admin/mail', label: 'Mail box', roles: ['admin'] },
   { href: '/admin/audit', label: 'Audit log', roles: ['admin'] },
