@@ -10,6 +10,7 @@ import { db } from '../src/lib/db/client';
 import { insertUser, setPassword } from '../src/lib/db/users';
 import { DEMO_PASSWORD, DEMO_PEOPLE } from './demo/people';
 import { seedDemoRegion } from './demo/region';
+import { closeGisPool } from '../src/lib/workers/pool';
 
 async function main(): Promise<void> {
   const [{ n }] = await db('user').count<{ n: number }[]>('* as n');
@@ -42,5 +43,6 @@ try {
   console.error(`seed: ${(err as Error).message}`);
   process.exitCode = 1;
 } finally {
+  await closeGisPool();
   await db.destroy();
 }

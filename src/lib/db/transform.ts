@@ -37,12 +37,17 @@ export async function transformPositions(db: Db, positions: Position[], srid: nu
   return out;
 }
 
+/** True when PostGIS reprojects this CRS: a datum shift and an EPSG code PostGIS knows. */
+export async function reprojectsInPostgis(db: Db, crs: CrsDefinition | null): Promise<boolean> {
+  return !!crs && crs.epsg !== null && crs.epsg !== 4326 && needsDatumShift(crs) && (await postgisKnowsSrid(db, crs.epsg));
+}
+
 /** Converts a layer to EPSG:4326: by PostGIS for CRSs with a datum shift and an EPSG code PostGIS knows, else by proj4. */
 export async function reprojectLayer(db: Db, features: RawFeature[], crs: CrsDefinition | null, layerName: string): Promise<RawFeature[]> {
-  if (!crs || crs.epsg === null || crs.epsg === 4326 || !needsDatumShift(crs) || !(await postgisKnowsSrid(db, crs.epsg))) return layerToWgs84(features, crs, layerName);
+  if (!crs || !(await reprojectsInPostgis(db, crs))) return layerToWgs84(features, crs, layerName);
   const positions: Position[] = [];
   for (const f of features) if (f.geometry) forEachPosition(f.geometry, (p) => positions.push(p));
-  const lonLat = await transformPositions(db, positions, crs.epsg, crs.name);
+  const lonLat = await transformPositions(db, positions, crs.epsg!, crs.name);
   let i = 0;
   return features.map((f) => (f.geometry ? { ...f, geometry: mapPositions(f.geometry, () => lonLat[i++]!) } : f));
 }

@@ -14,7 +14,7 @@ import { referenceKey, referenceProblem } from '../gis/references';
 import { overlapTolerance } from '../gis/settings';
 import { deriveLandUseFlags, type LandUseEvent } from '../gis/land-use-history';
 import { summariseOverlay } from '../gis/overlay-summary';
-import { validateFeatures } from '../gis/validate';
+import { runGisTask } from '../workers/pool';
 import { HttpError } from '../http/errors';
 import type { Caller } from '../http/handle';
 import { checkBoundaryAgainstRegister } from './parcel-integrity';
@@ -65,7 +65,7 @@ export async function parcelDetail(by: Caller, id: number) {
 async function checkBoundary(trx: Db, geometry: Geometry, reference: string, exceptId?: number): Promise<{ geometry: MultiPolygon; warnings: string[] }> {
   await lockParcelRegister(trx);
   const settings = await getGisSettings(trx);
-  const report = validateFeatures([{ geometry, reference }], validationOptions(settings, null, 'parcels'));
+  const report = await runGisTask('validate', { features: [{ geometry, reference }], options: validationOptions(settings, null, 'parcels') });
   const f = report.features[0]!;
   const errors = f.issues.filter((i) => i.severity === 'error');
   if (f.status === 'rejected' || !f.geometry) {
