@@ -1,7 +1,7 @@
 /**
- * Validation runs off the request thread (worker pool): while a 300,000-vertex polygon is
+ * Validation runs off the request thread (worker pool): while a 100,000-vertex polygon is
  * uploaded and validated, /api/health keeps answering. Only "answered" is asserted here; the
- * response-time figure (p99 under 200 ms) is measured by `npm run bench`.
+ * 300,000-vertex case and its response-time figure (p99 under 200 ms) are `npm run bench`'s.
  */
 import type { Position } from 'geojson';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -23,7 +23,7 @@ describe('a huge validation does not block other requests', () => {
   it('answers /api/health throughout', async () => {
     const utm = await crsFromEpsg(32628);
     const [x0, y0] = fromWgs84(CORROWMERE.originLonLat, utm).map((n) => Math.round(n));
-    const n = 300_000;
+    const n = 100_000;
     const ring: Position[] = [];
     // A circle of 300 m radius west of the demo fields (x -600 m, y 2500 m from the grid origin).
     for (let i = 0; i < n; i++) ring.push(toWgs84([x0! - 600 + 300 * Math.cos((2 * Math.PI * i) / n), y0! + 2500 + 300 * Math.sin((2 * Math.PI * i) / n)], utm));
@@ -54,5 +54,5 @@ describe('a huge validation does not block other requests', () => {
     expect(answers.every((a) => a.status === 200)).toBe(true);
     expect(answers.filter((a) => a.during).length).toBeGreaterThan(0);
     await api('DELETE', `/api/uploads/${staged.body.id}`, { session: planner });
-  });
+  }, 180_000);
 });
