@@ -3,7 +3,7 @@
  * north of the seeded Corrowmere fields, NOT loaded by the seed, for a newcomer's first upload
  * (README, "First ten minutes"). Deterministic (same seed, same bytes); dates relative to
  * 2025-06-30. Two deliberate defects show the checks: one land use not on the list, and one
- * extra field drawn half over its neighbour.
+ * extra field drawn half over each of two neighbours (CN-0039, CN-0040).
  * Run: node --import tsx gis/make-demo-north.ts
  */
 import { writeFileSync } from 'node:fs';

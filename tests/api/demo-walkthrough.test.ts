@@ -26,7 +26,10 @@ describe('the demo walk-through', () => {
     expect(report.status).toBe(200);
     expect(report.body.summary).toMatchObject({ total: 41, rejected: 2 });
     const rejected = report.body.features.filter((f: { status: string }) => f.status === 'rejected').map((f: { reference: string; issues: { code: string }[] }) => [f.reference, f.issues.map((i) => i.code)]);
-    expect(rejected).toEqual([['CN-0017', ['bad-land-use']], ['CN-0041', ['overlap']]]);
+    // CN-0041 lies half over CN-0039 and half over CN-0040: 120 m × 200 m with each, 50 % of either.
+    expect(rejected).toEqual([['CN-0017', ['bad-land-use']], ['CN-0041', ['overlap', 'overlap']]]);
+    const annex = report.body.features.find((f: { reference: string }) => f.reference === 'CN-0041');
+    expect(annex.issues.map((i: { message: string }) => i.message.match(/overlaps feature (\d+) \((CN-\d+)\)/)![2])).toEqual(['CN-0039', 'CN-0040']);
     const saved = await api('POST', `/api/uploads/${staged.body.id}/save`, { session: planner });
     expect(saved.body).toMatchObject({ saved: 39, rejected: 2 });
     const map = await api('GET', '/api/map', { session: planner });
