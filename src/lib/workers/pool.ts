@@ -42,3 +42,14 @@ export async function closeGisPool(): Promise<void> {
   pool = null;
   await p?.destroy();
 }
+
+/**
+ * Starts the pool's first thread without waiting for it (the first /api/health call does this),
+ * so the first upload after a start does not wait for a thread to load its modules.
+ */
+export function warmGisPool(): void {
+  if (pool) return;
+  getPool()
+    .run({ task: 'validate', input: { features: [], options: {} } })
+    .catch(() => undefined);
+}
