@@ -15,7 +15,7 @@ import { appendFileSync, readFileSync } from 'node:fs';
 import knexFactory from 'knex';
 import type { Position } from 'geojson';
 import { crsFromEpsg } from '../src/lib/gis/crs-catalogue.server';
-import { fromWgs84 } from '../src/lib/gis/crs';
+import { fromWgs84, toWgs84 } from '../src/lib/gis/crs';
 import { boxFeatures, collection, type Box } from '../gis/lib/layers';
 import { CORROWMERE } from '../gis/lib/regions';
 
@@ -159,12 +159,55 @@ async function forgetEarlierUpload(): Promise<void> {
   }
 }
 
+/** One parcel with `vertices` points (a circle of 300 m radius west of the bench fields), as GeoJSON. */
+async function hugePolygon(vertices: number): Promise<Uint8Array> {
+  const crs = await crsFromEpsg(CORROWMERE.epsg);
+  const [x0, y0] = fromWgs84(CORROWMERE.originLonLat, crs).map((n) => Math.round(n));
+  const ring: Position[] = [];
+  for (let i = 0; i < vertices; i++) {
+    const a = (2 * Math.PI * i) / vertices;
+    ring.push(toWgs84([x0! - 600 + 300 * Math.cos(a), y0! - 600 + 300 * Math.sin(a)], crs));
+  }
+  ring.push(ring[0]!);
+  return new TextEncoder().encode(JSON.stringify({ type: 'FeatureCollection', features: [{ type: 'Feature', properties: { ref: 'HUGE-1' }, geometry: { type: 'Polygon', coordinates: [ring] } }] }));
+}
+
+/** /api/health every 25 ms while a huge polygon is uploaded and validated: p50 / p99 / max (aim: p99 < 200 ms). */
+async function healthDuringHugeValidation(cookie: string, vertices = 300_000): Promise<void> {
+  const bytes = await hugePolygon(vertices);
+  const times: number[] = [];
+  let failed = 0;
+  let running = true;
+  const poll = (async () => {
+    while (running) {
+      const t0 = performance.now();
+      const ok = await fetch(`${BASE}/api/health`).then((r) => r.text().then(() => r.ok), () => false);
+      if (ok) times.push(performance.now() - t0);
+      else failed++;
+      await new Promise((r) => setTimeout(r, 25));
+    }
+  })();
+  const t0 = performance.now();
+  const form = new FormData();
+  form.set('purpose', 'parcels');
+  form.set('file', new Blob([bytes as BlobPart]), 'huge.geojson');
+  const staged = await call<{ id: string; layers: { name: string }[] }>(cookie, 'POST', '/api/uploads', form);
+  const report = await call<{ summary: { total: number; rejected: number }; timings: { validateMs: number } }>(cookie, 'POST', `/api/uploads/${staged.data.id}/validation`, { layer: staged.data.layers[0]!.name, mapping: { reference: 'ref' } });
+  running = false;
+  await poll;
+  await call(cookie, 'DELETE', `/api/uploads/${staged.data.id}`);
+  console.log(`huge polygon (${vertices} vertices, ${(bytes.length / 1e6).toFixed(1)} MB): stage + validate ${s(performance.now() - t0)} (server validate ${s(report.data.timings.validateMs)}, ${report.data.summary.rejected} rejected)`);
+  console.log(`  /api/health meanwhile: ${times.length} answers, ${failed} failed, p50 ${pct(times, 50).toFixed(1)} ms, p99 ${pct(times, 99).toFixed(1)} ms, max ${Math.max(...times).toFixed(1)} ms (aim: p99 < 200 ms)\n`);
+}
+
 try {
   await up();
   const admin = await session('admin@tarrow.example');
   const planner = await session('planner@tarrow.example');
-  if (STATE === 'fresh') await benchLayers(admin);
-  else await forgetEarlierUpload();
+  if (STATE === 'fresh') {
+    await benchLayers(admin);
+    await healthDuringHugeValidation(planner);
+  } else await forgetEarlierUpload();
   const rssBefore = vm('VmRSS');
   const bytes = new Uint8Array(readFileSync(ZIP));
   const mapping = { reference: 'field_ref', name: 'name', landUse: 'land_use', management: 'management', lastTillage: 'last_till', ownerRef: 'owner_ref', statedArea: 'stated_ha', statedAreaUnit: 'ha' };

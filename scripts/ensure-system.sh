@@ -1,6 +1,6 @@
 #!/usr/bin/env bash
 # Installs the Debian packages Swardkeep needs when they are missing: PostgreSQL 15 + PostGIS
-# (skipped when DATABASE_URL names an existing server) and, with --browser, Chromium for the
+# (skipped when DATABASE_URL names an existing server), proj-bin (projinfo) and, with --browser, Chromium for the
 # browser tests. Needs root or sudo; never downloads anything but Debian packages.
 set -euo pipefail
 need=()
@@ -8,6 +8,8 @@ if [ -z "${DATABASE_URL:-}" ] || [ "${SWARDKEEP_LOCAL_DB:-}" = 1 ]; then
   [ -x /usr/lib/postgresql/15/bin/pg_ctl ] || need+=(postgresql-15)
   [ -f /usr/share/postgresql/15/extension/postgis.control ] || need+=(postgresql-15-postgis-3)
 fi
+# PROJ's command-line tools: projinfo identifies .prj files without an EPSG code (src/lib/gis/proj-cli.server.ts).
+command -v projinfo >/dev/null || need+=(proj-bin)
 if [ "${1:-}" = "--browser" ]; then
   [ -x /usr/bin/chromium ] || need+=(chromium)
 fi

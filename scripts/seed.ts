@@ -12,6 +12,7 @@ import { DEMO_PASSWORD, DEMO_PEOPLE } from './demo/people';
 import { recomputeScreening } from '../src/lib/services/screening';
 import { seedDemoProposals } from './demo/proposals';
 import { seedDemoRegion } from './demo/region';
+import { closeGisPool } from '../src/lib/workers/pool';
 
 async function main(): Promise<void> {
   const [{ n }] = await db('user').count<{ n: number }[]>('* as n');
@@ -48,5 +49,6 @@ try {
   console.error(`seed: ${(err as Error).message}`);
   process.exitCode = 1;
 } finally {
+  await closeGisPool();
   await db.destroy();
 }

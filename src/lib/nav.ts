@@ -11,6 +11,7 @@ export const NAV: NavItem[] = [
   { href: '/admin/factor-sets', label: 'Factor sets', roles: ['admin', 'assessor'] },
   { href: '/admin/rule-sets', label: 'Rule sets', roles: ['admin', 'assessor', 'board', 'chair'] },
   { href: '/admin/reference-layers', label: 'Reference layers', roles: ['admin'] },
+  { href: '/admin/territory', label: 'Territory', roles: ['admin'] },
   { href: '/admin/users', label: 'Users', roles: ['admin'] },
   { href: '/admin/mail', label: 'Mail box', roles: ['admin'] },
   { href: '/admin/audit', label: 'Audit log', roles: ['admin'] },

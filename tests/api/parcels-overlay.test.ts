@@ -101,8 +101,9 @@ describe('overlay with the demo reference layers (hand-computed shares)', () => 
 
   it('a parcel across the hac/spodic soil boundary (y = 1600 m) gets 60 % / 40 %', async () => {
     // Demo soil boxes (gis/lib/regions.ts): hac [-1000,-1000,1830,1600], spodic [-1000,1600,1830,4150].
-    // Rectangle x 0–200 m, y 1540–1640 m: 60 m of its 100 m height lie in hac, 40 m in spodic.
-    const res = await api('POST', '/api/parcels', { session: planner, body: { reference: 'TEST-OVERLAY-1', geometry: rect([0, 1540, 200, 1640]), landUse: 'grassland', evidence: 'overlay test' } });
+    // Rectangle x -800 to -600 m (west of the demo fields, which start at x = 0), y 1540–1640 m:
+    // 60 m of its 100 m height lie in hac, 40 m in spodic.
+    const res = await api('POST', '/api/parcels', { session: planner, body: { reference: 'TEST-OVERLAY-1', geometry: rect([-800, 1540, -600, 1640]), landUse: 'grassland', evidence: 'overlay test' } });
     expect(res.status).toBe(201);
     id = res.body.id;
     const p = (await api('GET', `/api/parcels/${id}`, { session: planner })).body;
@@ -120,8 +121,9 @@ describe('overlay with the demo reference layers (hand-computed shares)', () => 
   });
 
   it('a parcel half outside every soil unit is flagged with the uncovered share, not guessed', async () => {
-    // Soil leaves x ≥ 4940, y ≥ 2730 uncovered; hac box [4500,2730,4940,4150]. Rectangle x 4840–5040: half in, half out.
-    const res = await api('POST', '/api/parcels', { session: planner, body: { reference: 'TEST-OVERLAY-2', geometry: rect([4840, 3000, 5040, 3100]), evidence: 'overlay test' } });
+    // Soil leaves x ≥ 4940, y ≥ 2730 uncovered; hac box [4500,2730,4940,4150]. Rectangle x 4840–5040: half in, half out
+    // (y 3300–3400: north of the demo fields, 15 rows of 210 m).
+    const res = await api('POST', '/api/parcels', { session: planner, body: { reference: 'TEST-OVERLAY-2', geometry: rect([4840, 3300, 5040, 3400]), evidence: 'overlay test' } });
     const p = (await api('GET', `/api/parcels/${res.body.id}`, { session: planner })).body;
     expect(p.overlay.soil.classes).toEqual([expect.objectContaining({ class: 'hac', share: expect.closeTo(0.5, 3) })]);
     expect(p.overlay.soil.uncoveredShare).toBeCloseTo(0.5, 3);
@@ -130,15 +132,15 @@ describe('overlay with the demo reference layers (hand-computed shares)', () => 
 
   it('editing the boundary recomputes area and overlay, and refuses a stale version or a bow-tie', async () => {
     const before = (await api('GET', `/api/parcels/${id}`, { session: planner })).body;
-    const bowtie = { type: 'Polygon', coordinates: [rect([0, 1000, 200, 1100]).coordinates[0]!.map((p, i, a) => (i === 1 ? a[2]! : i === 2 ? a[1]! : p))] };
+    const bowtie = { type: 'Polygon', coordinates: [rect([-800, 1000, -600, 1100]).coordinates[0]!.map((p, i, a) => (i === 1 ? a[2]! : i === 2 ? a[1]! : p))] };
     const bad = await api('PUT', `/api/parcels/${id}/boundary`, { session: planner, body: { geometry: bowtie, version: before.version, reason: 'test' } });
     expect(bad.status).toBe(422);
     expect(bad.body.error.message).toMatch(/crosses or touches itself/);
-    const ok = await api('PUT', `/api/parcels/${id}/boundary`, { session: planner, body: { geometry: rect([0, 1000, 200, 1100]), version: before.version, reason: 'moved south, fully in hac' } });
+    const ok = await api('PUT', `/api/parcels/${id}/boundary`, { session: planner, body: { geometry: rect([-800, 1000, -600, 1100]), version: before.version, reason: 'moved south, fully in hac' } });
     expect(ok.status).toBe(200);
     const after = (await api('GET', `/api/parcels/${id}`, { session: planner })).body;
     expect(after.overlay.soil.classes).toEqual([expect.objectContaining({ class: 'hac', share: expect.closeTo(1, 3) })]);
-    const stale = await api('PUT', `/api/parcels/${id}/boundary`, { session: planner, body: { geometry: rect([0, 1000, 210, 1100]), version: before.version, reason: 'stale' } });
+    const stale = await api('PUT', `/api/parcels/${id}/boundary`, { session: planner, body: { geometry: rect([-800, 1000, -590, 1100]), version: before.version, reason: 'stale' } });
     expect(stale.status).toBe(409);
     const audit = await testDb('audit_event').where({ action: 'parcel.edit-boundary', entity_id: String(id) }).first();
     expect(audit.details.geometryBefore.type).toBe('MultiPolygon');
@@ -170,7 +172,7 @@ describe('vector tiles', () => {
     expect(t.headers.get('cache-control')).toMatch(/private/);
     const again = await api('GET', `/api/tiles/14/${x}/${y}.mvt`, { session: planner, headers: { 'if-none-match': etag } });
     expect(again.status).toBe(304);
-    await api('POST', '/api/parcels', { session: planner, body: { reference: 'TEST-TILE-1', geometry: rect([300, 100, 400, 200]), evidence: 'tile test' } });
+    await api('POST', '/api/parcels', { session: planner, body: { reference: 'TEST-TILE-1', geometry: rect([-500, 100, -400, 200]), evidence: 'tile test' } });
     const changed = await api('GET', `/api/tiles/14/${x}/${y}.mvt`, { session: planner, headers: { 'if-none-match': etag } });
     expect(changed.status).toBe(200);
     expect(changed.headers.get('etag')).not.toBe(etag);

@@ -57,6 +57,18 @@ export function MappingStep({ purpose, layer, mapping, onChange }: Props) {
                 <ColumnSelect id={`map-${key}`} value={mapping[key]} layer={layer} onChange={set(key)} required={key === 'reference'} />
               </div>
             ))}
+            {(
+              [
+                ['grassSinceDate', 'In grass since: one date for the whole file (optional)', 'Used where the column above is empty or not in the file; recorded as a dated "grassland" land use with this file as evidence.'],
+                ['lastTillageDate', 'Last ploughed or tilled: one date for the whole file (optional)', 'Used where the tillage column is empty or not in the file; recorded as a dated tillage.'],
+              ] as const
+            ).map(([key, label, hint]) => (
+              <div className="field" key={key}>
+                <label htmlFor={`map-${key}`} className="text-sm font-medium text-muted">{label}</label>
+                <input id={`map-${key}`} type="date" className="input" value={mapping[key] ?? ''} onChange={(e) => set(key)(e.target.value || undefined)} aria-describedby={`map-${key}-hint`} />
+                <p id={`map-${key}-hint`} className="text-xs text-muted">{hint}</p>
+              </div>
+            ))}
             <div className="field">
               <label htmlFor="map-statedAreaUnit" className="text-sm font-medium text-muted">Unit of the stated area</label>
               <select id="map-statedAreaUnit" className="input" value={mapping.statedAreaUnit ?? 'ha'} onChange={(e) => set('statedAreaUnit')(e.target.value)}>
@@ -96,6 +108,7 @@ export function suggestMapping(purpose: 'parcels' | 'reference', layer: StagedLa
     management: find(/manage/i),
     lastTillage: find(/till|plough/i),
     lastReseeding: find(/reseed|sown/i),
+    grassSince: find(/grass_?since|in_?grass|since/i),
     ownerRef: find(/owner|holding/i),
     statedArea: find(/area|_ha$|hect/i),
     statedAreaUnit: 'ha',

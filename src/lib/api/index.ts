@@ -15,6 +15,7 @@ import * as regions from './regions';
 import * as screening from './screening';
 import * as register from './register';
 import * as ruleSets from './rule-sets';
+import * as territory from './territory';
 import * as uploads from './uploads';
 import * as users from './users';
 
@@ -45,6 +46,8 @@ export const allSpecs: ApiSpec[] = [
   factorSets.publishDraft,
   factorSets.confirmTable,
   factorSets.putDefaultSet,
+  territory.getTerritory,
+  territory.putTerritory,
   uploads.stageUpload,
   uploads.validateUpload,
   uploads.saveUpload,

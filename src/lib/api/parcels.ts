@@ -47,10 +47,17 @@ export const drawParcel = defineSpec({
   method: 'POST',
   path: '/api/parcels',
   tag: 'Parcels',
-  summary: 'Add a parcel drawn on the map (validated like an upload, overlaid, audited)',
+  summary: 'Add a parcel drawn on the map (validated like an upload: reference, land use, overlaps; overlaid, audited)',
   access: ['planner', 'admin'],
-  body: z.object({ reference, name: z.string().trim().max(120).optional(), geometry: boundary, landUse: z.string().trim().max(60).optional(), management: z.string().trim().max(60).optional(), evidence }),
-  response: z.object({ id: z.number() }),
+  body: z.object({
+    reference,
+    name: z.string().trim().max(120).optional(),
+    geometry: boundary,
+    landUse: z.string().trim().max(60).optional().describe(`one of: ${Object.keys(EVENT_VALUES['land-use']).join(', ')}`),
+    management: z.string().trim().max(60).optional().describe(`one of: ${Object.keys(EVENT_VALUES.management).join(', ')}`),
+    evidence,
+  }),
+  response: z.object({ id: z.number(), warnings: z.array(z.string()).describe('overlaps with other parcels within the tolerance') }),
   status: 201,
 });
 
@@ -62,7 +69,7 @@ export const editBoundary = defineSpec({
   access: ['planner', 'admin'],
   params: idParams,
   body: z.object({ geometry: boundary, version: z.number().int().positive(), reason: z.string().trim().min(3, 'Say why the boundary changes.').max(500) }),
-  response: z.object({ id: z.number(), version: z.number(), areaHa: z.number() }),
+  response: z.object({ id: z.number(), version: z.number(), areaHa: z.number(), warnings: z.array(z.string()).describe('overlaps with other parcels within the tolerance') }),
 });
 
 export const recordEvent = defineSpec({

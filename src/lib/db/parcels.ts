@@ -27,8 +27,8 @@ export type EventRow = { id: number; event_date: string; kind: 'land-use' | 'man
 /** Inserts the non-rejected staged features as parcels; returns how many. */
 export async function insertParcelsFromStaging(db: Db, stagingId: string, batchId: string, by: string): Promise<number> {
   const r = await db.raw(
-    `insert into parcel (reference, name, land_use, management, owner_ref, stated_area_ha, area_ha, geom, batch_id, created_by, updated_by)
-     select f.reference, f.fields->>'name', f.fields->>'landUse', f.fields->>'management', f.fields->>'ownerRef', (f.fields->>'statedAreaHa')::float8,
+    `insert into parcel (reference, reference_key, name, land_use, management, owner_ref, stated_area_ha, area_ha, geom, batch_id, created_by, updated_by)
+     select f.reference, f.fields->>'referenceKey', f.fields->>'name', f.fields->>'landUse', f.fields->>'management', f.fields->>'ownerRef', (f.fields->>'statedAreaHa')::float8,
             st_area(f.geom::geography) / 10000, f.geom, ?, ?, ?
      from upload_staging_feature f where f.staging_id = ? and f.status <> 'rejected' order by f.idx`,
     [batchId, by, by, stagingId],
@@ -37,7 +37,7 @@ export async function insertParcelsFromStaging(db: Db, stagingId: string, batchI
   return r.rowCount ?? 0;
 }
 
-/** Land-use history from the mapped columns: current use and management as recorded today, plus dated tillage/reseeding. */
+/** Land-use history from the mapped columns: current use and management as recorded today, plus dated tillage/reseeding and "in grass since" (a dated grassland event). */
 export async function insertEventsFromStaging(db: Db, stagingId: string, batchId: string, by: string, evidence: string): Promise<void> {
   const part = (kind: string, dateSql: string, valueSql: string, field: string) =>
     `select p.id, ${dateSql}, '${kind}', ${valueSql}, ?, ?, ?::uuid from upload_staging_feature f join parcel p on p.reference = f.reference and p.batch_id = ?
@@ -48,8 +48,9 @@ export async function insertEventsFromStaging(db: Db, stagingId: string, batchId
      ${part('land-use', 'current_date', "f.fields->>'landUse'", 'landUse')}
      union all ${part('management', 'current_date', "f.fields->>'management'", 'management')}
      union all ${part('tillage', "(f.fields->>'lastTillage')::date", 'null', 'lastTillage')}
-     union all ${part('reseeding', "(f.fields->>'lastReseeding')::date", 'null', 'lastReseeding')}`,
-    [...args, ...args, ...args, ...args],
+     union all ${part('reseeding', "(f.fields->>'lastReseeding')::date", 'null', 'lastReseeding')}
+     union all ${part('land-use', "(f.fields->>'grassSince')::date", "'grassland'", 'grassSince')}`,
+    [...args, ...args, ...args, ...args, ...args],
   );
   await analyzeAfterBulkWrite(db, 'land_use_event');
 }
@@ -85,10 +86,11 @@ export async function refreshCurrentState(db: Db, parcelId: number, by: string):
   await db.raw(`update parcel p set land_use = ${newest('land-use')}, management = ${newest('management')}, version = version + 1, updated_by = ?, updated_at = now() where id = ?`, [by, parcelId]);
 }
 
-export async function referenceTaken(db: Db, reference: string, exceptId?: number): Promise<boolean> {
-  const q = db('parcel').whereRaw('lower(reference) = lower(?)', [reference]);
+/** Reference of a parcel whose reference has the same key (referenceKey: NFKC, case, look-alikes), if any. */
+export async function referenceTaken(db: Db, referenceKey: string, exceptId?: number): Promise<string | null> {
+  const q = db('parcel').where('reference_key', referenceKey);
   if (exceptId) q.whereNot('id', exceptId);
-  return !!(await q.first('id'));
+  return (await q.first('reference'))?.reference ?? null;
 }
 
 /** Reference of a parcel with exactly this boundary, if any. */
@@ -100,11 +102,11 @@ export async function sameBoundary(db: Db, geometry: MultiPolygon, exceptId?: nu
   return r.rows[0]?.reference ?? null;
 }
 
-export async function insertDrawnParcel(db: Db, p: { reference: string; name: string | null; geometry: MultiPolygon; by: string }): Promise<number> {
+export async function insertDrawnParcel(db: Db, p: { reference: string; referenceKey: string; name: string | null; geometry: MultiPolygon; by: string }): Promise<number> {
   const r = await db.raw(
-    `insert into parcel (reference, name, area_ha, geom, created_by, updated_by)
-     values (?, ?, st_area(st_geomfromgeojson(?)::geography) / 10000, st_geomfromgeojson(?), ?, ?) returning id`,
-    [p.reference, p.name, JSON.stringify(p.geometry), JSON.stringify(p.geometry), p.by, p.by],
+    `insert into parcel (reference, reference_key, name, area_ha, geom, created_by, updated_by)
+     values (?, ?, ?, st_area(st_geomfromgeojson(?)::geography) / 10000, st_geomfromgeojson(?), ?, ?) returning id`,
+    [p.reference, p.referenceKey, p.name, JSON.stringify(p.geometry), JSON.stringify(p.geometry), p.by, p.by],
   );
   return r.rows[0].id;
 }
@@ -125,11 +127,18 @@ export async function parcelsInBox(db: Db, box: [number, number, number, number]
   return r.rows as { id: number; reference: string; geometry: MultiPolygon }[];
 }
 
+/**
+ * Extent of a group of parcels that stays local across the antimeridian: when longitudes shifted
+ * to 0–360 (ST_ShiftLongitude) give a narrower box, that one (east edge beyond 180°) is used.
+ */
+const width = (g: string) => `(st_xmax(st_extent(${g})) - st_xmin(st_extent(${g})))`;
+const LOCAL_EXTENT = `case when ${width('st_shiftlongitude(p.geom)')} < ${width('p.geom')} then st_extent(st_shiftlongitude(p.geom)) else st_extent(p.geom) end::geometry`;
+
 /** Where parcels are: one lon/lat extent per upload batch (drawn parcels together), largest first. */
 export async function parcelAreas(db: Db, limit = 20): Promise<{ label: string; count: number; extent: [number, number, number, number] }[]> {
   const r = await db.raw(
     `select label, n, st_xmin(e) w, st_ymin(e) s, st_xmax(e) e, st_ymax(e) n2 from (
-       select coalesce(b.file_name, 'Parcels drawn on the map') as label, count(*)::int as n, st_extent(p.geom)::geometry as e, max(b.saved_at) as saved_at
+       select coalesce(b.file_name, 'Parcels drawn on the map') as label, count(*)::int as n, ${LOCAL_EXTENT} as e, max(b.saved_at) as saved_at
        from parcel p left join upload_batch b on b.id = p.batch_id group by b.id, b.file_name
      ) x order by n desc, saved_at desc nulls last limit ?`,
     [limit],

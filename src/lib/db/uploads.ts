@@ -75,12 +75,13 @@ export async function replaceStagedFeatures(db: Db, stagingId: string, features:
 
 const push = (code: string, message: string) => `issues || jsonb_build_array(jsonb_build_object('code', '${code}', 'message', ${message}, 'severity', 'error'))`;
 
-/** Rejects features whose reference or exact geometry is already in the register. */
+/** Rejects features whose reference (by its key, references.ts) or exact geometry is already in the register. */
 export async function rejectRegisterDuplicates(db: Db, stagingId: string): Promise<void> {
   await db.raw(
     `update upload_staging_feature f set status = 'rejected',
-       issues = ${push('reference-in-register', `'Parcel reference "' || f.reference || '" is already in the register.'`)}
-     where f.staging_id = ? and f.reference is not null and exists (select 1 from parcel p where lower(p.reference) = lower(f.reference))`,
+       issues = ${push('reference-in-register', `'Parcel reference "' || f.reference || '" is already in the register' || case when p.reference <> f.reference then ' as "' || p.reference || '"' else '' end || '.'`)}
+     from parcel p
+     where f.staging_id = ? and f.reference is not null and p.reference_key = f.fields->>'referenceKey'`,
     [stagingId],
   );
   await db.raw(

@@ -1,7 +1,8 @@
 import { readFile } from 'node:fs/promises';
 import { createRequire } from 'node:module';
 import { GisInputError } from './errors';
-import { crsFromWkt, epsgCodeFromWkt, fromWgs84, nameFromWkt, toWgs84, type CrsDefinition } from './crs';
+import { crsFromWkt, epsgCodeFromWkt, fromWgs84, nameFromWkt, needsDatumShift, toWgs84, type CrsDefinition } from './crs';
+import { identifyEpsg, transformationsToWgs84, unknownDatumError } from './proj-cli.server';
 
 /**
  * The EPSG catalogue shipped in the epsg-index package (all.json, ~8 MB), loaded lazily on
@@ -103,20 +104,36 @@ function agrees(a: CrsDefinition, wkt: CrsDefinition): boolean {
 }
 
 /**
- * The CRS of a .prj: its EPSG authority code when present, else an EPSG entry whose name
- * matches (ESRI spelling) and whose parameters agree, else the WKT itself read by proj4.
+ * Refuses a CRS whose datum PROJ knows no transformation to WGS 84 for (only a "ballpark"
+ * ellipsoid change), instead of dropping the datum shift silently.
+ */
+export async function assertDatumShiftKnown(crs: CrsDefinition): Promise<CrsDefinition> {
+  if (crs.epsg === null || !needsDatumShift(crs)) return crs;
+  if ((await transformationsToWgs84(crs.epsg)).length === 0) throw unknownDatumError(`EPSG:${crs.epsg} (${crs.name})`);
+  return crs;
+}
+
+/**
+ * The CRS of a .prj: its EPSG authority code when present; else the EPSG code PROJ identifies
+ * it as (`projinfo --identify`, so an ESRI WKT of RD New, Belgian Lambert 72 or a Gauss-Krüger
+ * zone gets EPSG's datum transformation); else an EPSG entry whose name matches (ESRI spelling)
+ * and whose parameters agree; else the WKT itself read by proj4, but only when it is on WGS 84
+ * or carries its own TOWGS84: an unknown datum is refused, never read without its shift.
  */
 export async function crsFromPrj(wkt: string): Promise<CrsDefinition> {
   const fromWkt = crsFromWkt(wkt);
   const map = await catalogue();
   const code = epsgCodeFromWkt(wkt);
-  if (code !== null && map.has(code)) return toDefinition(map.get(code)!);
+  if (code !== null && map.has(code)) return assertDatumShiftKnown(toDefinition(map.get(code)!));
+  const identified = await identifyEpsg(wkt);
+  if (identified && map.has(identified.code)) return assertDatumShiftKnown(toDefinition(map.get(identified.code)!));
   const name = nameFromWkt(wkt);
   const match = name ? (await nameIndex()).get(normaliseCrsName(name)) : undefined;
   if (match) {
     const candidate = toDefinition(map.get(match)!);
-    if (agrees(candidate, fromWkt)) return candidate;
+    if (agrees(candidate, fromWkt)) return assertDatumShiftKnown(candidate);
   }
+  if (needsDatumShift(fromWkt) && !/TOWGS84\s*\[/i.test(wkt)) throw unknownDatumError(`The .prj "${fromWkt.name}"`);
   return fromWkt;
 }
 

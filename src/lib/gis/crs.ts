@@ -80,6 +80,30 @@ export function crsFromWkt(wkt: string): CrsDefinition {
   return crs;
 }
 
+const WGS84_LIKE_DATUM = /DATUM\s*\[\s*"(D_)?(WGS_?(19)?84|World[ _]Geodetic[ _]System[ _]1984|ETRS_?(19)?89|European[ _]Terrestrial[ _]Reference[ _]System[ _]1989|World Geodetic System 1984 ensemble|European Terrestrial Reference System 1989 ensemble)"/i;
+
+/**
+ * True when getting from `crs` to WGS 84 needs a datum transformation (more than the metre-level
+ * identity of WGS 84 and ETRS89 / GRS 1980, common practice at parcel scale): grids, non-zero
+ * TOWGS84, another datum or another ellipsoid.
+ */
+export function needsDatumShift(crs: CrsDefinition): boolean {
+  const d = crs.definition.trim();
+  if (/^[A-Z_]+\s*\[/i.test(d)) {
+    const towgs = /TOWGS84\s*\[([^\]]*)\]/i.exec(d);
+    if (towgs) return towgs[1]!.split(',').some((v) => Number(v) !== 0);
+    return !WGS84_LIKE_DATUM.test(d);
+  }
+  if (/\+nadgrids=/.test(d)) return true;
+  const towgs = /\+towgs84=([^\s]+)/.exec(d);
+  if (towgs) return towgs[1]!.split(',').some((v) => Number(v) !== 0);
+  const datum = /\+datum=(\S+)/.exec(d)?.[1];
+  if (datum) return datum !== 'WGS84';
+  const ellps = /\+ellps=(\S+)/.exec(d)?.[1];
+  if (ellps) return ellps !== 'WGS84' && ellps !== 'GRS80';
+  return /\+a=/.test(d);
+}
+
 /** Converts one position (x, y in the source CRS) to [lon, lat] in EPSG:4326 degrees. */
 export function toWgs84(position: Position, crs: CrsDefinition): Position {
   if (crs.definition === WGS84_DEFINITION) return [position[0]!, position[1]!];

@@ -21,7 +21,8 @@ export type GisInputErrorCode =
   | 'no-features'
   | 'coordinates-not-degrees'
   | 'bad-geojson'
-  | 'unknown-crs';
+  | 'unknown-crs'
+  | 'unknown-datum';
 
 export class GisInputError extends Error {
   readonly code: GisInputErrorCode;

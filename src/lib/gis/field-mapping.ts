@@ -4,11 +4,13 @@
  */
 import { z } from 'zod';
 import { AREA_UNITS, type AreaUnit } from './area-units';
+import { EARLIEST_EVENT_DATE, EVENT_VALUES } from './land-use-events';
 import { classProblem, REFERENCE_KINDS } from './reference-kinds';
 import type { AttributeValue } from './types';
 import type { ValidationIssue } from './validate-geometry';
 
 const column = z.string().trim().min(1).max(64);
+const fileDate = z.iso.date('Use a date in the form YYYY-MM-DD.');
 
 export const parcelMappingSchema = z.object({
   reference: column,
@@ -17,6 +19,12 @@ export const parcelMappingSchema = z.object({
   management: column.optional(),
   lastTillage: column.optional(),
   lastReseeding: column.optional(),
+  /** Column with the date the parcel has been in grass since (a dated "grassland" land-use event). */
+  grassSince: column.optional(),
+  /** One "in grass since" date for every parcel of the file (used where the column is empty or unmapped). */
+  grassSinceDate: fileDate.optional(),
+  /** One "last ploughed or tilled" date for every parcel of the file. */
+  lastTillageDate: fileDate.optional(),
   ownerRef: column.optional(),
   statedArea: column.optional(),
   statedAreaUnit: z.enum(AREA_UNITS).default('ha'),
@@ -31,13 +39,14 @@ export const referenceMappingSchema = z.object({
 export type ReferenceMapping = z.output<typeof referenceMappingSchema>;
 
 /** Fields a parcel mapping can fill, with their labels for the wizard. */
-export const PARCEL_FIELD_LABELS: Record<Exclude<keyof ParcelMapping, 'statedAreaUnit'>, string> = {
+export const PARCEL_FIELD_LABELS: Record<Exclude<keyof ParcelMapping, 'statedAreaUnit' | 'grassSinceDate' | 'lastTillageDate'>, string> = {
   reference: 'Parcel reference',
   name: 'Field name',
   landUse: 'Current land use',
   management: 'Current management',
   lastTillage: 'Last tillage date',
   lastReseeding: 'Last reseeding date',
+  grassSince: 'In grass since (date)',
   ownerRef: 'Owner or holding reference (private)',
   statedArea: 'Stated area',
 };
@@ -48,6 +57,7 @@ export interface ParcelFields {
   management: string | null;
   lastTillage: string | null;
   lastReseeding: string | null;
+  grassSince: string | null;
   ownerRef: string | null;
   statedArea: { value: number; unit: AreaUnit } | null;
 }
@@ -55,7 +65,7 @@ export interface ParcelFields {
 /** Columns a mapping names, for checking them against the layer's columns. */
 export function mappedColumns(mapping: ParcelMapping | ReferenceMapping): string[] {
   if ('kind' in mapping) return [mapping.classAttribute, mapping.labelAttribute].filter((c): c is string => !!c);
-  const { statedAreaUnit: _unit, ...cols } = mapping;
+  const { statedAreaUnit: _unit, grassSinceDate: _g, lastTillageDate: _t, ...cols } = mapping;
   return Object.values(cols).filter((c): c is string => typeof c === 'string');
 }
 
@@ -83,33 +93,63 @@ function readArea(v: AttributeValue | undefined): { value: number | null; bad: b
   return { value: n, bad: false };
 }
 
-export function mapParcelFeature(props: Record<string, AttributeValue>, m: ParcelMapping): { reference: string | null; fields: ParcelFields; issues: ValidationIssue[] } {
+/**
+ * A land-use or management value checked against the list the events route uses
+ * (land-use-events.ts EVENT_VALUES): the value or its label, any case; null when empty.
+ */
+export function readChoice(v: AttributeValue | undefined, kind: 'land-use' | 'management'): { value: string | null; bad: boolean } {
+  const s = text(v)?.toLowerCase() ?? null;
+  if (s === null) return { value: null, bad: false };
+  const choices = EVENT_VALUES[kind];
+  if (Object.hasOwn(choices, s)) return { value: s, bad: false };
+  const byLabel = Object.entries(choices).find(([, label]) => label.toLowerCase() === s);
+  return byLabel ? { value: byLabel[0], bad: false } : { value: null, bad: true };
+}
+
+const GRASS_CHOICES = ['grassland', 'temporary-grassland', 'meadow', 'pasture', 'rough-grazing'];
+
+/** Maps one feature's attributes; `today` ("YYYY-MM-DD") bounds the dates. */
+export function mapParcelFeature(props: Record<string, AttributeValue>, m: ParcelMapping, today = new Date().toISOString().slice(0, 10)): { reference: string | null; fields: ParcelFields; issues: ValidationIssue[] } {
   const issues: ValidationIssue[] = [];
   const reference = text(props[m.reference]);
   if (!reference) issues.push({ code: 'no-reference', message: `The parcel reference (column "${m.reference}") is empty.`, severity: 'error' });
-  const date = (col: string | undefined, what: string) => {
-    if (!col) return null;
-    const r = readDate(props[col]);
-    if (r.bad) issues.push({ code: 'bad-date', message: `${what} "${String(props[col])}" (column "${col}") is not a date (YYYY-MM-DD).`, severity: 'error' });
-    return r.date;
+  const date = (col: string | undefined, what: string, fallback?: string) => {
+    const r = col ? readDate(props[col]) : { date: null, bad: false };
+    const where = col ? ` (column "${col}")` : ' (date for the whole file)';
+    if (r.bad) issues.push({ code: 'bad-date', message: `${what} "${String(props[col!])}"${where} is not a date (YYYY-MM-DD).`, severity: 'error' });
+    const d = r.date ?? (r.bad ? null : (fallback ?? null));
+    if (d !== null && d > today) issues.push({ code: 'bad-date', message: `${what} ${d}${r.date ? where : ' (date for the whole file)'} lies in the future (today is ${today}).`, severity: 'error' });
+    else if (d !== null && d < EARLIEST_EVENT_DATE) issues.push({ code: 'bad-date', message: `${what} ${d}${r.date ? where : ' (date for the whole file)'} lies before ${EARLIEST_EVENT_DATE.slice(0, 4)}.`, severity: 'error' });
+    return d;
   };
-  const lastTillage = date(m.lastTillage, 'Last tillage date');
+  const lastTillage = date(m.lastTillage, 'Last tillage date', m.lastTillageDate);
   const lastReseeding = date(m.lastReseeding, 'Last reseeding date');
+  const grassSince = date(m.grassSince, 'In grass since', m.grassSinceDate);
   let statedArea: ParcelFields['statedArea'] = null;
   if (m.statedArea) {
     const a = readArea(props[m.statedArea]);
     if (a.bad) issues.push({ code: 'bad-area', message: `Stated area "${String(props[m.statedArea])}" (column "${m.statedArea}") is not a number of ${m.statedAreaUnit}.`, severity: 'error' });
     if (a.value !== null) statedArea = { value: a.value, unit: m.statedAreaUnit };
   }
-  const lower = (col: string | undefined) => (col ? (text(props[col])?.toLowerCase() ?? null) : null);
+  const choice = (col: string | undefined, kind: 'land-use' | 'management', what: string) => {
+    if (!col) return null;
+    const r = readChoice(props[col], kind);
+    if (r.bad) issues.push({ code: `bad-${kind}`, message: `${what} "${String(props[col])}" (column "${col}") is not on the list; use one of: ${Object.keys(EVENT_VALUES[kind]).join(', ')}.`, severity: 'error' });
+    return r.value;
+  };
+  const landUse = choice(m.landUse, 'land-use', 'Land use');
+  if (grassSince && landUse && !GRASS_CHOICES.includes(landUse)) {
+    issues.push({ code: 'history-contradiction', message: `The parcel is said to be in grass since ${grassSince} but its current land use is "${landUse}".`, severity: 'error' });
+  }
   return {
     reference,
     fields: {
       name: m.name ? text(props[m.name]) : null,
-      landUse: lower(m.landUse),
-      management: lower(m.management),
+      landUse,
+      management: choice(m.management, 'management', 'Management'),
       lastTillage,
       lastReseeding,
+      grassSince,
       ownerRef: m.ownerRef ? text(props[m.ownerRef]) : null,
       statedArea,
     },

@@ -16,6 +16,12 @@ export const gisSettingsSchema = z.object({
   /** … capped at 1.0 ha. */
   'validation.area-tolerance-cap-m2': z.number().nonnegative().default(10_000),
   'validation.area-mismatch': z.enum(['reject', 'warn']).default('reject'),
+  /** Overlap between parcels is an error above this share of the smaller parcel … (common practice: ignore digitising slivers along shared edges) */
+  'validation.overlap-max-share': z.number().min(0).max(1).default(0.02),
+  /** … and above this area, m². Below either it is a warning. */
+  'validation.overlap-max-m2': z.number().nonnegative().default(100),
+  /** Near-duplicate: the symmetric difference is at most this share of the larger parcel. */
+  'validation.near-duplicate-share': z.number().min(0).max(1).default(0.05),
   /** Regulation (EU) 2021/2115 Art. 4(3)(c): 5 years out of rotation. */
   'land-use.permanent-grassland-years': z.number().int().positive().default(5),
   /** England EIA (Agriculture) screening guidance: 15 years uncultivated. */
@@ -24,6 +30,10 @@ export const gisSettingsSchema = z.object({
   /** XYZ tile URL of a real basemap ({z}/{x}/{y}); null = the authority's own layers only. */
   'map.basemap-url': z.string().url().nullable().default(null),
 });
+
+export function overlapTolerance(s: GisSettings) {
+  return { maxShare: s['validation.overlap-max-share'], maxM2: s['validation.overlap-max-m2'], nearDuplicateShare: s['validation.near-duplicate-share'] };
+}
 
 export type GisSettings = z.output<typeof gisSettingsSchema>;
 export const GIS_SETTING_KEYS = Object.keys(gisSettingsSchema.shape) as (keyof GisSettings)[];

@@ -1,7 +1,9 @@
-import type { Geometry, MultiPolygon } from 'geojson';
+import type { Geometry, MultiPolygon, Polygon } from 'geojson';
+import { crossesAntimeridian, splitAtAntimeridian } from './antimeridian';
 import { measureGeometry } from './area';
 import { areaToleranceM2, toSquareMetres, type AreaUnit } from './area-units';
 import { firstOutsideAreaOfUse, firstOutsideWgs84, type CrsDefinition } from './crs';
+import { referenceKey, referenceProblem } from './references';
 import { checkGeometry, type ValidationIssue } from './validate-geometry';
 
 export type { ValidationIssue } from './validate-geometry';
@@ -91,16 +93,20 @@ function checkStatedArea(f: FeatureToValidate, areaM2: number, perimeterM: numbe
 
 /**
  * Validates features before saving: geometry checks and repairs (validate-geometry.ts),
- * coordinate ranges, slivers, duplicates (same reference or same geometry: the later one is
- * rejected) and stated vs ellipsoidal area. Pure; order of `features` is kept.
+ * coordinate ranges, slivers, references (invisible or mixed-script characters refused),
+ * duplicates (same reference key or same geometry: the later one is rejected) and stated vs ellipsoidal area. Pure; order of `features` is kept.
  */
 export function validateFeatures(features: FeatureToValidate[], options: ValidationOptions = {}): ValidationReport {
   const seenRefs = new Map<string, number>();
   const seenGeoms = new Map<string, number>();
   const reports = features.map((f, index): FeatureReport => {
     const reference = f.reference?.trim() || null;
-    const checked = checkGeometry(f.geometry);
+    const cut = crossesAntimeridian(f.geometry) ? splitAtAntimeridian(f.geometry as Polygon | MultiPolygon) : null;
+    const checked = checkGeometry(cut ?? f.geometry);
     const issues = [...checked.issues];
+    if (cut) {
+      issues.unshift({ code: 'antimeridian-split', message: `The boundary crosses the antimeridian (180°); it was cut there into ${cut.coordinates.length} parts, one on each side (RFC 7946 §3.1.9). The area is unchanged.`, severity: 'repaired' });
+    }
     let geometry = checked.geometry;
     let areaHa: number | null = null;
     let perimeterM: number | null = null;
@@ -121,10 +127,14 @@ export function validateFeatures(features: FeatureToValidate[], options: Validat
       if (twin !== undefined) issues.push({ code: 'duplicate-geometry', message: `Same geometry as feature ${twin + 1}.`, severity: 'error' });
       else seenGeoms.set(key, index);
     }
-    if (reference) {
-      const twin = seenRefs.get(reference.toLowerCase());
-      if (twin !== undefined) issues.push({ code: 'duplicate-reference', message: `Parcel reference "${reference}" is also used by feature ${twin + 1}.`, severity: 'error' });
-      else seenRefs.set(reference.toLowerCase(), index);
+    const refProblem = reference ? referenceProblem(reference) : null;
+    if (refProblem) issues.push({ code: 'bad-reference', message: refProblem, severity: 'error' });
+    else if (reference) {
+      const key = referenceKey(reference);
+      const twin = seenRefs.get(key);
+      const same = twin === undefined ? '' : features[twin]!.reference?.trim() === reference ? '' : ` as "${features[twin]!.reference?.trim()}" (the same once case, width and look-alike letters are set aside)`;
+      if (twin !== undefined) issues.push({ code: 'duplicate-reference', message: `Parcel reference "${reference}" is also used by feature ${twin + 1}${same}.`, severity: 'error' });
+      else seenRefs.set(key, index);
     }
     const rejected = issues.some((i) => i.severity === 'error');
     if (rejected && checked.geometry === null) geometry = null;

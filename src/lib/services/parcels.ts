@@ -7,12 +7,18 @@ import { getGisSettings } from '../db/gis-settings';
 import { computeOverlay, overlayOfParcel } from '../db/overlay';
 import * as parcels from '../db/parcels';
 import { currentVersions } from '../db/reference-layers';
-import { checkLandUseEvent, cultivationMark } from '../gis/land-use-events';
+import { lockParcelRegister } from '../db/parcel-integrity';
+import { readChoice } from '../gis/field-mapping';
+import { checkLandUseEvent, cultivationMark, EVENT_VALUES } from '../gis/land-use-events';
+import { referenceKey, referenceProblem } from '../gis/references';
+import { overlapTolerance } from '../gis/settings';
 import { deriveLandUseFlags, type LandUseEvent } from '../gis/land-use-history';
 import { summariseOverlay } from '../gis/overlay-summary';
-import { validateFeatures } from '../gis/validate';
+import { runGisTask } from '../workers/pool';
 import { HttpError } from '../http/errors';
 import type { Caller } from '../http/handle';
+import { checkBoundaryAgainstRegister } from './parcel-integrity';
+import { assertInsideTerritory } from './territory';
 import { validationOptions } from './upload-validate';
 
 const today = () => new Date().toISOString().slice(0, 10);
@@ -51,18 +57,32 @@ export async function parcelDetail(by: Caller, id: number) {
   };
 }
 
-/** Same checks as an upload (pure validation + register duplicates); returns the normalised geometry. */
-async function checkBoundary(trx: Db, geometry: Geometry, reference: string, exceptId?: number): Promise<MultiPolygon> {
+/**
+ * Same checks as an upload (pure validation, territory, register duplicates, overlaps and near-duplicates
+ * with the tolerances of the settings), under the register lock; returns the normalised
+ * geometry and the warnings (overlaps within the tolerance).
+ */
+async function checkBoundary(trx: Db, geometry: Geometry, reference: string, exceptId?: number): Promise<{ geometry: MultiPolygon; warnings: string[] }> {
+  await lockParcelRegister(trx);
   const settings = await getGisSettings(trx);
-  const report = validateFeatures([{ geometry, reference }], validationOptions(settings, null, 'parcels'));
+  const report = await runGisTask('validate', { features: [{ geometry, reference }], options: validationOptions(settings, null, 'parcels') });
   const f = report.features[0]!;
   const errors = f.issues.filter((i) => i.severity === 'error');
   if (f.status === 'rejected' || !f.geometry) {
     throw new HttpError('UNPROCESSABLE_CONTENT', `The boundary is not valid: ${errors.map((e) => e.message).join(' ')}`, errors.map((e) => ({ path: ['geometry'], message: e.message })));
   }
+  await assertInsideTerritory(trx, f.geometry);
   const twin = await parcels.sameBoundary(trx, f.geometry, exceptId);
   if (twin) throw new HttpError('CONFLICT', `Parcel ${twin} already has exactly this boundary.`);
-  return f.geometry;
+  const warnings = await checkBoundaryAgainstRegister(trx, f.geometry, overlapTolerance(settings), exceptId);
+  return { geometry: f.geometry, warnings };
+}
+
+/** A land-use or management value from the same list as the events route (value or label, any case); 422 otherwise. */
+function checkedChoice(value: string | undefined, kind: 'land-use' | 'management', field: 'landUse' | 'management'): string | null {
+  const r = readChoice(value, kind);
+  if (r.bad) throw new HttpError('UNPROCESSABLE_CONTENT', `Invalid body (${field}): "${value}" is not on the list; choose one of: ${Object.keys(EVENT_VALUES[kind]).join(', ')}.`, [{ path: [field], message: 'not on the list' }]);
+  return r.value;
 }
 
 async function overlayAndBump(trx: Db, parcelId: number): Promise<void> {
@@ -71,17 +91,22 @@ async function overlayAndBump(trx: Db, parcelId: number): Promise<void> {
 }
 
 export async function drawParcel(by: Caller, input: { reference: string; name?: string; geometry: Geometry; landUse?: string; management?: string; evidence: string }) {
+  const problem = referenceProblem(input.reference);
+  if (problem) throw new HttpError('UNPROCESSABLE_CONTENT', problem, [{ path: ['reference'], message: problem }]);
+  const choices = [['land-use', checkedChoice(input.landUse, 'land-use', 'landUse')], ['management', checkedChoice(input.management, 'management', 'management')]] as const;
+  const key = referenceKey(input.reference);
   return withTransaction(db, async (trx) => {
-    if (await parcels.referenceTaken(trx, input.reference)) throw new HttpError('CONFLICT', `Parcel reference "${input.reference}" is already in the register.`);
-    const geometry = await checkBoundary(trx, input.geometry, input.reference);
-    const id = await parcels.insertDrawnParcel(trx, { reference: input.reference, name: input.name ?? null, geometry, by: by.id });
-    for (const [kind, value] of [['land-use', input.landUse], ['management', input.management]] as const) {
-      if (value) await parcels.insertEvent(trx, { parcelId: id, date: today(), kind, value: value.toLowerCase(), cultivation: false, evidence: input.evidence, by: by.id });
+    const { geometry, warnings } = await checkBoundary(trx, input.geometry, input.reference);
+    const taken = await parcels.referenceTaken(trx, key);
+    if (taken) throw new HttpError('CONFLICT', `Parcel reference "${input.reference}" is already in the register${taken !== input.reference ? ` as "${taken}"` : ''}.`);
+    const id = await parcels.insertDrawnParcel(trx, { reference: input.reference, referenceKey: key, name: input.name ?? null, geometry, by: by.id });
+    for (const [kind, value] of choices) {
+      if (value) await parcels.insertEvent(trx, { parcelId: id, date: today(), kind, value, cultivation: false, evidence: input.evidence, by: by.id });
     }
     await parcels.refreshCurrentState(trx, id, by.id);
     await overlayAndBump(trx, id);
-    await recordAudit(trx, { actorId: by.id, action: 'parcel.draw', entityType: 'parcel', entityId: String(id), details: { reference: input.reference } });
-    return { id };
+    await recordAudit(trx, { actorId: by.id, action: 'parcel.draw', entityType: 'parcel', entityId: String(id), details: { reference: input.reference, warnings } });
+    return { id, warnings };
   });
 }
 
@@ -90,7 +115,7 @@ export async function editBoundary(by: Caller, id: number, input: { geometry: Ge
     const before = await parcels.getParcel(trx, id);
     if (!before) throw new HttpError('NOT_FOUND', `No parcel with id ${id}.`);
     if (before.version !== input.version) throw new HttpError('CONFLICT', `Parcel ${before.reference} was changed by someone else (version ${before.version}, you edited ${input.version}); reload it.`);
-    const geometry = await checkBoundary(trx, input.geometry, before.reference, id);
+    const { geometry, warnings } = await checkBoundary(trx, input.geometry, before.reference, id);
     await parcels.updateBoundary(trx, id, geometry, by.id);
     await overlayAndBump(trx, id);
     const after = await parcels.getParcel(trx, id);
@@ -99,9 +124,9 @@ export async function editBoundary(by: Caller, id: number, input: { geometry: Ge
       action: 'parcel.edit-boundary',
       entityType: 'parcel',
       entityId: String(id),
-      details: { reference: before.reference, reason: input.reason, areaHaBefore: before.area_ha, areaHaAfter: after!.area_ha, geometryBefore: before.geometry },
+      details: { reference: before.reference, reason: input.reason, areaHaBefore: before.area_ha, areaHaAfter: after!.area_ha, geometryBefore: before.geometry, warnings },
     });
-    return { id, version: after!.version, areaHa: after!.area_ha };
+    return { id, version: after!.version, areaHa: after!.area_ha, warnings };
   });
 }
 

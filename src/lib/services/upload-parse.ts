@@ -4,7 +4,7 @@
  * message names the file part and the problem.
  */
 import type { CrsDefinition } from '../gis/crs';
-import { crsFromEpsg, crsFromPrj } from '../gis/crs-catalogue.server';
+import { assertDatumShiftKnown, crsFromEpsg, crsFromPrj } from '../gis/crs-catalogue.server';
 import { isGisInputError, type GisInputError } from '../gis/errors';
 import { parseGeoJson } from '../gis/ingest/geojson';
 import { parseShapefileZip } from '../gis/ingest/shapefile-zip';
@@ -74,7 +74,7 @@ export async function parseUpload(bytes: Uint8Array, format: UploadFormat, fileN
 /** The CRS a layer declares, or null with the reason the planner must pick one. */
 export async function detectLayerCrs(layer: ParsedLayer): Promise<LayerCrs> {
   try {
-    if (layer.geojsonEpsg !== null) return { crs: await crsFromEpsg(layer.geojsonEpsg), source: 'geojson', note: null };
+    if (layer.geojsonEpsg !== null) return { crs: await assertDatumShiftKnown(await crsFromEpsg(layer.geojsonEpsg)), source: 'geojson', note: null };
     if (layer.prjWkt) return { crs: await crsFromPrj(layer.prjWkt), source: 'prj', note: null };
   } catch (error) {
     if (!isGisInputError(error)) throw error;
@@ -95,7 +95,7 @@ export async function detectLayerCrs(layer: ParsedLayer): Promise<LayerCrs> {
 export async function resolveCrs(layer: ParsedLayer, epsg: number | undefined): Promise<{ crs: CrsDefinition; source: 'picked' | 'prj' | 'geojson' }> {
   if (epsg !== undefined) {
     try {
-      return { crs: await crsFromEpsg(epsg), source: 'picked' };
+      return { crs: await assertDatumShiftKnown(await crsFromEpsg(epsg)), source: 'picked' };
     } catch (error) {
       if (isGisInputError(error)) throw new HttpError('UNPROCESSABLE_CONTENT', error.message, [{ path: ['epsg'], message: error.message }]);
       throw error;

@@ -2,6 +2,8 @@
  * Step 3 of an upload: save the valid features in ONE transaction: the batch (original file,
  * SHA-256, uploader), the parcels with their land-use events and their overlay with the
  * current reference layers, or a new draft reference-layer version. Any failure leaves nothing.
+ * Parcels: the register checks are repeated under the register lock (parcel-integrity.ts), and
+ * the unique keys on reference and boundary stop whatever slips past them.
  */
 import { randomUUID } from 'node:crypto';
 import { recordAudit } from '../db/audit';
@@ -13,6 +15,9 @@ import * as uploads from '../db/uploads';
 import type { ReferenceKind } from '../gis/reference-kinds';
 import { HttpError } from '../http/errors';
 import type { Caller } from '../http/handle';
+import { getGisSettings } from '../db/gis-settings';
+import { overlapTolerance } from '../gis/settings';
+import { recheckStagedInSave } from './parcel-integrity';
 import { loadOwnStaging } from './upload-stage';
 
 export type SaveResult = {
@@ -42,6 +47,7 @@ export async function saveUpload(by: Caller, id: string): Promise<SaveResult> {
       let referenceVersion: SaveResult['referenceVersion'] = null;
       let overlayMs = 0;
       if (staging.purpose === 'parcels') {
+        await recheckStagedInSave(trx, id, overlapTolerance(await getGisSettings(trx)));
         await insertParcelsFromStaging(trx, id, batchId, by.id);
         await insertEventsFromStaging(trx, id, batchId, by.id, `Upload "${staging.file_name}" (batch ${batchId.slice(0, 8)})`);
         const t1 = performance.now();
@@ -66,7 +72,7 @@ export async function saveUpload(by: Caller, id: string): Promise<SaveResult> {
     });
   } catch (error) {
     if (isUniqueViolation(error)) {
-      throw new HttpError('CONFLICT', 'Another upload saved some of these parcel references after this one was validated. Validate again to see which.');
+      throw new HttpError('CONFLICT', 'Another save put some of these parcel references or boundaries in the register after this upload was validated. Validate again to see which.');
     }
     throw error;
   }

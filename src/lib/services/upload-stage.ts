@@ -8,7 +8,8 @@ import { hasAnyRole } from '../auth/roles';
 import type { ColumnInfo } from '../gis/types';
 import { HttpError } from '../http/errors';
 import type { Caller } from '../http/handle';
-import { detectFormat, detectLayerCrs, parseUpload } from './upload-parse';
+import { runGisTask } from '../workers/pool';
+import { detectFormat, detectLayerCrs } from './upload-parse';
 
 export type UploadPurpose = 'parcels' | 'reference';
 
@@ -56,7 +57,7 @@ export async function stageUpload(by: Caller, input: { purpose: UploadPurpose; f
   }
   const started = performance.now();
   const format = detectFormat(input.fileName, input.bytes);
-  const parsed = await parseUpload(input.bytes, format, input.fileName, settings);
+  const parsed = await runGisTask('parse', { bytes: input.bytes, format, fileName: input.fileName, settings });
   const parseMs = Math.round(performance.now() - started);
   const id = randomUUID();
   const sha256 = createHash('sha256').update(input.bytes).digest('hex');

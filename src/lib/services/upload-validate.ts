@@ -1,24 +1,29 @@
 /**
  * Step 2 of an upload: the chosen layer, CRS and column mapping → a per-feature validation
- * report. Reprojects with proj4, validates (pure, src/lib/gis/validate.ts), then in PostGIS
- * tries ST_MakeValid on self-intersections and rejects duplicates of the register. The staged
+ * report. Reprojects (PostGIS for datum shifts, else proj4; src/lib/db/transform.ts), validates (pure, src/lib/gis/validate.ts), then in PostGIS
+ * tries ST_MakeValid on self-intersections, rejects duplicates of the register and features
+ * outside the territory (naming swapped axes), and checks overlaps and near-duplicates within
+ * the file and with the register. Parsing, proj4 and validation run in the worker pool. The staged
  * features replace any earlier validation of the same upload, in one transaction.
  */
-import type { Geometry } from 'geojson';
-import { toSquareMetres } from '../gis/area-units';
-import { mapParcelFeature, mappedColumns, mapReferenceFeature, parcelMappingSchema, referenceMappingSchema, type ParcelMapping, type ReferenceMapping } from '../gis/field-mapping';
-import { layerToWgs84 } from '../gis/ingest/to-wgs84';
-import type { GisSettings } from '../gis/settings';
+import { mappedColumns, parcelMappingSchema, referenceMappingSchema, type ParcelMapping, type ReferenceMapping } from '../gis/field-mapping';
+import { isGisInputError } from '../gis/errors';
+import { stageFeatures } from '../gis/stage-features';
+import { overlapTolerance, type GisSettings } from '../gis/settings';
 import type { RawFeature } from '../gis/types';
-import { validateFeatures, type FeatureToValidate, type ValidationIssue } from '../gis/validate';
 import type { CrsDefinition } from '../gis/crs';
 import { db, withTransaction } from '../db/client';
 import { getGisSettings } from '../db/gis-settings';
+import { reprojectLayer, reprojectsInPostgis } from '../db/transform';
+import { runGisTask } from '../workers/pool';
 import * as uploads from '../db/uploads';
 import { HttpError } from '../http/errors';
 import { zodIssues, type Caller } from '../http/handle';
+import { addStagedIssues } from '../db/parcel-integrity';
+import { checkStagedOverlaps } from './parcel-integrity';
+import { checkStagedTerritory } from './territory';
 import { loadOwnStaging, sourceKey } from './upload-stage';
-import { parseUpload, resolveCrs } from './upload-parse';
+import { gisError, resolveCrs } from './upload-parse';
 
 export interface ValidationInput {
   layer: string;
@@ -50,38 +55,9 @@ export function validationOptions(settings: GisSettings, crs: CrsDefinition | nu
   };
 }
 
-function isSelfIntersectingPolygon(raw: Geometry | null, issues: ValidationIssue[]): boolean {
-  return !!raw && (raw.type === 'Polygon' || raw.type === 'MultiPolygon') && issues.some((i) => i.code === 'self-intersection');
-}
-
-/** Maps and validates reprojected features (pure apart from nothing: no I/O). */
+/** Maps and validates reprojected features (pure: src/lib/gis/stage-features.ts; the upload runs it in the worker pool). */
 export function buildStagedFeatures(features: RawFeature[], purpose: 'parcels' | 'reference', mapping: ParcelMapping | ReferenceMapping, options: ReturnType<typeof validationOptions>): uploads.StagedFeature[] {
-  const mapped = features.map((f) => {
-    if ('kind' in mapping) {
-      const r = mapReferenceFeature(f.properties, mapping);
-      return { reference: null, fields: { class: r.cls, label: r.label }, issues: r.issues, stated: null };
-    }
-    const r = mapParcelFeature(f.properties, mapping);
-    const statedAreaHa = r.fields.statedArea ? toSquareMetres(r.fields.statedArea.value, r.fields.statedArea.unit) / 10_000 : null;
-    return { reference: r.reference, fields: { ...r.fields, statedAreaHa }, issues: r.issues, stated: r.fields.statedArea };
-  });
-  const toValidate: FeatureToValidate[] = features.map((f, i) => ({ geometry: f.geometry, reference: purpose === 'parcels' ? mapped[i]!.reference : null, statedArea: mapped[i]!.stated }));
-  const report = validateFeatures(toValidate, options);
-  return report.features.map((r, i) => {
-    const issues = [...mapped[i]!.issues, ...r.issues];
-    const rejected = issues.some((x) => x.severity === 'error');
-    const status = rejected ? 'rejected' : r.status;
-    const raw = features[i]!.geometry;
-    return {
-      idx: i,
-      status,
-      reference: mapped[i]!.reference,
-      issues,
-      fields: mapped[i]!.fields,
-      geom: rejected ? null : r.geometry,
-      rawGeom: rejected && isSelfIntersectingPolygon(raw, r.issues) ? raw : null,
-    };
-  });
+  return stageFeatures(features, purpose, mapping, options);
 }
 
 export async function validateUpload(by: Caller, id: string, input: ValidationInput) {
@@ -89,7 +65,7 @@ export async function validateUpload(by: Caller, id: string, input: ValidationIn
   const mapping = parseMapping(staging.purpose, input.mapping);
   const settings = await getGisSettings(db);
   const started = performance.now();
-  const layers = await parseUpload(await uploads.getStagingBytes(db, id), staging.format, staging.file_name, settings);
+  const layers = await runGisTask('parse', { bytes: await uploads.getStagingBytes(db, id), format: staging.format, fileName: staging.file_name, settings });
   const layer = layers.find((l) => l.name === input.layer);
   if (!layer) throw new HttpError('UNPROCESSABLE_CONTENT', `The file has no layer "${input.layer}"; it has ${layers.map((l) => `"${l.name}"`).join(', ')}.`, [{ path: ['layer'], message: 'unknown layer' }]);
   const names = new Set(layer.columns.map((c) => c.name));
@@ -98,12 +74,21 @@ export async function validateUpload(by: Caller, id: string, input: ValidationIn
   const { crs, source } = await resolveCrs(layer, input.epsg);
   const parseMs = Math.round(performance.now() - started);
   const t1 = performance.now();
-  const wgs84 = layerToWgs84(layer.features, crs, layer.name);
-  const staged = buildStagedFeatures(wgs84, staging.purpose, mapping, validationOptions(settings, crs, staging.purpose));
+  const inPostgis = await reprojectsInPostgis(db, crs);
+  const staged = await (async () => {
+    const features = inPostgis ? await reprojectLayer(db, layer.features, crs, layer.name) : layer.features;
+    return runGisTask('stage', { features, proj4Crs: inPostgis ? null : crs, layerName: layer.name, purpose: staging.purpose, mapping, options: validationOptions(settings, crs, staging.purpose) });
+  })().catch((error) => {
+    throw isGisInputError(error) ? gisError(error) : error;
+  });
   const result = await withTransaction(db, async (trx) => {
     await uploads.replaceStagedFeatures(trx, id, staged);
     await uploads.repairWithMakeValid(trx, id, validationOptions(settings, crs, staging.purpose).minAreaM2);
-    if (staging.purpose === 'parcels') await uploads.rejectRegisterDuplicates(trx, id);
+    if (staging.purpose === 'parcels') {
+      await uploads.rejectRegisterDuplicates(trx, id);
+      await addStagedIssues(trx, id, await checkStagedTerritory(trx, id));
+      await checkStagedOverlaps(trx, id, overlapTolerance(settings));
+    }
     const summary = await uploads.stagedSummary(trx, id);
     const sourceCrs = { epsg: crs.epsg, name: crs.name, definition: crs.definition, source };
     await uploads.updateStagingValidation(trx, id, { layerName: layer.name, sourceCrs, mapping, summary });

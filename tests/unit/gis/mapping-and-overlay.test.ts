@@ -16,7 +16,7 @@ describe('column mapping', () => {
 
   it('reports, never guesses, bad dates, areas and missing references', () => {
     const r = mapParcelFeature({ ref: '', use: 'x', till: '31/02/2019', area: 'about 3' }, m);
-    expect(r.issues.map((i) => i.code)).toEqual(['no-reference', 'bad-date', 'bad-area']);
+    expect(r.issues.map((i) => i.code)).toEqual(['no-reference', 'bad-date', 'bad-area', 'bad-land-use']);
     expect(readDate('2019-02-29').bad).toBe(true); // 2019 is not a leap year (calendar, common practice)
   });
 

@@ -93,7 +93,7 @@ describe('validateFeatures: duplicates and stated area', () => {
       { geometry: poly(rotated), reference: 'CM-3' },
     ]);
     expect(report.features.map((f) => f.status)).toEqual(['ok', 'rejected', 'rejected']);
-    expect(report.features[1]!.issues[0]!.message).toBe('Parcel reference "cm-1" is also used by feature 1.');
+    expect(report.features[1]!.issues[0]!.message).toBe('Parcel reference "cm-1" is also used by feature 1 as "CM-1" (the same once case, width and look-alike letters are set aside).');
     expect(report.features[2]!.issues[0]!.message).toBe('Same geometry as feature 1.');
     expect(report.summary).toEqual({ total: 3, ok: 1, repaired: 0, rejected: 2, byCode: { 'duplicate-reference': 1, 'duplicate-geometry': 1 } });
   });

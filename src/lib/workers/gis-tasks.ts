@@ -1,0 +1,39 @@
+/**
+ * The CPU-heavy steps of uploads and drawings, run in the worker pool (pool.ts) so requests keep
+ * flowing meanwhile: parsing a file, reprojecting with proj4 and validating. Pure apart from the
+ * parse; expected failures come back as data (errors do not cross threads as classes).
+ */
+import { HttpError } from '../http/errors';
+import { parseUpload, type UploadFormat } from '../services/upload-parse';
+import { reproject, type CrsDefinition } from '../gis/crs';
+import { isGisInputError } from '../gis/errors';
+import type { ParcelMapping, ReferenceMapping } from '../gis/field-mapping';
+import { layerToWgs84 } from '../gis/ingest/to-wgs84';
+import type { GisSettings } from '../gis/settings';
+import { stageFeatures, type StageOptions } from '../gis/stage-features';
+import type { RawFeature } from '../gis/types';
+import { validateFeatures, type FeatureToValidate, type ValidationOptions } from '../gis/validate';
+
+export type TaskError = { kind: 'gis'; code: string; message: string } | { kind: 'http'; code: string; message: string; issues?: unknown[] };
+export type TaskResult<T> = { ok: true; value: T } | { ok: false; error: TaskError };
+
+async function guarded<T>(fn: () => T | Promise<T>): Promise<TaskResult<T>> {
+  try {
+    return { ok: true, value: await fn() };
+  } catch (error) {
+    if (isGisInputError(error)) return { ok: false, error: { kind: 'gis', code: error.code, message: error.message } };
+    if (error instanceof HttpError) return { ok: false, error: { kind: 'http', code: error.code, message: error.message, issues: error.issues } };
+    throw error;
+  }
+}
+
+export const tasks = {
+  parse: (i: { bytes: Uint8Array; format: UploadFormat; fileName: string; settings: GisSettings }) => guarded(() => parseUpload(i.bytes, i.format, i.fileName, i.settings)),
+  /** Reprojects with proj4 when `proj4Crs` is given (else the features are in EPSG:4326 already), then maps and validates. */
+  stage: (i: { features: RawFeature[]; proj4Crs: CrsDefinition | null; layerName: string; purpose: 'parcels' | 'reference'; mapping: ParcelMapping | ReferenceMapping; options: StageOptions }) =>
+    guarded(() => stageFeatures(i.proj4Crs ? layerToWgs84(i.features, i.proj4Crs, i.layerName) : i.features, i.purpose, i.mapping, i.options)),
+  validate: (i: { features: FeatureToValidate[]; options: ValidationOptions }) => guarded(() => validateFeatures(i.features, i.options)),
+  reproject: (i: { geometry: RawFeature['geometry']; crs: CrsDefinition }) => guarded(() => (i.geometry ? reproject(i.geometry, i.crs) : null)),
+};
+
+export type TaskName = keyof typeof tasks;

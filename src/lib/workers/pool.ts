@@ -1,0 +1,55 @@
+/**
+ * The worker pool for CPU-heavy GIS steps (tinypool over worker_threads): parsing, proj4
+ * reprojection and validation run there, so /api/health and every other request keep flowing
+ * while a 300,000-vertex polygon is checked. Each instance has its own pool (threads, not shared
+ * state). GIS_WORKERS sets the number of threads (default 2); the worker source is found under
+ * the app's root (SWARDKEEP_ROOT, default the working directory).
+ */
+import { resolve } from 'node:path';
+import { pathToFileURL } from 'node:url';
+import Tinypool from 'tinypool';
+import { GisInputError, type GisInputErrorCode } from '../gis/errors';
+import { HttpError, type ErrorCode } from '../http/errors';
+import type { TaskName, TaskResult, tasks } from './gis-tasks';
+
+let pool: Tinypool | null = null;
+
+function getPool(): Tinypool {
+  pool ??= new Tinypool({
+    filename: pathToFileURL(resolve(process.env.SWARDKEEP_ROOT ?? process.cwd(), 'src/lib/workers/gis-worker.mjs')).href,
+    minThreads: 1,
+    maxThreads: Math.max(1, Number(process.env.GIS_WORKERS ?? 2)),
+    idleTimeout: 120_000,
+  });
+  return pool;
+}
+
+type Input<N extends TaskName> = Parameters<(typeof tasks)[N]>[0];
+type Output<N extends TaskName> = Awaited<ReturnType<(typeof tasks)[N]>> extends TaskResult<infer T> ? T : never;
+
+/** Runs a task in the pool; expected failures come back as GisInputError or HttpError. */
+export async function runGisTask<N extends TaskName>(task: N, input: Input<N>): Promise<Output<N>> {
+  const result = (await getPool().run({ task, input })) as TaskResult<Output<N>>;
+  if (result.ok) return result.value;
+  const e = result.error;
+  if (e.kind === 'gis') throw new GisInputError(e.code as GisInputErrorCode, e.message);
+  throw new HttpError(e.code as ErrorCode, e.message, e.issues as ConstructorParameters<typeof HttpError>[2]);
+}
+
+/** Stops the pool's threads (command-line scripts call it so the process can end). */
+export async function closeGisPool(): Promise<void> {
+  const p = pool;
+  pool = null;
+  await p?.destroy();
+}
+
+/**
+ * Starts the pool's first thread without waiting for it (the first /api/health call does this),
+ * so the first upload after a start does not wait for a thread to load its modules.
+ */
+export function warmGisPool(): void {
+  if (pool) return;
+  getPool()
+    .run({ task: 'validate', input: { features: [], options: {} } })
+    .catch(() => undefined);
+}
