@@ -13,8 +13,12 @@ import { DEMO, DEMO_PASSWORD } from '../support/http';
 let browser: Browser;
 beforeAll(async () => {
   browser = await launchBrowser();
-  // The seed imported these parcels already; remove them so the upload below is not 285 duplicates.
-  await testDb('parcel').whereIn('batch_id', testDb('upload_batch').select('id').where('file_name', 'like', 'corrowmere-parcels-%')).delete();
+  // The seed imported these parcels already, and the demo proposals name some of them (so they cannot be
+  // deleted): rename them and move them 10 degrees south, so the upload below is not 285 duplicates or overlaps.
+  await testDb.raw(
+    `update parcel set reference = reference || '-seeded', reference_key = reference_key || '-seeded', geom = st_translate(geom, 0, -10)
+     where batch_id in (select id from upload_batch where file_name like 'corrowmere-parcels-%')`,
+  );
 });
 afterAll(async () => {
   await browser?.close();
