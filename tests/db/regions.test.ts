@@ -8,6 +8,7 @@ import type { Knex } from 'knex';
 import { afterAll, describe, expect, it } from 'vitest';
 import { computeOverlay } from '~/lib/db/overlay';
 import { referenceRatio, regionStats } from '~/lib/db/regions';
+import { referenceKey } from '~/lib/gis/references';
 import { testDb } from '../support/db';
 
 afterAll(() => testDb.destroy());
@@ -36,7 +37,7 @@ async function build(trx: Knex.Transaction) {
   ];
   const ids: Record<string, number> = {};
   for (const [reference, areaHa, [x0, x1]] of parcels) {
-    const [row] = await trx('parcel').insert({ reference, area_ha: areaHa, geom: env(x0, x1) }).returning('id');
+    const [row] = await trx('parcel').insert({ reference, reference_key: referenceKey(reference), area_ha: areaHa, geom: env(x0, x1) }).returning('id');
     ids[reference] = Number(row.id);
   }
   await computeOverlay(trx, { parcelIds: Object.values(ids) }, [Number(v.id)]);
