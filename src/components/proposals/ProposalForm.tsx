@@ -3,7 +3,7 @@
  * parcels picked by reference or on the map (optionally a drawn part), the proposed use in the engine's terms.
  */
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useCallback, useState } from 'react';
+import { useCallback, useEffect, useState } from 'react';
 import { Controller, useForm } from 'react-hook-form';
 import type { z } from 'zod';
 import { proposalFieldsSchema } from '~/lib/api/proposals';
@@ -33,26 +33,18 @@ export function ProposalForm({ start }: { start: FormStart }) {
   });
   const errors = formState.errors;
 
-  const sync = (next: Picked[]) => {
-    setPicked(next);
-    setValue('parcels', next.map((p) => ({ parcelId: p.parcelId, ...(p.part ? { part: p.part } : {}) })), { shouldValidate: formState.isSubmitted });
-  };
-  const add = (p: { parcelId: number; reference: string; areaHa: number | null }) => {
-    setPicked((cur) => {
-      if (cur.some((x) => x.parcelId === p.parcelId)) return cur;
-      const next: Picked[] = [...cur, p];
-      setValue('parcels', next.map((x) => ({ parcelId: x.parcelId, ...(x.part ? { part: x.part } : {}) })));
-      return next;
-    });
-  };
+  // The form's `parcels` follow the chosen list (validated again once the form has been sent).
+  useEffect(() => {
+    setValue('parcels', picked.map((p) => ({ parcelId: p.parcelId, ...(p.part ? { part: p.part } : {}) })), { shouldValidate: formState.isSubmitted });
+  }, [picked, setValue, formState.isSubmitted]);
+  const sync = setPicked;
+  const add = useCallback((p: { parcelId: number; reference: string; areaHa: number | null }) => {
+    setPicked((cur) => (cur.some((x) => x.parcelId === p.parcelId) ? cur : [...cur, p]));
+  }, []);
   const onDrawn = useCallback((parcelId: number, part: GeoJSON.Polygon) => {
-    setPicked((cur) => {
-      const next = cur.map((x) => (x.parcelId === parcelId ? { ...x, part } : x));
-      setValue('parcels', next.map((x) => ({ parcelId: x.parcelId, ...(x.part ? { part: x.part } : {}) })));
-      return next;
-    });
+    setPicked((cur) => cur.map((x) => (x.parcelId === parcelId ? { ...x, part } : x)));
     setDrawingFor(null);
-  }, [setValue]);
+  }, []);
 
   const onSubmit = handleSubmit(async (values) => {
     setFailure(null);
