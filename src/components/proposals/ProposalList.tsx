@@ -139,7 +139,7 @@ export function ProposalList({ initial, initialQuery, canFile }: { initial: Page
           <li key={r.id} className="panel flex flex-col gap-1 text-sm">
             <a href={`/proposals/${r.id}`} className="font-semibold">{r.reference} · {r.title}</a>
             <p>{stateLabel(r.state)} · {hectares(r.areaHa)} · {r.parcelCount} parcel{r.parcelCount === 1 ? '' : 's'}: {parcelsText(r)}</p>
-            <p className="flex flex-wrap items-center gap-2"><Risk r={r} /> <span>{tonnes(r.co2eTotal, 0)}</span></p>
+            <p className="flex flex-wrap items-center gap-2">Risk: <Risk r={r} />{r.co2eTotal !== null && <span>· {tonnes(r.co2eTotal, 0)}</span>}</p>
             <p>Decision: <Clock r={r} /></p>
             <p className="text-xs text-muted">Updated {r.updatedAt.slice(0, 10)}</p>
           </li>
