@@ -18,8 +18,11 @@ beforeAll(async () => {
   browser = await launchBrowser();
   await allowSignOff();
 });
+let url = '';
 afterAll(async () => {
   await browser?.close();
+  // The proposal names a demo parcel; other browser tests re-upload the demo parcels, so it goes again (its rows cascade).
+  if (url) await testDb('proposal').where({ id: Number(url.split('/').pop()) }).delete();
   await testDb('app_setting').where({ key: 'assessment.allow-unconfirmed-sign-off' }).delete();
 });
 
@@ -48,7 +51,6 @@ async function fitsPhone(page: Page): Promise<void> {
 }
 
 describe('proposals in the browser', () => {
-  let url = '';
   it('a planner files a proposal on a demo parcel through the form, meets a stale edit, and submits it', async () => {
     const reference = await demoGrassParcel();
     const planner = await browser.newContext();
@@ -156,6 +158,23 @@ describe('proposals in the browser', () => {
     await screenshotBoth(page, 'assessment-signed');
     await page.goto(url);
     await expect(page.getByTestId('proposal-state').textContent()).resolves.toBe('Assessed (signed off)');
+
+    // Reopening (with a reason) and running a second version; the two compared side by side.
+    await hydrated(page);
+    await page.getByRole('button', { name: 'Reopen the assessment' }).click();
+    await page.getByLabel(/Reason for .Reopen the assessment/).fill('The applicant sent a corrected soil survey.');
+    await page.locator('form').getByRole('button', { name: 'Reopen the assessment' }).click();
+    await page.getByText('Being assessed', { exact: true }).waitFor();
+    await expect(page.locator('main').textContent()).resolves.toContain('The applicant sent a corrected soil survey.');
+    await hydrated(page);
+    await page.getByRole('button', { name: 'Start a new assessment version' }).click();
+    await page.waitForURL(/\/assessments\/\d+$/);
+    await expect(page.locator('h1').textContent()).resolves.toMatch(/^Assessment 2 /);
+    await page.getByRole('link', { name: 'compare with assessment 1' }).click();
+    await page.getByRole('heading', { name: /^Compare assessments/ }).waitFor();
+    await expect(page.locator('main').textContent()).resolves.toMatch(/Assessment 1 \(signed .*Assessment 2 \(draft\)/s);
+    await screenshotBoth(page, 'assessment-compare');
+    await fitsPhone(page);
     expect(seen.errors).toEqual([]);
     expect(seen.foreign).toEqual([]);
     await assessor.close();

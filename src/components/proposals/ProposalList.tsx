@@ -5,7 +5,7 @@ import { PROPOSAL_STATES } from '~/lib/proposals/states';
 import { LEVELS, RISK_LEVELS, type RiskLevel } from '~/lib/rules/levels';
 import { RiskBadge } from '../ui/RiskBadge';
 import { ApiError, apiFetch } from '../ui/api-client';
-import { fromParams, toParams, type ListQuery } from './list-query';
+import { toParams, type ListQuery } from './list-query';
 import { clockWords, hectares, stateLabel, tonnes } from './words';
 
 export type ProposalRow = {
@@ -159,4 +159,3 @@ export function ProposalList({ initial, initialQuery, canFile }: { initial: Page
   );
 }
 
-export { fromParams };
