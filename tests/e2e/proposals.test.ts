@@ -1,6 +1,6 @@
 /**
  * A proposal from filing to sign-off in the browser: the demo planner files one on a demo
- * parcel through the form (found by reference) and submits it; the demo assessor opens it,
+ * parcel (drawn in free ground of the demo region) through the form (found by reference) and submits it; the demo assessor opens it,
  * runs the assessment, reads the alternatives and the grade's reasons, writes findings and signs
  * off. Screenshots at 1280 and 390 px of the list, the form, the proposal and the assessment
  * go to screenshots/, and no page is wider than the phone screen.
@@ -10,8 +10,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { hydrated, launchBrowser, screenshotBoth, signInThroughForm, watchPage } from '../support/browser';
 import { testDb } from '../support/db';
 import { BASE_URL } from '../support/env';
-import { DEMO, DEMO_PASSWORD } from '../support/http';
-import { allowSignOff } from '../support/proposals';
+import { DEMO, DEMO_PASSWORD, signIn } from '../support/http';
+import { allowSignOff, drawParcel } from '../support/proposals';
 
 let browser: Browser;
 beforeAll(async () => {
@@ -20,25 +20,18 @@ beforeAll(async () => {
 });
 let url = '';
 afterAll(async () => {
-  await browser?.close();
-  // The proposal names a demo parcel; other browser tests re-upload the demo parcels, so it goes again (its rows cascade).
-  if (url) await testDb('proposal').where({ id: Number(url.split('/').pop()) }).delete();
   await testDb('app_setting').where({ key: 'assessment.allow-unconfirmed-sign-off' }).delete();
+  await browser?.close();
 });
 
-/** A demo pasture or meadow, grazed or cut, fully inside the published climate and soil layers, in no proposal yet. */
+/**
+ * A grassland parcel in the demo region, drawn for this test in free ground (cool temperate moist, HAC soil).
+ * A signed assessment cannot be deleted, and other browser tests re-upload the demo parcels, so the
+ * proposal must not hold one of theirs.
+ */
 async function demoGrassParcel(): Promise<string> {
-  const row = await testDb.raw(`
-    select p.reference from parcel p
-    where p.land_use in ('pasture', 'meadow') and p.management in ('grazed', 'hay', 'cut-for-silage')
-      and p.reference not like 'T-%'
-      and not exists (select 1 from proposal_parcel pp where pp.parcel_id = p.id)
-      and (select count(*) from parcel_overlay_run r join reference_layer_version v on v.id = r.layer_version_id
-           where r.parcel_id = p.id and v.status = 'published' and v.kind in ('climate', 'soil') and r.covered_share > 0.999) >= 2
-    order by p.reference limit 1`);
-  const ref = row.rows[0]?.reference as string | undefined;
-  if (!ref) throw new Error('no demo grassland parcel fully inside the climate and soil layers');
-  return ref;
+  const id = await drawParcel(await signIn(DEMO.planner));
+  return (await testDb('parcel').where({ id }).first()).reference as string;
 }
 
 /** Nothing on the page is wider than a 390 px phone. */
