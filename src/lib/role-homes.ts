@@ -13,6 +13,8 @@ export const ROLE_HOMES: Record<Role, RoleHome> = {
       'File proposals: which parcels, the new land use and management, the start year and supporting documents.',
     ],
     links: [
+      { href: '/proposals/new', label: 'File a proposal' },
+      { href: '/proposals', label: 'Proposals and their state' },
       { href: '/parcels/upload', label: 'Upload parcels' },
       { href: '/map', label: 'Map of parcels and reference layers' },
       { href: '/calculator', label: 'Try an estimate in the carbon calculator' },
@@ -27,6 +29,8 @@ export const ROLE_HOMES: Record<Role, RoleHome> = {
       'Write findings and sign the assessment off for the board.',
     ],
     links: [
+      { href: '/proposals?state=submitted&sort=deadline&dir=asc', label: 'Submitted proposals waiting for assessment' },
+      { href: '/proposals?state=in-assessment&sort=deadline&dir=asc', label: 'Proposals being assessed' },
       { href: '/calculator', label: 'Carbon calculator' },
       { href: '/admin/factor-sets', label: 'Factor sets and their sources' },
     ],
@@ -35,13 +39,20 @@ export const ROLE_HOMES: Record<Role, RoleHome> = {
     title: 'Board room',
     intro: 'You read assessed proposals and vote on them.',
     duties: ['Read the board pack for each agenda item: map, figures, risk reasons and alternatives.', 'Vote, and see the register of earlier decisions.'],
-    links: [{ href: '/calculator', label: 'Carbon calculator' }],
+    links: [
+      { href: '/proposals?state=assessed', label: 'Assessed proposals' },
+      { href: '/calculator', label: 'Carbon calculator' },
+    ],
   },
   chair: {
     title: 'Chair’s desk',
     intro: 'You lead the board and record its decisions.',
     duties: ['Record decisions with reasons, conditions, monitoring dates and the appeal window.', 'Keep cumulative grassland loss and committed emissions within the authority’s limits.'],
-    links: [{ href: '/calculator', label: 'Carbon calculator' }],
+    links: [
+      { href: '/proposals?state=assessed', label: 'Assessed proposals' },
+      { href: '/proposals?sort=deadline&dir=asc', label: 'Proposals by decision date' },
+      { href: '/calculator', label: 'Carbon calculator' },
+    ],
   },
   admin: {
     title: 'Administration',
@@ -49,6 +60,7 @@ export const ROLE_HOMES: Record<Role, RoleHome> = {
     duties: ['Invite users and manage their roles.', 'Maintain factor sets, reference map layers and the authority’s rules.', 'Read the audit log and the outgoing mail.'],
     links: [
       { href: '/admin/users', label: 'Users' },
+      { href: '/proposals', label: 'Proposals' },
       { href: '/admin/reference-layers', label: 'Reference layers' },
       { href: '/admin/factor-sets', label: 'Factor sets' },
       { href: '/admin/mail', label: 'Mail box' },
