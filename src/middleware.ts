@@ -55,14 +55,17 @@ function gate(ctx: { request: Request; url: URL }): Response | null {
 }
 
 /**
- * The map page's policy, widened for the map only: OpenLayers' scale line sizes itself with
- * style attributes (styles, never scripts), and a configured basemap's host serves images.
- * (Done here because Astro 5's Astro.csp.insertDirective repeats a new directive many times.)
+ * Widening of Astro's policy, done here because Astro 5's Astro.csp.insertDirective repeats a new
+ * directive many times: style attributes are allowed on every page (React islands set sizes and
+ * positions with them, and OpenLayers' scale line sizes itself with them; styles only, scripts stay
+ * hash-only), and on pages with a map a configured basemap's host may serve images.
  */
-async function widenMapPolicy(response: Response): Promise<void> {
+const MAP_PAGES = /^\/(map|admin\/territory|proposals\/new|proposals\/\d+(\/edit)?)\/?$/;
+
+async function widenPolicy(response: Response, withMap: boolean): Promise<void> {
   const csp = response.headers.get('content-security-policy');
   if (!csp) return;
-  const basemap = (await getGisSettings(db))['map.basemap-url'];
+  const basemap = withMap ? (await getGisSettings(db))['map.basemap-url'] : null;
   const imgSrc = basemap ? `img-src 'self' data: blob: ${new URL(basemap).origin}` : null;
   const widened = (imgSrc ? csp.replace("img-src 'self' data: blob:", imgSrc) : csp).trim().replace(/;?$/, "; style-src-attr 'unsafe-inline';");
   response.headers.set('content-security-policy', widened);
@@ -104,6 +107,6 @@ export const onRequest = defineMiddleware(async (ctx, next) => {
     ctx.locals.sessionId = found.session.id;
   }
   const response = await next();
-  if (ctx.url.pathname === '/map' && response.status === 200) await widenMapPolicy(response);
+  await widenPolicy(response, MAP_PAGES.test(ctx.url.pathname) && response.status === 200);
   return secure(response, ctx);
 });

@@ -7,6 +7,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { testDb } from '../support/db';
 import { api, DEMO, signIn, type Session } from '../support/http';
+import { rect } from '../support/proposals';
 import { uploadFile } from '../support/uploads';
 
 let planner: Session;
@@ -17,19 +18,16 @@ afterAll(async () => {
   await testDb.destroy();
 });
 
-/** A grid of 25 m squares (30 m apart) east of the demo parcels, inside the demo's reference layers. */
-function gridFile(prefix: string, rows: number, cols: number, lat0: number): string {
-  const [dLon, dLat] = [30 / 68_000, 30 / 111_250];
-  const [wLon, wLat] = [25 / 68_000, 25 / 111_250];
+/**
+ * A grid of 25 m squares (30 m apart) south of the demo parcel grid (y < 0 m from the Corrowmere
+ * grid origin, UTM 28N), inside the demo's reference layers and clear of other test parcels.
+ */
+function gridFile(prefix: string, rows: number, cols: number, x0: number, y0: number): string {
   const features = [];
   for (let r = 0; r < rows; r++) {
     for (let c = 0; c < cols; c++) {
-      const [x, y] = [-15.9415 + c * dLon, lat0 + r * dLat];
-      features.push({
-        type: 'Feature',
-        properties: { ref: `${prefix}-${r}-${c}`, use: 'grassland', till: '2001-04-01' },
-        geometry: { type: 'Polygon', coordinates: [[[x, y], [x + wLon, y], [x + wLon, y + wLat], [x, y + wLat], [x, y]]] },
-      });
+      const [x, y] = [x0 + c * 30, y0 + r * 30];
+      features.push({ type: 'Feature', properties: { ref: `${prefix}-${r}-${c}`, use: 'grassland', till: '2001-04-01' }, geometry: rect([x, y, x + 25, y + 25]) });
     }
   }
   return JSON.stringify({ type: 'FeatureCollection', features });
@@ -55,7 +53,7 @@ async function uploadAndSave(name: string, body: string): Promise<{ saved: numbe
 
 describe('uploading again after earlier uploads', () => {
   it('the second upload saves all its parcels and history, with statistics refreshed inside each step', async () => {
-    const first = await uploadAndSave('repeat-a.geojson', gridFile('RPA', 30, 25, 52.3725));
+    const first = await uploadAndSave('repeat-a.geojson', gridFile('RPA', 30, 25, 0, -990));
     expect(first.saved).toBe(750);
     // The state an earlier upload leaves: staging emptied, its statistics taken while empty.
     await testDb.raw('analyze upload_staging_feature');
@@ -64,7 +62,7 @@ describe('uploading again after earlier uploads', () => {
     const parcelsBefore = Number((await testDb('parcel').count('* as n').first())?.n);
     const eventsBefore = Number((await testDb('land_use_event').count('* as n').first())?.n);
 
-    const second = await uploadAndSave('repeat-b.geojson', gridFile('RPB', 40, 25, 52.3835));
+    const second = await uploadAndSave('repeat-b.geojson', gridFile('RPB', 25, 40, 1000, -900));
     expect(second.saved).toBe(1000);
     expect(second.stagedEstimate).toBeGreaterThanOrEqual(1000);
     expect(await reltuples('parcel')).toBeGreaterThanOrEqual(parcelsBefore + 1000);
