@@ -16,11 +16,11 @@ beforeAll(async () => {
   // The seed imported these parcels already, and the demo proposals name some of them (so they cannot be
   // deleted): rename them and move them 10 degrees south, so the upload below is not 285 duplicates or overlaps.
   await testDb.raw(
-    `update parcel set reference = reference || '-seeded', reference_key = reference_key || '-seeded', geom = st_translate(geom, 0, -10)
+    `update parcel set reference = 'moved-' || reference, reference_key = 'moved-' || reference_key, geom = st_translate(geom, 0, -10)
      where batch_id in (select id from upload_batch where file_name like 'corrowmere-parcels-%')`,
   );
   // Their overlay no longer holds where they now lie: drop it (region figures then leave them out, as after any republication).
-  await testDb.raw(`delete from parcel_overlay_run where parcel_id in (select id from parcel where reference like '%-seeded')`);
+  await testDb.raw(`delete from parcel_overlay_run where parcel_id in (select id from parcel where reference like 'moved-%')`);
 });
 afterAll(async () => {
   await browser?.close();
