@@ -56,7 +56,13 @@ async function main() {
   const host = process.env.HOST ?? '127.0.0.1';
   const port = Number(process.env.PORT ?? 4321);
   server.listen(port, host, () => console.log(`Swardkeep listening on http://${host}:${port}`));
-  const stop = () => server.close(() => process.exit(0));
+  // Stop at once on Ctrl-C or TERM: finish nothing new, drop idle keep-alive connections, and exit
+  // within 5 s even if a request hangs (the callers' `wait` then returns and the port is free).
+  const stop = () => {
+    server.close(() => process.exit(0));
+    server.closeIdleConnections();
+    setTimeout(() => process.exit(0), 5000).unref();
+  };
   process.on('SIGTERM', stop);
   process.on('SIGINT', stop);
 }

@@ -18,7 +18,8 @@ build_if_stale
 
 require_port "$PORT" "the app" PORT
 pids=()
-cleanup() { for p in "${pids[@]}"; do kill "$p" 2>/dev/null || true; done; }
+# Stop the app and the mail fake, and wait until they have exited (so their ports are free).
+cleanup() { for p in "${pids[@]}"; do kill "$p" 2>/dev/null || true; done; for p in "${pids[@]}"; do wait "$p" 2>/dev/null || true; done; }
 trap cleanup EXIT INT TERM
 if [ -z "${SMTP_HOST:-}" ]; then
   require_port "$SMTP_PORT" "the local mail fake" SMTP_PORT
