@@ -17,6 +17,7 @@ export const ROLE_HOMES: Record<Role, RoleHome> = {
       { href: '/proposals', label: 'Proposals and their state' },
       { href: '/parcels/upload', label: 'Upload parcels' },
       { href: '/map', label: 'Map of parcels and reference layers' },
+      { href: '/screening', label: 'Screening map: where converting grassland would meet the rules' },
       { href: '/calculator', label: 'Try an estimate in the carbon calculator' },
     ],
   },
@@ -31,6 +32,7 @@ export const ROLE_HOMES: Record<Role, RoleHome> = {
     links: [
       { href: '/proposals?state=submitted&sort=deadline&dir=asc', label: 'Submitted proposals waiting for assessment' },
       { href: '/proposals?state=in-assessment&sort=deadline&dir=asc', label: 'Proposals being assessed' },
+      { href: '/screening', label: 'Screening map of permanent grassland' },
       { href: '/calculator', label: 'Carbon calculator' },
       { href: '/admin/factor-sets', label: 'Factor sets and their sources' },
     ],

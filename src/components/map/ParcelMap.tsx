@@ -59,6 +59,9 @@ export function ParcelMap({ canEdit }: { canEdit: boolean }) {
         const id = hit?.getId();
         if (id !== undefined) void select(Number(id));
       });
+      // A link such as /map?parcel=42 (from the screening table) opens that parcel.
+      const linked = new URLSearchParams(window.location.search).get('parcel');
+      if (linked && /^\d{1,9}$/.test(linked)) void select(Number(linked), true, false);
     }, (e: Error) => setNote({ ok: false, text: e.message }));
     return () => {
       disposed = true;
