@@ -55,7 +55,11 @@ async function main() {
   });
   const host = process.env.HOST ?? '127.0.0.1';
   const port = Number(process.env.PORT ?? 4321);
-  server.listen(port, host, () => console.log(`Swardkeep listening on http://${host}:${port}`));
+  server.listen(port, host, () => {
+    console.log(`Swardkeep listening on http://${host}:${port}`);
+    // Warm up now rather than on a user's first request (src/lib/warm-up.ts).
+    fetch(`http://${host.includes(':') ? `[${host}]` : host}:${port}/api/health`).then((r) => r.arrayBuffer(), () => undefined);
+  });
   // Stop at once on Ctrl-C or TERM: finish nothing new, drop idle keep-alive connections, and exit
   // within 5 s even if a request hangs (the callers' `wait` then returns and the port is free).
   const stop = () => {

@@ -1,4 +1,5 @@
 /** Staged uploads and their validated features (server-only). */
+import { stagedFeatureChunks } from '../gis/staged-json';
 import { analyzeAfterBulkWrite } from './bulk';
 import type { Db } from './client';
 
@@ -55,22 +56,24 @@ export async function deleteStaging(db: Db, id: string): Promise<void> {
   await db('upload_staging').where({ id }).delete();
 }
 
-const CHUNK = 2000;
-
-/** Replaces the staged features in chunks of one JSON parameter each (fast for 20 000 rows). */
-export async function replaceStagedFeatures(db: Db, stagingId: string, features: StagedFeature[]): Promise<void> {
+/** Replaces the staged features, given as JSON chunks (`stagedFeatureChunks`, built in the worker pool). */
+export async function replaceStagedFeatureChunks(db: Db, stagingId: string, chunks: string[]): Promise<void> {
   await db('upload_staging_feature').where({ staging_id: stagingId }).delete();
-  for (let at = 0; at < features.length; at += CHUNK) {
-    const chunk = features.slice(at, at + CHUNK).map((f) => ({ ...f, geom: f.geom ? JSON.stringify(f.geom) : null, rawGeom: f.rawGeom ? JSON.stringify(f.rawGeom) : null }));
+  for (const chunk of chunks) {
     await db.raw(
       `insert into upload_staging_feature (staging_id, idx, status, reference, issues, fields, geom, raw_geom)
        select ?, (r->>'idx')::int, r->>'status', r->>'reference', r->'issues', r->'fields',
               st_geomfromgeojson(r->>'geom'), st_geomfromgeojson(r->>'rawGeom')
        from jsonb_array_elements(?::jsonb) r`,
-      [stagingId, JSON.stringify(chunk)],
+      [stagingId, chunk],
     );
   }
   await analyzeAfterBulkWrite(db, 'upload_staging_feature');
+}
+
+/** Replaces the staged features in chunks of one JSON parameter each (fast for 20 000 rows). */
+export async function replaceStagedFeatures(db: Db, stagingId: string, features: StagedFeature[]): Promise<void> {
+  await replaceStagedFeatureChunks(db, stagingId, stagedFeatureChunks(features));
 }
 
 const push = (code: string, message: string) => `issues || jsonb_build_array(jsonb_build_object('code', '${code}', 'message', ${message}, 'severity', 'error'))`;

@@ -26,6 +26,14 @@ export interface ParsedLayer {
   geojsonEpsg: number | null;
 }
 
+/** A layer without its features (what crosses from the worker pool cheaply): counts, columns, CRS hints, extent. */
+export type LayerInfo = Omit<ParsedLayer, 'features'> & { featureCount: number; bbox: [number, number, number, number] | null };
+
+export function layerInfo(layer: ParsedLayer): LayerInfo {
+  const { features, ...rest } = layer;
+  return { ...rest, featureCount: features.length, bbox: layerBbox(features) };
+}
+
 export interface LayerCrs {
   crs: CrsDefinition | null;
   source: 'prj' | 'geojson' | null;
@@ -72,7 +80,7 @@ export async function parseUpload(bytes: Uint8Array, format: UploadFormat, fileN
 }
 
 /** The CRS a layer declares, or null with the reason the planner must pick one. */
-export async function detectLayerCrs(layer: ParsedLayer): Promise<LayerCrs> {
+export async function detectLayerCrs(layer: ParsedLayer | LayerInfo): Promise<LayerCrs> {
   try {
     if (layer.geojsonEpsg !== null) return { crs: await assertDatumShiftKnown(await crsFromEpsg(layer.geojsonEpsg)), source: 'geojson', note: null };
     if (layer.prjWkt) return { crs: await crsFromPrj(layer.prjWkt), source: 'prj', note: null };
@@ -80,7 +88,7 @@ export async function detectLayerCrs(layer: ParsedLayer): Promise<LayerCrs> {
     if (!isGisInputError(error)) throw error;
     return { crs: null, source: null, note: `${error.message} Choose the coordinate reference system by EPSG code.` };
   }
-  const box = layerBbox(layer.features);
+  const box = 'bbox' in layer ? layer.bbox : layerBbox(layer.features);
   const degrees = box !== null && bboxLooksLikeDegrees(box);
   return {
     crs: null,
@@ -92,7 +100,7 @@ export async function detectLayerCrs(layer: ParsedLayer): Promise<LayerCrs> {
 }
 
 /** The CRS to use: the planner's EPSG choice, else the declared one; refuses when neither. */
-export async function resolveCrs(layer: ParsedLayer, epsg: number | undefined): Promise<{ crs: CrsDefinition; source: 'picked' | 'prj' | 'geojson' }> {
+export async function resolveCrs(layer: ParsedLayer | LayerInfo, epsg: number | undefined): Promise<{ crs: CrsDefinition; source: 'picked' | 'prj' | 'geojson' }> {
   if (epsg !== undefined) {
     try {
       return { crs: await assertDatumShiftKnown(await crsFromEpsg(epsg)), source: 'picked' };

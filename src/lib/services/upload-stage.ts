@@ -57,7 +57,7 @@ export async function stageUpload(by: Caller, input: { purpose: UploadPurpose; f
   }
   const started = performance.now();
   const format = detectFormat(input.fileName, input.bytes);
-  const parsed = await runGisTask('parse', { bytes: input.bytes, format, fileName: input.fileName, settings });
+  const parsed = await runGisTask('inspect', { bytes: input.bytes, format, fileName: input.fileName, settings });
   const parseMs = Math.round(performance.now() - started);
   const id = randomUUID();
   const sha256 = createHash('sha256').update(input.bytes).digest('hex');
@@ -69,7 +69,7 @@ export async function stageUpload(by: Caller, input: { purpose: UploadPurpose; f
       const found = await detectLayerCrs(layer);
       layers.push({
         name: layer.name,
-        featureCount: layer.features.length,
+        featureCount: layer.featureCount,
         geometryType: layer.geometryType,
         columns: layer.columns,
         crs: found.crs && found.source ? { epsg: found.crs.epsg, name: found.crs.name, source: found.source } : null,

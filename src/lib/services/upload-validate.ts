@@ -8,9 +8,7 @@
  */
 import { mappedColumns, parcelMappingSchema, referenceMappingSchema, type ParcelMapping, type ReferenceMapping } from '../gis/field-mapping';
 import { isGisInputError } from '../gis/errors';
-import { stageFeatures } from '../gis/stage-features';
 import { overlapTolerance, type GisSettings } from '../gis/settings';
-import type { RawFeature } from '../gis/types';
 import type { CrsDefinition } from '../gis/crs';
 import { db, withTransaction } from '../db/client';
 import { getGisSettings } from '../db/gis-settings';
@@ -55,17 +53,14 @@ export function validationOptions(settings: GisSettings, crs: CrsDefinition | nu
   };
 }
 
-/** Maps and validates reprojected features (pure: src/lib/gis/stage-features.ts; the upload runs it in the worker pool). */
-export function buildStagedFeatures(features: RawFeature[], purpose: 'parcels' | 'reference', mapping: ParcelMapping | ReferenceMapping, options: ReturnType<typeof validationOptions>): uploads.StagedFeature[] {
-  return stageFeatures(features, purpose, mapping, options);
-}
-
 export async function validateUpload(by: Caller, id: string, input: ValidationInput) {
   const staging = await loadOwnStaging(db, by, id);
   const mapping = parseMapping(staging.purpose, input.mapping);
   const settings = await getGisSettings(db);
   const started = performance.now();
-  const layers = await runGisTask('parse', { bytes: await uploads.getStagingBytes(db, id), format: staging.format, fileName: staging.file_name, settings });
+  const bytes = await uploads.getStagingBytes(db, id);
+  const file = { bytes, format: staging.format, fileName: staging.file_name, settings };
+  const layers = await runGisTask('inspect', file);
   const layer = layers.find((l) => l.name === input.layer);
   if (!layer) throw new HttpError('UNPROCESSABLE_CONTENT', `The file has no layer "${input.layer}"; it has ${layers.map((l) => `"${l.name}"`).join(', ')}.`, [{ path: ['layer'], message: 'unknown layer' }]);
   const names = new Set(layer.columns.map((c) => c.name));
@@ -75,14 +70,18 @@ export async function validateUpload(by: Caller, id: string, input: ValidationIn
   const parseMs = Math.round(performance.now() - started);
   const t1 = performance.now();
   const inPostgis = await reprojectsInPostgis(db, crs);
-  const staged = await (async () => {
-    const features = inPostgis ? await reprojectLayer(db, layer.features, crs, layer.name) : layer.features;
-    return runGisTask('stage', { features, proj4Crs: inPostgis ? null : crs, layerName: layer.name, purpose: staging.purpose, mapping, options: validationOptions(settings, crs, staging.purpose) });
+  const stage = { layerName: layer.name, purpose: staging.purpose, mapping, options: validationOptions(settings, crs, staging.purpose) };
+  // The features stay in the worker pool (parse, reproject, validate, serialise); only JSON text comes back.
+  // A CRS with a datum shift is reprojected by PostGIS, so those features make the round trip through here.
+  const chunks = await (async () => {
+    if (!inPostgis) return runGisTask('stageFile', { ...file, ...stage, proj4Crs: crs });
+    const parsed = (await runGisTask('parse', file)).find((l) => l.name === layer.name)!;
+    return runGisTask('stage', { ...stage, features: await reprojectLayer(db, parsed.features, crs, layer.name), proj4Crs: null });
   })().catch((error) => {
     throw isGisInputError(error) ? gisError(error) : error;
   });
   const result = await withTransaction(db, async (trx) => {
-    await uploads.replaceStagedFeatures(trx, id, staged);
+    await uploads.replaceStagedFeatureChunks(trx, id, chunks);
     await uploads.repairWithMakeValid(trx, id, validationOptions(settings, crs, staging.purpose).minAreaM2);
     if (staging.purpose === 'parcels') {
       await uploads.rejectRegisterDuplicates(trx, id);

@@ -4,7 +4,8 @@
  * parse; expected failures come back as data (errors do not cross threads as classes).
  */
 import { HttpError } from '../http/errors';
-import { parseUpload, type UploadFormat } from '../services/upload-parse';
+import { layerInfo, parseUpload, type UploadFormat } from '../services/upload-parse';
+import { stagedFeatureChunks } from '../gis/staged-json';
 import { reproject, type CrsDefinition } from '../gis/crs';
 import { isGisInputError } from '../gis/errors';
 import type { ParcelMapping, ReferenceMapping } from '../gis/field-mapping';
@@ -29,9 +30,18 @@ async function guarded<T>(fn: () => T | Promise<T>): Promise<TaskResult<T>> {
 
 export const tasks = {
   parse: (i: { bytes: Uint8Array; format: UploadFormat; fileName: string; settings: GisSettings }) => guarded(() => parseUpload(i.bytes, i.format, i.fileName, i.settings)),
-  /** Reprojects with proj4 when `proj4Crs` is given (else the features are in EPSG:4326 already), then maps and validates. */
+  /** The file's layers without their features (columns, counts, CRS hints, extent): cheap to send back to the request thread. */
+  inspect: (i: { bytes: Uint8Array; format: UploadFormat; fileName: string; settings: GisSettings }) => guarded(async () => (await parseUpload(i.bytes, i.format, i.fileName, i.settings)).map(layerInfo)),
+  /** Reprojects with proj4 when `proj4Crs` is given (else the features are in EPSG:4326 already), then maps and validates; returns the staging insert's JSON chunks. */
   stage: (i: { features: RawFeature[]; proj4Crs: CrsDefinition | null; layerName: string; purpose: 'parcels' | 'reference'; mapping: ParcelMapping | ReferenceMapping; options: StageOptions }) =>
-    guarded(() => stageFeatures(i.proj4Crs ? layerToWgs84(i.features, i.proj4Crs, i.layerName) : i.features, i.purpose, i.mapping, i.options)),
+    guarded(() => stagedFeatureChunks(stageFeatures(i.proj4Crs ? layerToWgs84(i.features, i.proj4Crs, i.layerName) : i.features, i.purpose, i.mapping, i.options))),
+  /** Parses the file again here and stages one layer (the proj4 path): no feature crosses threads, only the JSON chunks. */
+  stageFile: (i: { bytes: Uint8Array; format: UploadFormat; fileName: string; settings: GisSettings; layerName: string; proj4Crs: CrsDefinition; purpose: 'parcels' | 'reference'; mapping: ParcelMapping | ReferenceMapping; options: StageOptions }) =>
+    guarded(async () => {
+      const layer = (await parseUpload(i.bytes, i.format, i.fileName, i.settings)).find((l) => l.name === i.layerName);
+      if (!layer) throw new HttpError('UNPROCESSABLE_CONTENT', `The file has no layer "${i.layerName}".`, [{ path: ['layer'], message: 'unknown layer' }]);
+      return stagedFeatureChunks(stageFeatures(layerToWgs84(layer.features, i.proj4Crs, layer.name), i.purpose, i.mapping, i.options));
+    }),
   validate: (i: { features: FeatureToValidate[]; options: ValidationOptions }) => guarded(() => validateFeatures(i.features, i.options)),
   reproject: (i: { geometry: RawFeature['geometry']; crs: CrsDefinition }) => guarded(() => (i.geometry ? reproject(i.geometry, i.crs) : null)),
 };

@@ -1,10 +1,10 @@
 import { health } from '~/lib/api/admin';
 import { db } from '~/lib/db/client';
 import { handle } from '~/lib/http/handle';
-import { warmGisPool } from '~/lib/workers/pool';
+import { warmUp } from '~/lib/warm-up';
 
 export const GET = handle(health, async () => {
-  warmGisPool();
+  warmUp();
   await db.raw('select 1');
   return { ok: true, database: true };
 });
