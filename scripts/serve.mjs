@@ -8,12 +8,18 @@
  *   The result is handed on as the only X-Forwarded-For value, so Astro's clientAddress is it.
  * - Security headers on static files (nosniff, no framing), which never reach Astro's middleware.
  * - TRACE and friends are refused before the app sees them.
+ * - Compression: static files from their precompressed copies (scripts/compressed-static.mjs);
+ *   dynamic answers (HTML, JSON, CSV, GeoJSON, vector tiles) with Brotli or gzip at a low level
+ *   that costs little CPU (the `compression` package).
  * Environment: HOST, PORT, SWARDKEEP_DIST (build folder), TRUSTED_PROXIES.
  */
 import http from 'node:http';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
+import compression from 'compression';
 import proxyaddr from 'proxy-addr';
+import zlib from 'node:zlib';
+import { compressedStatic } from './compressed-static.mjs';
 
 export function trustFrom(setting) {
   const value = (setting ?? '').trim();
@@ -40,10 +46,20 @@ function prepare(req, res) {
   res.setHeader('content-security-policy', "frame-ancestors 'none'");
 }
 
+const EXTRA_COMPRESSIBLE = /^(application\/(vnd\.mapbox-vector-tile|geo\+json|x-protobuf)|text\/csv)\b/;
+
+/** Brotli quality 4 and gzip level 5: most of the saving for a small share of the CPU of the top levels. */
+export const compress = compression({
+  level: 5,
+  brotli: { params: { [zlib.constants.BROTLI_PARAM_QUALITY]: 4 } },
+  filter: (req, res) => EXTRA_COMPRESSIBLE.test(String(res.getHeader('content-type') ?? '')) || compression.filter(req, res),
+});
+
 async function main() {
   process.env.ASTRO_NODE_AUTOSTART = 'disabled';
   const entry = path.resolve(process.env.SWARDKEEP_DIST ?? 'dist', 'server/entry.mjs');
   const { handler } = await import(pathToFileURL(entry).href);
+  const serveStatic = compressedStatic(path.resolve(process.env.SWARDKEEP_DIST ?? 'dist', 'client'));
   const server = http.createServer((req, res) => {
     if (['TRACE', 'TRACK', 'CONNECT'].includes(req.method ?? '')) {
       res.writeHead(405, { allow: 'GET, HEAD, POST', 'content-type': 'text/plain; charset=utf-8', 'x-content-type-options': 'nosniff' });
@@ -51,7 +67,10 @@ async function main() {
       return;
     }
     prepare(req, res);
-    handler(req, res);
+    serveStatic(req, res).then(
+      (served) => served || compress(req, res, () => handler(req, res)),
+      () => compress(req, res, () => handler(req, res)),
+    );
   });
   const host = process.env.HOST ?? '127.0.0.1';
   const port = Number(process.env.PORT ?? 4321);
