@@ -41,7 +41,7 @@ export function Calculator({ sets }: { sets: SetOption[] }) {
           <select id="factorSet" className="input" {...register('factorSet')}>
             {sets.map((s) => (
               <option key={s.id} value={s.id}>
-                {s.title} (v{s.version}{s.unconfirmed ? `, ${s.unconfirmed} tables unconfirmed` : ''})
+                {s.title} (v{s.version}{s.unconfirmed ? `, ${s.unconfirmed} tables not yet checked` : ''})
               </option>
             ))}
           </select>

@@ -49,7 +49,7 @@ export function EstimateResults({ result, transitionYears }: { result: Estimate;
         </dl>
         {!result.signOffReady && (
           <p className="notice notice-warn mt-3 text-sm" role="note">
-            <strong>Exploration only.</strong> Tables not yet confirmed against the published document: {result.unconfirmedTablesUsed.join(', ')}. An assessment built on these values cannot be signed off until an administrator confirms them.
+            <strong>Exploration only.</strong> Some values come from tables this authority has not yet checked against the published document ({[...new Set(result.factors.filter((f) => f.status === 'unconfirmed').map((f) => f.source.table))].join(', ')}; listed under Cautions). An assessment built on them cannot be signed off until an administrator records the check.
           </p>
         )}
       </section>

@@ -28,7 +28,7 @@ export function FactorList({ factors }: { factors: UsedFactor[] }) {
               <td className="text-xs">
                 {[f.source.document, f.source.volume, f.source.chapter, f.source.table, f.source.page ? `p. ${f.source.page}` : null].filter(Boolean).join(', ')}
               </td>
-              <td>{f.status === 'confirmed' ? <span className="tag">✓ confirmed</span> : <span className="tag border-clay-700 text-clay-700">! unconfirmed</span>}</td>
+              <td>{f.status === 'confirmed' ? <span className="tag">✓ checked</span> : <span className="tag border-clay-700 text-clay-700">! not yet checked</span>}</td>
             </tr>
           ))}
         </tbody>

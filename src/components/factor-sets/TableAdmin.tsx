@@ -9,8 +9,8 @@ export function TableAdmin({ setId, version, status, tableKey, confirmed, entrie
     if (confirmed) return null;
     return (
       <details className="mt-2 text-sm">
-        <summary className="cursor-pointer text-sward-700">Confirm this table against the published document</summary>
-        <ActionForm label="Record confirmation" url={`/api/factor-sets/${setId}/versions/${version}/confirmations`} className="mt-2 grid gap-2 md:grid-cols-[2fr_1fr_auto] md:items-end" body={(f) => ({ tableKey, document: s(f, 'document'), page: s(f, 'page') })}>
+        <summary className="cursor-pointer text-sward-700">Record that you checked this table against the published document</summary>
+        <ActionForm label="Record the check" url={`/api/factor-sets/${setId}/versions/${version}/confirmations`} className="mt-2 grid gap-2 md:grid-cols-[2fr_1fr_auto] md:items-end" body={(f) => ({ tableKey, document: s(f, 'document'), page: s(f, 'page') })}>
           <label className="field">
             <span>Document read (title, edition)</span>
             <input name="document" className="input" required />

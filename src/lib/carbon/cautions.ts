@@ -17,10 +17,13 @@ function fmt(x: number): string {
 /** Cautions specific to this request and the values used. */
 export function cautionsFor(req: EstimateRequest, plan: Plan, used: UsedFactor[]): string[] {
   const out: string[] = [...STANDARD_CAUTIONS];
-  for (const f of used) {
-    if (f.status === 'unconfirmed')
-      out.push(`Unconfirmed value used: ${f.key} = ${fmt(f.value)} ${f.unit} (${f.source.chapter ? `${f.source.chapter}, ` : ""}${f.source.table}) has not been checked against the published table; fine for exploration, not for a signed assessment.`);
+  const unchecked = new Map<string, UsedFactor[]>();
+  for (const f of used.filter((x) => x.status === 'unconfirmed')) {
+    const table = `${f.source.table}${f.source.chapter ? ` (${f.source.chapter})` : ''}`;
+    unchecked.set(table, [...(unchecked.get(table) ?? []), f]);
   }
+  if (unchecked.size)
+    out.push(`Values not yet checked by this authority against the published tables, so fine for exploration but not for a signed assessment: ${[...unchecked].map(([table, fs]) => `${table}: ${fs.map((f) => `${f.role} ${fmt(f.value)} ${f.unit}`).join('; ')}`).join('. ')}.`);
   if (plan.organic)
     out.push(`Organic soil (${fmt(plan.organic.fraction * 100)}% of the area): counted with drained-organic-soil emission factors (t C/ha for each year drained), assuming the land is drained under both the current and the proposed use, over the ${req.transitionYears}-year horizon; emissions continue for as long as it stays drained. If the land is not drained today the emission is understated. N2O from drained organic soils (EF2) is not counted: Tier 1 gives cropland and grassland the same EF2.`);
   if (plan.setAsideRule)

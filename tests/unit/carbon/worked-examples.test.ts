@@ -73,12 +73,21 @@ describe('result details', () => {
     expect(keys.some((k) => k.includes('above-ground'))).toBe(false);
   });
 
-  it('names each unconfirmed value in a caution and keeps the three standing cautions', () => {
+  it('names each unchecked value once, in words and grouped by table, and keeps the three standing cautions', () => {
     const r = run('we1-warm-temperate-moist-loss-ar5');
     expect(r.cautions.slice(0, 3).join(' ')).toMatch(/Tier 1.*site survey or soil sampling.*local law and to licensed professionals/s);
-    for (const f of r.factors.filter((x) => x.status === 'unconfirmed')) expect(r.cautions.some((c) => c.includes(f.key))).toBe(true);
-    // Confirmed values (C:N ratio read in S2, GWP cross-checked in S6) raise no such caution.
-    expect(r.cautions.some((c) => c.includes('cn-ratio/land-use-change'))).toBe(false);
+    const unchecked = r.cautions.filter((c) => c.startsWith('Values not yet checked'));
+    expect(unchecked).toHaveLength(1);
+    for (const f of r.factors.filter((x) => x.status === 'unconfirmed')) {
+      expect(unchecked[0]).toContain(`${f.role} `);
+      expect(unchecked[0]).toContain(f.source.table);
+    }
+    // Machine keys stay off the screen.
+    for (const f of r.factors) expect(unchecked[0]).not.toContain(f.key);
+    // Confirmed values (C:N ratio read in S2, GWP cross-checked in S6) are not listed.
+    const cn = r.factors.find((f) => f.key.includes('cn-ratio/land-use-change'))!;
+    expect(cn.status).toBe('confirmed');
+    expect(unchecked[0]).not.toContain(cn.role);
   });
 
   it('states the organic-soil assumption and keeps emitting after D (we5)', () => {
