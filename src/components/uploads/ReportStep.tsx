@@ -1,5 +1,6 @@
 /** Step 4: the per-feature validation report: counts, and every feature with something to say. */
 import { useState } from 'react';
+import { countOf, issueCountText } from '~/lib/gis/issue-words';
 import type { Report } from './types';
 
 const STATUS = {
@@ -8,7 +9,7 @@ const STATUS = {
   rejected: { mark: '✕', word: 'Rejected' },
 } as const;
 
-export function ReportStep({ report, purpose }: { report: Report; purpose: 'parcels' | 'reference' }) {
+export function ReportStep({ report, purpose, uploadId }: { report: Report; purpose: 'parcels' | 'reference'; uploadId: string }) {
   const [filter, setFilter] = useState<'all' | 'repaired' | 'rejected'>('all');
   const s = report.summary;
   const rows = report.features.filter((f) => filter === 'all' || f.status === filter);
@@ -25,9 +26,10 @@ export function ReportStep({ report, purpose }: { report: Report; purpose: 'parc
         <li className="panel py-2"><div className="text-xs text-muted">⚒ Repaired, will be saved</div><div className="text-lg font-semibold">{s.repaired}</div></li>
         <li className="panel border-clay-700 py-2"><div className="text-xs text-muted">✕ Rejected, not saved</div><div className="text-lg font-semibold">{s.rejected}</div></li>
       </ul>
+      <p className="text-sm"><a href={`/api/uploads/${uploadId}/report.csv`} download>Download the full report (CSV)</a></p>
       {Object.keys(s.byCode).length > 0 && (
         <p className="text-sm">
-          Problems by kind: {Object.entries(s.byCode).map(([code, n]) => `${code.replace(/-/g, ' ')} ${n}`).join(' · ')}
+          Found: {Object.entries(s.byCode).map(([code, n]) => issueCountText(code, n)).join(' · ')}
         </p>
       )}
       {report.features.length > 0 && (
@@ -44,7 +46,7 @@ export function ReportStep({ report, purpose }: { report: Report; purpose: 'parc
             <table className="data-table">
               <caption className="sr-only">{noun} with remarks</caption>
               <thead className="sticky top-0 bg-white">
-                <tr><th scope="col">#</th><th scope="col">Reference</th><th scope="col">Status</th><th scope="col">What was found</th><th scope="col" className="num">Area ha</th></tr>
+                <tr><th scope="col">#</th><th scope="col">Reference</th><th scope="col">Status</th><th scope="col">What was found</th><th scope="col" className="num">Measured area, ha</th></tr>
               </thead>
               <tbody>
                 {rows.map((f) => (
@@ -61,7 +63,7 @@ export function ReportStep({ report, purpose }: { report: Report; purpose: 'parc
               </tbody>
             </table>
           </div>
-          {report.omitted > 0 && <p className="text-xs text-muted">{report.omitted} more {noun} with remarks are not listed.</p>}
+          {report.omitted > 0 && <p className="text-xs text-muted">{countOf(report.omitted, `more ${noun.replace(/s$/, '')} with remarks is`, `more ${noun} with remarks are`)} not listed here; the CSV report lists every one.</p>}
         </>
       )}
     </div>

@@ -1,4 +1,5 @@
 /** The upload wizard: file → columns → coordinate system → validation report → save or cancel. */
+import { countOf } from '~/lib/gis/issue-words';
 import { useRef, useState } from 'react';
 import { apiFetch, ApiError } from '../ui/api-client';
 import { CrsStep } from './CrsStep';
@@ -169,10 +170,10 @@ export function UploadWizard({ purpose }: { purpose: 'parcels' | 'reference' }) 
         )}
         {step === 'report' && report && (
           <>
-            <ReportStep report={report} purpose={purpose} />
+            <ReportStep report={report} purpose={purpose} uploadId={report.id} />
             <div className="flex flex-wrap gap-2">
               <button className="btn" onClick={() => void save()} disabled={busy || report.summary.total === report.summary.rejected}>
-                {busy ? 'Saving…' : `Save ${report.summary.total - report.summary.rejected} valid ${noun}`}
+                {busy ? 'Saving…' : `Save ${countOf(report.summary.total - report.summary.rejected, `valid ${noun.replace(/s$/, '')}`, `valid ${noun}`)}`}
               </button>
               <button className="btn btn-quiet" onClick={() => go('mapping')}>Back to columns</button>
               <button className="btn btn-quiet" onClick={() => void cancel()}>Cancel upload</button>
@@ -181,7 +182,7 @@ export function UploadWizard({ purpose }: { purpose: 'parcels' | 'reference' }) 
         )}
         {step === 'saved' && saved && (
           <>
-            <p className="notice" role="status"><span aria-hidden="true">✓ </span>Saved {saved.saved} {noun}{saved.rejected ? `; ${saved.rejected} rejected ones were left out` : ''}. The original file is kept with the batch.</p>
+            <p className="notice" role="status"><span aria-hidden="true">✓ </span>Saved {countOf(saved.saved, noun.replace(/s$/, ''), noun)}{saved.rejected ? `; ${countOf(saved.rejected, 'rejected one was', 'rejected ones were')} left out` : ''}. The original file is kept with the batch.</p>
             {saved.referenceVersion ? (
               <p>Version {saved.referenceVersion.version} of this layer is a draft. <a href="/admin/reference-layers">Publish it on the reference layers page</a>.</p>
             ) : (

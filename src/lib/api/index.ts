@@ -51,6 +51,7 @@ export const allSpecs: ApiSpec[] = [
   uploads.stageUpload,
   uploads.validateUpload,
   uploads.saveUpload,
+  uploads.uploadReportCsv,
   uploads.cancelUpload,
   uploads.searchCrs,
   parcels.getParcel,

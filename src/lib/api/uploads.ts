@@ -74,6 +74,17 @@ export const saveUpload = defineSpec({
   status: 201,
 });
 
+export const uploadReportCsv = defineSpec({
+  method: 'GET',
+  path: '/api/uploads/{id}/report.csv',
+  tag: 'Uploads',
+  summary: 'The full validation report of a staged upload as CSV (every feature with its status, measured area and each remark in words)',
+  access: ['planner', 'admin'],
+  params: idParams,
+  response: null,
+  responseType: 'text/csv',
+});
+
 export const cancelUpload = defineSpec({ method: 'DELETE', path: '/api/uploads/{id}', tag: 'Uploads', summary: 'Cancel a staged upload (nothing is kept)', access: ['planner', 'admin'], params: idParams, response: null, status: 204 });
 
 export const searchCrs = defineSpec({

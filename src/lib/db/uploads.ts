@@ -137,13 +137,32 @@ export async function stagedSummary(db: Db, stagingId: string): Promise<ReportSu
 }
 
 /** Features with something to say (rejected, repaired or warned), in file order. */
+/** Ellipsoidal area of the staged boundary; when it was rejected, the one measured at validation, else that of the file's boundary made valid for measuring. */
+const MEASURED_AREA_HA = `round(coalesce(st_area(geom::geography) / 10000, (fields->>'measuredAreaHa')::float8,
+  st_area(st_collectionextract(st_makevalid(raw_geom), 3)::geography) / 10000)::numeric, 4)::float8`;
+
 export async function stagedProblems(db: Db, stagingId: string, limit: number) {
   return db('upload_staging_feature')
-    .select('idx', 'status', 'reference', 'issues', db.raw("case when geom is null then null else round((st_area(geom::geography) / 10000)::numeric, 4)::float8 end as area_ha"))
+    .select('idx', 'status', 'reference', 'issues', db.raw(`${MEASURED_AREA_HA} as area_ha`))
     .where({ staging_id: stagingId })
     .andWhereRaw("(status <> 'ok' or jsonb_array_length(issues) > 0)")
     .orderBy('idx')
     .limit(limit);
+}
+
+/** Every staged feature in file order with its measured area, in batches (for the CSV report). */
+export async function* stagedReportRows(db: Db, stagingId: string, batch = 2000) {
+  for (let after = -1; ; ) {
+    const rows: { idx: number; status: string; reference: string | null; issues: { code: string; message: string; severity: string }[]; area_ha: number | null }[] = await db('upload_staging_feature')
+      .select('idx', 'status', 'reference', 'issues', db.raw(`${MEASURED_AREA_HA} as area_ha`))
+      .where({ staging_id: stagingId })
+      .andWhere('idx', '>', after)
+      .orderBy('idx')
+      .limit(batch);
+    if (!rows.length) return;
+    yield* rows;
+    after = rows[rows.length - 1]!.idx;
+  }
 }
 
 export async function updateStagingValidation(db: Db, id: string, v: { layerName: string; sourceCrs: unknown; mapping: unknown; summary: ReportSummary }): Promise<void> {

@@ -55,7 +55,8 @@ export function stageFeatures(features: RawFeature[], purpose: 'parcels' | 'refe
       status,
       reference: mapped[i]!.reference,
       issues,
-      fields: mapped[i]!.fields,
+      // The measured area is kept for the report even when the boundary itself is not staged.
+      fields: r.areaHa === null ? mapped[i]!.fields : { ...mapped[i]!.fields, measuredAreaHa: r.areaHa },
       geom: rejected ? null : r.geometry,
       rawGeom: rejected && isSelfIntersectingPolygon(raw, r.issues) ? raw : null,
     };

@@ -14,6 +14,9 @@ import { db, withTransaction } from '../db/client';
 import { getGisSettings } from '../db/gis-settings';
 import { reprojectLayer, reprojectsInPostgis } from '../db/transform';
 import { runGisTask } from '../workers/pool';
+import { stringify } from 'csv-stringify/sync';
+import { issueCountText } from '../gis/issue-words';
+import { textStream } from '../http/text-stream';
 import * as uploads from '../db/uploads';
 import { HttpError } from '../http/errors';
 import { zodIssues, type Caller } from '../http/handle';
@@ -111,4 +114,22 @@ export async function validateUpload(by: Caller, id: string, input: ValidationIn
 async function countOkWithWarnings(id: string): Promise<number> {
   const r = await db('upload_staging_feature').where({ staging_id: id, status: 'ok' }).andWhereRaw('jsonb_array_length(issues) > 0').count<{ n: number }[]>('* as n');
   return Number(r[0]?.n ?? 0);
+}
+
+const REPORT_STATUS: Record<string, string> = { ok: 'Valid', repaired: 'Repaired, will be saved', rejected: 'Rejected, not saved' };
+
+/** The whole validation report as CSV, streamed in file order (owner or admin; validated uploads only). */
+export async function uploadReportCsv(by: Caller, id: string): Promise<{ fileName: string; body: ReadableStream<Uint8Array> }> {
+  const staging = await loadOwnStaging(db, by, id);
+  if (!staging.validated_at) throw new HttpError('CONFLICT', 'This upload has not been checked yet: run the validation first, then download its report.');
+  const base = staging.file_name.replace(/\.[^.]+$/, '').replace(/[^\w.-]+/g, '_') || 'upload';
+  return {
+    fileName: `${base}-report.csv`,
+    body: textStream((async function* () {
+      yield stringify([['row', 'reference', 'status', 'measured_area_ha', 'found', 'remarks']]);
+      for await (const r of uploads.stagedReportRows(db, id)) {
+        yield stringify([[r.idx + 1, r.reference ?? '', REPORT_STATUS[r.status] ?? r.status, r.area_ha ?? '', r.issues.map((i) => issueCountText(i.code, 1).replace(/^1 /, '')).join(' | '), r.issues.map((i) => i.message).join(' | ')]]);
+      }
+    })()),
+  };
 }
