@@ -1,0 +1,26 @@
+/** The agenda order of a meeting: the chair (or an admin as clerk) sets it, guarded by the meeting's row version. */
+import { recordAudit } from '../db/audit';
+import { db, withTransaction } from '../db/client';
+import * as store from '../db/meetings';
+import { HttpError } from '../http/errors';
+import type { Caller } from '../http/handle';
+
+export async function reorderAgenda(by: Caller, meetingId: number, input: { itemIds: number[]; version: number }) {
+  return withTransaction(db, async (trx) => {
+    const meeting = await store.getMeeting(trx, meetingId, { lock: true });
+    if (!meeting) throw new HttpError('NOT_FOUND', `No meeting with id ${meetingId}.`);
+    if (meeting.version !== input.version) {
+      throw new HttpError('CONFLICT', `The agenda was changed by someone else after you opened it (it is at version ${meeting.version}, you sent ${input.version}). Reload the page and order it again; nothing was saved.`);
+    }
+    const items = await store.listItems(trx, meetingId);
+    const have = new Set(items.map((i) => i.id));
+    const sent = new Set(input.itemIds);
+    if (sent.size !== input.itemIds.length || sent.size !== have.size || input.itemIds.some((x) => !have.has(x))) {
+      throw new HttpError('UNPROCESSABLE_CONTENT', `List every item of this meeting exactly once (it has ${have.size}: ${items.map((i) => i.id).join(', ')}).`, [{ path: ['itemIds'], message: 'not the meeting’s items' }]);
+    }
+    await store.setPositions(trx, meetingId, input.itemIds);
+    const version = await store.bumpMeetingVersion(trx, meetingId);
+    await recordAudit(trx, { actorId: by.id, action: 'meeting.reorder', entityType: 'meeting', entityId: String(meetingId), details: { order: input.itemIds.map((x) => items.find((i) => i.id === x)!.reference) } });
+    return { id: meetingId, version, itemIds: input.itemIds };
+  });
+}
