@@ -24,3 +24,15 @@ export async function reorderAgenda(by: Caller, meetingId: number, input: { item
     return { id: meetingId, version, itemIds: input.itemIds };
   });
 }
+
+/** Proposals that may go on an agenda: assessed (a signed-off assessment), the nearest deadline first. */
+export async function agendaCandidates() {
+  const r = await db.raw(
+    `select p.id::int as id, p.reference, p.title, to_char(p.decision_due, 'YYYY-MM-DD') as decision_due,
+            (select a.grade_level from assessment a where a.proposal_id = p.id and a.status = 'signed' order by a.number desc limit 1) as risk_level,
+            (select a.grade_label from assessment a where a.proposal_id = p.id and a.status = 'signed' order by a.number desc limit 1) as risk_label
+     from proposal p where p.state = 'assessed' order by p.decision_due nulls last, p.id limit 200`,
+  );
+  return (r.rows as { id: number; reference: string; title: string; decision_due: string | null; risk_level: number | null; risk_label: string | null }[])
+    .map((x) => ({ id: x.id, reference: x.reference, title: x.title, decisionDue: x.decision_due, riskLevel: x.risk_level, riskLabel: x.risk_label }));
+}
