@@ -103,7 +103,7 @@ export function parcelMap(doc: Pdf, geoms: MultiPolygon[], height = 210): void {
   const width = contentWidth(doc);
   ensureSpace(doc, height + 10);
   const x0 = doc.page.margins.left, y0 = doc.y;
-  const map = outlinePaths(geoms, width, height, 16);
+  const map = outlinePaths(geoms, width, height, 30);
   doc.save().rect(x0, y0, width, height).fill('#eef5f0').restore();
   doc.save().translate(x0, y0);
   for (const d of map.paths) doc.path(d).fillOpacity(0.35).fillAndStroke(SWARD, '#15382a', 'even-odd');
