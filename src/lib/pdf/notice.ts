@@ -34,7 +34,7 @@ export async function decisionNoticePdf(e: Entry): Promise<Buffer> {
   para(doc, c.reasons);
   if (c.conditions.length) {
     heading(doc, 'Conditions');
-    bullets(doc, c.conditions.map((x, i) => `${i + 1}. ${x.text} Due ${x.dueDate}; checked by ${x.checkedBy}.`));
+    c.conditions.forEach((x, i) => para(doc, `${i + 1}. ${x.text} Due ${x.dueDate}; checked by ${x.checkedBy}.`));
   }
   heading(doc, 'Hashes', 11);
   para(doc, `Entry hash: ${e.hash}`, { size: 8 });
