@@ -23,15 +23,17 @@ const today = () => new Date().toISOString().slice(0, 10);
 
 type Facts = Pick<GradeFacts, 'parcels' | 'regions'>;
 
-async function regionImpact(conn: Db, facts: Facts) {
-  const keys = facts.regions.map((r) => r.key);
-  if (!keys.length) return [];
-  const stats = await regionStats(conn, today(), keys);
+type RegionFigures = { stat: Awaited<ReturnType<typeof regionStats>>[number] | undefined; ref: Awaited<ReturnType<typeof referenceRatio>> };
+/** Region figures read once per region for all the items of a meeting. */
+export type RegionMemo = Map<string, Promise<RegionFigures>>;
+
+async function regionImpact(conn: Db, facts: Facts, memo: RegionMemo) {
   const out = [];
-  for (const s of stats) {
-    const ref = await referenceRatio(conn, s.key);
-    const converted = facts.regions.find((r) => r.key === s.key)?.convertedHa ?? 0;
-    const f = regionFacts(s, ref ? { ratio: ref.ratio, referenceYear: ref.referenceYear } : null, converted);
+  for (const r of facts.regions) {
+    if (!memo.has(r.key)) memo.set(r.key, (async () => ({ stat: (await regionStats(conn, today(), [r.key]))[0], ref: await referenceRatio(conn, r.key) }))());
+    const { stat, ref } = await memo.get(r.key)!;
+    if (!stat) continue;
+    const f = regionFacts(stat, ref ? { ratio: ref.ratio, referenceYear: ref.referenceYear } : null, r.convertedHa);
     out.push({ ...f, referenceSource: ref?.source ?? null });
   }
   return out;
@@ -46,7 +48,7 @@ async function budgetImpact(conn: Db, year: number, co2eT: number) {
 }
 
 /** One item's pack. */
-export async function itemPack(meetingId: number, itemId: number, conn: Db = db) {
+export async function itemPack(meetingId: number, itemId: number, conn: Db = db, memo: RegionMemo = new Map()) {
   const item = await store.getItem(conn, meetingId, itemId);
   if (!item) throw new HttpError('NOT_FOUND', `No item ${itemId} on meeting ${meetingId}.`);
   const [p, a, parcels, settings] = await Promise.all([
@@ -55,7 +57,7 @@ export async function itemPack(meetingId: number, itemId: number, conn: Db = db)
   if (!p || !a) throw new HttpError('NOT_FOUND', `Item ${itemId} has lost its proposal or assessment.`);
   const r = a.result as unknown as StoredResult;
   const facts = r.facts as unknown as Facts;
-  const [regions, budget] = await Promise.all([regionImpact(conn, facts), budgetImpact(conn, p.start_year, r.totals.co2eTotal)]);
+  const [regions, budget] = await Promise.all([regionImpact(conn, facts, memo), budgetImpact(conn, p.start_year, r.totals.co2eTotal)]);
   return {
     meeting: { id: item.meeting_id, date: item.meeting_date, place: item.place },
     item: { id: item.id, position: item.position, status: item.status },
@@ -93,6 +95,7 @@ export async function meetingPacks(meetingId: number, conn: Db = db) {
   if (!m) throw new HttpError('NOT_FOUND', `No meeting with id ${meetingId}.`);
   const items = (await store.listItems(conn, meetingId)).filter((i) => i.status !== 'withdrawn');
   const packs: ItemPack[] = [];
-  for (const i of items) packs.push(await itemPack(meetingId, i.id, conn));
+  const memo: RegionMemo = new Map();
+  for (const i of items) packs.push(await itemPack(meetingId, i.id, conn, memo));
   return { meeting: { id: m.id, date: m.meeting_date, place: m.place }, packs };
 }
