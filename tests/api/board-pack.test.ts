@@ -77,6 +77,22 @@ describe('the pack as JSON', () => {
     for (const s of await secrets(false)) expect(JSON.stringify(p).includes(s), `pack contains "${s}"`).toBe(false);
   });
 
+  it('the board pages are for board, chair and admin only; only chair and admin get the meeting form', async () => {
+    const page = (s?: Session) => fetch(`${BASE_URL}/board/meetings/${meeting.id}`, { headers: s ? { cookie: s.cookie } : {}, redirect: 'manual' });
+    expect((await page()).status).toBe(302);
+    expect((await page(planner)).status).toBe(403);
+    expect((await page(assessor)).status).toBe(403);
+    const forBoard = await page(board);
+    expect(forBoard.status).toBe(200);
+    const html = await forBoard.text();
+    expect(html).toContain(a.reference);
+    for (const s of [APPLICANT.name, APPLICANT.contact, OWNER]) expect(html.includes(s), `meeting page contains "${s}"`).toBe(false);
+    const list = async (s: Session) => (await fetch(`${BASE_URL}/board`, { headers: { cookie: s.cookie } })).text();
+    expect(await list(board)).not.toContain('Create the meeting');
+    expect(await list(chair)).toContain('Create the meeting');
+    expect(await list(admin)).toContain('Create the meeting');
+  });
+
   it('an item of another meeting is 404', async () => {
     const other = await createMeeting(admin, []);
     expect((await api('GET', `/api/meetings/${other.id}/items/${itemOf(a.id).id}/pack`, { session: board })).status).toBe(404);
