@@ -42,6 +42,7 @@ export const ROLE_HOMES: Record<Role, RoleHome> = {
     intro: 'You read assessed proposals and vote on them.',
     duties: ['Read the board pack for each agenda item: map, figures, risk reasons and alternatives.', 'Vote, and see the register of earlier decisions.'],
     links: [
+      { href: '/board', label: 'Board meetings and their packs' },
       { href: '/proposals?state=assessed', label: 'Assessed proposals' },
       { href: '/calculator', label: 'Carbon calculator' },
     ],
@@ -51,6 +52,7 @@ export const ROLE_HOMES: Record<Role, RoleHome> = {
     intro: 'You lead the board and record its decisions.',
     duties: ['Record decisions with reasons, conditions, monitoring dates and the appeal window.', 'Keep cumulative grassland loss and committed emissions within the authority’s limits.'],
     links: [
+      { href: '/board', label: 'Build a meeting and record decisions' },
       { href: '/proposals?state=assessed', label: 'Assessed proposals' },
       { href: '/proposals?sort=deadline&dir=asc', label: 'Proposals by decision date' },
       { href: '/calculator', label: 'Carbon calculator' },
@@ -63,6 +65,7 @@ export const ROLE_HOMES: Record<Role, RoleHome> = {
     links: [
       { href: '/admin/users', label: 'Users' },
       { href: '/proposals', label: 'Proposals' },
+      { href: '/board', label: 'Board meetings (as clerk)' },
       { href: '/admin/reference-layers', label: 'Reference layers' },
       { href: '/admin/factor-sets', label: 'Factor sets' },
       { href: '/admin/mail', label: 'Mail box' },

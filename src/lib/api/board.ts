@@ -17,7 +17,7 @@ const itemSchema = z.object({
   quorumReached: z.boolean(),
   decision: z.object({ id: z.number(), outcome: z.enum(DECISION_OUTCOMES), reasons: z.string(), conditions: z.array(conditionSchema), appealDays: z.number().nullable(), effectiveDate: z.string().nullable(), registerSeq: z.number().nullable(), decidedBy: z.string().nullable(), decidedAt: z.string() }).nullable(),
 });
-export const meetingSchema = z.object({ id: z.number(), date: z.string(), place: z.string(), quorum: z.number(), items: z.array(itemSchema) });
+export const meetingSchema = z.object({ id: z.number(), date: z.string(), place: z.string(), version: z.number().describe('Row version: send it to reorder the agenda'), quorum: z.number(), items: z.array(itemSchema) });
 
 export const createMeeting = defineSpec({
   method: 'POST',

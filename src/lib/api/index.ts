@@ -7,6 +7,7 @@ import * as admin from './admin';
 import * as assessments from './assessments';
 import * as authRoutes from './auth';
 import * as board from './board';
+import * as boardPack from './board-pack';
 import * as estimates from './estimates';
 import * as factorSets from './factor-sets';
 import * as parcels from './parcels';
@@ -96,10 +97,14 @@ export const allSpecs: ApiSpec[] = [
   board.declareConflict,
   board.castVote,
   board.recordDecision,
+  boardPack.reorderItems,
+  boardPack.getItemPack,
+  boardPack.getMeetingPackPdf,
   register.listRegister,
   register.getRegisterEntry,
   register.verifyRegister,
   register.registerCsv,
   register.registerGeoJson,
   register.correctRegisterEntry,
+  boardPack.registerNoticePdf,
 ];

@@ -135,3 +135,17 @@ export async function decisionsOf(db: Db, itemIds: number[]) {
   );
   return r.rows as { id: number; item_id: number; outcome: string; reasons: string; conditions: unknown[]; appeal_days: number | null; effective_date: string | null; register_seq: number | null; decided_by: string | null; decided_at: Date }[];
 }
+
+/** Bumps the meeting's row version (the agenda changed); returns the new version. */
+export async function bumpMeetingVersion(db: Db, meetingId: number): Promise<number> {
+  const [row] = await db('meeting').where({ id: meetingId }).increment('version', 1).returning('version');
+  return Number(row.version);
+}
+
+/** Writes positions 1..n in the given order (the caller has checked the ids are the meeting's). */
+export async function setPositions(db: Db, meetingId: number, itemIds: number[]): Promise<void> {
+  await db.raw(
+    `update meeting_item i set position = o.n from unnest(?::bigint[]) with ordinality as o(id, n) where i.id = o.id and i.meeting_id = ?`,
+    [itemIds, meetingId],
+  );
+}

@@ -58,6 +58,7 @@ export async function addItem(by: Caller, meetingId: number, proposalId: number)
     if (!meeting) throw new HttpError('NOT_FOUND', `No meeting with id ${meetingId}.`);
     try {
       await listProposal(trx, by, meeting, proposalId);
+      await store.bumpMeetingVersion(trx, meetingId);
     } catch (e) {
       if (isUniqueViolation(e)) throw new HttpError('CONFLICT', 'That proposal is already on an agenda.');
       throw e;
@@ -77,7 +78,7 @@ export async function meetingDetail(id: number, conn: Db = db) {
   const ids = items.map((i) => i.id);
   const [votes, conflicts, decisions, settings] = await Promise.all([store.votesOf(conn, ids), store.conflictsOf(conn, ids), store.decisionsOf(conn, ids), store.getBoardSettings(conn)]);
   return {
-    id: m.id, date: m.meeting_date, place: m.place, quorum: settings['board.quorum'],
+    id: m.id, date: m.meeting_date, place: m.place, version: m.version, quorum: settings['board.quorum'],
     items: items.map((i) => {
       const v = votes.filter((x) => x.item_id === i.id);
       const c = conflicts.filter((x) => x.item_id === i.id);
