@@ -32,7 +32,8 @@ export function NewPasswordForm({ token, mode }: { token: string; mode: 'invite'
       await apiFetch('/api/invitations/accept', { body: { token, password: v.password } });
       setDone(true);
     } catch (e) {
-      setError(e instanceof ApiError ? e.message : 'The password could not be set. Try again.');
+      // A field problem (a cut-off link, a weak password) reads best in the field's own words.
+      setError(e instanceof ApiError ? (e.issues[0]?.message ?? e.message) : 'The password could not be set. Try again.');
     }
   });
   if (done) {

@@ -3,7 +3,8 @@ import { z } from 'zod';
 import { ROLES } from '../auth/roles';
 import { defineSpec } from '../http/spec';
 
-export const roleSchema = z.enum(ROLES);
+import { INVALID_INVITATION } from '../auth/invitation-words';
+const roleSchema = z.enum(ROLES);
 export const userSchema = z
   .object({
     id: z.string(),
@@ -48,7 +49,8 @@ export const acceptInvitation = defineSpec({
   tag: 'Users',
   summary: 'Set a password from an invitation link',
   access: 'public',
-  body: z.object({ token: z.string().min(10).max(200), password: z.string().max(200) }),
+  // A cut-off or garbled link gets the same words as an unknown one, not a schema message.
+  body: z.object({ token: z.string(INVALID_INVITATION).min(10, INVALID_INVITATION).max(200, INVALID_INVITATION), password: z.string().max(200) }),
   response: z.object({ email: z.string() }),
 });
 

@@ -9,6 +9,7 @@ import { db, withTransaction } from '../db/client';
 import { insertInvitation, lockInvitationByToken, markInvitationAccepted, revokePendingInvitations } from '../db/invitations';
 import { findUserIdByEmail, getUser, insertUser, setPassword, type UserSummary } from '../db/users';
 import { HttpError } from '../http/errors';
+import { INVALID_INVITATION } from '../auth/invitation-words';
 import type { Caller } from '../http/handle';
 import { enqueueMail } from '../mail/outbox';
 import { invitationMail } from '../mail/templates';
@@ -50,7 +51,7 @@ export async function reinviteUser(by: Caller, userId: string): Promise<void> {
 export async function acceptInvitation(input: { token: string; password: string }): Promise<{ email: string }> {
   return withTransaction(db, async (trx) => {
     const inv = await lockInvitationByToken(trx, input.token);
-    if (!inv) throw new HttpError('NOT_FOUND', 'This invitation link is not valid. Ask an administrator for a new one.');
+    if (!inv) throw new HttpError('NOT_FOUND', INVALID_INVITATION);
     if (inv.accepted_at) throw new HttpError('GONE', 'This invitation link has already been used. Sign in, or reset your password.');
     if (inv.revoked_at) throw new HttpError('GONE', 'This invitation link was replaced by a newer one. Use the latest e-mail.');
     if (inv.expires_at.getTime() < Date.now()) throw new HttpError('GONE', 'This invitation link has expired. Ask an administrator for a new one.');
