@@ -155,7 +155,7 @@ export async function proposalDetail(by: Caller, id: number) {
     parcels: parcels.map((x) => ({ parcelId: x.parcel_id, reference: x.reference, name: x.name, areaHa: x.area_ha, parcelAreaHa: x.parcel_area_ha, part: x.part as unknown as Record<string, unknown> | null, geometry: x.geometry as unknown as Record<string, unknown> })),
     history: history.map((e) => ({ from: e.from_state, to: e.to_state, reason: e.reason, by: e.by_name, at: e.at.toISOString() })),
     attachments: attachments.map((a) => ({ id: a.id, fileName: a.file_name, mediaType: a.media_type, sizeBytes: a.size_bytes, sha256: a.sha256, uploadedBy: a.uploaded_by_name, uploadedAt: a.uploaded_at.toISOString() })),
-    assessments: assessments.rows.map((a: { id: number; number: number; status: 'draft' | 'signed'; version: number; grade_level: number | null; co2e_total: number | null; signed_at: Date | null; signed_by_name: string | null }) => ({
+    assessments: (assessments.rows as { id: number; number: number; status: 'draft' | 'signed'; version: number; grade_level: number | null; co2e_total: number | null; signed_at: Date | null; signed_by_name: string | null }[]).map((a) => ({
       id: a.id, number: a.number, status: a.status, version: a.version, riskLevel: a.grade_level, co2eTotal: a.co2e_total, signedAt: a.signed_at?.toISOString() ?? null, signedBy: a.signed_by_name,
     })),
     createdBy: p.created_by_name, createdAt: p.created_at.toISOString(),
