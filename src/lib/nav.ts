@@ -6,6 +6,7 @@ export type NavItem = { href: string; label: string; roles: readonly Role[] | 'a
 export const NAV: NavItem[] = [
   { href: '/work', label: 'Home', roles: 'all' },
   { href: '/proposals', label: 'Proposals', roles: ['planner', 'assessor', 'board', 'chair', 'admin'] },
+  { href: '/dashboard', label: 'Dashboard', roles: ['planner', 'assessor', 'board', 'chair', 'admin'] },
   { href: '/map', label: 'Map', roles: 'all' },
   { href: '/parcels/upload', label: 'Upload parcels', roles: ['planner', 'admin'] },
   { href: '/calculator', label: 'Carbon calculator', roles: 'all' },

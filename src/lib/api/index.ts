@@ -7,6 +7,7 @@ import * as admin from './admin';
 import * as assessments from './assessments';
 import * as authRoutes from './auth';
 import * as board from './board';
+import * as dashboard from './dashboard';
 import * as estimates from './estimates';
 import * as factorSets from './factor-sets';
 import * as parcels from './parcels';
@@ -101,4 +102,5 @@ export const allSpecs: ApiSpec[] = [
   register.registerCsv,
   register.registerGeoJson,
   register.correctRegisterEntry,
+  dashboard.getDashboard,
 ];
