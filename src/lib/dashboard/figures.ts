@@ -26,6 +26,14 @@ export function classifyChange(priorLandUse: string | null, proposedLandUse: str
   return 'other';
 }
 
+/**
+ * An approved conversion still to come off the region's figures: the land-use record shows no
+ * non-grass use on the parcel since the decision (once it does, the figures already carry it).
+ */
+export function conversionPending(p: { priorLandUse: string | null; proposedLandUse: string; laterLandUse: string | null }): boolean {
+  return classifyChange(p.priorLandUse, p.proposedLandUse) === 'conversion' && (p.laterLandUse === null || isGrass(p.laterLandUse));
+}
+
 export type ApprovedParcel = { year: number; priorLandUse: string | null; proposedLandUse: string; areaHa: number };
 export type YearChange = { year: number; convertedHa: number; restoredHa: number };
 

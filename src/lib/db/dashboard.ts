@@ -11,16 +11,19 @@ const APPROVED = "e.outcome in ('approved', 'approved-with-conditions')";
 export type ApprovedParcelRow = {
   seq: number; year: number; decidedOn: string; region: string | null; reference: string; areaHa: number;
   proposedLandUse: string; priorLandUse: string | null;
-  /** The parcel's land-use record has an entry dated on or after the decision (the change is in the figures). */
-  recorded: boolean;
+  /** The newest land use recorded for the parcel on or after the decision date (null when none is). */
+  laterLandUse: string | null;
 };
 
-/** Every parcel of every current approval, with the parcel's land use as the register of parcels holds it. */
+/** Every parcel of every current approval, with its land use before the decision (the land-use record, else the parcel's stated use). */
 export async function approvedParcels(conn: Db): Promise<ApprovedParcelRow[]> {
   const r = await conn.raw(
     `select e.seq::float8 as seq, e.decided_year as year, e.content->>'decidedOn' as "decidedOn", e.region, x.ref as reference, x.area::float8 as "areaHa",
-            trim(split_part(e.content->'proposal'->>'proposedUse', ',', 1)) as "proposedLandUse", p.land_use as "priorLandUse",
-            exists (select 1 from land_use_event le where le.parcel_id = p.id and le.kind = 'land-use' and le.event_date >= (e.content->>'decidedOn')::date) as recorded
+            trim(split_part(e.content->'proposal'->>'proposedUse', ',', 1)) as "proposedLandUse",
+            coalesce((select le.value from land_use_event le where le.parcel_id = p.id and le.kind = 'land-use' and le.event_date < (e.content->>'decidedOn')::date
+                      order by le.event_date desc, le.id desc limit 1), p.land_use) as "priorLandUse",
+            (select le.value from land_use_event le where le.parcel_id = p.id and le.kind = 'land-use' and le.event_date >= (e.content->>'decidedOn')::date
+             order by le.event_date desc, le.id desc limit 1) as "laterLandUse"
      from register_entry e
      cross join lateral (select q->>'reference' as ref, (q->>'areaHa')::float8 as area from jsonb_array_elements(e.content->'parcels') q) x
      left join parcel p on p.reference = x.ref

@@ -8,7 +8,7 @@ import * as dash from '../db/dashboard';
 import { db, type Db } from '../db/client';
 import { getProposalSettings } from '../db/proposals';
 import { referenceRatio, regionStats } from '../db/regions';
-import { budgetLeft, changesByYear, classifyChange, conditionsByDue, daysPast, regionHeadroom } from '../dashboard/figures';
+import { budgetLeft, changesByYear, conditionsByDue, conversionPending, daysPast, regionHeadroom } from '../dashboard/figures';
 import { citationText } from '../rules';
 import { loadRuleSet } from './rule-sets';
 
@@ -23,7 +23,7 @@ async function ratioRule(conn: Db) {
 async function regionRows(conn: Db, today: string, parcels: dash.ApprovedParcelRow[], maxRelativeFall: number | null) {
   const pending = new Map<string, number>();
   for (const p of parcels) {
-    if (!p.region || p.recorded || classifyChange(p.priorLandUse, p.proposedLandUse) !== 'conversion') continue;
+    if (!p.region || !conversionPending(p)) continue;
     pending.set(p.region, (pending.get(p.region) ?? 0) + p.areaHa);
   }
   const rows = [];

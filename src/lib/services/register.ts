@@ -128,8 +128,8 @@ export function registerGeoJson(f: store.RegisterFilter): ReadableStream<Uint8Ar
 
 export type CorrectionInput = { kind: 'correction' | 'appeal-outcome'; note: string; outcome?: Outcome; reasons?: string; conditions?: Condition[]; effectiveDate?: string };
 
-/** A correction or appeal outcome: a new entry carrying the superseded one's content with the changes and a note. */
-export async function correctEntry(by: Caller, seq: number, input: CorrectionInput) {
+/** A correction or appeal outcome: a new entry carrying the superseded one's content with the changes and a note (`now` dates it). */
+export async function correctEntry(by: Caller, seq: number, input: CorrectionInput, now = new Date()) {
   return withTransaction(db, async (trx) => {
     await trx.raw('select pg_advisory_xact_lock(?)', [0x5257_4b01]);
     const old = await store.getEntry(trx, seq);
@@ -140,7 +140,6 @@ export async function correctEntry(by: Caller, seq: number, input: CorrectionInp
     const conditions = input.conditions ?? (outcome === 'approved-with-conditions' ? c.conditions : []);
     if (outcome === 'approved-with-conditions' && conditions.length === 0) throw new HttpError('UNPROCESSABLE_CONTENT', 'An approval with conditions needs at least one condition.', [{ path: ['conditions'], message: 'at least one condition' }]);
     if (outcome !== 'approved-with-conditions' && conditions.length) throw new HttpError('UNPROCESSABLE_CONTENT', 'Only an approval with conditions carries conditions.', [{ path: ['conditions'], message: 'remove them or choose approved-with-conditions' }]);
-    const now = new Date();
     const content: RegisterContent = {
       ...c, kind: input.kind, outcome, conditions, reasons: input.reasons ?? c.reasons, effectiveDate: input.effectiveDate ?? c.effectiveDate,
       decidedOn: now.toISOString().slice(0, 10), recordedAt: now.toISOString(), supersedes: seq, note: input.note,

@@ -5,7 +5,7 @@
  * evaluator: converting exactly the headroom must not fire the ratio rule, a little more must.
  */
 import { describe, expect, it } from 'vitest';
-import { budgetLeft, changesByYear, classifyChange, conditionsByDue, daysPast, regionHeadroom } from '~/lib/dashboard/figures';
+import { budgetLeft, changesByYear, classifyChange, conditionsByDue, conversionPending, daysPast, regionHeadroom } from '~/lib/dashboard/figures';
 import { gradeProposal, TARROW_SCREENING } from '~/lib/rules';
 import { regionFacts } from '~/lib/rules/region-facts';
 import { facts } from '../rules/facts-builder';
@@ -56,6 +56,13 @@ describe('classifyChange and changesByYear', () => {
     expect(classifyChange('arable', 'grassland')).toBe('restoration');
     expect(classifyChange('grassland', 'grassland')).toBe('other');
     expect(classifyChange('arable', 'cropland')).toBe('other');
+  });
+
+  it('a conversion stays pending until the land-use record shows a non-grass use after the decision', () => {
+    expect(conversionPending({ priorLandUse: 'grassland', proposedLandUse: 'cropland', laterLandUse: null })).toBe(true);
+    expect(conversionPending({ priorLandUse: 'grassland', proposedLandUse: 'cropland', laterLandUse: 'grassland' })).toBe(true);
+    expect(conversionPending({ priorLandUse: 'grassland', proposedLandUse: 'cropland', laterLandUse: 'arable' })).toBe(false);
+    expect(conversionPending({ priorLandUse: 'arable', proposedLandUse: 'grassland', laterLandUse: null })).toBe(false);
   });
 
   it('sums hectares per year of decision and fills the years between with zeros', () => {
