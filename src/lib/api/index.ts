@@ -102,5 +102,6 @@ export const allSpecs: ApiSpec[] = [
   register.registerCsv,
   register.registerGeoJson,
   register.correctRegisterEntry,
+  register.registerTile,
   dashboard.getDashboard,
 ];

@@ -99,3 +99,17 @@ export const correctRegisterEntry = defineSpec({
   response: z.object({ seq: z.number(), hash: z.string(), supersedesSeq: z.number(), outcome: z.enum(OUTCOMES) }),
   status: 201,
 });
+
+const tileInt = (max: number, what: string) => z.string().regex(/^\d{1,7}$/, `${what} must be a whole number.`).transform(Number).refine((n) => n <= max, `${what} is out of range.`);
+
+export const registerTile = defineSpec({
+  method: 'GET',
+  path: '/api/register/tiles/{z}/{x}/{y}.mvt',
+  tag: 'Register',
+  summary: 'Public vector tile (Mapbox Vector Tile) of the register: layer "register" with the parcels of entries in force (seq, outcome, year, risk_level, area_ha; no personal data); ETag = register head',
+  access: 'public',
+  params: z.object({ z: tileInt(22, 'Zoom'), x: tileInt(2 ** 22 - 1, 'x'), y: tileInt(2 ** 22 - 1, 'y') }),
+  query: z.object({ v: z.coerce.number().int().nonnegative().optional().describe('The register head seq the URL was made for (allows long caching)') }),
+  response: null,
+  responseType: 'application/vnd.mapbox-vector-tile',
+});

@@ -96,3 +96,27 @@ export async function committedCo2e(db: Db, year: number): Promise<number> {
   );
   return Number(r.rows[0].t);
 }
+
+/**
+ * One public vector tile of the register: layer "register" with the parcels of current entries
+ * (not superseded), each with seq, outcome, decision year, risk level and the entry's area only —
+ * never a holding, owner or applicant. Geometry from the entry's own stored boundaries (WGS 84).
+ */
+export async function registerTile(db: Db, z: number, x: number, y: number): Promise<Uint8Array> {
+  const r = await db.raw(
+    `with b as (select st_tileenvelope(?, ?, ?) as env),
+     parts as (
+       select e.seq::float8 as seq, e.outcome, e.decided_year as year, e.risk_level, e.area_ha,
+              st_transform(st_setsrid(st_geomfromgeojson(p->'geometry'), 4326), 3857) as g
+       from register_entry e cross join lateral jsonb_array_elements(e.content->'parcels') p
+       where not exists (select 1 from register_entry s where s.supersedes_seq = e.seq)
+     ),
+     feats as (
+       select st_asmvtgeom(parts.g, b.env, 4096, 64, true) as geom, seq, outcome, year, risk_level, area_ha
+       from parts, b where parts.g && b.env
+     )
+     select coalesce((select st_asmvt(feats.*, 'register', 4096, 'geom') from feats where geom is not null), ''::bytea) as tile`,
+    [z, x, y],
+  );
+  return new Uint8Array(r.rows[0].tile);
+}

@@ -149,3 +149,16 @@ export async function correctEntry(by: Caller, seq: number, input: CorrectionInp
     return { seq: entry.seq, hash: entry.hash, supersedesSeq: seq, outcome };
   });
 }
+
+/** A public vector tile of the register's parcels; the ETag is the register head, so a new entry changes it on every instance. */
+export async function registerTileResponse(request: Request, z: number, x: number, y: number, askedHead: number | undefined): Promise<Response> {
+  const max = 2 ** z;
+  if (x >= max || y >= max) throw new HttpError('BAD_REQUEST', `Tile ${z}/${x}/${y} does not exist: x and y must be below ${max} at zoom ${z}.`);
+  const h = await registerHead();
+  const etag = `"r${h.headSeq}-${(h.headHash ?? 'empty').slice(0, 16)}"`;
+  // A URL naming the current head never changes (entries are append-only); other URLs revalidate.
+  const headers = { etag, 'cache-control': askedHead === h.headSeq ? 'public, max-age=86400, immutable' : 'public, no-cache' };
+  if (request.headers.get('if-none-match') === etag) return new Response(null, { status: 304, headers });
+  const tile = await store.registerTile(db, z, x, y);
+  return new Response(tile as Uint8Array<ArrayBuffer>, { status: 200, headers: { ...headers, 'content-type': 'application/vnd.mapbox-vector-tile' } });
+}
