@@ -11,7 +11,7 @@ export const registerFilterSchema = z.object({
   risk: z.coerce.number().int().min(1).max(4).optional().describe('Risk level 1-4'),
   areaMin: z.coerce.number().min(0).optional().describe('Smallest total area, ha'),
   areaMax: z.coerce.number().min(0).optional().describe('Largest total area, ha'),
-  region: z.string().trim().max(100).optional().describe('Accounting region key'),
+  region: z.string().trim().max(100).optional().describe('Accounting region: its key or its name (any case; the start of a name is enough when only one name starts so)'),
   q: z.string().trim().max(100).optional().describe('Words in the proposal reference, title or a parcel reference'),
   current: z.enum(['true', 'false']).optional().describe('Only entries not superseded by a later one'),
 });
@@ -47,7 +47,9 @@ export const getRegisterEntry = defineSpec({
   summary: 'One register entry: its full content (parcels with geometry), hash, the previous hash and what supersedes it',
   access: 'public',
   params: seqParams,
-  response: z.object({ seq: z.number(), hash: z.string(), prevHash: z.string(), supersedesSeq: z.number().nullable(), supersededBy: z.number().nullable(), createdAt: z.string(), content: registerContentSchema, ...head }),
+  response: z.object({ seq: z.number(), hash: z.string(), prevHash: z.string(), supersedesSeq: z.number().nullable(), supersededBy: z.number().nullable(), createdAt: z.string(), content: registerContentSchema,
+    memberVotes: z.array(z.object({ name: z.string(), choice: z.string() })).nullable().describe('How each member voted (names and choices, never comments) when the authority publishes votes (setting register.votes-public); else null'),
+    ...head }),
 });
 
 export const verifyRegister = defineSpec({

@@ -120,3 +120,19 @@ export async function registerTile(db: Db, z: number, x: number, y: number): Pro
   );
   return new Uint8Array(r.rows[0].tile);
 }
+
+/**
+ * How each member voted on the decision behind an entry (a correction or appeal outcome goes back
+ * to the original decision): names and choices only, never comments. Empty when no vote is known.
+ */
+export async function memberVotes(db: Db, seq: number): Promise<{ name: string; choice: string }[]> {
+  const r = await db.raw(
+    `with recursive chain as (select seq, supersedes_seq from register_entry where seq = ?
+       union all select e.seq, e.supersedes_seq from register_entry e join chain c on e.seq = c.supersedes_seq)
+     select u.name, v.choice from chain c join board_decision d on d.register_seq = c.seq
+     join meeting_vote v on v.item_id = d.item_id join "user" u on u.id = v.user_id
+     where c.supersedes_seq is null order by u.name`,
+    [seq],
+  );
+  return r.rows;
+}

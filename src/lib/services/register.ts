@@ -5,7 +5,9 @@
 import { stringify } from 'csv-stringify/sync';
 import { recordAudit } from '../db/audit';
 import { db, withTransaction } from '../db/client';
+import { getBoardSettings } from '../db/meetings';
 import * as store from '../db/register';
+import { regionList } from '../db/regions';
 import { HttpError } from '../http/errors';
 import type { Caller } from '../http/handle';
 import { ChainVerifier } from '../register/chain';
@@ -43,20 +45,46 @@ function summary(r: store.ListRow) {
 
 export type ListQuery = store.RegisterFilter & { sort: string; dir: 'asc' | 'desc'; page: number; pageSize: number };
 
-export async function listRegister(q: ListQuery) {
+/**
+ * The region filter takes a region's key or its name (any case; a name's start is enough when
+ * only one region's name starts so, e.g. "fenbrook" for "Fenbrook district").
+ */
+export async function regionKeyOf(region: string | undefined): Promise<string | undefined> {
+  if (!region) return region;
+  const { regions } = await regionList(db);
+  const want = region.trim().toLowerCase();
+  const exact = regions.find((r) => r.key.toLowerCase() === want || r.label.toLowerCase() === want);
+  if (exact) return exact.key;
+  const starts = regions.filter((r) => r.label.toLowerCase().startsWith(want));
+  return starts.length === 1 ? starts[0]!.key : region;
+}
+
+/** Key → name of each accounting region of the current layer (for showing names instead of keys). */
+export async function regionNames(): Promise<Record<string, string>> {
+  return Object.fromEntries((await regionList(db)).regions.map((r) => [r.key, r.label]));
+}
+
+export async function listRegister(query: ListQuery) {
+  const q = { ...query, region: await regionKeyOf(query.region) };
   const [{ rows, total }, h] = await Promise.all([store.listEntries(db, q), registerHead()]);
   return { items: rows.map(summary), total, page: q.page, pageSize: q.pageSize, ...h };
+}
+
+/** Each member's vote on the entry's decision, only when the authority publishes them (setting register.votes-public); else null. */
+async function publicMemberVotes(seq: number) {
+  if (!(await getBoardSettings(db))['register.votes-public']) return null;
+  return store.memberVotes(db, seq);
 }
 
 export async function registerEntry(seq: number) {
   const r = await store.getEntry(db, seq);
   if (!r) throw new HttpError('NOT_FOUND', `The register has no entry ${seq}.`);
-  return { seq: r.seq, hash: r.hash, prevHash: r.prev_hash, supersedesSeq: r.supersedes_seq, supersededBy: r.superseded_by, createdAt: r.created_at.toISOString(), content: r.content as RegisterContent, ...(await registerHead()) };
+  return { seq: r.seq, hash: r.hash, prevHash: r.prev_hash, supersedesSeq: r.supersedes_seq, supersededBy: r.superseded_by, createdAt: r.created_at.toISOString(), content: r.content as RegisterContent, memberVotes: await publicMemberVotes(seq), ...(await registerHead()) };
 }
 
 /** Rows of the filtered register in seq order, batch by batch (flat memory however long the register). */
-async function* filteredRows(f: store.RegisterFilter) {
-  const { where, args } = store.filterSql(f);
+async function* filteredRows(filter: store.RegisterFilter) {
+  const { where, args } = store.filterSql({ ...filter, region: await regionKeyOf(filter.region) });
   let after = 0;
   for (;;) {
     const rows = await store.batchAfter(db, after, EXPORT_BATCH, where, args);
