@@ -1,10 +1,11 @@
 import { Bar, CartesianGrid, ComposedChart, Legend, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
-import { fmt, pct } from './format';
+import { fmt, inkLegend, niceTicks, pct } from './format';
 
 type Row = { year: number; committedT: number; leftT: number | null; usedShare: number | null };
 
 /** CO2e committed by approvals per budget year against the authority's yearly budget (dashed line). */
 export function BudgetChart({ rows, budgetT }: { rows: Row[]; budgetT: number | null }) {
+  const ticks = niceTicks(Math.min(0, ...rows.map((r) => r.committedT)), Math.max(budgetT ?? 0, ...rows.map((r) => r.committedT)) * 1.05);
   return (
     <figure>
       {rows.length > 0 && (
@@ -13,9 +14,9 @@ export function BudgetChart({ rows, budgetT }: { rows: Row[]; budgetT: number | 
             <ComposedChart data={rows} margin={{ top: 16, right: 8, bottom: 4, left: 8 }}>
               <CartesianGrid stroke="#d5d8d0" strokeDasharray="3 3" />
               <XAxis dataKey="year" tick={{ fontSize: 12 }} />
-              <YAxis tick={{ fontSize: 12 }} width={56} domain={[0, (max: number) => Math.max(max, budgetT ?? 0) * 1.1]} tickFormatter={(v) => fmt(Number(v))} />
+              <YAxis tick={{ fontSize: 12 }} width={56} domain={[ticks[0]!, ticks[ticks.length - 1]!]} ticks={ticks} tickFormatter={(v) => fmt(Number(v))} />
               <Tooltip formatter={(v) => `${fmt(Number(v))} t CO2e`} />
-              <Legend wrapperStyle={{ fontSize: 12 }} />
+              <Legend wrapperStyle={{ fontSize: 12 }} formatter={inkLegend} />
               <Bar dataKey="committedT" name="Committed, t CO2e" fill="#6b4a2b" isAnimationActive={false} />
               {budgetT !== null && <ReferenceLine y={budgetT} stroke="#1d2320" strokeWidth={2} strokeDasharray="8 4" label={{ value: `Budget ${fmt(budgetT)} t`, position: 'insideTopRight', fontSize: 12 }} />}
             </ComposedChart>

@@ -1,5 +1,5 @@
 import { Bar, BarChart, CartesianGrid, Legend, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
-import { fmt } from './format';
+import { fmt, inkLegend } from './format';
 
 type Row = { year: number; convertedHa: number; restoredHa: number };
 
@@ -15,7 +15,7 @@ export function ChangesChart({ rows }: { rows: Row[] }) {
               <XAxis dataKey="year" tick={{ fontSize: 12 }} />
               <YAxis tick={{ fontSize: 12 }} width={44} label={{ value: 'ha', angle: -90, position: 'insideLeft', fontSize: 12 }} />
               <Tooltip formatter={(v) => `${fmt(Number(v), 2)} ha`} />
-              <Legend wrapperStyle={{ fontSize: 12 }} />
+              <Legend wrapperStyle={{ fontSize: 12 }} formatter={inkLegend} />
               <Bar dataKey="convertedHa" name="Converted (grass to tilled use)" fill="#9a3b17" isAnimationActive={false} />
               <Bar dataKey="restoredHa" name="Restored (tilled land to grass)" fill="#245a41" stroke="#15382a" strokeDasharray="4 2" isAnimationActive={false} />
             </BarChart>

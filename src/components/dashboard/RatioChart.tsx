@@ -1,5 +1,5 @@
 import { Bar, CartesianGrid, ComposedChart, Legend, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
-import { fmt, pct } from './format';
+import { fmt, inkLegend, pct } from './format';
 
 type Row = { key: string; label: string; referenceRatio: number | null; referenceYear: number | null; referenceSource: string | null; ratioNow: number | null; ratioAfterPending: number | null; limitRatio: number | null };
 
@@ -16,7 +16,7 @@ export function RatioChart({ rows, maxRelativeFall }: { rows: Row[]; maxRelative
               <XAxis dataKey="label" tick={{ fontSize: 12 }} />
               <YAxis tick={{ fontSize: 12 }} width={44} domain={[0, 1]} tickFormatter={(v) => `${Math.round(Number(v) * 100)} %`} />
               <Tooltip formatter={(v) => pct(Number(v))} />
-              <Legend wrapperStyle={{ fontSize: 12 }} />
+              <Legend wrapperStyle={{ fontSize: 12 }} formatter={inkLegend} />
               <Bar dataKey="reference" name="Reference year" fill="#d6e8dc" stroke="#245a41" isAnimationActive={false} />
               <Bar dataKey="now" name="Now (land-use record)" fill="#2f6b4f" isAnimationActive={false} />
               <Bar dataKey="after" name="After approved conversions" fill="#6b4a2b" isAnimationActive={false} />

@@ -42,7 +42,7 @@ export function EntryMap({ seq, headSeq, extent, basemapUrl, fallbackId, label }
     map.getView().fit(transformExtent(extent, 'EPSG:4326', 'EPSG:3857'), { padding: [40, 40, 40, 40], maxZoom: 17 });
     map.once('rendercomplete', () => {
       const fallback = document.getElementById(fallbackId);
-      if (fallback) fallback.hidden = true;
+      fallback?.setAttribute('hidden', '');
       target.current?.setAttribute('data-ready', 'true');
     });
     return () => map.setTarget(undefined);
