@@ -5,7 +5,9 @@ type Row = { year: number; committedT: number; leftT: number | null; usedShare: 
 
 /** CO2e committed by approvals per budget year against the authority's yearly budget (dashed line). */
 export function BudgetChart({ rows, budgetT }: { rows: Row[]; budgetT: number | null }) {
-  const ticks = niceTicks(Math.min(0, ...rows.map((r) => r.committedT)), Math.max(budgetT ?? 0, ...rows.map((r) => r.committedT)) * 1.05);
+  // Round ticks from 0 up past the budget; a year with a net gain (restorations) dips below 0 without a tick of its own.
+  const ticks = niceTicks(0, Math.max(budgetT ?? 0, ...rows.map((r) => r.committedT)) * 1.05);
+  const low = Math.min(0, ...rows.map((r) => r.committedT * 1.15));
   return (
     <figure>
       {rows.length > 0 && (
@@ -14,7 +16,7 @@ export function BudgetChart({ rows, budgetT }: { rows: Row[]; budgetT: number | 
             <ComposedChart data={rows} margin={{ top: 16, right: 8, bottom: 4, left: 8 }}>
               <CartesianGrid stroke="#d5d8d0" strokeDasharray="3 3" />
               <XAxis dataKey="year" tick={{ fontSize: 12 }} />
-              <YAxis tick={{ fontSize: 12 }} width={56} domain={[ticks[0]!, ticks[ticks.length - 1]!]} ticks={ticks} tickFormatter={(v) => fmt(Number(v))} />
+              <YAxis tick={{ fontSize: 12 }} width={56} domain={[low, ticks[ticks.length - 1]!]} ticks={ticks} tickFormatter={(v) => fmt(Number(v))} />
               <Tooltip formatter={(v) => `${fmt(Number(v))} t CO2e`} />
               <Legend wrapperStyle={{ fontSize: 12 }} formatter={inkLegend} />
               <Bar dataKey="committedT" name="Committed, t CO2e" fill="#6b4a2b" isAnimationActive={false} />
