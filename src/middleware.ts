@@ -60,7 +60,7 @@ function gate(ctx: { request: Request; url: URL }): Response | null {
  * positions with them, and OpenLayers' scale line sizes itself with them; styles only, scripts stay
  * hash-only), and on pages with a map a configured basemap's host may serve images.
  */
-const MAP_PAGES = /^\/(map|screening|admin\/territory|proposals\/new|proposals\/\d+(\/edit)?)\/?$/;
+const MAP_PAGES = /^\/(map|screening|admin\/territory|proposals\/new|proposals\/\d+(\/edit)?|register\/\d+)\/?$/;
 
 async function widenPolicy(response: Response, withMap: boolean): Promise<void> {
   const csp = response.headers.get('content-security-policy');

@@ -50,7 +50,7 @@ async function permanentGrassland(ids: number[]): Promise<Set<number>> {
 }
 
 /** A square part of about `sideM` metres around the parcel's centre, clipped to the parcel (UTM 28N for the metres). */
-async function partOf(parcelId: number, sideM: number): Promise<Polygon> {
+export async function partOf(parcelId: number, sideM: number): Promise<Polygon> {
   const r = await db.raw(
     `select st_asgeojson(st_geometryn(st_intersection(p.geom, st_transform(st_expand(st_transform(st_centroid(p.geom), 32628), ?), 4326)), 1), 8)::json as g from parcel p where p.id = ?`,
     [sideM / 2, parcelId],

@@ -6,6 +6,7 @@ export type NavItem = { href: string; label: string; roles: readonly Role[] | 'a
 export const NAV: NavItem[] = [
   { href: '/work', label: 'Home', roles: 'all' },
   { href: '/proposals', label: 'Proposals', roles: ['planner', 'assessor', 'board', 'chair', 'admin'] },
+  { href: '/dashboard', label: 'Dashboard', roles: ['planner', 'assessor', 'board', 'chair', 'admin'] },
   { href: '/board', label: 'Board', roles: ['board', 'chair', 'admin'] },
   { href: '/map', label: 'Map', roles: 'all' },
   { href: '/screening', label: 'Screening', roles: ['planner', 'assessor', 'board', 'chair', 'admin'] },

@@ -39,7 +39,9 @@ describe('public register pages', () => {
     await expect(page.locator('tbody tr').count()).resolves.toBe(1);
     await page.getByRole('link', { name: reference }).click();
     await page.waitForURL(`${BASE_URL}/register/${seq}`);
-    await expect(page.locator('svg[role="img"] path[stroke]').count()).resolves.toBeGreaterThan(0);
+    // The map over the public register tiles replaces the outline once it has drawn.
+    await page.locator('div[role="img"][data-ready="true"] canvas').first().waitFor();
+    await expect(page.locator('#entry-outline').isHidden()).resolves.toBe(true);
     await expect(page.getByText('Keep a 6 m grass margin along the watercourse.').count()).resolves.toBe(1);
     // This entry is the head: its hash shows in its own hashes and in the head panel.
     await expect(page.locator('aside[aria-labelledby="head-hash"]').getByText(head.hash).count()).resolves.toBe(1);
@@ -51,5 +53,22 @@ describe('public register pages', () => {
     const missing = await page.goto(`${BASE_URL}/register/999999`);
     expect(missing?.status()).toBe(404);
     await context.close();
+  });
+
+  it('without JavaScript the entry shows its SVG outline; at 390 px the list is cards', async () => {
+    const context = await browser.newContext({ javaScriptEnabled: false });
+    const page = await context.newPage();
+    await page.goto(`${BASE_URL}/register/${seq}`);
+    await expect(page.locator('#entry-outline path[stroke]').count()).resolves.toBeGreaterThan(0);
+    await expect(page.locator('#entry-outline').isVisible()).resolves.toBe(true);
+    await context.close();
+    const phone = await browser.newContext({ viewport: { width: 390, height: 900 } });
+    const p = await phone.newPage();
+    await p.goto(`${BASE_URL}/register`);
+    await expect(p.locator('ol[aria-label="Register entries"] > li').first().isVisible()).resolves.toBe(true);
+    await expect(p.locator('table').first().isVisible()).resolves.toBe(false);
+    const width = await p.evaluate(() => document.documentElement.scrollWidth);
+    expect(width).toBeLessThanOrEqual(390);
+    await phone.close();
   });
 });

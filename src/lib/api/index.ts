@@ -8,6 +8,7 @@ import * as assessments from './assessments';
 import * as authRoutes from './auth';
 import * as board from './board';
 import * as boardPack from './board-pack';
+import * as dashboard from './dashboard';
 import * as estimates from './estimates';
 import * as factorSets from './factor-sets';
 import * as parcels from './parcels';
@@ -107,4 +108,6 @@ export const allSpecs: ApiSpec[] = [
   register.registerGeoJson,
   register.correctRegisterEntry,
   boardPack.registerNoticePdf,
+  register.registerTile,
+  dashboard.getDashboard,
 ];

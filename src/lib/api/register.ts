@@ -11,7 +11,7 @@ export const registerFilterSchema = z.object({
   risk: z.coerce.number().int().min(1).max(4).optional().describe('Risk level 1-4'),
   areaMin: z.coerce.number().min(0).optional().describe('Smallest total area, ha'),
   areaMax: z.coerce.number().min(0).optional().describe('Largest total area, ha'),
-  region: z.string().trim().max(100).optional().describe('Accounting region key'),
+  region: z.string().trim().max(100).optional().describe('Accounting region: its key or its name (any case; the start of a name is enough when only one name starts so)'),
   q: z.string().trim().max(100).optional().describe('Words in the proposal reference, title or a parcel reference'),
   current: z.enum(['true', 'false']).optional().describe('Only entries not superseded by a later one'),
 });
@@ -47,7 +47,9 @@ export const getRegisterEntry = defineSpec({
   summary: 'One register entry: its full content (parcels with geometry), hash, the previous hash and what supersedes it',
   access: 'public',
   params: seqParams,
-  response: z.object({ seq: z.number(), hash: z.string(), prevHash: z.string(), supersedesSeq: z.number().nullable(), supersededBy: z.number().nullable(), createdAt: z.string(), content: registerContentSchema, ...head }),
+  response: z.object({ seq: z.number(), hash: z.string(), prevHash: z.string(), supersedesSeq: z.number().nullable(), supersededBy: z.number().nullable(), createdAt: z.string(), content: registerContentSchema,
+    memberVotes: z.array(z.object({ name: z.string(), choice: z.string() })).nullable().describe('How each member voted (names and choices, never comments) when the authority publishes votes (setting register.votes-public); else null'),
+    ...head }),
 });
 
 export const verifyRegister = defineSpec({
@@ -98,4 +100,18 @@ export const correctRegisterEntry = defineSpec({
   }),
   response: z.object({ seq: z.number(), hash: z.string(), supersedesSeq: z.number(), outcome: z.enum(OUTCOMES) }),
   status: 201,
+});
+
+const tileInt = (max: number, what: string) => z.string().regex(/^\d{1,7}$/, `${what} must be a whole number.`).transform(Number).refine((n) => n <= max, `${what} is out of range.`);
+
+export const registerTile = defineSpec({
+  method: 'GET',
+  path: '/api/register/tiles/{z}/{x}/{y}.mvt',
+  tag: 'Register',
+  summary: 'Public vector tile (Mapbox Vector Tile) of the register: layer "register" with the parcels of entries in force (seq, outcome, year, risk_level, area_ha; no personal data); ETag = register head',
+  access: 'public',
+  params: z.object({ z: tileInt(22, 'Zoom'), x: tileInt(2 ** 22 - 1, 'x'), y: tileInt(2 ** 22 - 1, 'y') }),
+  query: z.object({ v: z.coerce.number().int().nonnegative().optional().describe('The register head seq the URL was made for (allows long caching)') }),
+  response: null,
+  responseType: 'application/vnd.mapbox-vector-tile',
 });

@@ -6,6 +6,8 @@ export const boardSettingsSchema = z.object({
   'board.quorum': z.number().int().min(1).default(2),
   /** Days after the decision during which an appeal may be lodged; the authority sets it from its local law. */
   'board.appeal-days': z.number().int().min(0).max(365).default(28),
+  /** Publish on the public register entry how each member voted (names and choices, never comments); off unless the authority's law asks for it. */
+  'register.votes-public': z.boolean().default(false),
 });
 
 export type BoardSettings = z.output<typeof boardSettingsSchema>;

@@ -96,3 +96,43 @@ export async function committedCo2e(db: Db, year: number): Promise<number> {
   );
   return Number(r.rows[0].t);
 }
+
+/**
+ * One public vector tile of the register: layer "register" with the parcels of current entries
+ * (not superseded), each with seq, outcome, decision year, risk level and the entry's area only —
+ * never a holding, owner or applicant. Geometry from the entry's own stored boundaries (WGS 84).
+ */
+export async function registerTile(db: Db, z: number, x: number, y: number): Promise<Uint8Array> {
+  const r = await db.raw(
+    `with b as (select st_tileenvelope(?, ?, ?) as env),
+     parts as (
+       select e.seq::float8 as seq, e.outcome, e.decided_year as year, e.risk_level, e.area_ha,
+              st_transform(st_setsrid(st_geomfromgeojson(p->'geometry'), 4326), 3857) as g
+       from register_entry e cross join lateral jsonb_array_elements(e.content->'parcels') p
+       where not exists (select 1 from register_entry s where s.supersedes_seq = e.seq)
+     ),
+     feats as (
+       select st_asmvtgeom(parts.g, b.env, 4096, 64, true) as geom, seq, outcome, year, risk_level, area_ha
+       from parts, b where parts.g && b.env
+     )
+     select coalesce((select st_asmvt(feats.*, 'register', 4096, 'geom') from feats where geom is not null), ''::bytea) as tile`,
+    [z, x, y],
+  );
+  return new Uint8Array(r.rows[0].tile);
+}
+
+/**
+ * How each member voted on the decision behind an entry (a correction or appeal outcome goes back
+ * to the original decision): names and choices only, never comments. Empty when no vote is known.
+ */
+export async function memberVotes(db: Db, seq: number): Promise<{ name: string; choice: string }[]> {
+  const r = await db.raw(
+    `with recursive chain as (select seq, supersedes_seq from register_entry where seq = ?
+       union all select e.seq, e.supersedes_seq from register_entry e join chain c on e.seq = c.supersedes_seq)
+     select u.name, v.choice from chain c join board_decision d on d.register_seq = c.seq
+     join meeting_vote v on v.item_id = d.item_id join "user" u on u.id = v.user_id
+     where c.supersedes_seq is null order by u.name`,
+    [seq],
+  );
+  return r.rows;
+}

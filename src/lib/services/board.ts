@@ -21,7 +21,6 @@ import type { Condition } from '../register/content';
 import type { StoredResult } from './assessments';
 import { proposalUrl } from './proposals';
 
-const today = () => new Date().toISOString().slice(0, 10);
 const isUniqueViolation = (e: unknown) => (e as { code?: string })?.code === '23505';
 
 /** Puts an assessed proposal on a meeting's agenda (proposal → on-agenda), inside the caller's transaction. */
@@ -149,14 +148,14 @@ async function deferItem(trx: Db, by: Caller, item: store.ItemRow, input: Decisi
   return { decisionId, outcome: 'deferred' as const, registerSeq: null, registerHash: null, proposalState: 'on-agenda', carriedToMeeting: carriedTo };
 }
 
-async function decide(trx: Db, by: Caller, item: store.ItemRow, input: DecisionInput & { outcome: Exclude<DecisionOutcome, 'deferred'> }, t: ReturnType<typeof tally>) {
+async function decide(trx: Db, by: Caller, item: store.ItemRow, input: DecisionInput & { outcome: Exclude<DecisionOutcome, 'deferred'> }, t: ReturnType<typeof tally>, now: Date) {
   const settings = await store.getBoardSettings(trx);
   const p = (await proposals.getProposal(trx, item.proposal_id, { lock: true }))!;
   const a = (await assessments.getAssessment(trx, item.assessment_id))!;
   const r = a.result as unknown as StoredResult;
   const parcels = await proposals.listParcels(trx, p.id);
   const facts = r.facts as { parcels?: { regionKey: string | null; areaHa: number }[] };
-  const decidedOn = today();
+  const decidedOn = now.toISOString().slice(0, 10);
   const appealDays = input.appealDays ?? settings['board.appeal-days'];
   const appealUntil = addDays(decidedOn, appealDays);
   const effectiveDate = input.effectiveDate ?? (input.outcome === 'refused' ? decidedOn : addDays(appealUntil, 1));
@@ -169,7 +168,7 @@ async function decide(trx: Db, by: Caller, item: store.ItemRow, input: DecisionI
     },
     meeting: { date: item.meeting_date, place: item.place },
     votes: { approve: t.approve, approveWithConditions: t.approveWithConditions, refuse: t.refuse, defer: t.defer, abstain: t.abstain, declaredConflicts: t.declaredConflicts },
-    outcome: input.outcome, reasons: input.reasons, conditions: input.conditions, appealUntil, effectiveDate, decidedOn, recordedAt: new Date().toISOString(),
+    outcome: input.outcome, reasons: input.reasons, conditions: input.conditions, appealUntil, effectiveDate, decidedOn, recordedAt: now.toISOString(),
   });
   const entry = await appendEntry(trx, content);
   const decisionId = await store.insertDecision(trx, { itemId: item.id, proposalId: p.id, outcome: input.outcome, reasons: input.reasons, conditions: input.conditions, appealDays, effectiveDate, registerSeq: entry.seq, by: by.id });
@@ -183,8 +182,11 @@ async function decide(trx: Db, by: Caller, item: store.ItemRow, input: DecisionI
   return { decisionId, outcome: input.outcome, registerSeq: entry.seq, registerHash: entry.hash, proposalState: 'decided', carriedToMeeting: null };
 }
 
-/** The chair (or an admin as clerk) records the decision on an item: once only; a second attempt gets 409. */
-export async function recordDecision(by: Caller, meetingId: number, itemId: number, input: DecisionInput) {
+/**
+ * The chair (or an admin as clerk) records the decision on an item: once only; a second attempt gets 409.
+ * `now` dates the decision and its register entry (the demo history records past decisions in order).
+ */
+export async function recordDecision(by: Caller, meetingId: number, itemId: number, input: DecisionInput, now = new Date()) {
   checkDecisionInput(input);
   try {
     return await withTransaction(db, async (trx) => {
@@ -196,7 +198,7 @@ export async function recordDecision(by: Caller, meetingId: number, itemId: numb
       if (t.eligible < settings['board.quorum']) {
         throw new HttpError('CONFLICT', `No quorum on ${item.reference}: ${t.eligible} eligible vote${t.eligible === 1 ? '' : 's'} (members without a declared conflict), ${settings['board.quorum']} needed. Nothing was recorded; defer the item or collect the votes.`);
       }
-      return decide(trx, by, item, { ...input, outcome: input.outcome }, t);
+      return decide(trx, by, item, { ...input, outcome: input.outcome }, t, now);
     });
   } catch (e) {
     if (isUniqueViolation(e)) throw new HttpError('CONFLICT', 'A decision on this item was recorded at the same moment by someone else; nothing was changed.');

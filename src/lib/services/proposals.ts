@@ -51,9 +51,10 @@ async function saveParcels(trx: Db, proposalId: number, parcels: Fields['parcels
   }
 }
 
-export async function createProposal(by: Caller, input: Fields) {
+/** Files a draft. `now` sets the year in the reference (the demo history files past proposals). */
+export async function createProposal(by: Caller, input: Fields, now = new Date()) {
   return withTransaction(db, async (trx) => {
-    const reference = await store.nextReference(trx, new Date().getUTCFullYear());
+    const reference = await store.nextReference(trx, now.getUTCFullYear());
     const id = await store.insertProposal(trx, { ...input, reference, by: by.id });
     await saveParcels(trx, id, input.parcels);
     await store.insertCreatedEvent(trx, id, by.id);

@@ -5,7 +5,9 @@
 import { stringify } from 'csv-stringify/sync';
 import { recordAudit } from '../db/audit';
 import { db, withTransaction } from '../db/client';
+import { getBoardSettings } from '../db/meetings';
 import * as store from '../db/register';
+import { regionList } from '../db/regions';
 import { HttpError } from '../http/errors';
 import type { Caller } from '../http/handle';
 import { ChainVerifier } from '../register/chain';
@@ -43,20 +45,46 @@ function summary(r: store.ListRow) {
 
 export type ListQuery = store.RegisterFilter & { sort: string; dir: 'asc' | 'desc'; page: number; pageSize: number };
 
-export async function listRegister(q: ListQuery) {
+/**
+ * The region filter takes a region's key or its name (any case; a name's start is enough when
+ * only one region's name starts so, e.g. "fenbrook" for "Fenbrook district").
+ */
+export async function regionKeyOf(region: string | undefined): Promise<string | undefined> {
+  if (!region) return region;
+  const { regions } = await regionList(db);
+  const want = region.trim().toLowerCase();
+  const exact = regions.find((r) => r.key.toLowerCase() === want || r.label.toLowerCase() === want);
+  if (exact) return exact.key;
+  const starts = regions.filter((r) => r.label.toLowerCase().startsWith(want));
+  return starts.length === 1 ? starts[0]!.key : region;
+}
+
+/** Key → name of each accounting region of the current layer (for showing names instead of keys). */
+export async function regionNames(): Promise<Record<string, string>> {
+  return Object.fromEntries((await regionList(db)).regions.map((r) => [r.key, r.label]));
+}
+
+export async function listRegister(query: ListQuery) {
+  const q = { ...query, region: await regionKeyOf(query.region) };
   const [{ rows, total }, h] = await Promise.all([store.listEntries(db, q), registerHead()]);
   return { items: rows.map(summary), total, page: q.page, pageSize: q.pageSize, ...h };
+}
+
+/** Each member's vote on the entry's decision, only when the authority publishes them (setting register.votes-public); else null. */
+async function publicMemberVotes(seq: number) {
+  if (!(await getBoardSettings(db))['register.votes-public']) return null;
+  return store.memberVotes(db, seq);
 }
 
 export async function registerEntry(seq: number) {
   const r = await store.getEntry(db, seq);
   if (!r) throw new HttpError('NOT_FOUND', `The register has no entry ${seq}.`);
-  return { seq: r.seq, hash: r.hash, prevHash: r.prev_hash, supersedesSeq: r.supersedes_seq, supersededBy: r.superseded_by, createdAt: r.created_at.toISOString(), content: r.content as RegisterContent, ...(await registerHead()) };
+  return { seq: r.seq, hash: r.hash, prevHash: r.prev_hash, supersedesSeq: r.supersedes_seq, supersededBy: r.superseded_by, createdAt: r.created_at.toISOString(), content: r.content as RegisterContent, memberVotes: await publicMemberVotes(seq), ...(await registerHead()) };
 }
 
 /** Rows of the filtered register in seq order, batch by batch (flat memory however long the register). */
-async function* filteredRows(f: store.RegisterFilter) {
-  const { where, args } = store.filterSql(f);
+async function* filteredRows(filter: store.RegisterFilter) {
+  const { where, args } = store.filterSql({ ...filter, region: await regionKeyOf(filter.region) });
   let after = 0;
   for (;;) {
     const rows = await store.batchAfter(db, after, EXPORT_BATCH, where, args);
@@ -128,8 +156,8 @@ export function registerGeoJson(f: store.RegisterFilter): ReadableStream<Uint8Ar
 
 export type CorrectionInput = { kind: 'correction' | 'appeal-outcome'; note: string; outcome?: Outcome; reasons?: string; conditions?: Condition[]; effectiveDate?: string };
 
-/** A correction or appeal outcome: a new entry carrying the superseded one's content with the changes and a note. */
-export async function correctEntry(by: Caller, seq: number, input: CorrectionInput) {
+/** A correction or appeal outcome: a new entry carrying the superseded one's content with the changes and a note (`now` dates it). */
+export async function correctEntry(by: Caller, seq: number, input: CorrectionInput, now = new Date()) {
   return withTransaction(db, async (trx) => {
     await trx.raw('select pg_advisory_xact_lock(?)', [0x5257_4b01]);
     const old = await store.getEntry(trx, seq);
@@ -140,7 +168,6 @@ export async function correctEntry(by: Caller, seq: number, input: CorrectionInp
     const conditions = input.conditions ?? (outcome === 'approved-with-conditions' ? c.conditions : []);
     if (outcome === 'approved-with-conditions' && conditions.length === 0) throw new HttpError('UNPROCESSABLE_CONTENT', 'An approval with conditions needs at least one condition.', [{ path: ['conditions'], message: 'at least one condition' }]);
     if (outcome !== 'approved-with-conditions' && conditions.length) throw new HttpError('UNPROCESSABLE_CONTENT', 'Only an approval with conditions carries conditions.', [{ path: ['conditions'], message: 'remove them or choose approved-with-conditions' }]);
-    const now = new Date();
     const content: RegisterContent = {
       ...c, kind: input.kind, outcome, conditions, reasons: input.reasons ?? c.reasons, effectiveDate: input.effectiveDate ?? c.effectiveDate,
       decidedOn: now.toISOString().slice(0, 10), recordedAt: now.toISOString(), supersedes: seq, note: input.note,
@@ -149,4 +176,17 @@ export async function correctEntry(by: Caller, seq: number, input: CorrectionInp
     await recordAudit(trx, { actorId: by.id, action: `register.${input.kind}`, entityType: 'register_entry', entityId: String(entry.seq), details: { supersedes: seq, outcome, hash: entry.hash } });
     return { seq: entry.seq, hash: entry.hash, supersedesSeq: seq, outcome };
   });
+}
+
+/** A public vector tile of the register's parcels; the ETag is the register head, so a new entry changes it on every instance. */
+export async function registerTileResponse(request: Request, z: number, x: number, y: number, askedHead: number | undefined): Promise<Response> {
+  const max = 2 ** z;
+  if (x >= max || y >= max) throw new HttpError('BAD_REQUEST', `Tile ${z}/${x}/${y} does not exist: x and y must be below ${max} at zoom ${z}.`);
+  const h = await registerHead();
+  const etag = `"r${h.headSeq}-${(h.headHash ?? 'empty').slice(0, 16)}"`;
+  // A URL naming the current head never changes (entries are append-only); other URLs revalidate.
+  const headers = { etag, 'cache-control': askedHead === h.headSeq ? 'public, max-age=86400, immutable' : 'public, no-cache' };
+  if (request.headers.get('if-none-match') === etag) return new Response(null, { status: 304, headers });
+  const tile = await store.registerTile(db, z, x, y);
+  return new Response(tile as Uint8Array<ArrayBuffer>, { status: 200, headers: { ...headers, 'content-type': 'application/vnd.mapbox-vector-tile' } });
 }
