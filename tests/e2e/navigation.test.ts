@@ -30,7 +30,7 @@ describe('navigation', () => {
     await page.setViewportSize({ width: 390, height: 900 });
     await expect(main.isVisible()).resolves.toBe(false);
     await page.getByText('Menu ·').click();
-    const phone = page.getByRole('navigation', { name: 'Main (phone)' });
+    const phone = page.getByRole('navigation', { name: 'Menu', exact: true });
     for (const label of labels) {
       const link = phone.getByRole('link', { name: label, exact: true });
       await expect(link.isVisible()).resolves.toBe(true);
