@@ -10,6 +10,7 @@ import { db } from '../src/lib/db/client';
 import { insertUser, setPassword } from '../src/lib/db/users';
 import { DEMO_PASSWORD, DEMO_PEOPLE } from './demo/people';
 import { recomputeScreening } from '../src/lib/services/screening';
+import { seedDemoCompensation } from './demo/compensation';
 import { seedDemoProposals } from './demo/proposals';
 import { seedDemoRegion } from './demo/region';
 import { closeGisPool } from '../src/lib/workers/pool';
@@ -26,6 +27,8 @@ async function main(): Promise<void> {
   console.log(`seed: ${await seedDemoRegion(admin.email, planner.email)}`);
   const assessor = DEMO_PEOPLE.find((p) => p.roles.includes('assessor'))!;
   console.log(`seed: ${await seedDemoProposals(planner.email, assessor.email)}`);
+  const member = (role: 'board' | 'chair') => DEMO_PEOPLE.find((p) => p.roles.includes(role) && (role === 'chair' || !p.roles.includes('chair')))!.email;
+  console.log(`seed: ${await seedDemoCompensation({ planner: planner.email, assessor: assessor.email, board: member('board'), chair: member('chair') })}`);
   const screened = await db.transaction((trx) => recomputeScreening(trx, null, 'Demo scenario seeded'));
   console.log(`seed: screening map of ${screened.screened} permanent-grassland parcels computed in ${screened.ms} ms`);
 }

@@ -9,6 +9,8 @@ import * as authRoutes from './auth';
 import * as board from './board';
 import * as estimates from './estimates';
 import * as factorSets from './factor-sets';
+import * as followUps from './follow-ups';
+import * as jobs from './jobs';
 import * as parcels from './parcels';
 import * as proposals from './proposals';
 import * as regions from './regions';
@@ -101,4 +103,11 @@ export const allSpecs: ApiSpec[] = [
   register.registerCsv,
   register.registerGeoJson,
   register.correctRegisterEntry,
+  followUps.listFollowUps,
+  followUps.getFollowUp,
+  followUps.recordFollowUpOutcome,
+  followUps.addFollowUpEvidence,
+  followUps.getFollowUpEvidence,
+  jobs.runJobNow,
+  jobs.getJobRun,
 ];
