@@ -7,6 +7,7 @@ export const NAV: NavItem[] = [
   { href: '/work', label: 'Home', roles: 'all' },
   { href: '/proposals', label: 'Proposals', roles: ['planner', 'assessor', 'board', 'chair', 'admin'] },
   { href: '/map', label: 'Map', roles: 'all' },
+  { href: '/follow-ups', label: 'Follow-ups', roles: ['assessor', 'board', 'chair', 'admin'] },
   { href: '/parcels/upload', label: 'Upload parcels', roles: ['planner', 'admin'] },
   { href: '/calculator', label: 'Carbon calculator', roles: 'all' },
   { href: '/admin/factor-sets', label: 'Factor sets', roles: ['admin', 'assessor'] },
