@@ -18,7 +18,10 @@ export function EvidenceUpload({ taskId }: { taskId: number }) {
     setProblem(null);
     try {
       await uploadWithProgress(`/api/follow-ups/${taskId}/evidence`, form, () => undefined, () => undefined);
-      window.location.assign(`/follow-ups?added=${taskId}#task-${taskId}`);
+      const back = new URLSearchParams(window.location.search);
+      back.delete('saved');
+      back.set('added', String(taskId));
+      window.location.assign(`/follow-ups?${back}#task-${taskId}`);
     } catch (err) {
       setProblem(err instanceof ApiError ? err.message : 'The file could not be added.');
       setBusy(false);

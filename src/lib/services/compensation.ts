@@ -10,9 +10,8 @@ import { recordAudit } from '../db/audit';
 import type { Db } from '../db/client';
 import { getFollowUpSettings, insertTask } from '../db/follow-ups';
 import { appendEntry, getEntry } from '../db/register';
-import { addYears, SWARD_BREAKING_TILLAGE } from '../follow-ups/settings';
-import { EVENT_VALUES } from '../gis/land-use-events';
-import { DEFAULT_GRASSLAND_USES } from '../gis/land-use-history';
+import { addYears } from '../follow-ups/settings';
+import { swardBroken } from '../follow-ups/sward';
 import type { Caller } from '../http/handle';
 import { compensationReversedMail } from '../mail/templates';
 import { estimatesAsApi, type ParcelRequest } from '../proposals/assessment-figures';
@@ -45,13 +44,6 @@ export async function recordCompensationSite(trx: Db, c: CompensationCredit & { 
     effective_date: c.effectiveDate, permanence_until: c.permanenceUntil,
   }).returning('id');
   return Number(row.id);
-}
-
-/** Tillage that breaks the sward, or a land use that is no longer grass; null when the event leaves the grass in place. */
-export function swardBroken(kind: string, value: string | null): string | null {
-  if (kind === 'tillage' && value && SWARD_BREAKING_TILLAGE.includes(value)) return EVENT_VALUES.tillage[value]!.toLowerCase();
-  if (kind === 'land-use' && value && !DEFAULT_GRASSLAND_USES.includes(value)) return `a change of use to ${(EVENT_VALUES['land-use'][value] ?? value).toLowerCase()}`;
-  return null;
 }
 
 type SiteRow = { id: number; parcel_id: number; proposal_id: number; register_seq: number; credited_co2e_t: number; credited_soc_t: number; permanence_until: string };
