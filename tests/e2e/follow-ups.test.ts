@@ -79,6 +79,22 @@ describe('follow-ups page', () => {
     await context.close();
   }, 120_000);
 
+  it('the public register shows the demo reversed compensation with the entry it takes back', async () => {
+    const reversal = await testDb('register_entry').whereRaw("content->>'kind' = 'compensation-reversed'").orderBy('seq').first();
+    expect(reversal).toBeDefined();
+    const context = await browser.newContext();
+    const page = await context.newPage();
+    await page.goto(`${BASE_URL}/register/${reversal.seq}`);
+    await hydrated(page);
+    const credited = reversal.content.reverses.seq;
+    await expect(page.getByText(`takes back the compensation credited in`, { exact: false }).count()).resolves.toBe(1);
+    await expect(page.getByRole('link', { name: `entry ${credited}`, exact: true }).count()).resolves.toBeGreaterThan(0);
+    await screenshotBoth(page, 'register-compensation-reversed');
+    await page.goto(`${BASE_URL}/register/${credited}`);
+    await expect(page.getByText(/t CO2e credited against this approval/).count()).resolves.toBe(1);
+    await context.close();
+  });
+
   it('is for the people who check and decide: a planner is refused', async () => {
     const context = await browser.newContext();
     const page = await context.newPage();
