@@ -72,6 +72,42 @@ describe('crediting a compensation parcel', () => {
   }, 120_000);
 });
 
+describe('a condition that requires a parcel restored', () => {
+  it('holds the parcel for the permanence period with nothing credited; ploughing it tells the chair and leaves the register as it is', async () => {
+    const field = await drawParcel(planner);
+    const arable = await drawParcel(planner, undefined, 'arable');
+    const reference = (await testDb('parcel').where({ id: arable }).first()).reference as string;
+    const p = await fileProposal(planner, [{ parcelId: field }]);
+    await submit(planner, p.id);
+    const a = await assess(assessor, p.id);
+    expect((await api('POST', `/api/assessments/${a.body.id}/sign-off`, { session: assessor, body: { findings: 'Signed off for the condition test.', version: a.body.version } })).status).toBe(200);
+    const m = await createMeeting(chair, [p.id]);
+    const item = m.items.find((i) => i.proposalId === p.id)!;
+    for (const who of [board, chair]) expect((await vote(who, m.id, item.id, 'approve-with-conditions')).status).toBe(200);
+    const condition = { text: `Sow parcel ${reference} to permanent grass before the conversion starts.`, dueDate: addDays(today(), 30), checkedBy: 'Field officer' };
+    const entries = Number((await testDb('register_entry').count('* as n').first())?.n);
+    const unknown = await decide(chair, m.id, item.id, { outcome: 'approved-with-conditions', conditions: [{ ...condition, restoreParcel: 'NO-SUCH-PARCEL' }], effectiveDate: addDays(today(), -100) });
+    expect(unknown.status).toBe(422);
+    expect(unknown.body.error.issues[0].path).toEqual(['conditions', 0, 'restoreParcel']);
+    expect(Number((await testDb('register_entry').count('* as n').first())?.n)).toBe(entries);
+    // The reference is matched as parcel references are (case and spacing do not matter).
+    const d = await decide(chair, m.id, item.id, { outcome: 'approved-with-conditions', conditions: [{ ...condition, restoreParcel: ` ${reference.toLowerCase()} ` }], effectiveDate: addDays(today(), -100) });
+    expect(d.status).toBe(201);
+    const site = await testDb('compensation_site').where({ register_seq: d.body.registerSeq }).first();
+    expect(site).toMatchObject({ status: 'held', credited_co2e_t: 0 });
+    expect(Number(site.parcel_id)).toBe(arable);
+    const since = await lastMailId();
+    const res = await plough(arable, addDays(today(), -2));
+    expect(res.status).toBe(201);
+    expect(res.body.compensationReversedBy).toBeUndefined();
+    expect(Number((await testDb('register_entry').count('* as n').first())?.n)).toBe(entries + 1);
+    expect((await testDb('compensation_site').where({ id: site.id }).first()).status).toBe('reversed');
+    expect(await testDb('follow_up_task').where({ proposal_id: p.id, kind: 'compensation-reversed', assignee_role: 'chair' })).toHaveLength(1);
+    const mail = await waitForMail(DEMO.chair, new RegExp(`Compensation for ${p.reference} reversed`), since);
+    expect(mail.body_text).toContain('the register is unchanged');
+  }, 120_000);
+});
+
 describe('ploughing a compensation parcel', () => {
   it('within the permanence period: a reversal entry, a valid chain, the gain counted again, the chair told', async () => {
     const c = await approvedWithCompensation(addDays(today(), -400));

@@ -111,13 +111,15 @@ export function followUpOverdueMail(p: ProposalRef & { name: string; task: strin
   );
 }
 
-export function compensationReversedMail(p: ProposalRef & { name: string; parcel: string; eventDate: string; event: string; permanenceUntil: string; creditedCo2e: string; registerSeq: number }): MailContent {
+export function compensationReversedMail(p: ProposalRef & { name: string; parcel: string; eventDate: string; event: string; permanenceUntil: string; creditedCo2e: string | null; registerSeq: number }): MailContent {
   return render(
     `Compensation for ${p.reference} reversed: parcel ${p.parcel} ploughed`,
     [
       `Hello ${p.name},`,
       `Parcel ${p.parcel} was restored to grassland as compensation for proposal ${p.reference}, "${p.title}", and had to stay in grass until ${p.permanenceUntil}.`,
-      `The land-use record now shows ${p.event} on ${p.eventDate}. The ${p.creditedCo2e} credited for it has been taken back in register entry ${p.registerSeq} and counts again in the year's committed emissions.`,
+      p.creditedCo2e
+        ? `The land-use record now shows ${p.event} on ${p.eventDate}. The ${p.creditedCo2e} credited for it has been taken back in register entry ${p.registerSeq} and counts again in the year's committed emissions.`
+        : `The land-use record now shows ${p.event} on ${p.eventDate}. A condition of register entry ${p.registerSeq} required the parcel restored; no gain was credited for it, so the register is unchanged.`,
       'A follow-up task asks you to put this before the board. What the authority can require of the holder is a matter for local law.',
     ],
     { url: p.url, label: 'Open the follow-ups' },

@@ -22,6 +22,7 @@ export const conditionSchema = z.object({
   text: z.string().trim().min(5, 'Describe the condition (at least 5 characters).').max(2000),
   dueDate: z.iso.date('Give the due date as YYYY-MM-DD.'),
   checkedBy: z.string().trim().min(2, 'Say who checks the condition (an office, e.g. "Field officer").').max(200),
+  restoreParcel: z.string().trim().min(1).max(60).optional().describe('Reference of a parcel the condition requires restored to grassland; it is then held in grass for the permanence period'),
 });
 export type Condition = z.output<typeof conditionSchema>;
 

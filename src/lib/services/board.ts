@@ -19,7 +19,7 @@ import { addDays } from '../proposals/states';
 import { decisionContent } from '../register/build';
 import type { Condition } from '../register/content';
 import type { StoredResult } from './assessments';
-import { compensationCredit, recordCompensationSite } from './compensation';
+import { compensationCredit, conditionSites, recordCompensationSite } from './compensation';
 import { createDecisionTasks } from './follow-ups';
 import { proposalUrl } from './proposals';
 
@@ -176,7 +176,8 @@ async function decide(trx: Db, by: Caller, item: store.ItemRow, input: DecisionI
   });
   const entry = await appendEntry(trx, content);
   const decisionId = await store.insertDecision(trx, { itemId: item.id, proposalId: p.id, outcome: input.outcome, reasons: input.reasons, conditions: input.conditions, appealDays, effectiveDate, registerSeq: entry.seq, by: by.id });
-  if (credit) await recordCompensationSite(trx, { ...credit, proposalId: p.id, decisionId, registerSeq: entry.seq, effectiveDate });
+  const held = [...(credit ? [credit] : []), ...(await conditionSites(trx, input.conditions, effectiveDate, credit?.parcelId ?? null))];
+  for (const site of held) await recordCompensationSite(trx, { ...site, proposalId: p.id, decisionId, registerSeq: entry.seq, effectiveDate });
   const taskIds = await createDecisionTasks(trx, {
     proposalId: p.id, decisionId, outcome: input.outcome, conditions: input.conditions, effectiveDate, parcelReferences: parcels.map((x) => x.reference), compensationParcel: credit?.parcelReference ?? null,
   });
