@@ -13,6 +13,9 @@ async function syncReferenceData(): Promise<void> {
   const { syncShippedRuleSets } = await import('../src/lib/services/rule-sets');
   const rules = await syncShippedRuleSets(knex);
   if (rules.length) console.log(`migrate: shipped rule sets added: ${rules.join(', ')}`);
+  // The job queue's own schema (pg-boss) and its queues.
+  const { installJobQueue } = await import('../src/lib/jobs/queue');
+  await installJobQueue(String(config.connection));
 }
 
 try {
@@ -26,7 +29,7 @@ try {
   } else if (cmd === 'reset') {
     // Drops everything, for the throwaway test database only.
     if (!/_test(_[a-z0-9]+)?$/.test(new URL(String(config.connection)).pathname)) throw new Error('reset only runs on a *_test or *_test_NAME database');
-    await knex.raw('drop schema public cascade; create schema public');
+    await knex.raw('drop schema public cascade; create schema public; drop schema if exists pgboss cascade');
     const [, files] = await knex.migrate.latest();
     console.log(`migrate: reset, ${files.length} migration(s)`);
     await syncReferenceData();

@@ -11,6 +11,7 @@ import { insertUser, setPassword } from '../src/lib/db/users';
 import { DEMO_PASSWORD, DEMO_PEOPLE } from './demo/people';
 import { recomputeScreening } from '../src/lib/services/screening';
 import { seedDemoHistory } from './demo/history';
+import { seedDemoCompensation } from './demo/compensation';
 import { seedDemoProposals } from './demo/proposals';
 import { seedDemoRegion } from './demo/region';
 import { closeGisPool } from '../src/lib/workers/pool';
@@ -30,6 +31,8 @@ async function main(): Promise<void> {
   const board = DEMO_PEOPLE.find((p) => p.roles.includes('board') && !p.roles.includes('chair'))!;
   const chair = DEMO_PEOPLE.find((p) => p.roles.includes('chair'))!;
   console.log(`seed: ${await seedDemoHistory({ planner: planner.email, assessor: assessor.email, board: board.email, chair: chair.email })}`);
+  const member = (role: 'board' | 'chair') => DEMO_PEOPLE.find((p) => p.roles.includes(role) && (role === 'chair' || !p.roles.includes('chair')))!.email;
+  console.log(`seed: ${await seedDemoCompensation({ planner: planner.email, assessor: assessor.email, board: member('board'), chair: member('chair') })}`);
   const screened = await db.transaction((trx) => recomputeScreening(trx, null, 'Demo scenario seeded'));
   console.log(`seed: screening map of ${screened.screened} permanent-grassland parcels computed in ${screened.ms} ms`);
 }

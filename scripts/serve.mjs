@@ -79,12 +79,17 @@ async function main() {
     // Warm up now rather than on a user's first request (src/lib/warm-up.ts).
     fetch(`http://${host.includes(':') ? `[${host}]` : host}:${port}/api/health`).then((r) => r.arrayBuffer(), () => undefined);
   });
-  // Stop at once on Ctrl-C or TERM: finish nothing new, drop idle keep-alive connections, and exit
-  // within 5 s even if a request hangs (the callers' `wait` then returns and the port is free).
-  const stop = () => {
-    server.close(() => process.exit(0));
+  // Stop at once on Ctrl-C or TERM: finish nothing new, drop idle keep-alive connections, let the
+  // app's stop hooks run (the job queue stops its workers), and exit within 5 s even if a request
+  // hangs (the callers' `wait` then returns and the port is free).
+  const stop = async () => {
+    const closed = new Promise((resolve) => server.close(resolve));
     server.closeIdleConnections();
     setTimeout(() => process.exit(0), 5000).unref();
+    const hooks = globalThis[Symbol.for('swardkeep.stop-hooks')] ?? [];
+    await Promise.allSettled(hooks.map((hook) => hook()));
+    await closed;
+    process.exit(0);
   };
   process.on('SIGTERM', stop);
   process.on('SIGINT', stop);

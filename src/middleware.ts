@@ -8,6 +8,7 @@ import { getGisSettings } from './lib/db/gis-settings';
 import { matchApiRoute } from './lib/http/api-routes';
 import { declaredTooLarge, MAX_JSON_BYTES } from './lib/http/body';
 import { errorResponse, type ErrorCode } from './lib/http/errors';
+import { startJobQueue } from './lib/jobs/queue';
 import { startMailWorker } from './lib/mail/worker';
 
 const STATE_CHANGING = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
@@ -95,6 +96,7 @@ function secure(response: Response, ctx: { url: URL; locals: App.Locals }): Resp
  */
 export const onRequest = defineMiddleware(async (ctx, next) => {
   if (config().MAIL_WORKER === 'on') startMailWorker();
+  if (config().JOB_QUEUE === 'on') void startJobQueue().catch(() => undefined);
   ctx.locals.user = null;
   ctx.locals.sessionId = null;
   if (ctx.isPrerendered) return next();

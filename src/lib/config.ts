@@ -20,6 +20,8 @@ const schema = z.object({
   AUTH_SIGNIN_MAX: z.coerce.number().int().positive().default(120),
   AUTH_SIGNIN_WINDOW_S: z.coerce.number().int().positive().default(60),
   MAIL_WORKER: z.enum(['on', 'off']).default('on'),
+  /** The pg-boss job queue (timed reminders); every instance runs it unless turned off. */
+  JOB_QUEUE: z.enum(['on', 'off']).default('on'),
 });
 
 export type Config = z.infer<typeof schema>;

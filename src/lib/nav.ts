@@ -10,6 +10,7 @@ export const NAV: NavItem[] = [
   { href: '/board', label: 'Board', roles: ['board', 'chair', 'admin'] },
   { href: '/map', label: 'Map', roles: 'all' },
   { href: '/screening', label: 'Screening', roles: ['planner', 'assessor', 'board', 'chair', 'admin'] },
+  { href: '/follow-ups', label: 'Follow-ups', roles: ['assessor', 'board', 'chair', 'admin'] },
   { href: '/parcels/upload', label: 'Upload parcels', roles: ['planner', 'admin'] },
   { href: '/calculator', label: 'Carbon calculator', roles: 'all' },
   { href: '/admin/factor-sets', label: 'Factor sets', roles: ['admin', 'assessor'] },

@@ -11,6 +11,8 @@ import * as boardPack from './board-pack';
 import * as dashboard from './dashboard';
 import * as estimates from './estimates';
 import * as factorSets from './factor-sets';
+import * as followUps from './follow-ups';
+import * as jobs from './jobs';
 import * as parcels from './parcels';
 import * as proposals from './proposals';
 import * as regions from './regions';
@@ -110,4 +112,11 @@ export const allSpecs: ApiSpec[] = [
   boardPack.registerNoticePdf,
   register.registerTile,
   dashboard.getDashboard,
+  followUps.listFollowUps,
+  followUps.getFollowUp,
+  followUps.recordFollowUpOutcome,
+  followUps.addFollowUpEvidence,
+  followUps.getFollowUpEvidence,
+  jobs.runJobNow,
+  jobs.getJobRun,
 ];

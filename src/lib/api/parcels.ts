@@ -86,7 +86,7 @@ export const recordEvent = defineSpec({
     cultivation: z.boolean().default(false).describe('marks a management event as cultivation; lime and fertiliser always are'),
     evidence,
   }),
-  response: z.object({ id: z.number() }),
+  response: z.object({ id: z.number(), compensationReversedBy: z.array(z.number()).optional().describe('Register entries that reversed a compensation this event broke (ploughed within its permanence period)') }),
   status: 201,
 });
 

@@ -86,13 +86,23 @@ export async function listEntries(db: Db, f: RegisterFilter & { sort: string; di
   return { rows: rows.rows as ListRow[], total: Number(total.rows[0].n) };
 }
 
-/** Approved CO2e committed in a budget year: current (not superseded) approvals of proposals starting that year. */
+/**
+ * Approved CO2e committed in a budget year: current (not superseded) approvals of proposals starting
+ * that year, less the gain credited for a compensation parcel; plus every reversed compensation whose
+ * parcel was ploughed in that year (its credited gain comes back as emissions).
+ */
 export async function committedCo2e(db: Db, year: number): Promise<number> {
   const r = await db.raw(
-    `select coalesce(sum((content->'figures'->>'co2eTotal')::float8), 0) as t from register_entry e
-     where outcome in ('approved', 'approved-with-conditions') and (content->'proposal'->>'startYear')::int = ?
+    `select coalesce(sum(case
+              when content->>'kind' = 'compensation-reversed' then
+                case when (content->'reverses'->>'budgetYear')::int = ? then (content->'reverses'->>'creditedCo2e')::float8 else 0 end
+              when (content->'proposal'->>'startYear')::int = ? then
+                (content->'figures'->>'co2eTotal')::float8 - coalesce((content->'compensation'->>'creditedCo2e')::float8, 0)
+              else 0 end), 0) as t
+     from register_entry e
+     where outcome in ('approved', 'approved-with-conditions')
        and not exists (select 1 from register_entry s where s.supersedes_seq = e.seq)`,
-    [year],
+    [year, year],
   );
   return Number(r.rows[0].t);
 }

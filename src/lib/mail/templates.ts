@@ -85,3 +85,43 @@ export function boardDecisionMail(p: ProposalRef & { name: string; outcome: stri
     { url: p.url, label: 'Open the proposal' },
   );
 }
+
+export function decisionDueMail(p: ProposalRef & { name: string; decisionDue: string; daysLeft: number; state: string }): MailContent {
+  const when = p.daysLeft === 0 ? 'today' : `in ${p.daysLeft} day${p.daysLeft === 1 ? '' : 's'}, on ${p.decisionDue}`;
+  return render(
+    `Decision on ${p.reference} due ${p.daysLeft === 0 ? 'today' : `by ${p.decisionDue}`}`,
+    [`Hello ${p.name},`, `The decision on proposal ${p.reference}, "${p.title}", is due ${when}. The proposal is now "${p.state}".`, 'The decision period is set by local law; check what it allows if the decision cannot be made in time.'],
+    { url: p.url, label: 'Open the proposal' },
+  );
+}
+
+export function decisionOverdueMail(p: ProposalRef & { name: string; decisionDue: string; daysOver: number; state: string }): MailContent {
+  return render(
+    `Decision on ${p.reference} is overdue`,
+    [`Hello ${p.name},`, `The decision on proposal ${p.reference}, "${p.title}", was due on ${p.decisionDue}, ${p.daysOver} day${p.daysOver === 1 ? '' : 's'} ago. The proposal is still "${p.state}".`, 'Local law says what follows from a missed decision period; check it with your legal adviser.'],
+    { url: p.url, label: 'Open the proposal' },
+  );
+}
+
+export function followUpOverdueMail(p: ProposalRef & { name: string; task: string; dueDate: string; checkedBy: string }): MailContent {
+  return render(
+    `Follow-up overdue on ${p.reference}`,
+    [`Hello ${p.name},`, `A follow-up of the decision on proposal ${p.reference}, "${p.title}", was due on ${p.dueDate} and has no outcome yet:`, p.task, `Checked by: ${p.checkedBy}. Record the outcome, with evidence, on the follow-ups page.`],
+    { url: p.url, label: 'Open the follow-ups' },
+  );
+}
+
+export function compensationReversedMail(p: ProposalRef & { name: string; parcel: string; eventDate: string; event: string; permanenceUntil: string; creditedCo2e: string | null; registerSeq: number }): MailContent {
+  return render(
+    `Compensation for ${p.reference} reversed: parcel ${p.parcel} ploughed`,
+    [
+      `Hello ${p.name},`,
+      `Parcel ${p.parcel} was restored to grassland as compensation for proposal ${p.reference}, "${p.title}", and had to stay in grass until ${p.permanenceUntil}.`,
+      p.creditedCo2e
+        ? `The land-use record now shows ${p.event} on ${p.eventDate}. The ${p.creditedCo2e} credited for it has been taken back in register entry ${p.registerSeq} and counts again in the year's committed emissions.`
+        : `The land-use record now shows ${p.event} on ${p.eventDate}. A condition of register entry ${p.registerSeq} required the parcel restored; no gain was credited for it, so the register is unchanged.`,
+      'A follow-up task asks you to put this before the board. What the authority can require of the holder is a matter for local law.',
+    ],
+    { url: p.url, label: 'Open the follow-ups' },
+  );
+}

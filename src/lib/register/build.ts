@@ -13,6 +13,8 @@ export type DecisionFacts = {
   votes: RegisterContent['votes'];
   outcome: Outcome; reasons: string; conditions: Condition[];
   appealUntil: string | null; effectiveDate: string; decidedOn: string; recordedAt: string;
+  /** An approval whose assessment named a compensation parcel: what is credited for it. */
+  compensation?: RegisterContent['compensation'];
 };
 
 /** Twice the signed area of a ring in lon/lat (shoelace): positive when counter-clockwise. */
@@ -62,5 +64,49 @@ export function decisionContent(f: DecisionFacts): RegisterContent {
     recordedAt: f.recordedAt,
     supersedes: null,
     note: null,
+    // Only when there is one: older entries have no such key, and their hashes must not change.
+    ...(f.compensation ? { compensation: { ...f.compensation, areaHa: round(f.compensation.areaHa, 4), creditedCo2e: round(f.compensation.creditedCo2e) } } : {}),
+  };
+}
+
+export type ReversalFacts = {
+  credited: { seq: number; content: RegisterContent };
+  parcel: DecisionFacts['parcels'][number];
+  creditedCo2e: number; creditedSocT: number; permanenceUntil: string;
+  event: { date: string; what: string };
+  recordedAt: string;
+};
+
+/**
+ * The entry that takes back a compensation's credited gain when its parcel is ploughed within the
+ * permanence period (pure). It names the crediting entry in `reverses` (not `supersedes`: the
+ * approval itself stands), carries the parcel, and its figures are the gain now counted as emissions.
+ */
+export function reversalContent(f: ReversalFacts): RegisterContent {
+  const c = f.credited.content;
+  const gain = round(f.creditedCo2e);
+  return {
+    kind: 'compensation-reversed',
+    proposal: c.proposal,
+    parcels: [{ reference: f.parcel.reference, areaHa: round(f.parcel.areaHa, 4), part: false, geometry: roundCoords(f.parcel.geometry) }],
+    areaHa: round(f.parcel.areaHa, 4),
+    region: c.region,
+    outcome: c.outcome,
+    reasons: `Parcel ${f.parcel.reference} was credited as compensation in entry ${f.credited.seq} and had to stay in grass until ${f.permanenceUntil}; the land-use record shows ${f.event.what} on ${f.event.date}.`,
+    conditions: [],
+    figures: { co2eTotal: gain, co2eLow: gain, co2eHigh: gain, socChangeTotal: -round(f.creditedSocT), runs: 0, gwp: c.figures.gwp, unit: 't CO2e' },
+    risk: c.risk,
+    factorSet: c.factorSet,
+    ruleSet: c.ruleSet,
+    assessment: c.assessment,
+    meeting: null,
+    votes: null,
+    appealUntil: null,
+    effectiveDate: f.event.date,
+    decidedOn: f.recordedAt.slice(0, 10),
+    recordedAt: f.recordedAt,
+    supersedes: null,
+    note: `The compensation credited in entry ${f.credited.seq} is reversed: ${gain} t CO2e count again in the committed emissions of ${f.event.date.slice(0, 4)}.`,
+    reverses: { seq: f.credited.seq, parcelReference: f.parcel.reference, creditedCo2e: gain, eventDate: f.event.date, permanenceUntil: f.permanenceUntil, budgetYear: Number(f.event.date.slice(0, 4)) },
   };
 }

@@ -13,13 +13,16 @@ export const OUTCOME_LABELS: Record<Outcome, string> = {
   'approved-with-conditions': 'Approved with conditions',
   refused: 'Refused',
 };
-export const ENTRY_KINDS = ['decision', 'correction', 'appeal-outcome'] as const;
-export const ENTRY_KIND_LABELS: Record<(typeof ENTRY_KINDS)[number], string> = { decision: 'Board decision', correction: 'Correction', 'appeal-outcome': 'Outcome of an appeal' };
+export const ENTRY_KINDS = ['decision', 'correction', 'appeal-outcome', 'compensation-reversed'] as const;
+export const ENTRY_KIND_LABELS: Record<(typeof ENTRY_KINDS)[number], string> = {
+  decision: 'Board decision', correction: 'Correction', 'appeal-outcome': 'Outcome of an appeal', 'compensation-reversed': 'Compensation reversed',
+};
 
 export const conditionSchema = z.object({
   text: z.string().trim().min(5, 'Describe the condition (at least 5 characters).').max(2000),
   dueDate: z.iso.date('Give the due date as YYYY-MM-DD.'),
   checkedBy: z.string().trim().min(2, 'Say who checks the condition (an office, e.g. "Field officer").').max(200),
+  restoreParcel: z.string().trim().min(1).max(60).optional().describe('Reference of a parcel the condition requires restored to grassland; it is then held in grass for the permanence period'),
 });
 export type Condition = z.output<typeof conditionSchema>;
 
@@ -47,6 +50,13 @@ export const registerContentSchema = z.object({
   recordedAt: z.string().describe('ISO time the entry was written'),
   supersedes: z.number().nullable(),
   note: z.string().nullable().describe('Why a correction or appeal outcome replaces the earlier entry'),
+  compensation: z.object({
+    parcelReference: z.string(), areaHa: z.number(), creditedCo2e: z.number().describe('t CO2e removal credited against the approval (positive)'), permanenceUntil: z.string(),
+  }).optional().describe('An approval only: the parcel restored to grassland as compensation and the gain credited for it'),
+  reverses: z.object({
+    seq: z.number().describe('The entry whose compensation is reversed'), parcelReference: z.string(), creditedCo2e: z.number(), eventDate: z.string(), permanenceUntil: z.string(),
+    budgetYear: z.number().describe('The budget year the reversed gain counts in: the year the parcel was ploughed'),
+  }).optional().describe('A compensation-reversed entry only: the credited gain it takes back'),
 });
 export type RegisterContent = z.output<typeof registerContentSchema>;
 

@@ -19,6 +19,8 @@ import { addDays } from '../proposals/states';
 import { decisionContent } from '../register/build';
 import type { Condition } from '../register/content';
 import type { StoredResult } from './assessments';
+import { compensationCredit, conditionSites, recordCompensationSite } from './compensation';
+import { createDecisionTasks } from './follow-ups';
 import { proposalUrl } from './proposals';
 
 const isUniqueViolation = (e: unknown) => (e as { code?: string })?.code === '23505';
@@ -159,6 +161,7 @@ async function decide(trx: Db, by: Caller, item: store.ItemRow, input: DecisionI
   const appealDays = input.appealDays ?? settings['board.appeal-days'];
   const appealUntil = addDays(decidedOn, appealDays);
   const effectiveDate = input.effectiveDate ?? (input.outcome === 'refused' ? decidedOn : addDays(appealUntil, 1));
+  const credit = input.outcome === 'refused' ? null : await compensationCredit(trx, a, effectiveDate);
   const content = decisionContent({
     proposal: { reference: p.reference, title: p.title, proposed: p.proposed as { landUse: string }, startYear: p.start_year },
     parcels: parcels.map((x) => ({ reference: x.reference, areaHa: x.area_ha, part: x.part !== null, geometry: (x.part ?? x.geometry) as MultiPolygon as { type: 'MultiPolygon'; coordinates: number[][][][] } })),
@@ -169,16 +172,22 @@ async function decide(trx: Db, by: Caller, item: store.ItemRow, input: DecisionI
     meeting: { date: item.meeting_date, place: item.place },
     votes: { approve: t.approve, approveWithConditions: t.approveWithConditions, refuse: t.refuse, defer: t.defer, abstain: t.abstain, declaredConflicts: t.declaredConflicts },
     outcome: input.outcome, reasons: input.reasons, conditions: input.conditions, appealUntil, effectiveDate, decidedOn, recordedAt: now.toISOString(),
+    compensation: credit ? { parcelReference: credit.parcelReference, areaHa: credit.areaHa, creditedCo2e: credit.creditedCo2e, permanenceUntil: credit.permanenceUntil } : undefined,
   });
   const entry = await appendEntry(trx, content);
   const decisionId = await store.insertDecision(trx, { itemId: item.id, proposalId: p.id, outcome: input.outcome, reasons: input.reasons, conditions: input.conditions, appealDays, effectiveDate, registerSeq: entry.seq, by: by.id });
+  const held = [...(credit ? [credit] : []), ...(await conditionSites(trx, input.conditions, effectiveDate, credit?.parcelId ?? null))];
+  for (const site of held) await recordCompensationSite(trx, { ...site, proposalId: p.id, decisionId, registerSeq: entry.seq, effectiveDate });
+  const taskIds = await createDecisionTasks(trx, {
+    proposalId: p.id, decisionId, outcome: input.outcome, conditions: input.conditions, effectiveDate, parcelReferences: parcels.map((x) => x.reference), compensationParcel: credit?.parcelReference ?? null,
+  });
   await store.setItemStatus(trx, item.id, 'decided');
   await proposals.setState(trx, p.id, { from: p.state, to: 'decided', reason: `Board decision: ${input.outcome}. Register entry ${entry.seq}.`, by: by.id });
   if (p.created_by) {
     const u = await trx('user').select('name', 'email').where({ id: p.created_by }).first();
     if (u) await enqueueMail(trx, { to: u.email, ...boardDecisionMail({ reference: p.reference, title: p.title, url: proposalUrl(p.id), name: u.name, outcome: input.outcome, reasons: input.reasons, conditions: input.conditions, appealUntil, effectiveDate, registerSeq: entry.seq }) });
   }
-  await recordAudit(trx, { actorId: by.id, action: 'meeting.decide', entityType: 'meeting_item', entityId: String(item.id), details: { proposal: p.reference, outcome: input.outcome, registerSeq: entry.seq, hash: entry.hash } });
+  await recordAudit(trx, { actorId: by.id, action: 'meeting.decide', entityType: 'meeting_item', entityId: String(item.id), details: { proposal: p.reference, outcome: input.outcome, registerSeq: entry.seq, hash: entry.hash, followUpTasks: taskIds, compensationParcel: credit?.parcelReference ?? null } });
   return { decisionId, outcome: input.outcome, registerSeq: entry.seq, registerHash: entry.hash, proposalState: 'decided', carriedToMeeting: null };
 }
 

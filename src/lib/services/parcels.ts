@@ -17,6 +17,7 @@ import { summariseOverlay } from '../gis/overlay-summary';
 import { runGisTask } from '../workers/pool';
 import { HttpError } from '../http/errors';
 import type { Caller } from '../http/handle';
+import { reverseBrokenCompensation } from './compensation';
 import { checkBoundaryAgainstRegister } from './parcel-integrity';
 import { assertInsideTerritory } from './territory';
 import { validationOptions } from './upload-validate';
@@ -143,6 +144,8 @@ export async function recordEvent(by: Caller, id: number, e: { date: string; kin
     await parcels.refreshCurrentState(trx, id, by.id);
     await parcels.bumpMapVersion(trx);
     await recordAudit(trx, { actorId: by.id, action: 'parcel.record-event', entityType: 'parcel', entityId: String(id), details: { eventId, reference: p.reference, date: e.date, kind: e.kind, value, cultivation, evidence: e.evidence } });
-    return { id: eventId };
+    // Ploughing a compensation parcel within its permanence period reverses its credited gain, in this transaction.
+    const reversedBy = await reverseBrokenCompensation(trx, by, { parcelId: id, eventId, date: e.date, kind: e.kind, value });
+    return { id: eventId, ...(reversedBy.length ? { compensationReversedBy: reversedBy } : {}) };
   });
 }
