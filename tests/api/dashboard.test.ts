@@ -66,6 +66,13 @@ describe('GET /api/dashboard', () => {
     // Conditions whose due date has passed are overdue (the demo history has some).
     expect(after.conditions.items.filter((c: { overdue: boolean }) => c.overdue).length).toBe(after.conditions.overdue);
     expect(after.conditions.overdue).toBeGreaterThan(0);
+    // Recorded as met through its follow-up task, the condition leaves the open ones.
+    const task = await testDb('follow_up_task as t').join('board_decision as b', 'b.id', 't.decision_id').where({ 'b.register_seq': d.seq, 't.kind': 'condition' }).first('t.id', 't.version');
+    const done = await api('POST', `/api/follow-ups/${task.id}/outcome`, { session: s.chair, body: { outcome: 'done', note: 'Margin seen on the site visit.', version: task.version } });
+    expect(done.status).toBe(200);
+    const later = (await api('GET', '/api/dashboard', { session: s.chair })).body;
+    expect(later.conditions.open).toBe(after.conditions.open - 1);
+    expect(later.conditions.items.find((c: { seq: number }) => c.seq === d.seq)).toBeUndefined();
   }, 120_000);
 
   it('lists proposals past their statutory decision date, and only those', async () => {

@@ -44,14 +44,16 @@ export async function committedByYear(conn: Db): Promise<{ year: number; committ
 export type ConditionRow = { seq: number; reference: string; text: string; dueDate: string; checkedBy: string };
 
 /**
- * The conditions of current approvals with their due dates. The one place the dashboard reads
- * conditions from: when follow-up tasks record which are met, switch this function to them.
+ * The open conditions of approvals with their due dates: the one place the dashboard reads
+ * conditions from.
  */
 export async function conditionsWithDueDates(conn: Db): Promise<ConditionRow[]> {
+  // Open follow-up tasks of conditions (src/lib/services/follow-ups.ts): a condition whose outcome
+  // staff recorded as done leaves the list; "partly" and "not done" stay until it is met.
   const r = await conn.raw(
-    `select e.seq::float8 as seq, e.reference, c->>'text' as text, c->>'dueDate' as "dueDate", c->>'checkedBy' as "checkedBy"
-     from register_entry e cross join lateral jsonb_array_elements(e.content->'conditions') c
-     where e.outcome = 'approved-with-conditions' and ${CURRENT} order by c->>'dueDate', e.seq`,
+    `select coalesce(d.register_seq, 0)::float8 as seq, p.reference, t.title as text, to_char(t.due_date, 'YYYY-MM-DD') as "dueDate", t.checked_by as "checkedBy"
+     from follow_up_task t join proposal p on p.id = t.proposal_id left join board_decision d on d.id = t.decision_id
+     where t.kind = 'condition' and t.status <> 'done' order by t.due_date, t.id`,
   );
   return r.rows;
 }
