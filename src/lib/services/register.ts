@@ -43,9 +43,30 @@ function summary(r: store.ListRow) {
 
 export type ListQuery = store.RegisterFilter & { sort: string; dir: 'asc' | 'desc'; page: number; pageSize: number };
 
+/**
+ * Counts of filtered lists, by head hash and filter. Entries never change and every append gives a
+ * new head, so a count kept for one head is the count of the register as it stood then, whichever
+ * instance computed it: a cache of fixed facts (bounded), not shared state.
+ */
+const COUNT_CACHE_MAX = 2000;
+const counts = new Map<string, number>();
+
+async function countAt(f: store.RegisterFilter, head: { seq: number; hash: string }): Promise<number> {
+  const { outcome, year, risk, areaMin, areaMax, region, q, current } = f;
+  const key = `${head.hash}|${JSON.stringify([outcome, year, risk, areaMin, areaMax, region, q, current])}`;
+  const known = counts.get(key);
+  if (known !== undefined) return known;
+  const n = await store.countEntries(db, f, head.seq);
+  if (counts.size >= COUNT_CACHE_MAX) counts.delete(counts.keys().next().value!);
+  counts.set(key, n);
+  return n;
+}
+
 export async function listRegister(q: ListQuery) {
-  const [{ rows, total }, h] = await Promise.all([store.listEntries(db, q), registerHead()]);
-  return { items: rows.map(summary), total, page: q.page, pageSize: q.pageSize, ...h };
+  const h = await store.head(db);
+  if (!h) return { items: [], total: 0, page: q.page, pageSize: q.pageSize, headSeq: 0, headHash: null };
+  const [rows, total] = await Promise.all([store.listEntries(db, q, h.seq), countAt(q, h)]);
+  return { items: rows.map(summary), total, page: q.page, pageSize: q.pageSize, headSeq: h.seq, headHash: h.hash };
 }
 
 export async function registerEntry(seq: number) {
