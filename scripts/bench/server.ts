@@ -12,8 +12,10 @@ export const BASE = `http://127.0.0.1:${PORT}`;
 /** Parts named in BENCH_SKIP (comma or space separated) are left out. */
 export const skipped = (part: string) => (process.env.BENCH_SKIP ?? '').split(/[\s,]+/).includes(part);
 
+/** BENCH_CPU_PROF=<folder>: the server writes a V8 CPU profile there when it stops (node --cpu-prof). */
 export function startServer() {
-  const server = spawn(process.execPath, [`scripts/serve.mjs`], {
+  const prof = process.env.BENCH_CPU_PROF ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_CPU_PROF}`] : [];
+  const server = spawn(process.execPath, [...prof, `scripts/serve.mjs`], {
     env: { ...process.env, NODE_ENV: 'production', HOST: '127.0.0.1', PORT: String(PORT), BETTER_AUTH_URL: BASE, MAIL_WORKER: 'off', AUTH_SIGNIN_MAX: '1000' },
     stdio: ['ignore', 'inherit', 'inherit'],
   });

@@ -107,12 +107,12 @@ export async function countEntries(db: Db, f: RegisterFilter, headSeq: number): 
   return Number(r.rows[0].n);
 }
 
-/** Approved CO2e committed in a budget year: current (not superseded) approvals of proposals starting that year. */
+/** Approved CO2e committed in a budget year: current (not superseded) approvals of proposals starting that year (index-only: register_entry_committed_idx). */
 export async function committedCo2e(db: Db, year: number): Promise<number> {
   const r = await db.raw(
-    `select coalesce(sum((content->'figures'->>'co2eTotal')::float8), 0) as t from register_entry e
-     where outcome in ('approved', 'approved-with-conditions') and (content->'proposal'->>'startYear')::int = ?
-       and not exists (select 1 from register_entry s where s.supersedes_seq = e.seq)`,
+    `select coalesce(sum(e.co2e_total), 0) as t from register_entry e
+     where e.outcome in ('approved', 'approved-with-conditions') and e.start_year = ?
+       and e.seq not in (select s.supersedes_seq from register_entry s where s.supersedes_seq is not null)`,
     [year],
   );
   return Number(r.rows[0].t);
