@@ -14,14 +14,19 @@ import type { Condition, Outcome, RegisterContent } from '../register/content';
 const VERIFY_BATCH = 5000;
 const EXPORT_BATCH = 1000;
 
+/**
+ * Recomputes the whole chain, batch by batch (flat memory): the next batch is already being read
+ * while this one is hashed, so reading and hashing overlap.
+ */
 export async function verifyRegister() {
   const v = new ChainVerifier();
-  let after = 0;
+  let next = store.chainBatch(db, 0, VERIFY_BATCH);
   for (;;) {
-    const rows = await store.chainBatch(db, after, VERIFY_BATCH);
+    const rows = await next;
+    const full = rows.length === VERIFY_BATCH;
+    if (full) next = store.chainBatch(db, rows[rows.length - 1]!.seq, VERIFY_BATCH);
     for (const r of rows) v.add(r);
-    if (rows.length < VERIFY_BATCH) break;
-    after = rows[rows.length - 1]!.seq;
+    if (!full) break;
   }
   return { ...v.result(), checkedAt: new Date().toISOString() };
 }
