@@ -25,10 +25,17 @@ export async function appendEntry(trx: Db, content: RegisterContent): Promise<{ 
   return { seq, hash };
 }
 
-/** Entries in seq order after `afterSeq`, `limit` at a time (keyset paging for verify and exports). */
-export async function batchAfter(db: Db, afterSeq: number, limit: number, where = 'true', args: Knex.Value[] = []): Promise<RegisterRow[]> {
+/**
+ * Entries in seq order after `afterSeq`, `limit` at a time (keyset paging for verify and exports).
+ * `withGeometry: false` leaves the parcels' outlines out of the content (each parcel keeps its
+ * reference, area and part flag), for exports that list references only.
+ */
+export async function batchAfter(db: Db, afterSeq: number, limit: number, where = 'true', args: Knex.Value[] = [], withGeometry = true): Promise<RegisterRow[]> {
+  const content = withGeometry
+    ? 'content'
+    : `jsonb_set(content, '{parcels}', (select coalesce(jsonb_agg(p - 'geometry'), '[]') from jsonb_array_elements(e.content->'parcels') p)) as content`;
   const r = await db.raw(
-    `select seq::float8 as seq, prev_hash, hash, content, supersedes_seq::float8 as supersedes_seq, created_at,
+    `select seq::float8 as seq, prev_hash, hash, ${content}, supersedes_seq::float8 as supersedes_seq, created_at,
             (select min(s.seq)::float8 from register_entry s where s.supersedes_seq = e.seq) as superseded_by
      from register_entry e where seq > ? and ${where} order by seq limit ?`,
     [afterSeq, ...args, limit],

@@ -12,7 +12,7 @@ import { ChainVerifier } from '../register/chain';
 import type { Condition, Outcome, RegisterContent } from '../register/content';
 
 const VERIFY_BATCH = 5000;
-const EXPORT_BATCH = 1000;
+const EXPORT_BATCH = 2000;
 
 /**
  * Recomputes the whole chain, batch by batch (flat memory): the next batch is already being read
@@ -80,15 +80,21 @@ export async function registerEntry(seq: number) {
   return { seq: r.seq, hash: r.hash, prevHash: r.prev_hash, supersedesSeq: r.supersedes_seq, supersededBy: r.superseded_by, createdAt: r.created_at.toISOString(), content: r.content as RegisterContent, ...(await registerHead()) };
 }
 
-/** Rows of the filtered register in seq order, batch by batch (flat memory however long the register). */
-async function* filteredRows(f: store.RegisterFilter) {
+/** Rows of the filtered register in seq order, batch by batch (flat memory however long the register); the next batch is read while this one is written out. */
+async function* filteredRows(f: store.RegisterFilter, withGeometry = true) {
   const { where, args } = store.filterSql(f);
-  let after = 0;
+  const batch = (after: number) => {
+    const p = store.batchAfter(db, after, EXPORT_BATCH, where, args, withGeometry);
+    p.catch(() => {}); // a read ahead that fails after the client went away must not crash the process; awaited, it still throws
+    return p;
+  };
+  let next = batch(0);
   for (;;) {
-    const rows = await store.batchAfter(db, after, EXPORT_BATCH, where, args);
+    const rows = await next;
+    const full = rows.length === EXPORT_BATCH;
+    if (full) next = batch(rows[rows.length - 1]!.seq);
     yield rows;
-    if (rows.length < EXPORT_BATCH) return;
-    after = rows[rows.length - 1]!.seq;
+    if (!full) return;
   }
 }
 
@@ -124,7 +130,7 @@ function csvRow(r: store.RegisterRow): (string | number)[] {
 export function registerCsv(f: store.RegisterFilter): ReadableStream<Uint8Array> {
   return streamOf((async function* () {
     yield stringify([[...CSV_COLUMNS]]);
-    for await (const rows of filteredRows(f)) if (rows.length) yield stringify(rows.map(csvRow));
+    for await (const rows of filteredRows(f, false)) if (rows.length) yield stringify(rows.map(csvRow));
   })());
 }
 
