@@ -60,6 +60,9 @@ async function list(): Promise<void> {
     console.log(`  ${path.padEnd(72)} p50 ${pct(times, 50).toFixed(1)} ms, p95 ${pct(times, 95).toFixed(1)} ms, p99 ${pct(times, 99).toFixed(1)} ms, ${rps.toFixed(0)} req/s${bad ? `, ${bad} failed` : ''}`);
   }
   console.log(`  list, all mixes: ${all.length} answers, p50 ${pct(all, 50).toFixed(1)} ms, p95 ${pct(all, 95).toFixed(1)} ms (aim: p95 < 50 ms with 50 clients)`);
+  // The floor on this machine: the cheapest route (one `select 1`) under the same 50 clients.
+  const floor = await load('/api/health');
+  console.log(`  for comparison, /api/health under the same load: p50 ${pct(floor.times, 50).toFixed(1)} ms, p95 ${pct(floor.times, 95).toFixed(1)} ms, ${floor.rps.toFixed(0)} req/s`);
   const times: number[] = [];
   for (let i = 0; i < 5; i++) {
     const t0 = performance.now();
