@@ -73,29 +73,38 @@ function summary(r: store.ListRow) {
 export type ListQuery = store.RegisterFilter & { sort: string; dir: 'asc' | 'desc'; page: number; pageSize: number };
 
 /**
- * Counts of filtered lists, by head hash and filter. Entries never change and every append gives a
- * new head, so a count kept for one head is the count of the register as it stood then, whichever
- * instance computed it: a cache of fixed facts (bounded), not shared state.
+ * Counts and whole pages of the list, by head hash and query. Entries never change and every
+ * append makes a new head, and a list reads the register as it stood at its head, so what is kept
+ * for one head is a fixed fact, whichever instance computed it: bounded caches, not shared state.
  */
 const COUNT_CACHE_MAX = 2000;
+const PAGE_CACHE_MAX = 300;
 const counts = new Map<string, number>();
+const pages = new Map<string, ReturnType<typeof summary>[]>();
+
+function remember<T>(cache: Map<string, T>, max: number, key: string, value: T): T {
+  if (cache.size >= max) cache.delete(cache.keys().next().value!);
+  cache.set(key, value);
+  return value;
+}
+
+const filterKey = (f: store.RegisterFilter) => [f.outcome, f.year, f.risk, f.areaMin, f.areaMax, f.region, f.q, f.current];
 
 async function countAt(f: store.RegisterFilter, head: { seq: number; hash: string }): Promise<number> {
-  const { outcome, year, risk, areaMin, areaMax, region, q, current } = f;
-  const key = `${head.hash}|${JSON.stringify([outcome, year, risk, areaMin, areaMax, region, q, current])}`;
-  const known = counts.get(key);
-  if (known !== undefined) return known;
-  const n = await store.countEntries(db, f, head.seq);
-  if (counts.size >= COUNT_CACHE_MAX) counts.delete(counts.keys().next().value!);
-  counts.set(key, n);
-  return n;
+  const key = `${head.hash}|${JSON.stringify(filterKey(f))}`;
+  return counts.get(key) ?? remember(counts, COUNT_CACHE_MAX, key, await store.countEntries(db, f, head.seq));
+}
+
+async function pageAt(q: ListQuery, head: { seq: number; hash: string }) {
+  const key = `${head.hash}|${JSON.stringify([...filterKey(q), q.sort, q.dir, q.page, q.pageSize])}`;
+  return pages.get(key) ?? remember(pages, PAGE_CACHE_MAX, key, (await store.listEntries(db, q, head.seq)).map(summary));
 }
 
 export async function listRegister(q: ListQuery) {
   const h = await store.head(db);
   if (!h) return { items: [], total: 0, page: q.page, pageSize: q.pageSize, headSeq: 0, headHash: null };
-  const [rows, total] = await Promise.all([store.listEntries(db, q, h.seq), countAt(q, h)]);
-  return { items: rows.map(summary), total, page: q.page, pageSize: q.pageSize, headSeq: h.seq, headHash: h.hash };
+  const [items, total] = await Promise.all([pageAt(q, h), countAt(q, h)]);
+  return { items, total, page: q.page, pageSize: q.pageSize, headSeq: h.seq, headHash: h.hash };
 }
 
 export async function registerEntry(seq: number) {
