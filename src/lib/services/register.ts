@@ -79,25 +79,29 @@ export type ListQuery = store.RegisterFilter & { sort: string; dir: 'asc' | 'des
  */
 const COUNT_CACHE_MAX = 2000;
 const PAGE_CACHE_MAX = 300;
-const counts = new Map<string, number>();
-const pages = new Map<string, ReturnType<typeof summary>[]>();
+const counts = new Map<string, Promise<number>>();
+const pages = new Map<string, Promise<ReturnType<typeof summary>[]>>();
 
-function remember<T>(cache: Map<string, T>, max: number, key: string, value: T): T {
+/** The promise is kept, so clients asking for the same thing at once share one query; a failure is not kept. */
+function remember<T>(cache: Map<string, Promise<T>>, max: number, key: string, make: () => Promise<T>): Promise<T> {
+  const known = cache.get(key);
+  if (known) return known;
   if (cache.size >= max) cache.delete(cache.keys().next().value!);
-  cache.set(key, value);
-  return value;
+  const p = make();
+  cache.set(key, p);
+  p.catch(() => cache.delete(key));
+  return p;
 }
 
 const filterKey = (f: store.RegisterFilter) => [f.outcome, f.year, f.risk, f.areaMin, f.areaMax, f.region, f.q, f.current];
 
-async function countAt(f: store.RegisterFilter, head: { seq: number; hash: string }): Promise<number> {
-  const key = `${head.hash}|${JSON.stringify(filterKey(f))}`;
-  return counts.get(key) ?? remember(counts, COUNT_CACHE_MAX, key, await store.countEntries(db, f, head.seq));
+function countAt(f: store.RegisterFilter, head: { seq: number; hash: string }): Promise<number> {
+  return remember(counts, COUNT_CACHE_MAX, `${head.hash}|${JSON.stringify(filterKey(f))}`, () => store.countEntries(db, f, head.seq));
 }
 
-async function pageAt(q: ListQuery, head: { seq: number; hash: string }) {
+function pageAt(q: ListQuery, head: { seq: number; hash: string }) {
   const key = `${head.hash}|${JSON.stringify([...filterKey(q), q.sort, q.dir, q.page, q.pageSize])}`;
-  return pages.get(key) ?? remember(pages, PAGE_CACHE_MAX, key, (await store.listEntries(db, q, head.seq)).map(summary));
+  return remember(pages, PAGE_CACHE_MAX, key, async () => (await store.listEntries(db, q, head.seq)).map(summary));
 }
 
 export async function listRegister(q: ListQuery) {
