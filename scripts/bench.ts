@@ -9,8 +9,9 @@
  * BENCH_STATE=fresh: the database was just reset and seeded (layers published here).
  * BENCH_STATE=warm: the database has taken this upload before; its parcels are deleted and the
  * staging and parcel statistics taken while empty, as autovacuum leaves them, before saving again.
+ * BENCH_STATE=again: no upload; the assessment and screening steps re-run on the parcels a fresh
+ * run left (for iterating on those two). BENCH_SKIP leaves out parts: huge, tiles, assess, screening.
  */
-import { spawn } from 'node:child_process';
 import { appendFileSync, readFileSync } from 'node:fs';
 import knexFactory from 'knex';
 import type { Position } from 'geojson';
@@ -18,43 +19,15 @@ import { crsFromEpsg } from '../src/lib/gis/crs-catalogue.server';
 import { fromWgs84, toWgs84 } from '../src/lib/gis/crs';
 import { boxFeatures, collection, type Box } from '../gis/lib/layers';
 import { CORROWMERE } from '../gis/lib/regions';
+import { assessAndScreen } from './bench/assess';
+import { BASE, call, pct, s, session, skipped, startServer } from './bench/server';
 
-const PORT = Number(process.env.BENCH_PORT ?? 4395);
-const BASE = `http://127.0.0.1:${PORT}`;
 const ZIP = process.env.BENCH_ZIP!;
 const COUNT = Number(process.env.BENCH_COUNT ?? 20_000);
-const STATE = process.env.BENCH_STATE === 'warm' ? 'warm' : 'fresh';
+const STATE = (['fresh', 'warm', 'again'] as const).find((x) => x === process.env.BENCH_STATE) ?? 'fresh';
 const SOILS = ['hac', 'lac', 'sandy', 'spodic', 'volcanic', 'wetland', 'organic'];
 
-const server = spawn(process.execPath, [`scripts/serve.mjs`], {
-  env: { ...process.env, NODE_ENV: 'production', HOST: '127.0.0.1', PORT: String(PORT), BETTER_AUTH_URL: BASE, MAIL_WORKER: 'off', AUTH_SIGNIN_MAX: '1000' },
-  stdio: ['ignore', 'inherit', 'inherit'],
-});
-const vm = (key: 'VmHWM' | 'VmRSS') => Number(new RegExp(`${key}:\\s+(\\d+)`).exec(readFileSync(`/proc/${server.pid}/status`, 'utf8'))![1]) / 1024;
-
-async function up(): Promise<void> {
-  for (let i = 0; i < 150; i++) {
-    if (server.exitCode !== null) throw new Error('the server exited');
-    if (await fetch(`${BASE}/api/health`).then((r) => r.ok, () => false)) return;
-    await new Promise((r) => setTimeout(r, 200));
-  }
-  throw new Error('the server did not start');
-}
-
-async function session(email: string): Promise<string> {
-  const r = await fetch(`${BASE}/api/auth/sign-in/email`, { method: 'POST', headers: { 'content-type': 'application/json', origin: BASE }, body: JSON.stringify({ email, password: 'meadow-lark-2026' }) });
-  if (!r.ok) throw new Error(`sign-in ${email}: ${r.status}`);
-  return r.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
-}
-
-async function call<T>(cookie: string, method: string, path: string, body?: unknown): Promise<{ data: T; ms: number }> {
-  const t0 = performance.now();
-  const isForm = body instanceof FormData;
-  const r = await fetch(`${BASE}${path}`, { method, headers: { cookie, origin: BASE, ...(body && !isForm ? { 'content-type': 'application/json' } : {}) }, body: isForm ? body : body ? JSON.stringify(body) : undefined });
-  const text = await r.text();
-  if (!r.ok) throw new Error(`${method} ${path}: ${r.status} ${text.slice(0, 300)}`);
-  return { data: text ? JSON.parse(text) : null, ms: performance.now() - t0 };
-}
+const { vm, up, stop } = startServer();
 
 async function importFile(cookie: string, purpose: string, name: string, bytes: Uint8Array, mapping: object) {
   const form = new FormData();
@@ -82,9 +55,6 @@ async function benchLayers(admin: string): Promise<void> {
   console.log(`bench layers: climate 1 polygon, soil ${soil.length} polygons over ${(w / 1000).toFixed(0)} km × ${(h / 1000).toFixed(0)} km`);
 }
 
-const pct = (xs: number[], p: number) => [...xs].sort((a, b) => a - b)[Math.min(xs.length - 1, Math.ceil((p / 100) * xs.length) - 1)]!;
-const s = (ms: number) => `${(ms / 1000).toFixed(2)} s`;
-
 function tileOf(lon: number, lat: number, z: number): [number, number] {
   const n = 2 ** z;
   const r = (lat * Math.PI) / 180;
@@ -111,39 +81,6 @@ async function tiles(cookie: string, extent: number[]): Promise<void> {
     console.log(`tiles z${z}: 16 tiles, p50 ${pct(times, 50).toFixed(1)} ms, p95 ${pct(times, 95).toFixed(1)} ms, avg ${(bytes / 16 / 1024).toFixed(0)} kB`);
   }
   console.log(`tiles all zooms: ${all.length} tiles, p50 ${pct(all, 50).toFixed(1)} ms, p95 ${pct(all, 95).toFixed(1)} ms (aim: p95 < 50 ms)`);
-}
-
-/**
- * Issue 7's figures: a 2,000-parcel proposal assessed with 1,000 joint Monte Carlo runs (server
- * time from the Server-Timing header), and the screening map recomputed over every parcel. The
- * bench parcels' files carry today's land use only, so each grassland parcel is first given a
- * recorded land use of 2010 (as a history upload would), which makes it permanent grassland.
- */
-async function assessAndScreen(planner: string, assessor: string, batchId: string): Promise<void> {
-  const knex = knexFactory({ client: 'pg', connection: process.env.DATABASE_URL });
-  let ids: number[];
-  try {
-    await knex.raw(`insert into land_use_event (parcel_id, event_date, kind, value, evidence, batch_id)
-                    select id, date '2010-04-01', 'land-use', land_use, 'Benchmark history', batch_id from parcel where batch_id = ? and land_use in ('grassland', 'meadow', 'pasture')`, [batchId]);
-    ids = (await knex('parcel').where({ batch_id: batchId, land_use: 'grassland' }).orderBy('id').limit(2000).select('id')).map((r) => Number(r.id));
-  } finally {
-    await knex.destroy();
-  }
-  const created = await call<{ id: number; version: number }>(planner, 'POST', '/api/proposals', {
-    title: 'Benchmark block', description: 'Two thousand parcels converted at once.', startYear: 2027, parcels: ids.map((parcelId) => ({ parcelId })),
-    proposed: { landUse: 'cropland', system: 'long-term-cultivated', tillage: 'full', input: 'medium' }, applicant: { name: 'Bench Applicant', contact: 'bench@bench.example', interest: 'owner' },
-  });
-  await call(planner, 'POST', `/api/proposals/${created.data.id}/transitions`, { to: 'submitted', version: created.data.version });
-  const t0 = performance.now();
-  const r = await fetch(`${BASE}/api/proposals/${created.data.id}/assessment`, { method: 'POST', headers: { cookie: assessor, origin: BASE, 'content-type': 'application/json' }, body: '{}' });
-  const body = await r.text();
-  if (!r.ok) throw new Error(`assessment: ${r.status} ${body.slice(0, 300)}`);
-  const wall = performance.now() - t0;
-  const server = Number(/dur=([\d.]+)/.exec(r.headers.get('server-timing') ?? '')?.[1]);
-  const a = JSON.parse(body) as { totals: { runs: number; co2eTotal: number } };
-  console.log(`\nassessment of a ${ids.length}-parcel proposal, ${a.totals.runs} joint Monte Carlo runs: server ${s(server)} (aim: < 1 s), request ${s(wall)} with a ${(body.length / 1e6).toFixed(1)} MB answer`);
-  const screening = await call<{ screened: number; ms: number }>(assessor, 'POST', '/api/screening/recompute');
-  console.log(`screening map recomputed over ${COUNT} parcels (${screening.data.screened} permanent grassland): ${s(screening.data.ms)} computing (aim: < 5 s), request ${s(screening.ms)}`);
 }
 
 /** The state an earlier upload leaves: its parcels gone again (so the references are free), statistics stale. */
@@ -200,14 +137,7 @@ async function healthDuringHugeValidation(cookie: string, vertices = 300_000): P
   console.log(`  /api/health meanwhile: ${times.length} answers, ${failed} failed, p50 ${pct(times, 50).toFixed(1)} ms, p99 ${pct(times, 99).toFixed(1)} ms, max ${Math.max(...times).toFixed(1)} ms (aim: p99 < 200 ms)\n`);
 }
 
-try {
-  await up();
-  const admin = await session('admin@tarrow.example');
-  const planner = await session('planner@tarrow.example');
-  if (STATE === 'fresh') {
-    await benchLayers(admin);
-    await healthDuringHugeValidation(planner);
-  } else await forgetEarlierUpload();
+async function ingest(planner: string): Promise<string> {
   const rssBefore = vm('VmRSS');
   const bytes = new Uint8Array(readFileSync(ZIP));
   const mapping = { reference: 'field_ref', name: 'name', landUse: 'land_use', management: 'management', lastTillage: 'last_till', ownerRef: 'owner_ref', statedArea: 'stated_ha', statedAreaUnit: 'ha' };
@@ -222,9 +152,35 @@ try {
   console.log(`  upload-to-saved     ${s(total)}   (aim: < 60 s)`);
   if (process.env.BENCH_RESULTS) appendFileSync(process.env.BENCH_RESULTS, `${COUNT} ${STATE} ${(total / 1000).toFixed(3)}\n`);
   console.log(`  server memory: RSS before ingest ${rssBefore.toFixed(0)} MB, peak (VmHWM) ${vm('VmHWM').toFixed(0)} MB (aim: < 500 MB)\n`);
-  const map = await call<{ areas: { label: string; extent: number[] }[] }>(planner, 'GET', '/api/map');
-  await tiles(planner, map.data.areas.filter((a) => a.label === 'bench.zip').at(-1)!.extent);
-  if (STATE === 'fresh') await assessAndScreen(planner, await session('assessor@tarrow.example'), (saved.data as unknown as { batchId: string }).batchId);
+  return (saved.data as unknown as { batchId: string }).batchId;
+}
+
+/** BENCH_STATE=again: the newest bench upload already in the database (no ingest). */
+async function earlierBatch(): Promise<string> {
+  const knex = knexFactory({ client: 'pg', connection: process.env.DATABASE_URL });
+  try {
+    const b = await knex('upload_batch').where({ file_name: 'bench.zip' }).whereExists(knex('parcel').whereRaw('parcel.batch_id = upload_batch.id')).orderBy('saved_at', 'desc').first('id');
+    if (!b) throw new Error('BENCH_STATE=again needs a database that has taken the bench upload (run a fresh state first)');
+    return String(b.id);
+  } finally {
+    await knex.destroy();
+  }
+}
+
+try {
+  await up();
+  const admin = await session('admin@tarrow.example');
+  const planner = await session('planner@tarrow.example');
+  if (STATE === 'fresh') {
+    await benchLayers(admin);
+    if (!skipped('huge')) await healthDuringHugeValidation(planner);
+  } else if (STATE === 'warm') await forgetEarlierUpload();
+  const batchId = STATE === 'again' ? await earlierBatch() : await ingest(planner);
+  if (!skipped('tiles')) {
+    const map = await call<{ areas: { label: string; extent: number[] }[] }>(planner, 'GET', '/api/map');
+    await tiles(planner, map.data.areas.filter((a) => a.label === 'bench.zip').at(-1)!.extent);
+  }
+  if (STATE !== 'warm') await assessAndScreen(planner, await session('assessor@tarrow.example'), batchId, COUNT);
 } finally {
-  server.kill('SIGTERM');
+  stop();
 }

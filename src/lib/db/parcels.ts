@@ -129,10 +129,12 @@ export async function parcelsInBox(db: Db, box: [number, number, number, number]
 
 /**
  * Extent of a group of parcels that stays local across the antimeridian: when longitudes shifted
- * to 0–360 (ST_ShiftLongitude) give a narrower box, that one (east edge beyond 180°) is used.
+ * to 0–360 (ST_ShiftLongitude) give a box narrower by more than a degree, that one (east edge
+ * beyond 180°) is used. The margin keeps rounding noise (the same box, shifted by 360°, can come out
+ * a hair narrower) from moving an ordinary area to longitudes past 180°.
  */
 const width = (g: string) => `(st_xmax(st_extent(${g})) - st_xmin(st_extent(${g})))`;
-const LOCAL_EXTENT = `case when ${width('st_shiftlongitude(p.geom)')} < ${width('p.geom')} then st_extent(st_shiftlongitude(p.geom)) else st_extent(p.geom) end::geometry`;
+const LOCAL_EXTENT = `case when ${width('st_shiftlongitude(p.geom)')} + 1 < ${width('p.geom')} then st_extent(st_shiftlongitude(p.geom)) else st_extent(p.geom) end::geometry`;
 
 /** Where parcels are: one lon/lat extent per upload batch (drawn parcels together), largest first. */
 export async function parcelAreas(db: Db, limit = 20): Promise<{ label: string; count: number; extent: [number, number, number, number] }[]> {

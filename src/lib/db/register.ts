@@ -25,10 +25,17 @@ export async function appendEntry(trx: Db, content: RegisterContent): Promise<{ 
   return { seq, hash };
 }
 
-/** Entries in seq order after `afterSeq`, `limit` at a time (keyset paging for verify and exports). */
-export async function batchAfter(db: Db, afterSeq: number, limit: number, where = 'true', args: Knex.Value[] = []): Promise<RegisterRow[]> {
+/**
+ * Entries in seq order after `afterSeq`, `limit` at a time (keyset paging for verify and exports).
+ * `withGeometry: false` leaves the parcels' outlines out of the content (each parcel keeps its
+ * reference, area and part flag), for exports that list references only.
+ */
+export async function batchAfter(db: Db, afterSeq: number, limit: number, where = 'true', args: Knex.Value[] = [], withGeometry = true): Promise<RegisterRow[]> {
+  const content = withGeometry
+    ? 'content'
+    : `jsonb_set(content, '{parcels}', (select coalesce(jsonb_agg(p - 'geometry'), '[]') from jsonb_array_elements(e.content->'parcels') p)) as content`;
   const r = await db.raw(
-    `select seq::float8 as seq, prev_hash, hash, content, supersedes_seq::float8 as supersedes_seq, created_at,
+    `select seq::float8 as seq, prev_hash, hash, ${content}, supersedes_seq::float8 as supersedes_seq, created_at,
             (select min(s.seq)::float8 from register_entry s where s.supersedes_seq = e.seq) as superseded_by
      from register_entry e where seq > ? and ${where} order by seq limit ?`,
     [afterSeq, ...args, limit],
@@ -48,60 +55,81 @@ export async function getEntry(db: Db, seq: number): Promise<RegisterRow | null>
 
 export type RegisterFilter = { outcome?: string; year?: number; risk?: number; areaMin?: number; areaMax?: number; region?: string; q?: string; current?: boolean };
 
-export function filterSql(f: RegisterFilter): { where: string; args: Knex.Value[] } {
+/**
+ * The WHERE clause of a filter over `register_entry e`. With `headSeq`, the register as it stood
+ * when that entry was the newest (entries and corrections after it left out), so a list and its
+ * count read one state of the register even while entries are appended.
+ */
+export function filterSql(f: RegisterFilter, headSeq?: number): { where: string; args: Knex.Value[] } {
   const where: string[] = ['true'];
   const args: Knex.Value[] = [];
-  if (f.outcome) where.push('outcome = ?') && args.push(f.outcome);
-  if (f.year) where.push('decided_year = ?') && args.push(f.year);
-  if (f.risk) where.push('risk_level = ?') && args.push(f.risk);
-  if (f.areaMin !== undefined) where.push('area_ha >= ?') && args.push(f.areaMin);
-  if (f.areaMax !== undefined) where.push('area_ha <= ?') && args.push(f.areaMax);
-  if (f.region) where.push('region = ?') && args.push(f.region);
+  if (headSeq !== undefined) where.push('e.seq <= ?') && args.push(headSeq);
+  if (f.outcome) where.push('e.outcome = ?') && args.push(f.outcome);
+  if (f.year) where.push('e.decided_year = ?') && args.push(f.year);
+  if (f.risk) where.push('e.risk_level = ?') && args.push(f.risk);
+  if (f.areaMin !== undefined) where.push('e.area_ha >= ?') && args.push(f.areaMin);
+  if (f.areaMax !== undefined) where.push('e.area_ha <= ?') && args.push(f.areaMax);
+  if (f.region) where.push('e.region = ?') && args.push(f.region);
   if (f.q) {
     const like = `%${f.q.replace(/[%_\\]/g, '\\$&')}%`;
-    where.push("(reference ilike ? or content->'proposal'->>'title' ilike ? or exists (select 1 from jsonb_array_elements(content->'parcels') p where p->>'reference' ilike ?))");
+    where.push("(e.reference ilike ? or e.content->'proposal'->>'title' ilike ? or exists (select 1 from jsonb_array_elements(e.content->'parcels') p where p->>'reference' ilike ?))");
     args.push(like, like, like);
   }
-  if (f.current) where.push('not exists (select 1 from register_entry s where s.supersedes_seq = e.seq)');
+  if (f.current) {
+    where.push(`not exists (select 1 from register_entry s where s.supersedes_seq = e.seq${headSeq !== undefined ? ' and s.seq <= ?' : ''})`);
+    if (headSeq !== undefined) args.push(headSeq);
+  }
   return { where: where.join(' and '), args };
 }
 
-const SORTS: Record<string, string> = { seq: 'seq', decided: "content->>'decidedOn'", area: 'area_ha', risk: 'risk_level', co2e: "(content->'figures'->>'co2eTotal')::float8", reference: 'reference' };
+/**
+ * Sort expressions, each served by an index ending in seq (migrations 20261202006000 and
+ * 20261202010100). None is ever null (the content schema requires them), so a plain ORDER BY
+ * (which an index scan gives in either direction) sorts as NULLS LAST would.
+ */
+const SORTS: Record<string, string> = { seq: 'e.seq', decided: "(e.content->>'decidedOn')", area: 'e.area_ha', risk: 'e.risk_level', co2e: "((e.content->'figures'->>'co2eTotal')::float8)", reference: 'e.reference' };
 
 export type ListRow = { seq: number; hash: string; supersedes_seq: number | null; superseded_by: number | null; created_at: Date; summary: Record<string, unknown> };
 
-export async function listEntries(db: Db, f: RegisterFilter & { sort: string; dir: 'asc' | 'desc'; page: number; pageSize: number }) {
-  const { where, args } = filterSql(f);
-  const order = `${SORTS[f.sort] ?? 'seq'} ${f.dir === 'asc' ? 'asc' : 'desc'} nulls last, seq ${f.dir === 'asc' ? 'asc' : 'desc'}`;
-  const [rows, total] = await Promise.all([
-    db.raw(
-      `select seq::float8 as seq, hash, supersedes_seq::float8 as supersedes_seq, created_at,
-              (select min(s.seq)::float8 from register_entry s where s.supersedes_seq = e.seq) as superseded_by,
-              content - 'parcels' || jsonb_build_object('parcelReferences', (select coalesce(jsonb_agg(p->'reference'), '[]') from jsonb_array_elements(content->'parcels') p)) as summary
-       from register_entry e where ${where} order by ${order} limit ? offset ?`,
-      [...args, f.pageSize, (f.page - 1) * f.pageSize],
-    ),
-    db.raw(`select count(*)::int as n from register_entry e where ${where}`, args),
-  ]);
-  return { rows: rows.rows as ListRow[], total: Number(total.rows[0].n) };
+/** One page of the register as it stood at `headSeq`. */
+export async function listEntries(db: Db, f: RegisterFilter & { sort: string; dir: 'asc' | 'desc'; page: number; pageSize: number }, headSeq: number): Promise<ListRow[]> {
+  const { where, args } = filterSql(f, headSeq);
+  const dir = f.dir === 'asc' ? 'asc' : 'desc';
+  const sort = SORTS[f.sort] ?? 'e.seq';
+  const order = sort === 'e.seq' ? `e.seq ${dir}` : `${sort} ${dir}, e.seq ${dir}`;
+  const r = await db.raw(
+    `select e.seq::float8 as seq, e.hash, e.supersedes_seq::float8 as supersedes_seq, e.created_at,
+            (select min(s.seq)::float8 from register_entry s where s.supersedes_seq = e.seq and s.seq <= ?) as superseded_by,
+            e.content - 'parcels' || jsonb_build_object('parcelReferences', (select coalesce(jsonb_agg(p->'reference'), '[]') from jsonb_array_elements(e.content->'parcels') p)) as summary
+     from register_entry e where ${where} order by ${order} limit ? offset ?`,
+    [headSeq, ...args, f.pageSize, (f.page - 1) * f.pageSize],
+  );
+  return r.rows;
+}
+
+/** How many entries match a filter in the register as it stood at `headSeq`. */
+export async function countEntries(db: Db, f: RegisterFilter, headSeq: number): Promise<number> {
+  const { where, args } = filterSql(f, headSeq);
+  const r = await db.raw(`select count(*)::int as n from register_entry e where ${where}`, args);
+  return Number(r.rows[0].n);
 }
 
 /**
  * Approved CO2e committed in a budget year: current (not superseded) approvals of proposals starting
  * that year, less the gain credited for a compensation parcel; plus every reversed compensation whose
- * parcel was ploughed in that year (its credited gain comes back as emissions).
+ * parcel was ploughed in that year (its credited gain comes back as emissions). Both parts read
+ * partial indexes (register_entry_committed_idx, register_entry_reversal_idx), not the whole register.
  */
 export async function committedCo2e(db: Db, year: number): Promise<number> {
+  const current = 'e.seq not in (select s.supersedes_seq from register_entry s where s.supersedes_seq is not null)';
   const r = await db.raw(
-    `select coalesce(sum(case
-              when content->>'kind' = 'compensation-reversed' then
-                case when (content->'reverses'->>'budgetYear')::int = ? then (content->'reverses'->>'creditedCo2e')::float8 else 0 end
-              when (content->'proposal'->>'startYear')::int = ? then
-                (content->'figures'->>'co2eTotal')::float8 - coalesce((content->'compensation'->>'creditedCo2e')::float8, 0)
-              else 0 end), 0) as t
-     from register_entry e
-     where outcome in ('approved', 'approved-with-conditions')
-       and not exists (select 1 from register_entry s where s.supersedes_seq = e.seq)`,
+    `select (select coalesce(sum(e.co2e_total - coalesce((e.content->'compensation'->>'creditedCo2e')::float8, 0)), 0)
+               from register_entry e
+              where e.outcome in ('approved', 'approved-with-conditions') and e.start_year = ?
+                and coalesce(e.content->>'kind', '') <> 'compensation-reversed' and ${current})
+          + (select coalesce(sum((e.content->'reverses'->>'creditedCo2e')::float8), 0)
+               from register_entry e
+              where e.content->>'kind' = 'compensation-reversed' and (e.content->'reverses'->>'budgetYear')::int = ? and ${current}) as t`,
     [year, year],
   );
   return Number(r.rows[0].t);

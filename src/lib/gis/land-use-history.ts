@@ -51,20 +51,35 @@ export interface LandUseFlags {
 
 export const DEFAULT_GRASSLAND_USES = ['grassland', 'temporary-grassland', 'meadow', 'pasture', 'rough-grazing'];
 
+/**
+ * Dates already found valid and earlier results of yearsBefore: a screening run checks the same
+ * few dates for tens of thousands of parcels. Both are fixed facts of the calendar (bounded memo).
+ */
+const MEMO_MAX = 50_000;
+const validDates = new Set<string>();
+const earlier = new Map<string, string>();
+
 function checkDate(date: string, what: string): string {
+  if (validDates.has(date)) return date;
   const d = new Date(`${date}T00:00:00Z`);
   if (!/^\d{4}-\d{2}-\d{2}$/.test(date) || Number.isNaN(d.getTime()) || d.toISOString().slice(0, 10) !== date) {
     throw new RangeError(`${what} "${date}" is not a calendar date in the form YYYY-MM-DD.`);
   }
+  if (validDates.size < MEMO_MAX) validDates.add(date);
   return date;
 }
 
 /** The same calendar day `years` earlier (29 February → 28 February). ISO strings compare as dates. */
 export function yearsBefore(date: string, years: number): string {
+  const key = `${date}|${years}`;
+  const known = earlier.get(key);
+  if (known !== undefined) return known;
   const [y, m, d] = date.split('-').map(Number) as [number, number, number];
   const t = new Date(Date.UTC(y - years, m - 1, d));
   if (t.getUTCMonth() !== m - 1) t.setUTCDate(0);
-  return t.toISOString().slice(0, 10);
+  const out = t.toISOString().slice(0, 10);
+  if (earlier.size < MEMO_MAX) earlier.set(key, out);
+  return out;
 }
 
 const isCultivation = (e: LandUseEvent) => e.kind === 'tillage' || e.kind === 'reseeding' || e.cultivation === true;

@@ -57,11 +57,14 @@ export type FigureInput = {
   seed: number;
 };
 
-export function assessmentFigures(input: FigureInput, set: FactorSetDocument) {
+/** `mark` (optional) is told when each step ends: estimates, montecarlo, alternatives. */
+export function assessmentFigures(input: FigureInput, set: FactorSetDocument, mark?: (step: string) => void) {
   const estimates = estimatesAsApi(input.requests.map((p) => p.request), set);
+  mark?.('estimates');
   const ok = input.requests.flatMap((p) => (p.request ? [p.request] : []));
   const sum = (k: 'socChangeTotal' | 'biomassChangeTotal' | 'n2oTotal' | 'co2eTotal') => estimates.reduce((s, e) => s + (e ? e[k] : 0), 0);
   const joint = jointTotal(ok, set, input.runs, input.seed);
+  mark?.('montecarlo');
   const totals: Totals = {
     areaHa: input.requests.reduce((s, p) => s + p.areaHa, 0),
     socChangeTotal: sum('socChangeTotal'), biomassChangeTotal: sum('biomassChangeTotal'), n2oTotal: sum('n2oTotal'), co2eTotal: sum('co2eTotal'),
@@ -83,6 +86,7 @@ export function assessmentFigures(input: FigureInput, set: FactorSetDocument) {
       alternatives.push({ ...base, note: c.note, available: true, areaHa: totals.areaHa + c.request.areaHa, co2eTotal: t.co2eTotal, co2eLow: t.co2eLow, co2eHigh: t.co2eHigh, differenceFromProposal: t.co2eTotal - joint.co2eTotal });
     }
   }
+  mark?.('alternatives');
   return { estimates, totals, alternatives, jointCautions: joint.cautions };
 }
 

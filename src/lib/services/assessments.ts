@@ -15,6 +15,7 @@ import { deriveLandUseFlags, type LandUseEvent } from '../gis/land-use-history';
 import { summariseOverlay, type OverlayRow } from '../gis/overlay-summary';
 import { HttpError } from '../http/errors';
 import type { Caller } from '../http/handle';
+import type { Phases } from '../http/server-timing';
 import { enqueueMail } from '../mail/outbox';
 import { assessmentSignedMail } from '../mail/templates';
 import { assessmentFigures, estimatesAsApi, RESTORED_STATE, type ApiEstimate, type FigureInput, type ParcelRequest } from '../proposals/assessment-figures';
@@ -69,12 +70,15 @@ function parcelInput(
   };
 }
 
-async function loadInputs(conn: Db, proposalId: number, input: Inputs, set: FactorSetDocument, gwp: string) {
+async function loadInputs(conn: Db, proposalId: number, input: Inputs, set: FactorSetDocument, gwp: string, phases?: Phases) {
   const rows = await proposals.listParcels(conn, proposalId);
+  phases?.mark('parcels');
   const extra = input.compensationParcelId ? [input.compensationParcelId] : [];
   // One after another: inside a transaction they share one connection.
   const overlay = await store.overlayOfProposal(conn, proposalId, extra);
+  phases?.mark('overlay');
   const events = await store.eventsOfParcels(conn, [...rows.map((r) => r.parcel_id), ...extra]);
+  phases?.mark('events');
   const gis = await getGisSettings(conn);
   const byParcel = new Map<number, LandUseEvent[]>();
   for (const e of events) byParcel.set(e.parcel_id, [...(byParcel.get(e.parcel_id) ?? []), { date: e.date, kind: e.kind, value: e.value, cultivation: e.cultivation }]);
@@ -100,7 +104,7 @@ async function compensationInput(conn: Db, input: Inputs, loaded: Awaited<Return
 }
 
 /** Everything an assessment computes, from the database as it is now. */
-async function compute(conn: Db, proposal: proposals.ProposalRow, input: Inputs) {
+async function compute(conn: Db, proposal: proposals.ProposalRow, input: Inputs, phases?: Phases) {
   const settings = await proposals.getProposalSettings(conn);
   const setId = input.factorSet ?? (await defaultSetId(conn));
   const gwp = input.gwp ?? settings['assessment.gwp'];
@@ -109,7 +113,8 @@ async function compute(conn: Db, proposal: proposals.ProposalRow, input: Inputs)
   }
   const set = await loadPublished(conn, setId, input.factorSetVersion);
   const rules = await loadRuleSet(conn, input.ruleSet, input.ruleSetVersion);
-  const loaded = await loadInputs(conn, proposal.id, input, set, gwp);
+  phases?.mark('sets');
+  const loaded = await loadInputs(conn, proposal.id, input, set, gwp, phases);
   const parcels = loaded.rows.map((r) =>
     parcelInput(r, loaded.overlay.get(r.parcel_id) ?? [], loaded.byParcel.get(r.parcel_id) ?? [], loaded.flagOptions, loaded.choices.get(r.parcel_id), loaded.build(proposal.proposed)));
   const figureInput: FigureInput = {
@@ -117,15 +122,18 @@ async function compute(conn: Db, proposal: proposals.ProposalRow, input: Inputs)
     proposed: proposal.proposed, sharePercent: input.sharePercent, runs: settings['assessment.runs'], seed: input.seed,
     compensation: await compensationInput(conn, input, loaded, parcels.map((p) => p.parcelId)),
   };
+  phases?.mark('requests');
   let figures: ReturnType<typeof assessmentFigures>;
   try {
-    figures = assessmentFigures(figureInput, set);
+    figures = assessmentFigures(figureInput, set, phases && ((name) => phases.mark(name)));
   } catch (err) {
     if (err instanceof EstimateInputError) throw new HttpError('UNPROCESSABLE_CONTENT', `The estimate cannot be made: ${err.issues.map((i) => i.message).join(' ')}`, err.issues);
     throw err;
   }
   const facts = await buildGradeFacts(conn, { proposal, parcels, estimates: figures.estimates, totals: figures.totals, settings, rules: rules.document });
+  phases?.mark('facts');
   const grade = gradeProposal(facts, rules.document, rules.ref);
+  phases?.mark('grade');
   return { set, gwp, rules, parcels, figureInput, figures, facts, grade, settings };
 }
 
@@ -185,7 +193,7 @@ async function respond(row: Omit<store.AssessmentRow, 'result' | 'inputs'> & { r
   };
 }
 
-export async function runAssessment(by: Caller, proposalId: number, input: Inputs) {
+export async function runAssessment(by: Caller, proposalId: number, input: Inputs, phases?: Phases) {
   return withTransaction(db, async (trx) => {
     const p = await proposals.getProposal(trx, proposalId, { lock: true });
     if (!p) throw new HttpError('NOT_FOUND', `No proposal with id ${proposalId}.`);
@@ -196,13 +204,18 @@ export async function runAssessment(by: Caller, proposalId: number, input: Input
     }
     if (p.state === 'submitted') await applyTransition(trx, by, p, 'in-assessment', undefined);
     if (p.state === 'assessed') await applyTransition(trx, by, p, 'in-assessment', input.reason || 'A new version of the assessment was started.');
-    const c = await compute(trx, p, input);
+    phases?.mark('lock');
+    const c = await compute(trx, p, input, phases);
     const result = resultOf(c);
+    phases?.mark('result');
     const write = { inputs: input, result, factorSet: result.factorSet, ruleSet: c.rules.ref, gradeLevel: c.grade.level, gradeLabel: result.grade.label, co2eTotal: result.totals.co2eTotal, by: by.id };
     const saved = draft ? { id: draft.id, number: draft.number, version: await store.updateDraft(trx, draft.id, write) } : { ...(await store.insertAssessment(trx, proposalId, write)), version: 1 };
     await recordAudit(trx, { actorId: by.id, action: draft ? 'assessment.rerun' : 'assessment.start', entityType: 'assessment', entityId: String(saved.id), details: { proposal: p.reference, factorSet: result.factorSet, ruleSet: c.rules.ref, level: c.grade.level, co2eTotal: result.totals.co2eTotal, overrideReason: input.overrideReason ?? null } });
+    phases?.mark('store');
     const meta = (await store.getAssessmentMeta(trx, saved.id))!;
-    return respond({ ...meta, result }, c.figures.estimates);
+    const answer = await respond({ ...meta, result }, c.figures.estimates);
+    phases?.mark('response');
+    return answer;
   });
 }
 

@@ -8,24 +8,53 @@ import { db, withTransaction } from '../db/client';
 import { getBoardSettings } from '../db/meetings';
 import * as store from '../db/register';
 import { regionList } from '../db/regions';
+import * as blocks from '../db/register-blocks';
 import { HttpError } from '../http/errors';
 import type { Caller } from '../http/handle';
 import { ChainVerifier } from '../register/chain';
 import type { Condition, Outcome, RegisterContent } from '../register/content';
 
 const VERIFY_BATCH = 5000;
-const EXPORT_BATCH = 1000;
+const EXPORT_BATCH = 2000;
 
-export async function verifyRegister() {
-  const v = new ChainVerifier();
-  let after = 0;
-  for (;;) {
-    const rows = await store.chainBatch(db, after, VERIFY_BATCH);
-    for (const r of rows) v.add(r);
-    if (rows.length < VERIFY_BATCH) break;
-    after = rows[rows.length - 1]!.seq;
-  }
-  return { ...v.result(), checkedAt: new Date().toISOString() };
+/** Entries per verified block (register_verified_block). */
+export const VERIFY_BLOCK = 10_000;
+
+/**
+ * Recomputes the chain in one snapshot (REPEATABLE READ). Blocks of `blockSize` entries verified
+ * in full before, whose stored rows still give the same SHA-256 digest (computed here in SQL), are
+ * taken as checked; from the first block that is new or differs, every entry is hashed again, batch
+ * by batch, the next batch read while this one is hashed. When the whole chain holds, the complete
+ * blocks just hashed are recorded with their digests for the next verify.
+ */
+export async function verifyRegister(blockSize = VERIFY_BLOCK) {
+  return db.transaction(async (trx) => {
+    const v = new ChainVerifier();
+    const stored = await blocks.storedBlocks(trx, blockSize);
+    const prefix = stored.filter((b, i) => b.first === i * blockSize + 1);
+    let after = 0;
+    if (prefix.length) {
+      const now = await blocks.blockDigests(trx, blockSize, 1, prefix.at(-1)!.last);
+      for (const [i, b] of prefix.entries()) {
+        const c = now[i];
+        if (!c || c.first !== b.first || c.last !== b.last || c.n !== blockSize || c.digest !== b.digest || c.lastHash !== b.lastHash) break;
+        v.skip(blockSize, b.last, b.lastHash);
+        after = b.last;
+      }
+    }
+    let next = store.chainBatch(trx, after, VERIFY_BATCH);
+    for (;;) {
+      const rows = await next;
+      const full = rows.length === VERIFY_BATCH;
+      if (full) next = store.chainBatch(trx, rows[rows.length - 1]!.seq, VERIFY_BATCH);
+      for (const r of rows) v.add(r);
+      if (!full) break;
+    }
+    const result = v.result();
+    const complete = Math.floor(result.entries / blockSize) * blockSize;
+    if (result.ok && complete > after) await blocks.saveBlocks(trx, await blocks.blockDigests(trx, blockSize, after + 1, complete));
+    return { ...result, checkedAt: new Date().toISOString() };
+  }, { isolationLevel: 'repeatable read' });
 }
 
 export async function registerHead() {
@@ -64,10 +93,44 @@ export async function regionNames(): Promise<Record<string, string>> {
   return Object.fromEntries((await regionList(db)).regions.map((r) => [r.key, r.label]));
 }
 
+/**
+ * Counts and whole pages of the list, by head hash and query. Entries never change and every
+ * append makes a new head, and a list reads the register as it stood at its head, so what is kept
+ * for one head is a fixed fact, whichever instance computed it: bounded caches, not shared state.
+ */
+const COUNT_CACHE_MAX = 2000;
+const PAGE_CACHE_MAX = 300;
+const counts = new Map<string, Promise<number>>();
+const pages = new Map<string, Promise<ReturnType<typeof summary>[]>>();
+
+/** The promise is kept, so clients asking for the same thing at once share one query; a failure is not kept. */
+function remember<T>(cache: Map<string, Promise<T>>, max: number, key: string, make: () => Promise<T>): Promise<T> {
+  const known = cache.get(key);
+  if (known) return known;
+  if (cache.size >= max) cache.delete(cache.keys().next().value!);
+  const p = make();
+  cache.set(key, p);
+  p.catch(() => cache.delete(key));
+  return p;
+}
+
+const filterKey = (f: store.RegisterFilter) => [f.outcome, f.year, f.risk, f.areaMin, f.areaMax, f.region, f.q, f.current];
+
+function countAt(f: store.RegisterFilter, head: { seq: number; hash: string }): Promise<number> {
+  return remember(counts, COUNT_CACHE_MAX, `${head.hash}|${JSON.stringify(filterKey(f))}`, () => store.countEntries(db, f, head.seq));
+}
+
+function pageAt(q: ListQuery, head: { seq: number; hash: string }) {
+  const key = `${head.hash}|${JSON.stringify([...filterKey(q), q.sort, q.dir, q.page, q.pageSize])}`;
+  return remember(pages, PAGE_CACHE_MAX, key, async () => (await store.listEntries(db, q, head.seq)).map(summary));
+}
+
 export async function listRegister(query: ListQuery) {
   const q = { ...query, region: await regionKeyOf(query.region) };
-  const [{ rows, total }, h] = await Promise.all([store.listEntries(db, q), registerHead()]);
-  return { items: rows.map(summary), total, page: q.page, pageSize: q.pageSize, ...h };
+  const h = await store.head(db);
+  if (!h) return { items: [], total: 0, page: q.page, pageSize: q.pageSize, headSeq: 0, headHash: null };
+  const [items, total] = await Promise.all([pageAt(q, h), countAt(q, h)]);
+  return { items, total, page: q.page, pageSize: q.pageSize, headSeq: h.seq, headHash: h.hash };
 }
 
 /** Each member's vote on the entry's decision, only when the authority publishes them (setting register.votes-public); else null. */
@@ -82,15 +145,21 @@ export async function registerEntry(seq: number) {
   return { seq: r.seq, hash: r.hash, prevHash: r.prev_hash, supersedesSeq: r.supersedes_seq, supersededBy: r.superseded_by, createdAt: r.created_at.toISOString(), content: r.content as RegisterContent, memberVotes: await publicMemberVotes(seq), ...(await registerHead()) };
 }
 
-/** Rows of the filtered register in seq order, batch by batch (flat memory however long the register). */
-async function* filteredRows(filter: store.RegisterFilter) {
-  const { where, args } = store.filterSql({ ...filter, region: await regionKeyOf(filter.region) });
-  let after = 0;
+/** Rows of the filtered register in seq order, batch by batch (flat memory however long the register); the next batch is read while this one is written out. */
+async function* filteredRows(f: store.RegisterFilter, withGeometry = true) {
+  const { where, args } = store.filterSql({ ...f, region: await regionKeyOf(f.region) });
+  const batch = (after: number) => {
+    const p = store.batchAfter(db, after, EXPORT_BATCH, where, args, withGeometry);
+    p.catch(() => {}); // a read ahead that fails after the client went away must not crash the process; awaited, it still throws
+    return p;
+  };
+  let next = batch(0);
   for (;;) {
-    const rows = await store.batchAfter(db, after, EXPORT_BATCH, where, args);
+    const rows = await next;
+    const full = rows.length === EXPORT_BATCH;
+    if (full) next = batch(rows[rows.length - 1]!.seq);
     yield rows;
-    if (rows.length < EXPORT_BATCH) return;
-    after = rows[rows.length - 1]!.seq;
+    if (!full) return;
   }
 }
 
@@ -126,7 +195,7 @@ function csvRow(r: store.RegisterRow): (string | number)[] {
 export function registerCsv(f: store.RegisterFilter): ReadableStream<Uint8Array> {
   return streamOf((async function* () {
     yield stringify([[...CSV_COLUMNS]]);
-    for await (const rows of filteredRows(f)) if (rows.length) yield stringify(rows.map(csvRow));
+    for await (const rows of filteredRows(f, false)) if (rows.length) yield stringify(rows.map(csvRow));
   })());
 }
 

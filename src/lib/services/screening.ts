@@ -16,6 +16,7 @@ import * as store from '../db/screening';
 import { deriveLandUseFlags, type LandUseEvent } from '../gis/land-use-history';
 import { COVER_EPSILON } from '../gis/overlay-summary';
 import type { Caller } from '../http/handle';
+import type { Phases } from '../http/server-timing';
 import { screenParcels, type ScreeningParcel } from '../proposals/screening';
 import { holdingWindowYears } from '../rules';
 import { regionFacts } from '../rules/region-facts';
@@ -33,14 +34,17 @@ function normalised(classes: { class: string; share: number }[]): { type: string
 }
 
 /** Recomputes the whole map inside `trx`. Returns the number of parcels screened and the time taken. */
-export async function recomputeScreening(trx: Db, by: string | null, reason: string): Promise<{ screened: number; ms: number }> {
+export async function recomputeScreening(trx: Db, by: string | null, reason: string, phases?: Phases): Promise<{ screened: number; ms: number }> {
   const t0 = performance.now();
   const [settings, gis] = [await getProposalSettings(trx), await getGisSettings(trx)];
   const set = await loadPublished(trx, await defaultSetId(trx));
   const rules = await loadRuleSet(trx);
+  phases?.mark('sets');
   const rows = await store.screeningInputs(trx);
+  phases?.mark('inputs');
   const events = new Map<number, LandUseEvent[]>();
   for (const e of await store.allEvents(trx)) events.set(e.parcel_id, [...(events.get(e.parcel_id) ?? []), { date: e.date, kind: e.kind, value: e.value, cultivation: e.cultivation }]);
+  phases?.mark('events');
   const flagOptions = { asOf: today(), permanentGrasslandYears: gis['land-use.permanent-grassland-years'], uncultivatedYears: gis['land-use.uncultivated-years'], tillageEndsGrassland: gis['land-use.tillage-ends-grassland'] };
   const parcels: ScreeningParcel[] = [];
   for (const r of rows) {
@@ -56,6 +60,7 @@ export async function recomputeScreening(trx: Db, by: string | null, reason: str
       flags: { permanentGrassland: true, uncultivated: flags.uncultivated.value, neverTilled: flags.neverTilled.value },
     });
   }
+  phases?.mark('flags');
   const keys = [...new Set(parcels.map((p) => p.regionKey).filter((k): k is string => !!k))];
   const regions = new Map<string, (ha: number) => ReturnType<typeof regionFacts>>();
   for (const s of keys.length ? await regionStats(trx, today(), keys) : []) {
@@ -65,24 +70,29 @@ export async function recomputeScreening(trx: Db, by: string | null, reason: str
   const windowYears = holdingWindowYears(rules.document) ?? 5;
   const earlierOnHolding = new Map((await store.proposalsByHolding(trx, windowYears)).map((h) => [h.owner_ref, { ha: h.ha, references: h.refs }]));
   const year = new Date().getUTCFullYear();
+  const committedT = await committedCo2e(trx, year);
+  phases?.mark('regions');
   const results = screenParcels(parcels, {
     set, gwp: settings['assessment.gwp'], runs: settings['assessment.runs'], seed: SEED, rules, regions, earlierOnHolding, windowYears,
     // Committed: the CO2e of approvals in the register for proposals starting this year.
-    budget: { year, budgetT: settings['budget.yearly-co2e-t'], committedT: await committedCo2e(trx, year) },
+    budget: { year, budgetT: settings['budget.yearly-co2e-t'], committedT },
   });
+  phases?.mark('screen');
   const layers = Object.fromEntries((await currentVersions(trx)).map((v) => [v.kind, v.version]));
   const ms = Math.round(performance.now() - t0);
   const mapV = await bumpMapVersion(trx);
   const runId = await store.insertRun(trx, { factorSet: { id: set.id, version: set.version }, ruleSet: rules.ref, layers, mapVersion: mapV, screened: results.length, ms, reason, by });
   await store.replaceResults(trx, runId, results);
+  phases?.mark('store');
   await recordAudit(trx, { actorId: by, action: 'screening.recompute', entityType: 'screening', entityId: String(runId), details: { reason, screened: results.length, factorSet: `${set.id}@${set.version}`, ruleSet: `${rules.ref.id}@${rules.ref.version}` } });
   return { screened: results.length, ms };
 }
 
-export async function recomputeOnRequest(by: Caller) {
+export async function recomputeOnRequest(by: Caller, phases?: Phases) {
   return withTransaction(db, async (trx) => {
     await trx.raw('select pg_advisory_xact_lock(hashtext(?))', ['screening']);
-    return recomputeScreening(trx, by.id, 'Recomputed on request');
+    phases?.mark('lock');
+    return recomputeScreening(trx, by.id, 'Recomputed on request', phases);
   });
 }
 
