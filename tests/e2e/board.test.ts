@@ -55,7 +55,7 @@ describe('the board pages', () => {
   it('chair builds and orders the agenda, members vote, the chair decides, the register shows the entry', async () => {
     const chair = await as(DEMO.chair);
     const { page } = chair;
-    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Board' }).click();
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Board', exact: true }).click();
     await page.waitForURL(`${BASE_URL}/board`);
     await hydrated(page);
     await page.getByLabel('Place').fill('Tarrow Hall, council room');

@@ -25,17 +25,30 @@ export async function appendEntry(trx: Db, content: RegisterContent): Promise<{ 
   return { seq, hash };
 }
 
-/**
- * Entries in seq order after `afterSeq`, `limit` at a time (keyset paging for verify and exports).
- * `withGeometry: false` leaves the parcels' outlines out of the content (each parcel keeps its
- * reference, area and part flag), for exports that list references only.
- */
-export async function batchAfter(db: Db, afterSeq: number, limit: number, where = 'true', args: Knex.Value[] = [], withGeometry = true): Promise<RegisterRow[]> {
-  const content = withGeometry
-    ? 'content'
-    : `jsonb_set(content, '{parcels}', (select coalesce(jsonb_agg(p - 'geometry'), '[]') from jsonb_array_elements(e.content->'parcels') p)) as content`;
+/** Entries in seq order after `afterSeq`, `limit` at a time (keyset paging for exports and single entries). */
+export async function batchAfter(db: Db, afterSeq: number, limit: number, where = 'true', args: Knex.Value[] = []): Promise<RegisterRow[]> {
   const r = await db.raw(
-    `select seq::float8 as seq, prev_hash, hash, ${content}, supersedes_seq::float8 as supersedes_seq, created_at,
+    `select seq::float8 as seq, prev_hash, hash, content, supersedes_seq::float8 as supersedes_seq, created_at,
+            (select min(s.seq)::float8 from register_entry s where s.supersedes_seq = e.seq) as superseded_by
+     from register_entry e where seq > ? and ${where} order by seq limit ?`,
+    [afterSeq, ...args, limit],
+  );
+  return r.rows;
+}
+
+/** One CSV row per entry, every column computed from the stored content (named as `CSV_COLUMNS`); nothing to parse in Node. */
+export async function csvBatchAfter(db: Db, afterSeq: number, limit: number, where = 'true', args: Knex.Value[] = []): Promise<({ seq: number } & Record<string, string | number | null>)[]> {
+  const r = await db.raw(
+    `select seq::float8 as seq, hash, content->>'kind' as kind, content->'proposal'->>'reference' as reference, content->'proposal'->>'title' as title,
+            content->'proposal'->>'proposedUse' as proposed_use, content->>'outcome' as outcome, content->>'decidedOn' as decided_on,
+            content->>'effectiveDate' as effective_date, content->>'appealUntil' as appeal_until,
+            (select string_agg(p->>'reference', ' ' order by o) from jsonb_array_elements(content->'parcels') with ordinality x(p, o)) as parcels,
+            (content->>'areaHa')::float8 as area_ha, content->>'region' as region, (content->'risk'->>'level')::int as risk_level, content->'risk'->>'label' as risk_label,
+            (content->'figures'->>'co2eTotal')::float8 as co2e_t, (content->'figures'->>'co2eLow')::float8 as co2e_low_t, (content->'figures'->>'co2eHigh')::float8 as co2e_high_t,
+            content->'figures'->>'gwp' as gwp, (content->'factorSet'->>'id') || '@' || (content->'factorSet'->>'version') as factor_set,
+            (content->'ruleSet'->>'id') || '@' || (content->'ruleSet'->>'version') as rule_set, content->'meeting'->>'date' as meeting_date,
+            (select string_agg(format('%s (due %s; checked by %s)', c->>'text', c->>'dueDate', c->>'checkedBy'), ' | ' order by o) from jsonb_array_elements(content->'conditions') with ordinality y(c, o)) as conditions,
+            content->>'reasons' as reasons, supersedes_seq::float8 as supersedes_seq,
             (select min(s.seq)::float8 from register_entry s where s.supersedes_seq = e.seq) as superseded_by
      from register_entry e where seq > ? and ${where} order by seq limit ?`,
     [afterSeq, ...args, limit],

@@ -146,10 +146,15 @@ export async function registerEntry(seq: number) {
 }
 
 /** Rows of the filtered register in seq order, batch by batch (flat memory however long the register); the next batch is read while this one is written out. */
-async function* filteredRows(f: store.RegisterFilter, withGeometry = true) {
+async function* filteredRows(f: store.RegisterFilter) {
   const { where, args } = store.filterSql({ ...f, region: await regionKeyOf(f.region) });
+  yield* readAhead((after) => store.batchAfter(db, after, EXPORT_BATCH, where, args));
+}
+
+/** Keyset batches in seq order; the next batch is read while this one is written out. */
+async function* readAhead<T extends { seq: number }>(read: (afterSeq: number) => Promise<T[]>) {
   const batch = (after: number) => {
-    const p = store.batchAfter(db, after, EXPORT_BATCH, where, args, withGeometry);
+    const p = read(after);
     p.catch(() => {}); // a read ahead that fails after the client went away must not crash the process; awaited, it still throws
     return p;
   };
@@ -182,20 +187,12 @@ export const CSV_COLUMNS = [
   'risk_level', 'risk_label', 'co2e_t', 'co2e_low_t', 'co2e_high_t', 'gwp', 'factor_set', 'rule_set', 'meeting_date', 'conditions', 'reasons', 'supersedes_seq', 'superseded_by',
 ] as const;
 
-function csvRow(r: store.RegisterRow): (string | number)[] {
-  const c = r.content as RegisterContent;
-  return [
-    r.seq, r.hash, c.kind, c.proposal.reference, c.proposal.title, c.proposal.proposedUse, c.outcome, c.decidedOn, c.effectiveDate, c.appealUntil ?? '',
-    c.parcels.map((p) => p.reference).join(' '), c.areaHa, c.region ?? '', c.risk.level, c.risk.label, c.figures.co2eTotal, c.figures.co2eLow, c.figures.co2eHigh, c.figures.gwp,
-    `${c.factorSet.id}@${c.factorSet.version}`, c.ruleSet ? `${c.ruleSet.id}@${c.ruleSet.version}` : '', c.meeting?.date ?? '',
-    c.conditions.map((x: Condition) => `${x.text} (due ${x.dueDate}; checked by ${x.checkedBy})`).join(' | '), c.reasons, r.supersedes_seq ?? '', r.superseded_by ?? '',
-  ];
-}
-
+/** The CSV columns are read by PostgreSQL straight from the stored content (db/register.ts `csvBatchAfter`), so no entry is parsed here. */
 export function registerCsv(f: store.RegisterFilter): ReadableStream<Uint8Array> {
   return streamOf((async function* () {
     yield stringify([[...CSV_COLUMNS]]);
-    for await (const rows of filteredRows(f, false)) if (rows.length) yield stringify(rows.map(csvRow));
+    const { where, args } = store.filterSql({ ...f, region: await regionKeyOf(f.region) });
+    for await (const rows of readAhead((after) => store.csvBatchAfter(db, after, EXPORT_BATCH, where, args))) if (rows.length) yield stringify(rows.map((r) => CSV_COLUMNS.map((c) => r[c] ?? '')));
   })());
 }
 
