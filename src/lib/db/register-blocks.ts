@@ -1,13 +1,17 @@
 /**
- * Verified blocks of the register chain (table register_verified_block): the digest of a block's
- * stored rows, computed in SQL, so a verify need not hash unchanged blocks again in JavaScript.
+ * Verified blocks of the register chain (table register_verified_block). A block's digest is the
+ * SHA-256 of each row's seq, hashes and row version as PostgreSQL keeps it (xmin: the transaction
+ * that wrote the row; ctid: where it lies). Any change to a row, even by the database owner with the
+ * trigger switched off, writes a new row version, so the digest changes and verify hashes that block
+ * again in full; a table rewrite (VACUUM FULL, a restore) changes it too and costs one full verify.
+ * Reading row versions instead of the contents keeps a repeat verify of 100,000 entries short.
  */
 import type { Db } from './client';
 
 export type BlockDigest = { first: number; last: number; n: number; lastHash: string; digest: string };
 
-/** The text every digest is taken of: one line per entry, in seq order. */
-const DIGEST = `encode(sha256(convert_to(string_agg(seq::text || ' ' || prev_hash || ' ' || hash || ' ' || content::text, E'\\n' order by seq), 'UTF8')), 'hex')`;
+/** The text every digest is taken of: one line per entry (seq, hashes, row version), in seq order. */
+const DIGEST = `encode(sha256(convert_to(string_agg(seq::text || ' ' || prev_hash || ' ' || hash || ' ' || xmin::text || ' ' || ctid::text, E'\\n' order by seq), 'UTF8')), 'hex')`;
 
 /** Stored blocks of `size` entries aligned on multiples of it (1..size, size+1..2 size, ...), in order. */
 export async function storedBlocks(db: Db, size: number): Promise<BlockDigest[]> {

@@ -38,19 +38,22 @@ export async function batchAfter(db: Db, afterSeq: number, limit: number, where 
 
 /** One CSV row per entry, every column computed from the stored content (named as `CSV_COLUMNS`); nothing to parse in Node. */
 export async function csvBatchAfter(db: Db, afterSeq: number, limit: number, where = 'true', args: Knex.Value[] = []): Promise<({ seq: number } & Record<string, string | number | null>)[]> {
+  // jsonb_to_record reads the stored content once per row (each -> on the column itself would read the whole value again).
   const r = await db.raw(
-    `select seq::float8 as seq, hash, content->>'kind' as kind, content->'proposal'->>'reference' as reference, content->'proposal'->>'title' as title,
-            content->'proposal'->>'proposedUse' as proposed_use, content->>'outcome' as outcome, content->>'decidedOn' as decided_on,
-            content->>'effectiveDate' as effective_date, content->>'appealUntil' as appeal_until,
-            (select string_agg(p->>'reference', ' ' order by o) from jsonb_array_elements(content->'parcels') with ordinality x(p, o)) as parcels,
-            (content->>'areaHa')::float8 as area_ha, content->>'region' as region, (content->'risk'->>'level')::int as risk_level, content->'risk'->>'label' as risk_label,
-            (content->'figures'->>'co2eTotal')::float8 as co2e_t, (content->'figures'->>'co2eLow')::float8 as co2e_low_t, (content->'figures'->>'co2eHigh')::float8 as co2e_high_t,
-            content->'figures'->>'gwp' as gwp, (content->'factorSet'->>'id') || '@' || (content->'factorSet'->>'version') as factor_set,
-            (content->'ruleSet'->>'id') || '@' || (content->'ruleSet'->>'version') as rule_set, content->'meeting'->>'date' as meeting_date,
-            (select string_agg(format('%s (due %s; checked by %s)', c->>'text', c->>'dueDate', c->>'checkedBy'), ' | ' order by o) from jsonb_array_elements(content->'conditions') with ordinality y(c, o)) as conditions,
-            content->>'reasons' as reasons, supersedes_seq::float8 as supersedes_seq,
+    `select e.seq::float8 as seq, e.hash, c.kind, c.proposal->>'reference' as reference, c.proposal->>'title' as title,
+            c.proposal->>'proposedUse' as proposed_use, c.outcome, c."decidedOn" as decided_on, c."effectiveDate" as effective_date, c."appealUntil" as appeal_until,
+            (select string_agg(p->>'reference', ' ' order by o) from jsonb_array_elements(c.parcels) with ordinality x(p, o)) as parcels,
+            c."areaHa" as area_ha, c.region, (c.risk->>'level')::int as risk_level, c.risk->>'label' as risk_label,
+            (c.figures->>'co2eTotal')::float8 as co2e_t, (c.figures->>'co2eLow')::float8 as co2e_low_t, (c.figures->>'co2eHigh')::float8 as co2e_high_t,
+            c.figures->>'gwp' as gwp, (c."factorSet"->>'id') || '@' || (c."factorSet"->>'version') as factor_set,
+            (c."ruleSet"->>'id') || '@' || (c."ruleSet"->>'version') as rule_set, c.meeting->>'date' as meeting_date,
+            (select string_agg(format('%s (due %s; checked by %s)', k->>'text', k->>'dueDate', k->>'checkedBy'), ' | ' order by o) from jsonb_array_elements(c.conditions) with ordinality y(k, o)) as conditions,
+            c.reasons, e.supersedes_seq::float8 as supersedes_seq,
             (select min(s.seq)::float8 from register_entry s where s.supersedes_seq = e.seq) as superseded_by
-     from register_entry e where seq > ? and ${where} order by seq limit ?`,
+     from register_entry e
+     cross join lateral jsonb_to_record(e.content) as c(kind text, proposal jsonb, outcome text, "decidedOn" text, "effectiveDate" text, "appealUntil" text, parcels jsonb,
+       "areaHa" float8, region text, risk jsonb, figures jsonb, "factorSet" jsonb, "ruleSet" jsonb, meeting jsonb, conditions jsonb, reasons text)
+     where e.seq > ? and ${where} order by e.seq limit ?`,
     [afterSeq, ...args, limit],
   );
   return r.rows;

@@ -22,7 +22,7 @@ export const VERIFY_BLOCK = 10_000;
 
 /**
  * Recomputes the chain in one snapshot (REPEATABLE READ). Blocks of `blockSize` entries verified
- * in full before, whose stored rows still give the same SHA-256 digest (computed here in SQL), are
+ * in full before, whose rows PostgreSQL has not rewritten since (same row versions: db/register-blocks.ts), are
  * taken as checked; from the first block that is new or differs, every entry is hashed again, batch
  * by batch, the next batch read while this one is hashed. When the whole chain holds, the complete
  * blocks just hashed are recorded with their digests for the next verify.
