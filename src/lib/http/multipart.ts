@@ -1,33 +1,16 @@
 /**
- * Reads one uploaded file from a multipart/form-data request without ever holding more than
- * the allowed size (+ a small allowance for the form's other parts) in memory.
+ * Reads one uploaded file from a multipart/form-data request, streaming through busboy: the
+ * request is never held whole in memory beyond the allowed size (+ a small allowance for the
+ * form's other parts), and the parsing goes chunk by chunk, so other requests keep flowing while
+ * a large file arrives.
  */
+import { Readable } from 'node:stream';
+import busboy from 'busboy';
 import { HttpError } from './errors';
 
 const FORM_OVERHEAD_BYTES = 64 * 1024;
-
-async function readCapped(body: ReadableStream<Uint8Array>, cap: number, maxBytes: number): Promise<Uint8Array> {
-  const reader = body.getReader();
-  const chunks: Uint8Array[] = [];
-  let total = 0;
-  for (;;) {
-    const { done, value } = await reader.read();
-    if (done) break;
-    total += value.byteLength;
-    if (total > cap) {
-      await reader.cancel().catch(() => undefined);
-      throw new HttpError('PAYLOAD_TOO_LARGE', `The upload is larger than the allowed ${maxBytes} bytes.`);
-    }
-    chunks.push(value);
-  }
-  const out = new Uint8Array(total);
-  let at = 0;
-  for (const c of chunks) {
-    out.set(c, at);
-    at += c.byteLength;
-  }
-  return out;
-}
+const unreadable = () => new HttpError('BAD_REQUEST', 'The multipart form could not be read; attach a file in the "file" field.');
+const tooLarge = (maxBytes: number) => new HttpError('PAYLOAD_TOO_LARGE', `The upload is larger than the allowed ${maxBytes} bytes.`);
 
 export async function readUploadForm(request: Request, maxBytes: number): Promise<{ fileName: string; bytes: Uint8Array; fields: Record<string, string> }> {
   const type = request.headers.get('content-type') ?? '';
@@ -36,17 +19,48 @@ export async function readUploadForm(request: Request, maxBytes: number): Promis
   const declared = Number(request.headers.get('content-length') ?? 0);
   if (declared > cap) throw new HttpError('PAYLOAD_TOO_LARGE', `The upload is ${declared} bytes; at most ${maxBytes} are allowed.`);
   if (!request.body) throw new HttpError('BAD_REQUEST', 'The request has no body; attach a file in the "file" field.');
-  const raw = await readCapped(request.body, cap, maxBytes);
-  let form: FormData;
+  let parser: busboy.Busboy;
   try {
-    form = await new Response(raw as Uint8Array<ArrayBuffer>, { headers: { 'content-type': type } }).formData();
+    parser = busboy({ headers: { 'content-type': type }, limits: { files: 1, fileSize: maxBytes, fields: 50, fieldSize: FORM_OVERHEAD_BYTES, parts: 60 } });
   } catch {
-    throw new HttpError('BAD_REQUEST', 'The multipart form could not be read; attach a file in the "file" field.');
+    throw unreadable();
   }
-  const file = form.get('file');
-  if (!file || typeof file === 'string') throw new HttpError('UNPROCESSABLE_CONTENT', 'Attach the file in the "file" field.', [{ path: ['file'], message: 'missing' }]);
-  const fields: Record<string, string> = {};
-  for (const [k, v] of form.entries()) if (typeof v === 'string') fields[k] = v;
-  const fileName = (file.name || 'upload').split(/[\\/]/).pop()!.slice(0, 200);
-  return { fileName, bytes: new Uint8Array(await file.arrayBuffer()), fields };
+  const source = Readable.fromWeb(request.body as import('node:stream/web').ReadableStream<Uint8Array>);
+  return new Promise((resolve, reject) => {
+    const fields: Record<string, string> = {};
+    let file: { fileName: string; chunks: Buffer[]; size: number; truncated: boolean } | null = null;
+    let settled = false;
+    const fail = (e: HttpError) => {
+      if (settled) return;
+      settled = true;
+      source.unpipe(parser);
+      source.destroy();
+      reject(e);
+    };
+    let received = 0;
+    source.on('data', (chunk: Buffer) => {
+      received += chunk.length;
+      if (received > cap) fail(tooLarge(maxBytes));
+    });
+    source.on('error', () => fail(unreadable()));
+    parser.on('file', (name, stream, info) => {
+      if (name !== 'file' || file) return void stream.resume();
+      const f = { fileName: info.filename ?? '', chunks: [] as Buffer[], size: 0, truncated: false };
+      file = f;
+      stream.on('data', (d: Buffer) => (f.chunks.push(d), (f.size += d.length)));
+      stream.on('limit', () => (f.truncated = true));
+    });
+    parser.on('field', (name, value) => (fields[name] = value));
+    parser.on('error', () => fail(unreadable()));
+    parser.on('close', () => {
+      if (settled) return;
+      const f = file as { fileName: string; chunks: Buffer[]; size: number; truncated: boolean } | null;
+      if (f?.truncated) return fail(tooLarge(maxBytes));
+      if (!f) return fail(new HttpError('UNPROCESSABLE_CONTENT', 'Attach the file in the "file" field.', [{ path: ['file'], message: 'missing' }]));
+      settled = true;
+      const fileName = (f.fileName || 'upload').split(/[\\/]/).pop()!.slice(0, 200);
+      resolve({ fileName, bytes: new Uint8Array(Buffer.concat(f.chunks, f.size)), fields });
+    });
+    source.pipe(parser);
+  });
 }
