@@ -77,7 +77,11 @@ export async function meetingDetail(id: number, conn: Db = db) {
   if (!m) throw new HttpError('NOT_FOUND', `No meeting with id ${id}.`);
   const items = await store.listItems(conn, id);
   const ids = items.map((i) => i.id);
-  const [votes, conflicts, decisions, settings] = await Promise.all([store.votesOf(conn, ids), store.conflictsOf(conn, ids), store.decisionsOf(conn, ids), store.getBoardSettings(conn)]);
+  // One after another: `conn` may be a transaction, whose one client runs one query at a time.
+  const votes = await store.votesOf(conn, ids);
+  const conflicts = await store.conflictsOf(conn, ids);
+  const decisions = await store.decisionsOf(conn, ids);
+  const settings = await store.getBoardSettings(conn);
   return {
     id: m.id, date: m.meeting_date, place: m.place, version: m.version, quorum: settings['board.quorum'],
     items: items.map((i) => {
@@ -202,7 +206,8 @@ export async function recordDecision(by: Caller, meetingId: number, itemId: numb
       const item = await openItem(trx, meetingId, itemId);
       if (input.outcome === 'deferred') return deferItem(trx, by, item, input);
       const settings = await store.getBoardSettings(trx);
-      const [votes, conflicts] = await Promise.all([store.votesOf(trx, [itemId]), store.conflictsOf(trx, [itemId])]);
+      const votes = await store.votesOf(trx, [itemId]);
+      const conflicts = await store.conflictsOf(trx, [itemId]);
       const t = tally(votes.map((v) => ({ userId: v.user_id, choice: v.choice })), conflicts.map((c) => c.user_id));
       if (t.eligible < settings['board.quorum']) {
         throw new HttpError('CONFLICT', `No quorum on ${item.reference}: ${t.eligible} eligible vote${t.eligible === 1 ? '' : 's'} (members without a declared conflict), ${settings['board.quorum']} needed. Nothing was recorded; defer the item or collect the votes.`);
