@@ -57,3 +57,10 @@ export function tableRemark(sourceDocument: string, tableKey: string, note: stri
 export function entryRemark(sourceDocument: string, tableKey: string, entryKey: string, note: string | undefined | null): string | null {
   return ENTRIES[sourceDocument]?.[`${tableKey}/${entryKey}`] ?? (note && !DEVELOPER_NOTE.test(note) ? note : null);
 }
+
+/** A set's description as shown: the set's own, unless it is a developer's note (as the shipped sets' are). */
+export function setDescription(title: string, description: string): string {
+  return DEVELOPER_NOTE.test(description) || /\.md\b|team reference/i.test(description)
+    ? `${title}. The values are transcribed from the published IPCC tables; each table below says where it comes from and whether this authority has checked it against the published document.`
+    : description;
+}
