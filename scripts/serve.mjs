@@ -55,6 +55,38 @@ export const compress = compression({
   filter: (req, res) => EXTRA_COMPRESSIBLE.test(String(res.getHeader('content-type') ?? '')) || compression.filter(req, res),
 });
 
+/**
+ * Backpressure for streamed answers. Astro writes a response body as fast as the route makes it,
+ * whatever the client reads; this watches the writes (after compression's, so a full gzip
+ * stream counts too) and gives routes `locals.room()`, which waits for 'drain' when the last
+ * write said the buffer was full (src/lib/http/text-stream.ts).
+ */
+function roomFor(res) {
+  let full = false;
+  let waiting = null;
+  const release = () => {
+    full = false;
+    const w = waiting;
+    waiting = null;
+    w?.();
+  };
+  const write = res.write;
+  let listening = false;
+  res.write = function (...args) {
+    const ok = write.apply(this, args);
+    if (!ok) {
+      full = true;
+      if (!listening) {
+        listening = true;
+        res.on('drain', release);
+        res.on('close', release);
+      }
+    }
+    return ok;
+  };
+  return () => (full && !res.destroyed ? new Promise((resolve) => (waiting = resolve)) : undefined);
+}
+
 async function main() {
   process.env.ASTRO_NODE_AUTOSTART = 'disabled';
   const entry = path.resolve(process.env.SWARDKEEP_DIST ?? 'dist', 'server/entry.mjs');
@@ -67,10 +99,8 @@ async function main() {
       return;
     }
     prepare(req, res);
-    serveStatic(req, res).then(
-      (served) => served || compress(req, res, () => handler(req, res)),
-      () => compress(req, res, () => handler(req, res)),
-    );
+    const app = () => compress(req, res, () => handler(req, res, undefined, { room: roomFor(res) }));
+    serveStatic(req, res).then((served) => served || app(), app);
   });
   const host = process.env.HOST ?? '127.0.0.1';
   const port = Number(process.env.PORT ?? 4321);

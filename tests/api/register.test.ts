@@ -148,6 +148,21 @@ describe('listing', () => {
   });
 });
 
+describe('answers kept by head', () => {
+  it('an answer is reused only while the head is the same: a new entry shows at once, the same query asked again included', async () => {
+    const path = '/api/register?outcome=approved&pageSize=200&sort=seq&dir=desc';
+    const first = (await api('GET', path)).body;
+    expect((await api('GET', path)).body).toEqual(first);
+    const added = await decidedProposal(s, 'approved');
+    const again = (await api('GET', path)).body;
+    expect(again.headSeq).toBe(first.headSeq + 1);
+    expect(again.total).toBe(first.total + 1);
+    expect(again.items[0].seq).toBe(added.seq);
+    const head = await testDb('register_entry').orderBy('seq', 'desc').first();
+    expect(again.headHash).toBe(head.hash);
+  }, 120_000);
+});
+
 describe('exports', () => {
   it('CSV: a spreadsheet-compatible parser reads the same rows as the database, filters included', async () => {
     const res = await fetch(`${BASE_URL}/api/register.csv`);

@@ -33,8 +33,13 @@ async function currentRegionVersion(conn: Db): Promise<{ id: number; version: nu
 export async function regionList(conn: Db): Promise<{ layerVersion: number | null; regions: { key: string; label: string }[] }> {
   const v = await currentRegionVersion(conn);
   if (!v) return { layerVersion: null, regions: [] };
-  const rows: { key: string; label: string | null }[] = await conn('reference_feature').where({ version_id: v.id }).groupBy('class').orderBy('class').select('class as key', conn.raw('min(label) as label'));
-  return { layerVersion: v.version, regions: rows.map((r) => ({ key: r.key, label: r.label ?? classLabel(r.key) })) };
+  return { layerVersion: v.version, regions: await regionsOfVersion(conn, v.id) };
+}
+
+/** The regions (key and name) of one region layer version. */
+export async function regionsOfVersion(conn: Db, versionId: number): Promise<{ key: string; label: string }[]> {
+  const rows: { key: string; label: string | null }[] = await conn('reference_feature').where({ version_id: versionId }).groupBy('class').orderBy('class').select('class as key', conn.raw('min(label) as label'));
+  return rows.map((r) => ({ key: r.key, label: r.label ?? classLabel(r.key) }));
 }
 
 /** Per region: agricultural area and permanent grassland (ha) as of `asOf` ("YYYY-MM-DD"). */

@@ -14,6 +14,19 @@ export async function head(db: Db): Promise<{ seq: number; hash: string } | null
   return r.rows[0] ? { seq: Number(r.rows[0].seq), hash: r.rows[0].hash } : null;
 }
 
+export type ListState = { head: { seq: number; hash: string } | null; regionVersionId: number | null };
+
+/** The head and the current published region layer version, in one round trip (what a list answer depends on besides its query). */
+export async function listState(db: Db): Promise<ListState> {
+  const r = await db.raw(
+    `select h.seq, h.hash,
+            (select id from reference_layer_version where kind = 'region' and status = 'published' order by version desc limit 1) as region_version
+     from (select 1) one left join lateral (select seq, hash from register_entry order by seq desc limit 1) h on true`,
+  );
+  const row = r.rows[0];
+  return { head: row.seq === null ? null : { seq: Number(row.seq), hash: row.hash }, regionVersionId: row.region_version === null ? null : Number(row.region_version) };
+}
+
 /** Appends an entry in the caller's transaction; the advisory lock makes concurrent appends queue, so the chain cannot fork. */
 export async function appendEntry(trx: Db, content: RegisterContent): Promise<{ seq: number; hash: string }> {
   await trx.raw('select pg_advisory_xact_lock(?)', [APPEND_LOCK]);

@@ -7,9 +7,10 @@ import { recordAudit } from '../db/audit';
 import { db, withTransaction } from '../db/client';
 import { getBoardSettings } from '../db/meetings';
 import * as store from '../db/register';
-import { regionList } from '../db/regions';
+import { regionList, regionsOfVersion } from '../db/regions';
 import * as blocks from '../db/register-blocks';
 import { HttpError } from '../http/errors';
+import { textStream, type Room } from '../http/text-stream';
 import type { Caller } from '../http/handle';
 import { ChainVerifier } from '../register/chain';
 import type { Condition, Outcome, RegisterContent } from '../register/content';
@@ -74,13 +75,21 @@ function summary(r: store.ListRow) {
 
 export type ListQuery = store.RegisterFilter & { sort: string; dir: 'asc' | 'desc'; page: number; pageSize: number };
 
+/** Regions of one published region layer version: the version's features never change, so they are kept by version id. */
+const regionsByVersion = new Map<string, Promise<{ key: string; label: string }[]>>();
+
+async function regionsOf(versionId: number | null): Promise<{ key: string; label: string }[]> {
+  if (versionId === null) return (await regionList(db)).regions;
+  return remember(regionsByVersion, 20, String(versionId), () => regionsOfVersion(db, versionId));
+}
+
 /**
  * The region filter takes a region's key or its name (any case; a name's start is enough when
  * only one region's name starts so, e.g. "fenbrook" for "Fenbrook district").
  */
-export async function regionKeyOf(region: string | undefined): Promise<string | undefined> {
+export async function regionKeyOf(region: string | undefined, versionId?: number | null): Promise<string | undefined> {
   if (!region) return region;
-  const { regions } = await regionList(db);
+  const regions = versionId === undefined ? (await regionList(db)).regions : await regionsOf(versionId);
   const want = region.trim().toLowerCase();
   const exact = regions.find((r) => r.key.toLowerCase() === want || r.label.toLowerCase() === want);
   if (exact) return exact.key;
@@ -126,11 +135,30 @@ function pageAt(q: ListQuery, head: { seq: number; hash: string }) {
 }
 
 export async function listRegister(query: ListQuery) {
-  const q = { ...query, region: await regionKeyOf(query.region) };
-  const h = await store.head(db);
+  const state = await store.listState(db);
+  return listAt(query, state);
+}
+
+async function listAt(query: ListQuery, state: store.ListState) {
+  const h = state.head;
+  const q = { ...query, region: await regionKeyOf(query.region, state.regionVersionId) };
   if (!h) return { items: [], total: 0, page: q.page, pageSize: q.pageSize, headSeq: 0, headHash: null };
   const [items, total] = await Promise.all([pageAt(q, h), countAt(q, h)]);
   return { items, total, page: q.page, pageSize: q.pageSize, headSeq: h.seq, headHash: h.hash };
+}
+
+const BODY_CACHE_MAX = 300;
+const bodies = new Map<string, Promise<string>>();
+
+/**
+ * The list as the JSON text of the API's answer. One round trip reads the head and the current
+ * region layer; an answer already made for that head, layer and query is sent as it was made
+ * (the same fixed fact as the cached pages), so a busy public list costs little more than a ping.
+ */
+export async function listRegisterJson(query: ListQuery): Promise<string> {
+  const state = await store.listState(db);
+  const key = `${state.head?.hash ?? '-'}|${state.regionVersionId ?? '-'}|${JSON.stringify([...filterKey(query), query.sort, query.dir, query.page, query.pageSize])}`;
+  return remember(bodies, BODY_CACHE_MAX, key, async () => JSON.stringify(await listAt(query, state)));
 }
 
 /** Each member's vote on the entry's decision, only when the authority publishes them (setting register.votes-public); else null. */
@@ -168,28 +196,14 @@ async function* readAhead<T extends { seq: number }>(read: (afterSeq: number) =>
   }
 }
 
-function streamOf(parts: AsyncGenerator<string>): ReadableStream<Uint8Array> {
-  const enc = new TextEncoder();
-  return new ReadableStream({
-    async pull(controller) {
-      const next = await parts.next();
-      if (next.done) controller.close();
-      else controller.enqueue(enc.encode(next.value));
-    },
-    async cancel() {
-      await parts.return(undefined);
-    },
-  });
-}
-
 export const CSV_COLUMNS = [
   'seq', 'hash', 'kind', 'reference', 'title', 'proposed_use', 'outcome', 'decided_on', 'effective_date', 'appeal_until', 'parcels', 'area_ha', 'region',
   'risk_level', 'risk_label', 'co2e_t', 'co2e_low_t', 'co2e_high_t', 'gwp', 'factor_set', 'rule_set', 'meeting_date', 'conditions', 'reasons', 'supersedes_seq', 'superseded_by',
 ] as const;
 
 /** The CSV columns are read by PostgreSQL straight from the stored content (db/register.ts `csvBatchAfter`), so no entry is parsed here. */
-export function registerCsv(f: store.RegisterFilter): ReadableStream<Uint8Array> {
-  return streamOf((async function* () {
+export function registerCsv(f: store.RegisterFilter, room?: Room): ReadableStream<Uint8Array> {
+  return textStream((async function* () {
     yield stringify([[...CSV_COLUMNS]]);
     const { where, args } = store.filterSql({ ...f, region: await regionKeyOf(f.region) });
     for await (const rows of readAhead((after) => store.csvBatchAfter(db, after, EXPORT_BATCH, where, args))) if (rows.length) yield stringify(rows.map((r) => CSV_COLUMNS.map((c) => r[c] ?? '')));
@@ -197,8 +211,8 @@ export function registerCsv(f: store.RegisterFilter): ReadableStream<Uint8Array>
 }
 
 /** RFC 7946 FeatureCollection: one Feature per entry, its parcels as one MultiPolygon (WGS 84 lon/lat). */
-export function registerGeoJson(f: store.RegisterFilter): ReadableStream<Uint8Array> {
-  return streamOf((async function* () {
+export function registerGeoJson(f: store.RegisterFilter, room?: Room): ReadableStream<Uint8Array> {
+  return textStream((async function* () {
     yield '{"type":"FeatureCollection","features":[';
     let first = true;
     for await (const rows of filteredRows(f)) {
