@@ -1,6 +1,7 @@
 /** The proposals list: a headless table (@tanstack/react-table) over the paged, sorted, filtered GET /api/proposals. */
 import { useEffect, useMemo, useRef, useState } from 'react';
-import { createColumnHelper, flexRender, getCoreRowModel, useReactTable, type SortingState } from '@tanstack/react-table';
+import { createColumnHelper, getCoreRowModel, useReactTable, type SortingState } from '@tanstack/react-table';
+import { Pager, ServerTable } from '../table/ServerTable';
 import { PROPOSAL_STATES } from '~/lib/proposals/states';
 import { LEVELS, RISK_LEVELS, type RiskLevel } from '~/lib/rules/levels';
 import { RiskBadge } from '../ui/RiskBadge';
@@ -101,38 +102,7 @@ export function ProposalList({ initial, initialQuery, canFile }: { initial: Page
       </div>
       {error && <p className="notice notice-warn" role="alert">⚠ {error}</p>}
 
-      <div className="panel hidden overflow-x-auto p-0 md:block">
-        <table className="data-table">
-          <thead>
-            {table.getHeaderGroups().map((g) => (
-              <tr key={g.id}>
-                {g.headers.map((h) => {
-                  const sorted = h.column.getIsSorted();
-                  const num = (h.column.columnDef.meta as { num?: boolean } | undefined)?.num;
-                  return (
-                    <th key={h.id} scope="col" className={num ? 'num' : undefined} aria-sort={sorted ? (sorted === 'asc' ? 'ascending' : 'descending') : undefined}>
-                      {h.column.getCanSort() && h.column.id !== 'parcels' ? (
-                        <button type="button" className="font-semibold hover:underline" onClick={h.column.getToggleSortingHandler()}>
-                          {flexRender(h.column.columnDef.header, h.getContext())}{sorted === 'asc' ? ' ▲' : sorted === 'desc' ? ' ▼' : ''}
-                        </button>
-                      ) : flexRender(h.column.columnDef.header, h.getContext())}
-                    </th>
-                  );
-                })}
-              </tr>
-            ))}
-          </thead>
-          <tbody>
-            {table.getRowModel().rows.map((r) => (
-              <tr key={r.id}>
-                {r.getVisibleCells().map((c) => (
-                  <td key={c.id} className={(c.column.columnDef.meta as { num?: boolean } | undefined)?.num ? 'num' : undefined}>{flexRender(c.column.columnDef.cell, c.getContext())}</td>
-                ))}
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      </div>
+      <ServerTable table={table} sortable={(id) => id !== 'parcels' && table.getColumn(id)?.getCanSort() === true} />
 
       <ul className="flex flex-col gap-2 md:hidden" aria-label="Proposals">
         {table.getRowModel().rows.map(({ original: r }) => (
@@ -146,15 +116,7 @@ export function ProposalList({ initial, initialQuery, canFile }: { initial: Page
         ))}
       </ul>
 
-      <nav aria-label="Pages" className="flex flex-wrap items-center gap-2 text-sm">
-        <button type="button" className="btn btn-quiet" disabled={!table.getCanPreviousPage()} onClick={() => table.previousPage()}>Previous</button>
-        <span>Page {query.page} of {pageCount}</span>
-        <button type="button" className="btn btn-quiet" disabled={!table.getCanNextPage()} onClick={() => table.nextPage()}>Next</button>
-        <label htmlFor="page-size" className="ml-auto text-muted">Per page</label>
-        <select id="page-size" className="input" value={query.pageSize} onChange={(e) => table.setPageSize(Number(e.target.value))}>
-          {[10, 25, 50, 100].map((n) => <option key={n} value={n}>{n}</option>)}
-        </select>
-      </nav>
+      <Pager table={table} page={query.page} pageCount={pageCount} pageSize={query.pageSize} sizes={[10, 25, 50, 100]} id="page-size" />
     </div>
   );
 }

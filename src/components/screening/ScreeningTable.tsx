@@ -1,6 +1,7 @@
 /** The screening table: every permanent-grassland parcel with the level and CO2e of converting it, over the paged, sorted GET /api/screening. */
 import { useEffect, useMemo, useRef, useState } from 'react';
-import { createColumnHelper, flexRender, getCoreRowModel, useReactTable, type SortingState } from '@tanstack/react-table';
+import { createColumnHelper, getCoreRowModel, useReactTable, type SortingState } from '@tanstack/react-table';
+import { Pager, ServerTable } from '../table/ServerTable';
 import { LEVELS, RISK_LEVELS, type RiskLevel } from '~/lib/rules/levels';
 import { RiskBadge } from '../ui/RiskBadge';
 import { ApiError, apiFetch } from '../ui/api-client';
@@ -82,38 +83,7 @@ export function ScreeningTable({ initial, initialQuery, regions, ruleTitles }: {
       <p aria-live="polite" className="text-sm">{loading ? 'Loading…' : data.total === 0 ? 'No parcels match.' : `Parcels ${from}–${from + data.items.length - 1} of ${data.total}`}</p>
       {error && <p className="notice notice-warn" role="alert">⚠ {error}</p>}
 
-      <div className="panel hidden overflow-x-auto p-0 md:block">
-        <table className="data-table">
-          <thead>
-            {table.getHeaderGroups().map((g) => (
-              <tr key={g.id}>
-                {g.headers.map((h) => {
-                  const sorted = h.column.getIsSorted();
-                  const num = (h.column.columnDef.meta as { num?: boolean } | undefined)?.num;
-                  return (
-                    <th key={h.id} scope="col" className={num ? 'num' : undefined} aria-sort={sorted ? (sorted === 'asc' ? 'ascending' : 'descending') : undefined}>
-                      {!UNSORTABLE.has(h.column.id) ? (
-                        <button type="button" className="font-semibold hover:underline" onClick={h.column.getToggleSortingHandler()}>
-                          {flexRender(h.column.columnDef.header, h.getContext())}{sorted === 'asc' ? ' ▲' : sorted === 'desc' ? ' ▼' : ''}
-                        </button>
-                      ) : flexRender(h.column.columnDef.header, h.getContext())}
-                    </th>
-                  );
-                })}
-              </tr>
-            ))}
-          </thead>
-          <tbody>
-            {table.getRowModel().rows.map((r) => (
-              <tr key={r.id}>
-                {r.getVisibleCells().map((c) => (
-                  <td key={c.id} className={(c.column.columnDef.meta as { num?: boolean } | undefined)?.num ? 'num whitespace-nowrap' : undefined}>{flexRender(c.column.columnDef.cell, c.getContext())}</td>
-                ))}
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      </div>
+      <ServerTable table={table} sortable={(id) => !UNSORTABLE.has(id)} numClass="num whitespace-nowrap" />
 
       <ul className="flex flex-col gap-2 md:hidden" aria-label="Screened parcels">
         {table.getRowModel().rows.map(({ original: r }) => (
@@ -126,15 +96,7 @@ export function ScreeningTable({ initial, initialQuery, regions, ruleTitles }: {
         ))}
       </ul>
 
-      <nav aria-label="Pages" className="flex flex-wrap items-center gap-2 text-sm">
-        <button type="button" className="btn btn-quiet" disabled={!table.getCanPreviousPage()} onClick={() => table.previousPage()}>Previous</button>
-        <span>Page {query.page} of {pageCount}</span>
-        <button type="button" className="btn btn-quiet" disabled={!table.getCanNextPage()} onClick={() => table.nextPage()}>Next</button>
-        <label htmlFor="s-page-size" className="ml-auto text-muted">Per page</label>
-        <select id="s-page-size" className="input" value={query.pageSize} onChange={(e) => table.setPageSize(Number(e.target.value))}>
-          {[25, 50, 100].map((n) => <option key={n} value={n}>{n}</option>)}
-        </select>
-      </nav>
+      <Pager table={table} page={query.page} pageCount={pageCount} pageSize={query.pageSize} sizes={[25, 50, 100]} id="s-page-size" />
     </div>
   );
 }
