@@ -13,6 +13,7 @@ export default tseslint.config(
   js.configs.recommended,
   ...tseslint.configs.recommended,
   ...astro.configs.recommended,
+  ...astro.configs['jsx-a11y-recommended'],
   {
     languageOptions: { globals: { ...globals.node, ...globals.browser } },
     rules: {
