@@ -6,6 +6,7 @@
 import { db } from '../db/client';
 import { claimDueMail, markFailed, markSent } from './outbox';
 import { sendMail } from './send';
+import { logger } from '../log.mjs';
 import { onServerStop } from '../shutdown';
 
 const BATCH = 10;
@@ -39,7 +40,7 @@ export function startMailWorker(): void {
     try {
       while (!stopped && (await deliverDueMail()) === BATCH);
     } catch (err) {
-      console.error('mail worker:', (err as Error).message);
+      logger.error({ err }, 'mail worker error');
     }
     if (!stopped) setTimeout(() => (running = tick()), INTERVAL_MS).unref();
   };
