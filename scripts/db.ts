@@ -1,5 +1,7 @@
 /**
- * The project-local PostgreSQL cluster: `node --import tsx scripts/db.ts start|stop|status|create NAME`.
+ * The project-local PostgreSQL cluster: `node --import tsx scripts/db.ts start|stop|status|create NAME`,
+ * and backups of the app's database (local or DATABASE_URL): `backup [FILE]` and `restore FILE [--clean]`
+ * (pg_dump / pg_restore custom format; see scripts/db-backup.ts).
  *
  * Skipped entirely when DATABASE_URL points at a server we do not own (an authority's managed
  * database): then `start` only checks that the server answers and has PostGIS available.
@@ -145,6 +147,10 @@ async function checkExternal(url: string): Promise<void> {
 
 async function main(): Promise<void> {
   const cmd = process.argv[2];
+  if (cmd === 'backup' || cmd === 'restore') {
+    const { backup, restore } = await import('./db-backup');
+    return cmd === 'backup' ? backup(process.argv.slice(3), pgBin) : restore(process.argv.slice(3), pgBin);
+  }
   if (cmd === 'start') return externalUrl ? checkExternal(externalUrl) : start();
   if (externalUrl) return console.log('db: DATABASE_URL is set; the local cluster is not used');
   const { ids, pgdata } = layout();
@@ -155,7 +161,7 @@ async function main(): Promise<void> {
     return console.log('db: stopped');
   }
   if (cmd === 'status') return console.log(isRunning(pgdata, ids) ? `db: running on 127.0.0.1:${port}` : 'db: stopped');
-  fail('usage: db.ts start|stop|status');
+  fail('usage: db.ts start|stop|status|backup [FILE]|restore FILE [--clean]');
 }
 
 await main();

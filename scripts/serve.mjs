@@ -11,8 +11,16 @@
  * - Compression: static files from their precompressed copies (scripts/compressed-static.mjs);
  *   dynamic answers (HTML, JSON, CSV, GeoJSON, vector tiles) with Brotli or gzip at a low level
  *   that costs little CPU (the `compression` package).
- * Environment: HOST, PORT, SWARDKEEP_DIST (build folder), TRUSTED_PROXIES.
+ * - One JSON log line per request (pino, src/lib/log.mjs): request id, method, route pattern,
+ *   status, duration; never the raw path, query string, client address or user. The request id
+ *   comes from X-Request-Id when well formed, else is made here, and is echoed in the answer.
+ * - Graceful shutdown on SIGTERM/SIGINT: stop accepting, let requests in flight finish (up to
+ *   SHUTDOWN_GRACE_MS, default 15000), run the app's stop hooks (job queue, mail worker), then its
+ *   close hooks (the database pool), exit 0 (1 if requests had to be cut off).
+ * Environment: HOST, PORT, SWARDKEEP_DIST (build folder), TRUSTED_PROXIES, LOG_LEVEL, SHUTDOWN_GRACE_MS.
  */
+import { AsyncLocalStorage } from 'node:async_hooks';
+import { randomUUID } from 'node:crypto';
 import http from 'node:http';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
@@ -20,6 +28,7 @@ import compression from 'compression';
 import proxyaddr from 'proxy-addr';
 import zlib from 'node:zlib';
 import { compressedStatic } from './compressed-static.mjs';
+import { logger, REQUEST_ID } from '../src/lib/log.mjs';
 
 export function trustFrom(setting) {
   const value = (setting ?? '').trim();
@@ -87,42 +96,100 @@ function roomFor(res) {
   return () => (full && !res.destroyed ? new Promise((resolve) => (waiting = resolve)) : undefined);
 }
 
+/** The request's record (id, route pattern), read by the app through src/lib/request-context.ts. */
+const requestContext = new AsyncLocalStorage();
+globalThis[Symbol.for('swardkeep.request-context')] = requestContext;
+
+function requestIdOf(req) {
+  const given = req.headers['x-request-id'];
+  return typeof given === 'string' && REQUEST_ID.test(given) ? given : randomUUID();
+}
+
+/** Probes from the load balancer come every few seconds: logged at debug level unless they fail. */
+const PROBES = new Set(['/api/health', '/api/ready']);
+
+function logRequest(req, res, record, started) {
+  const durationMs = Math.round(Number(process.hrtime.bigint() - started) / 1e5) / 10;
+  const status = res.statusCode;
+  const line = { reqId: record.id, method: req.method, route: record.route, status, durationMs, ...(res.writableFinished ? {} : { aborted: true }) };
+  const level = status >= 500 ? 'error' : PROBES.has(record.route ?? '') && status < 400 ? 'debug' : 'info';
+  logger[level](line, 'request');
+}
+
 async function main() {
   process.env.ASTRO_NODE_AUTOSTART = 'disabled';
   const entry = path.resolve(process.env.SWARDKEEP_DIST ?? 'dist', 'server/entry.mjs');
   const { handler } = await import(pathToFileURL(entry).href);
   const serveStatic = compressedStatic(path.resolve(process.env.SWARDKEEP_DIST ?? 'dist', 'client'));
+  const inFlight = new Set();
+  let stopping = false;
   const server = http.createServer((req, res) => {
+    const started = process.hrtime.bigint();
+    const record = { id: requestIdOf(req), route: null };
+    req.headers['x-request-id'] = record.id;
+    res.setHeader('x-request-id', record.id);
+    if (stopping) res.setHeader('connection', 'close');
+    inFlight.add(res);
+    res.once('close', () => {
+      inFlight.delete(res);
+      logRequest(req, res, record, started);
+      if (stopping) server.closeIdleConnections();
+    });
     if (['TRACE', 'TRACK', 'CONNECT'].includes(req.method ?? '')) {
+      record.route = 'refused';
       res.writeHead(405, { allow: 'GET, HEAD, POST', 'content-type': 'text/plain; charset=utf-8', 'x-content-type-options': 'nosniff' });
       res.end(`${req.method} is not served.`);
       return;
     }
     prepare(req, res);
     const app = () => compress(req, res, () => handler(req, res, undefined, { room: roomFor(res) }));
-    serveStatic(req, res).then((served) => served || app(), app);
+    requestContext.run(record, () =>
+      serveStatic(req, res).then((served) => (served ? (record.route = 'static') : app()), app),
+    );
   });
   const host = process.env.HOST ?? '127.0.0.1';
   const port = Number(process.env.PORT ?? 4321);
   server.listen(port, host, () => {
-    console.log(`Swardkeep listening on http://${host}:${port}`);
+    logger.info({ host, port }, `Swardkeep listening on http://${host}:${port}`);
     // Warm up now rather than on a user's first request (src/lib/warm-up.ts).
     fetch(`http://${host.includes(':') ? `[${host}]` : host}:${port}/api/health`).then((r) => r.arrayBuffer(), () => undefined);
   });
-  // Stop at once on Ctrl-C or TERM: finish nothing new, drop idle keep-alive connections, let the
-  // app's stop hooks run (the job queue stops its workers), and exit within 5 s even if a request
-  // hangs (the callers' `wait` then returns and the port is free).
-  const stop = async () => {
+  const stop = async (signal) => {
+    if (stopping) {
+      logger.warn({ signal }, 'second signal: exiting at once');
+      process.exit(1);
+    }
+    stopping = true;
+    const graceMs = Number(process.env.SHUTDOWN_GRACE_MS ?? 15000);
+    logger.info({ signal, inFlight: inFlight.size, graceMs }, 'shutting down: no new connections, finishing requests in flight');
+    // Answers still to be written tell the client to close; idle keep-alive connections go now.
+    for (const res of inFlight) if (!res.headersSent) res.setHeader('connection', 'close');
     const closed = new Promise((resolve) => server.close(resolve));
     server.closeIdleConnections();
-    setTimeout(() => process.exit(0), 5000).unref();
-    const hooks = globalThis[Symbol.for('swardkeep.stop-hooks')] ?? [];
-    await Promise.allSettled(hooks.map((hook) => hook()));
+    let cutOff = false;
+    const grace = setTimeout(() => {
+      cutOff = inFlight.size > 0;
+      if (cutOff) logger.warn({ inFlight: inFlight.size }, 'requests still running after the grace period: closing them');
+      server.closeAllConnections();
+    }, graceMs);
     await closed;
-    process.exit(0);
+    clearTimeout(grace);
+    // Stop hooks (job queue, mail worker) may still use the database; close hooks (the pool) come last.
+    setTimeout(() => {
+      logger.error('stop hooks did not finish within 10 s: exiting');
+      process.exit(1);
+    }, 10_000).unref();
+    for (const name of ['swardkeep.stop-hooks', 'swardkeep.close-hooks']) {
+      const hooks = globalThis[Symbol.for(name)] ?? [];
+      const results = await Promise.allSettled(hooks.map((hook) => hook()));
+      for (const r of results) if (r.status === 'rejected') logger.error({ err: r.reason, hooks: name }, 'a shutdown hook failed');
+    }
+    logger.info({ cutOff }, 'stopped');
+    logger.flush();
+    process.exit(cutOff ? 1 : 0);
   };
-  process.on('SIGTERM', stop);
-  process.on('SIGINT', stop);
+  process.on('SIGTERM', () => void stop('SIGTERM'));
+  process.on('SIGINT', () => void stop('SIGINT'));
 }
 
 if (import.meta.url === pathToFileURL(process.argv[1] ?? '').href) await main();

@@ -7,6 +7,15 @@ source scripts/env.sh
 bash scripts/ensure-system.sh --browser
 bash scripts/ensure-deps.sh
 
+# The whole suite starts with the static checks (errors fail the run, warnings do not); a run of
+# chosen files (`bash scripts/test.sh tests/api/x.test.ts`) skips them to stay quick.
+if [ "$#" -eq 0 ]; then
+  echo "test: eslint"
+  npx eslint .
+  echo "test: astro check"
+  npx astro check --minimumSeverity error
+fi
+
 # The test cluster is throwaway: the speed-ups that give up crash safety are allowed here only.
 # (An already-running cluster keeps whatever settings it was started with.)
 export SWARDKEEP_LOCAL_DB=1 SWARDKEEP_DATABASES=swardkeep,swardkeep_test

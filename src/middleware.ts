@@ -10,6 +10,7 @@ import { declaredTooLarge, MAX_JSON_BYTES } from './lib/http/body';
 import { errorResponse, type ErrorCode } from './lib/http/errors';
 import { startJobQueue } from './lib/jobs/queue';
 import { startMailWorker } from './lib/mail/worker';
+import { requestRecord } from './lib/request-context';
 
 const STATE_CHANGING = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
 const NEVER = new Set(['TRACE', 'TRACK', 'CONNECT']);
@@ -99,6 +100,9 @@ export const onRequest = defineMiddleware(async (ctx, next) => {
   if (config().JOB_QUEUE === 'on') void startJobQueue().catch(() => undefined);
   ctx.locals.user = null;
   ctx.locals.sessionId = null;
+  // The request log line names the route pattern (/api/users/[id]), never the path or query.
+  const record = requestRecord();
+  if (record) record.route = ctx.routePattern;
   if (ctx.isPrerendered) return next();
   const refused = gate(ctx);
   if (refused) return secure(refused, ctx);

@@ -78,7 +78,11 @@ export async function fillRegister(knex: Knex, target: number): Promise<number> 
           open.push(seq);
         }
         const hash = entryHash(seq, prevHash, content);
-        cols[0].push(seq), cols[1].push(prevHash), cols[2].push(hash), cols[3].push(JSON.stringify(content)), cols[4].push(content.supersedes);
+        cols[0].push(seq);
+        cols[1].push(prevHash);
+        cols[2].push(hash);
+        cols[3].push(JSON.stringify(content));
+        cols[4].push(content.supersedes);
         prevHash = hash;
       }
       await trx.raw(

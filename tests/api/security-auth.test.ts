@@ -6,7 +6,7 @@
  * Settings are tested at their default and at one other value.
  */
 import type { ChildProcess } from 'node:child_process';
-import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, afterEach, describe, expect, it } from 'vitest';
 import { appEnv, SECOND_APP_PORT } from '../support/env';
 import { api, DEMO, signIn, type Session } from '../support/http';
 import { lastMailId, linkIn, testDb, waitForMail } from '../support/db';

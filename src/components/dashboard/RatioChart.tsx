@@ -1,5 +1,5 @@
 import { Bar, CartesianGrid, ComposedChart, Legend, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
-import { fmt, inkLegend, pct } from './format';
+import { inkLegend, pct } from './format';
 
 type Row = { key: string; label: string; referenceRatio: number | null; referenceYear: number | null; referenceSource: string | null; ratioNow: number | null; ratioAfterPending: number | null; limitRatio: number | null };
 

@@ -20,14 +20,37 @@ function drawTile(ctx: CanvasRenderingContext2D, colour: string, pattern: Patter
   ctx.strokeStyle = hexToRgba(colour, 0.85);
   ctx.fillStyle = hexToRgba(colour, 0.85);
   ctx.lineWidth = 1.2;
-  const line = (x1: number, y1: number, x2: number, y2: number) => (ctx.beginPath(), ctx.moveTo(x1, y1), ctx.lineTo(x2, y2), ctx.stroke());
-  if (pattern === 'hatch') (line(0, SIZE, SIZE, 0), line(-1, 1, 1, -1), line(SIZE - 1, SIZE + 1, SIZE + 1, SIZE - 1));
-  if (pattern === 'backslash') (line(0, 0, SIZE, SIZE), line(-1, SIZE - 1, 1, SIZE + 1), line(SIZE - 1, -1, SIZE + 1, 1));
-  if (pattern === 'cross') (line(0, SIZE, SIZE, 0), line(0, 0, SIZE, SIZE));
+  const line = (x1: number, y1: number, x2: number, y2: number) => {
+    ctx.beginPath();
+    ctx.moveTo(x1, y1);
+    ctx.lineTo(x2, y2);
+    ctx.stroke();
+  };
+  if (pattern === 'hatch') {
+    line(0, SIZE, SIZE, 0);
+    line(-1, 1, 1, -1);
+    line(SIZE - 1, SIZE + 1, SIZE + 1, SIZE - 1);
+  }
+  if (pattern === 'backslash') {
+    line(0, 0, SIZE, SIZE);
+    line(-1, SIZE - 1, 1, SIZE + 1);
+    line(SIZE - 1, -1, SIZE + 1, 1);
+  }
+  if (pattern === 'cross') {
+    line(0, SIZE, SIZE, 0);
+    line(0, 0, SIZE, SIZE);
+  }
   if (pattern === 'vertical') line(SIZE / 2, 0, SIZE / 2, SIZE);
   if (pattern === 'horizontal') line(0, SIZE / 2, SIZE, SIZE / 2);
-  if (pattern === 'dots') (ctx.beginPath(), ctx.arc(SIZE / 2, SIZE / 2, 1.6, 0, Math.PI * 2), ctx.fill());
-  if (pattern === 'solid') (ctx.fillStyle = hexToRgba(colour, 0.35), ctx.fillRect(0, 0, SIZE, SIZE));
+  if (pattern === 'dots') {
+    ctx.beginPath();
+    ctx.arc(SIZE / 2, SIZE / 2, 1.6, 0, Math.PI * 2);
+    ctx.fill();
+  }
+  if (pattern === 'solid') {
+    ctx.fillStyle = hexToRgba(colour, 0.35);
+    ctx.fillRect(0, 0, SIZE, SIZE);
+  }
 }
 
 export function fillFor(colour: string, pattern: Pattern): CanvasPattern | string {

@@ -95,13 +95,19 @@ export function UploadWizard({ purpose }: { purpose: 'parcels' | 'reference' }) 
     if (!layer.crs && epsg === null) return setError('Choose the coordinate reference system first.');
     const body = { layer: layer.name, mapping: Object.fromEntries(Object.entries(mapping).filter(([, v]) => v)), ...(epsg !== null ? { epsg } : {}) };
     const r = await run('validate', () => apiFetch<Report>(`/api/uploads/${staged.id}/validation`, { body }));
-    if (r) (setReport(r), go('report'));
+    if (r) {
+      setReport(r);
+      go('report');
+    }
   }
 
   async function save() {
     if (!staged) return;
     const r = await run('save', () => apiFetch<Saved>(`/api/uploads/${staged.id}/save`, { method: 'POST' }));
-    if (r) (setSaved(r), go('saved'));
+    if (r) {
+      setSaved(r);
+      go('saved');
+    }
   }
 
   async function cancel() {

@@ -30,4 +30,13 @@ export const listCapturedMail = defineSpec({
 
 export const health = defineSpec({ method: 'GET', path: '/api/health', tag: 'System', summary: 'Liveness and database check for the load balancer', access: 'public', response: z.object({ ok: z.boolean(), database: z.boolean() }) });
 
+export const ready = defineSpec({
+  method: 'GET',
+  path: '/api/ready',
+  tag: 'System',
+  summary: 'Readiness for traffic: the database answers and its migrations are current (503 with the reason otherwise)',
+  access: 'public',
+  response: z.object({ ready: z.literal(true), database: z.literal(true), migrations: z.object({ applied: z.number().int(), pending: z.number().int() }) }),
+});
+
 export const openapi = defineSpec({ method: 'GET', path: '/api/openapi.json', tag: 'System', summary: 'This OpenAPI document', access: 'public', response: z.record(z.string(), z.unknown()) });

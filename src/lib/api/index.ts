@@ -25,6 +25,7 @@ import * as users from './users';
 
 export const allSpecs: ApiSpec[] = [
   admin.health,
+  admin.ready,
   authRoutes.signIn,
   authRoutes.signOut,
   authRoutes.getSession,

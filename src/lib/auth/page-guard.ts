@@ -18,6 +18,7 @@ const NEXT_BASE = 'http://swardkeep.invalid';
  * turn into "//host"; control characters and backslashes are refused outright.
  */
 export function safeNext(next: string | null): string {
+  // eslint-disable-next-line no-control-regex -- control characters are exactly what this refuses
   if (!next || !next.startsWith('/') || /[\u0000-\u001f\u007f\\]/.test(next)) return '/work';
   let url: URL;
   try {

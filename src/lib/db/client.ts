@@ -3,6 +3,7 @@ import knexFactory, { type Knex } from 'knex';
 import pg from 'pg';
 import knexConfig from '../../../knexfile';
 import { config } from '../config';
+import { onServerClose } from '../shutdown';
 
 // int8 (count(*), bigserial ids) as JS numbers: our counts and ids stay far below 2^53.
 pg.types.setTypeParser(20, (v) => Number(v));
@@ -12,6 +13,9 @@ pg.types.setTypeParser(1700, (v) => Number(v));
 export type Db = Knex | Knex.Transaction;
 
 export const db: Knex = knexFactory({ ...knexConfig, connection: config().DATABASE_URL });
+
+// On shutdown the pool closes last, after the requests and workers that use it (scripts/serve.mjs).
+onServerClose(() => db.destroy());
 
 /** Runs fn in the given transaction, or opens one: services open it, repositories accept it. */
 export async function withTransaction<T>(outer: Db, fn: (trx: Knex.Transaction) => Promise<T>): Promise<T> {

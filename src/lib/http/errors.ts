@@ -12,6 +12,7 @@ export const ERROR_STATUS = {
   UNPROCESSABLE_CONTENT: 422,
   TOO_MANY_REQUESTS: 429,
   INTERNAL_SERVER_ERROR: 500,
+  SERVICE_UNAVAILABLE: 503,
 } as const;
 
 export type ErrorCode = keyof typeof ERROR_STATUS;

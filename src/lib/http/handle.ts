@@ -9,6 +9,8 @@ import { hasAnyRole, type Role } from '../auth/roles';
 import { readJson, rejectNul } from './body';
 import { errorResponse, HttpError, json, type Issue } from './errors';
 import type { ApiSpec } from './spec';
+import { logger } from '../log.mjs';
+import { requestRecord } from '../request-context';
 
 // Optional spec fields read as `Schema | undefined`: infer from the schema when there is one.
 type Infer<T> = [Exclude<T, undefined>] extends [never] ? undefined : Exclude<T, undefined> extends z.ZodType ? z.output<Exclude<T, undefined>> : undefined;
@@ -90,7 +92,8 @@ export function handle<S extends ApiSpec>(spec: S, fn: (input: HandlerInput<S>) 
     } catch (err) {
       const known = err instanceof HttpError ? err : inputErrorOf(err);
       if (known) return errorResponse(known.code, known.message, known.issues);
-      console.error(`${ctx.request.method} ${ctx.url.pathname} failed:`, err);
+      const record = requestRecord();
+      logger.error({ reqId: record?.id, method: ctx.request.method, route: record?.route ?? spec.path, err }, 'request failed');
       return errorResponse('INTERNAL_SERVER_ERROR', 'Something went wrong on the server. The error has been logged.');
     }
   };

@@ -9,6 +9,7 @@ import PgBoss from 'pg-boss';
 import { config } from '../config';
 import { sendDeadlineReminders, sendFollowUpOverdueNotices } from '../services/reminders';
 import { JOB_INFO, JOB_NAMES, type JobName } from './names';
+import { logger } from '../log.mjs';
 
 export const JOB_SCHEMA = 'pgboss';
 
@@ -30,7 +31,7 @@ async function ensureQueues(boss: PgBoss): Promise<void> {
 /** For `npm run migrate`: installs or upgrades pg-boss's schema and creates the queues, then disconnects. */
 export async function installJobQueue(connectionString = config().DATABASE_URL): Promise<void> {
   const boss = new PgBoss(options({ connectionString, supervise: false, schedule: false }));
-  boss.on('error', (e) => console.error('job queue:', e.message));
+  boss.on('error', (e) => logger.error({ err: e }, 'job queue error'));
   await boss.start();
   await ensureQueues(boss);
   await boss.stop({ graceful: false, wait: true, close: true });
@@ -49,7 +50,7 @@ function onServerStop(fn: () => Promise<void>): void {
 export function startJobQueue(): Promise<PgBoss> {
   started ??= (async () => {
     const boss = new PgBoss(options());
-    boss.on('error', (e) => console.error('job queue:', e.message));
+    boss.on('error', (e) => logger.error({ err: e }, 'job queue error'));
     await boss.start();
     await ensureQueues(boss);
     for (const name of JOB_NAMES) {
@@ -64,7 +65,7 @@ export function startJobQueue(): Promise<PgBoss> {
     return boss;
   })();
   started.catch((err) => {
-    console.error('job queue did not start:', (err as Error).message);
+    logger.error({ err }, 'job queue did not start');
     started = null;
   });
   return started;

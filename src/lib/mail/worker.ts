@@ -6,6 +6,8 @@
 import { db } from '../db/client';
 import { claimDueMail, markFailed, markSent } from './outbox';
 import { sendMail } from './send';
+import { logger } from '../log.mjs';
+import { onServerStop } from '../shutdown';
 
 const BATCH = 10;
 const INTERVAL_MS = 1500;
@@ -32,13 +34,20 @@ export async function deliverDueMail(): Promise<number> {
 export function startMailWorker(): void {
   if (started) return;
   started = true;
+  let stopped = false;
+  let running: Promise<void> = Promise.resolve();
   const tick = async () => {
     try {
-      while ((await deliverDueMail()) === BATCH);
+      while (!stopped && (await deliverDueMail()) === BATCH);
     } catch (err) {
-      console.error('mail worker:', (err as Error).message);
+      logger.error({ err }, 'mail worker error');
     }
-    setTimeout(tick, INTERVAL_MS).unref();
+    if (!stopped) setTimeout(() => (running = tick()), INTERVAL_MS).unref();
   };
-  setTimeout(tick, 200).unref();
+  setTimeout(() => (running = tick()), 200).unref();
+  // On shutdown: no further rounds; the round under way finishes (its claims commit or roll back).
+  onServerStop(async () => {
+    stopped = true;
+    await running;
+  });
 }

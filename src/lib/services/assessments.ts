@@ -24,7 +24,7 @@ import { checkPlausibility } from '../proposals/plausibility';
 import { gradeProposal, levelInfo, type GradeFacts } from '../rules';
 import { buildGradeFacts, publicFacts } from './assessment-facts';
 import { defaultSetId, loadPublished } from './factor-sets';
-import { applyTransition, lockProposal, mailRole, proposalUrl } from './proposals';
+import { applyTransition, mailRole, proposalUrl } from './proposals';
 import { loadRuleSet } from './rule-sets';
 
 type Inputs = z.output<typeof assessmentInputsSchema>;

@@ -1,6 +1,6 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { GisInputError } from '~/lib/gis/errors';
+import type { GisInputError } from '~/lib/gis/errors';
 import { epsgFromLegacyCrsName, parseGeoJson } from '~/lib/gis/ingest/geojson';
 
 const square = { type: 'Polygon', coordinates: [[[0, 0], [0.001, 0], [0.001, 0.001], [0, 0.001], [0, 0]]] };

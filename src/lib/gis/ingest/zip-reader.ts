@@ -25,6 +25,7 @@ function startsWith(bytes: Uint8Array, magic: number[]): boolean {
  */
 export function isUnsafeEntryName(name: string): boolean {
   if (name.length === 0 || name.startsWith('/') || /^[a-zA-Z]:/.test(name)) return true;
+  // eslint-disable-next-line no-control-regex -- control characters in an entry name are refused
   if (name.includes('\\') || /[\u0000-\u001f]/.test(name)) return true;
   return name.split('/').some((segment) => segment === '..');
 }
