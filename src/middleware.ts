@@ -1,6 +1,7 @@
 import { defineMiddleware } from 'astro:middleware';
 import { auth } from './lib/auth/auth';
 import { parseRoles } from './lib/auth/roles';
+import { verifyTileToken } from './lib/auth/tile-token';
 import { useSession } from './lib/auth/session-idle';
 import { config } from './lib/config';
 import { db } from './lib/db/client';
@@ -102,6 +103,12 @@ export const onRequest = defineMiddleware(async (ctx, next) => {
   if (ctx.isPrerendered) return next();
   const refused = gate(ctx);
   if (refused) return secure(refused, ctx);
+  // Vector tiles carry a short-lived signed token (lib/auth/tile-token.ts) instead of needing a session look-up.
+  const tileUser = ctx.url.pathname.startsWith('/api/tiles/') ? verifyTileToken(ctx.url.searchParams.get('t') ?? '') : null;
+  if (tileUser) {
+    ctx.locals.user = { id: tileUser, name: '', email: '', roles: [] };
+    return secure(await next(), ctx);
+  }
   const found = await auth.api.getSession({ headers: ctx.request.headers });
   if (found && !found.user.banned && (await useSession(db, found.session))) {
     const u = found.user as typeof found.user & { role?: string | null };
