@@ -67,6 +67,11 @@ async function main() {
       return;
     }
     prepare(req, res);
+    // API paths are never files: no file-system look-up for them.
+    if (req.url?.startsWith('/api/')) {
+      compress(req, res, () => handler(req, res));
+      return;
+    }
     serveStatic(req, res).then(
       (served) => served || compress(req, res, () => handler(req, res)),
       () => compress(req, res, () => handler(req, res)),
