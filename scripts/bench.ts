@@ -20,6 +20,7 @@ import { fromWgs84, toWgs84 } from '../src/lib/gis/crs';
 import { boxFeatures, collection, type Box } from '../gis/lib/layers';
 import { CORROWMERE } from '../gis/lib/regions';
 import { assessAndScreen } from './bench/assess';
+import { compareWithBare } from './bench/compare';
 import { BASE, call, pct, s, session, skipped, startServer } from './bench/server';
 
 const ZIP = process.env.BENCH_ZIP!;
@@ -179,6 +180,7 @@ try {
   if (!skipped('tiles')) {
     const map = await call<{ areas: { label: string; extent: number[] }[] }>(planner, 'GET', '/api/map');
     await tiles(planner, map.data.areas.filter((a) => a.label === 'bench.zip').at(-1)!.extent);
+    if (!skipped('compare')) await compareWithBare(planner, map.data.areas.filter((a) => a.label === 'bench.zip').at(-1)!.extent);
   }
   if (STATE !== 'warm') await assessAndScreen(planner, await session('assessor@tarrow.example'), batchId, COUNT);
 } finally {

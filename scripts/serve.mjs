@@ -143,9 +143,11 @@ async function main() {
     }
     prepare(req, res);
     const app = () => compress(req, res, () => handler(req, res, undefined, { room: roomFor(res) }));
-    requestContext.run(record, () =>
-      serveStatic(req, res).then((served) => (served ? (record.route = 'static') : app()), app),
-    );
+    requestContext.run(record, () => {
+      // API paths are never files: no file-system look-up for them.
+      if (req.url?.startsWith('/api/')) app();
+      else serveStatic(req, res).then((served) => (served ? (record.route = 'static') : app()), app);
+    });
   });
   const host = process.env.HOST ?? '127.0.0.1';
   const port = Number(process.env.PORT ?? 4321);

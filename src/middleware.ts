@@ -1,6 +1,8 @@
 import { defineMiddleware } from 'astro:middleware';
 import { auth } from './lib/auth/auth';
 import { parseRoles } from './lib/auth/roles';
+import { cachedSession, rememberSession, SESSION_CACHED_PATHS } from './lib/auth/session-cache';
+import { verifyTileToken } from './lib/auth/tile-token';
 import { useSession } from './lib/auth/session-idle';
 import { config } from './lib/config';
 import { db } from './lib/db/client';
@@ -106,11 +108,26 @@ export const onRequest = defineMiddleware(async (ctx, next) => {
   if (ctx.isPrerendered) return next();
   const refused = gate(ctx);
   if (refused) return secure(refused, ctx);
+  // Vector tiles carry a short-lived signed token (lib/auth/tile-token.ts) instead of needing a session look-up.
+  const tileUser = ctx.url.pathname.startsWith('/api/tiles/') ? verifyTileToken(ctx.url.searchParams.get('t') ?? '') : null;
+  if (tileUser) {
+    ctx.locals.user = { id: tileUser, name: '', email: '', roles: [] };
+    return secure(await next(), ctx);
+  }
+  // Pure calculators may recognise a session from a copy a few seconds old (lib/auth/session-cache.ts).
+  const copyAllowed = SESSION_CACHED_PATHS.has(ctx.url.pathname);
+  const copy = copyAllowed ? cachedSession(ctx.request.headers.get('cookie')) : undefined;
+  if (copy) {
+    ctx.locals.user = copy.user;
+    ctx.locals.sessionId = copy.sessionId;
+    return secure(await next(), ctx);
+  }
   const found = await auth.api.getSession({ headers: ctx.request.headers });
   if (found && !found.user.banned && (await useSession(db, found.session))) {
     const u = found.user as typeof found.user & { role?: string | null };
     ctx.locals.user = { id: u.id, name: u.name, email: u.email, roles: parseRoles(u.role) };
     ctx.locals.sessionId = found.session.id;
+    if (copyAllowed) rememberSession(ctx.request.headers.get('cookie'), { user: ctx.locals.user, sessionId: found.session.id });
   }
   const response = await next();
   await widenPolicy(response, MAP_PAGES.test(ctx.url.pathname) && response.status === 200);

@@ -81,7 +81,7 @@ export function ParcelMap({ canEdit }: { canEdit: boolean }) {
   async function refreshTiles() {
     const c = await apiFetch<MapConfig>('/api/map');
     setConfig(c);
-    handles.current?.tiles.setUrl(tileUrl(c.dataVersion));
+    handles.current?.tiles.setUrl(tileUrl(c));
   }
 
   function endEditing() {

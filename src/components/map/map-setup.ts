@@ -16,7 +16,36 @@ import CircleStyle from 'ol/style/Circle';
 import { fillFor } from './patterns';
 import type { MapConfig } from './types';
 
-export const tileUrl = (version: number) => `/api/tiles/{z}/{x}/{y}.mvt?v=${version}`;
+/** Tile URLs name the data version (immutable per version) and carry the short-lived tile token instead of a session look-up. */
+export const tileUrl = (c: Pick<MapConfig, 'dataVersion' | 'tileToken'>) => `/api/tiles/{z}/{x}/{y}.mvt?v=${c.dataVersion}&t=${encodeURIComponent(c.tileToken)}`;
+
+/** Well inside a token's life (10 to 20 minutes, lib/auth/tile-token.ts). */
+const TOKEN_REFRESH_MS = 4 * 60_000;
+
+/**
+ * Asks for the map configuration again every few minutes, and at once when tiles fail to load (a
+ * token that expired while the tab slept), and points the tiles at the new URL when the data version
+ * or the token changed. Stops when the map is taken off the page.
+ */
+function keepTileUrlFresh(map: OlMap, tiles: VectorTileSource): void {
+  let busy = false;
+  const refresh = () => {
+    if (busy) return;
+    busy = true;
+    fetch('/api/map', { credentials: 'same-origin' })
+      .then((r) => (r.ok ? (r.json() as Promise<MapConfig>) : null))
+      .then((c) => {
+        if (c && tiles.getUrls()?.[0] !== tileUrl(c)) tiles.setUrl(tileUrl(c));
+      })
+      .catch(() => undefined)
+      .finally(() => setTimeout(() => (busy = false), 10_000));
+  };
+  const timer = setInterval(refresh, TOKEN_REFRESH_MS);
+  tiles.on('tileloaderror', refresh);
+  map.on('change:target', () => {
+    if (!map.getTarget()) clearInterval(timer);
+  });
+}
 
 const PARCEL = new Style({ stroke: new Stroke({ color: '#1d2320', width: 1 }), fill: new Fill({ color: 'rgba(255,255,255,0.01)' }) });
 const PARCEL_ARABLE = new Style({ stroke: new Stroke({ color: '#1d2320', width: 1, lineDash: [4, 3] }), fill: new Fill({ color: 'rgba(255,255,255,0.01)' }) });
@@ -52,7 +81,7 @@ export function styleFor(config: MapConfig, visible: () => Set<string>) {
 }
 
 export function createMap(target: HTMLElement, config: MapConfig, visible: () => Set<string>): MapHandles {
-  const tiles = new VectorTileSource({ format: new MVT({ idProperty: undefined }), url: tileUrl(config.dataVersion), maxZoom: 16 });
+  const tiles = new VectorTileSource({ format: new MVT({ idProperty: undefined }), url: tileUrl(config), maxZoom: 16 });
   const tileLayer = new VectorTileLayer({ source: tiles, style: styleFor(config, visible), renderMode: 'hybrid' });
   const highlight = new VectorSource();
   const edit = new VectorSource();
@@ -71,6 +100,7 @@ export function createMap(target: HTMLElement, config: MapConfig, visible: () =>
     view: new View({ center: [0, 0], zoom: 2, maxZoom: 20 }),
   });
   if (config.areas[0]) fitLonLat(map, config.areas[0].extent);
+  keepTileUrlFresh(map, tiles);
   return { map, tiles, tileLayer, highlight, edit, snap };
 }
 

@@ -110,10 +110,11 @@ export const mapConfig = defineSpec({
   method: 'GET',
   path: '/api/map',
   tag: 'Map',
-  summary: 'Map set-up: data version (for tile URLs), where the parcels are (per upload), legend of the current reference layers, optional basemap URL',
+  summary: 'Map set-up: data version and tile token (for tile URLs), where the parcels are (per upload), legend of the current reference layers, optional basemap URL',
   access: 'signed-in',
   response: z.object({
     dataVersion: z.number(),
+    tileToken: z.string(),
     areas: z.array(z.object({ label: z.string(), count: z.number(), extent: z.array(z.number()).length(4) })),
     legend: z.array(z.object({ kind: z.string(), label: z.string(), version: z.number().nullable(), classes: z.record(z.string(), z.object({ label: z.string(), colour: z.string(), pattern: z.string() })) })),
     basemapUrl: z.string().nullable(),
@@ -127,10 +128,13 @@ export const tile = defineSpec({
   method: 'GET',
   path: '/api/tiles/{z}/{x}/{y}.mvt',
   tag: 'Map',
-  summary: 'Vector tile (Mapbox Vector Tile) with layers "parcels" and "reference"; ETag = map data version',
+  summary: 'Vector tile (Mapbox Vector Tile) with layers "parcels" and "reference"; ETag = map data version; signed in by session or by the tile token (?t=)',
   access: 'signed-in',
   params: z.object({ z: tileInt(22, 'Zoom'), x: tileInt(2 ** 22 - 1, 'x'), y: tileInt(2 ** 22 - 1, 'y') }),
-  query: z.object({ v: z.coerce.number().int().nonnegative().optional() }),
+  query: z.object({
+    v: z.coerce.number().int().nonnegative().optional(),
+    t: z.string().max(300).optional().describe('Tile token from GET /api/map (tileToken): authorises the tile without a session'),
+  }),
   response: null,
   responseType: 'application/vnd.mapbox-vector-tile',
 });

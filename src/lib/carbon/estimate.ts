@@ -41,13 +41,16 @@ function estimateParsed(req: EstimateRequest, set: FactorSetDocument, shapes: Ma
   if (shapes && !req.uncertainty) {
     const { areaHa: _a, ...rest } = req;
     const key = JSON.stringify(rest);
-    shape = shapes.get(key) ?? shapes.set(key, shapeOf(req, set)).get(key)!;
+    shape = shapes.get(key) ?? shapes.set(key, sharedShape(shapeOf(req, set))).get(key)!;
   } else shape = shapeOf(req, set);
   const { plan } = shape;
   const D = req.transitionYears;
   const figures = computeFigures(plan, req.areaHa, D, (k) => plan.factors.get(k)!.value);
-  const factors = shapes ? shape.factors.map((f) => ({ ...f })) : shape.factors;
-  const cautions = [...shape.cautions];
+  // In a batch, results of one kind share their (frozen) factors and cautions: thousands of parcels
+  // then carry one copy, and a serialiser can write it once (see lib/http/shared-json.ts).
+  const shared = shapes !== null && !req.uncertainty;
+  const factors = shape.factors;
+  const cautions = shared ? shape.cautions : [...shape.cautions];
   let uncertainty: EstimateResult['uncertainty'];
   if (req.uncertainty) {
     const mc = runMonteCarlo(plan, req.areaHa, D, req.uncertainty.runs, req.uncertainty.seed);
@@ -70,8 +73,16 @@ function estimateParsed(req: EstimateRequest, set: FactorSetDocument, shapes: Ma
     ...(uncertainty ? { uncertainty } : {}),
     cautions,
   };
-  assertAllFinite(result);
+  if (shared) assertAllFinite({ ...result, factors: [], cautions: [] });
+  else assertAllFinite(result);
   return result;
+}
+
+/** A batch's shape: factors and cautions checked once and frozen, as every result of its kind shares them. */
+function sharedShape(shape: Shape): Shape {
+  assertAllFinite(shape.factors, 'result.factors');
+  for (const f of shape.factors) Object.freeze(f);
+  return { ...shape, factors: Object.freeze(shape.factors) as UsedFactor[], cautions: Object.freeze(shape.cautions) as string[] };
 }
 
 /**

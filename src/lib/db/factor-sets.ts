@@ -93,3 +93,29 @@ export async function getSetting<T>(db: Db, key: string): Promise<T | null> {
 export async function putSetting(db: Db, key: string, value: unknown, by: string | null): Promise<void> {
   await db('app_setting').insert({ key, value: JSON.stringify(value), updated_by: by }).onConflict('key').merge({ value: JSON.stringify(value), updated_by: by, updated_at: db.fn.now() });
 }
+
+/** Which published version to compute with, and its confirmations, without the (large) document. */
+export type PublishedStamp = { setId: string; version: number | null; confirmations: ConfirmationRow[] };
+
+/**
+ * One small statement: the set (named, else the `default-factor-set` setting, else `fallbackId`), its
+ * newest published version (or the pinned one, when published) and that version's confirmations.
+ * `version` is null when there is no such published version.
+ */
+export async function publishedStamp(db: Db, setId: string | null, version: number | undefined, fallbackId: string): Promise<PublishedStamp> {
+  const r = await db.raw(
+    `with s as (select coalesce(?::text, (select value #>> '{}' from app_setting where key = 'default-factor-set'), ?::text) as id)
+     select s.id as set_id, v.version,
+            coalesce((select json_agg(json_build_object('table_key', c.table_key, 'confirmed_by_name', u.name, 'confirmed_at', c.confirmed_at, 'document', c.document, 'page', c.page) order by c.table_key)
+                      from factor_table_confirmation c left join "user" u on u.id = c.confirmed_by where c.set_id = v.set_id and c.version = v.version), '[]'::json) as confirmations
+     from s left join lateral (select set_id, version from factor_set_version where set_id = s.id and status = 'published' and (?::int is null or version = ?::int) order by version desc limit 1) v on true`,
+    [setId, fallbackId, version ?? null, version ?? null],
+  );
+  const row = r.rows[0] as { set_id: string; version: number | null; confirmations: (Omit<ConfirmationRow, 'confirmed_at'> & { confirmed_at: string })[] };
+  return { setId: row.set_id, version: row.version, confirmations: row.confirmations.map((c) => ({ ...c, confirmed_at: new Date(c.confirmed_at) })) };
+}
+
+/** The stored document of a version (published ones never change). */
+export async function versionDocument(db: Db, setId: string, version: number): Promise<FactorSetDocument> {
+  return (await db('factor_set_version').where({ set_id: setId, version }).first('document')).document;
+}

@@ -20,9 +20,14 @@ export type Alternative = {
 };
 
 /** What `POST /api/estimates` answers for a result (see the estimates service), kept pure here. */
-function asApi(result: EstimateResult, set: FactorSetDocument, open: Set<string>) {
-  const used = tablesUsed(result.factors);
-  return { ...result, signOffReady: canSignOff(set, used), unconfirmedTablesUsed: used.filter((t) => open.has(t)) };
+function asApi(result: EstimateResult, set: FactorSetDocument, open: Set<string>, byFactors?: WeakMap<object, { signOffReady: boolean; unconfirmedTablesUsed: string[] }>) {
+  let tables = byFactors?.get(result.factors);
+  if (!tables) {
+    const used = tablesUsed(result.factors);
+    tables = { signOffReady: canSignOff(set, used), unconfirmedTablesUsed: used.filter((t) => open.has(t)) };
+    byFactors?.set(result.factors, tables);
+  }
+  return { ...result, signOffReady: tables.signOffReady, unconfirmedTablesUsed: [...tables.unconfirmedTablesUsed] };
 }
 
 export type ApiEstimate = ReturnType<typeof asApi>;
@@ -32,14 +37,17 @@ export function estimatesAsApi(requests: (ParcelRequest | null)[], set: FactorSe
   const open = new Set(unconfirmedTables(set));
   const present = requests.filter((r): r is ParcelRequest => r !== null);
   const results = estimateBatch(present, set);
+  // Results of one kind share their factors (estimateBatch): the tables they use are worked out once.
+  const byFactors = new WeakMap<object, { signOffReady: boolean; unconfirmedTablesUsed: string[] }>();
   let at = 0;
-  return requests.map((r) => (r ? asApi(results[at++]!, set, open) : null));
+  return requests.map((r) => (r ? asApi(results[at++]!, set, open, byFactors) : null));
 }
 
 /** Point total and joint range of a set of areas: merged by kind of change (linear), one draw per factor per run. */
 export function jointTotal(requests: EstimateRequest[], set: FactorSetDocument, runs: number, seed: number): { co2eTotal: number; co2eLow: number; co2eHigh: number; cautions: string[] } {
   if (requests.length === 0) return { co2eTotal: 0, co2eLow: 0, co2eHigh: 0, cautions: [] };
-  const merged = mergeLinearRequests(requests.map((r) => estimateRequestSchema.parse(r)));
+  // Merged first, then parsed (a handful instead of thousands): requests that merge differ only in area and soils.
+  const merged = mergeLinearRequests(requests).map((r) => estimateRequestSchema.parse(r));
   const years = merged[0]!.transitionYears;
   const point = merged.reduce((s, r) => s + estimateLandUseChange(r, set).co2eTotal, 0);
   const mc = runJointMonteCarlo(merged.map((r) => ({ plan: buildPlan(r, set), areaHa: r.areaHa })), years, runs, seed);

@@ -4,7 +4,7 @@ import type { z } from 'zod';
 import type { estimateBodySchema } from '../api/estimates';
 import { db } from '../db/client';
 import { HttpError } from '../http/errors';
-import { defaultSetId, loadPublished } from './factor-sets';
+import { resolvePublished } from './factor-sets';
 
 export type EstimateBody = z.output<typeof estimateBodySchema>;
 
@@ -25,10 +25,9 @@ export function asHttpError(err: unknown): unknown {
 }
 
 export async function runEstimate(body: EstimateBody) {
-  const setId = body.factorSet ?? (await defaultSetId(db));
-  const set = await loadPublished(db, setId, body.factorSetVersion);
+  const set = await resolvePublished(db, body.factorSet, body.factorSetVersion);
   try {
-    return estimateWithSet({ ...body, factorSet: setId }, set);
+    return estimateWithSet({ ...body, factorSet: set.id }, set);
   } catch (err) {
     throw asHttpError(err);
   }

@@ -1,5 +1,6 @@
 /** Factor-set use cases: shipping the built-in sets, cloning, editing drafts, publishing, confirming. */
 import { BUILT_IN_FACTOR_SETS, DEFAULT_FACTOR_SET_ID, factorSetDocumentSchema, type FactorSetDocument, type Uncertainty } from '../carbon';
+import { LRUCache } from 'lru-cache';
 import { recordAudit } from '../db/audit';
 import { db, withTransaction, type Db } from '../db/client';
 import * as sets from '../db/factor-sets';
@@ -37,22 +38,52 @@ export async function defaultSetId(conn: Db = db): Promise<string> {
   return (await sets.getSetting<string>(conn, DEFAULT_SET_KEY)) ?? DEFAULT_FACTOR_SET_ID;
 }
 
-/** The document as computed with: a published version (the newest unless pinned), confirmations merged. */
-export async function loadPublished(conn: Db, setId: string, version?: number): Promise<FactorSetDocument> {
-  const row = await sets.getVersion(conn, setId, version ?? 'latest');
-  if (!row || row.status !== 'published') {
-    const what = version ? `version ${version} of factor set "${setId}"` : `factor set "${setId}"`;
+/**
+ * Documents of published versions, kept in this process: a published version never changes, so
+ * (set, version) names one fixed document, and the same (set, version, confirmations) one merged
+ * document. What is current (the default set, the newest version, the confirmations) is read from
+ * PostgreSQL on every call, in one small statement, so no instance computes with a stale choice.
+ */
+const publishedDocs = new LRUCache<string, FactorSetDocument>({ max: 32 });
+const mergedDocs = new LRUCache<string, FactorSetDocument>({ max: 64 });
+
+function deepFreeze<T>(o: T): T {
+  if (o && typeof o === 'object' && !Object.isFrozen(o)) {
+    Object.freeze(o);
+    for (const v of Object.values(o)) deepFreeze(v);
+  }
+  return o;
+}
+
+/** The default set's id when `setId` is not given (one statement with the version look-up). */
+export async function resolvePublished(conn: Db, setId: string | undefined, version?: number): Promise<FactorSetDocument> {
+  const stamp = await sets.publishedStamp(conn, setId ?? null, version, DEFAULT_FACTOR_SET_ID);
+  if (stamp.version === null) {
+    const what = version ? `version ${version} of factor set "${stamp.setId}"` : `factor set "${stamp.setId}"`;
     throw new HttpError('UNPROCESSABLE_CONTENT', `There is no published ${what}.`, [{ path: ['factorSet'], message: `Unknown or unpublished ${what}.` }]);
   }
-  return withStoredConfirmations(conn, row.document, row.set_id, row.version);
+  const id = `${stamp.setId}@${stamp.version}`;
+  const key = `${id}|${JSON.stringify(stamp.confirmations)}`;
+  const merged = mergedDocs.get(key);
+  if (merged) return merged;
+  let doc = publishedDocs.get(id);
+  if (!doc) publishedDocs.set(id, (doc = deepFreeze(await sets.versionDocument(conn, stamp.setId, stamp.version))));
+  const out = deepFreeze(withConfirmations(doc, confirmationsOf(stamp.confirmations)));
+  mergedDocs.set(key, out);
+  return out;
 }
+
+/** The document as computed with: a published version (the newest unless pinned), confirmations merged. */
+export async function loadPublished(conn: Db, setId: string, version?: number): Promise<FactorSetDocument> {
+  return resolvePublished(conn, setId, version);
+}
+
+const confirmationsOf = (rows: sets.ConfirmationRow[]) =>
+  rows.map((c) => ({ tableKey: c.table_key, by: c.confirmed_by_name ?? 'a former user', at: c.confirmed_at.toISOString(), document: c.document, page: c.page }));
 
 export async function withStoredConfirmations(conn: Db, doc: FactorSetDocument, setId: string, version: number): Promise<FactorSetDocument> {
   const confirmations = await sets.listConfirmations(conn, setId, version);
-  return withConfirmations(
-    doc,
-    confirmations.map((c) => ({ tableKey: c.table_key, by: c.confirmed_by_name ?? 'a former user', at: c.confirmed_at.toISOString(), document: c.document, page: c.page })),
-  );
+  return withConfirmations(doc, confirmationsOf(confirmations));
 }
 
 export async function cloneSet(by: Caller, input: { fromId: string; fromVersion?: number; id: string; title: string; description: string; reason: string }): Promise<{ id: string; version: number }> {

@@ -1,32 +1,56 @@
-/** The map: its configuration (data version, extent, legend, basemap) and vector tiles cached by data version. */
+/** The map: its configuration (data version, tile token, extent, legend, basemap) and vector tiles kept by data version. */
+import { LRUCache } from 'lru-cache';
 import { db } from '../db/client';
 import { getGisSettings } from '../db/gis-settings';
+import { issueTileToken } from '../auth/tile-token';
 import { mapVersion, parcelAreas, parcelsInBox } from '../db/parcels';
 import { PARCEL_MIN_ZOOM, renderTile } from '../db/tiles';
 import { HttpError } from '../http/errors';
 import { currentLegend } from './reference-layers';
 
-export async function mapConfig() {
+export async function mapConfig(userId: string) {
   const [version, areas, legend, settings] = await Promise.all([mapVersion(db), parcelAreas(db), currentLegend(), getGisSettings(db)]);
-  return { dataVersion: version, areas, legend, basemapUrl: settings['map.basemap-url'], parcelMinZoom: PARCEL_MIN_ZOOM };
+  return { dataVersion: version, tileToken: issueTileToken(userId), areas, legend, basemapUrl: settings['map.basemap-url'], parcelMinZoom: PARCEL_MIN_ZOOM };
 }
 
 /**
- * A tile answered with an ETag of the map data version (kept in PostgreSQL, so every
- * instance agrees). A request naming the current version (?v=) may be cached for a day: a
- * change bumps the version and the client asks for new URLs. A matching If-None-Match gets 304.
+ * Rendered tiles of a data version, kept in this process by (version, z, x, y). Every change the
+ * tiles show bumps the version in the same transaction (map_data_version), and a tile is read in one
+ * statement with the version it was drawn at, so a kept tile is a fixed fact of that version, never
+ * stale, whichever instance bumped it. Bounded by bytes; the least recently used go first.
+ */
+const rendered = new LRUCache<string, Uint8Array>({ maxSize: 64 * 1024 * 1024, sizeCalculation: (t) => t.byteLength + 64 });
+/** Versions this process has seen drawn: an If-None-Match naming one of them can be answered without a query. */
+const seenVersions = new LRUCache<number, true>({ max: 64 });
+
+/**
+ * A tile answered with an ETag of the map data version. A request naming the version it was drawn
+ * at (?v=, as the map pages' URLs do) is immutable and may be cached for a day: a change bumps the
+ * version and the pages ask for new URLs. Such a request is answered from the kept tiles when this
+ * process has drawn it before, else with one statement (tile and version). A matching If-None-Match
+ * on a versioned URL gets 304 without a query.
  */
 export async function tileResponse(request: Request, z: number, x: number, y: number, askedVersion: number | undefined): Promise<Response> {
   const max = 2 ** z;
   if (x >= max || y >= max) throw new HttpError('BAD_REQUEST', `Tile ${z}/${x}/${y} does not exist: x and y must be below ${max} at zoom ${z}.`);
-  const version = await mapVersion(db);
+  const immutable = { 'cache-control': 'private, max-age=86400, immutable', vary: 'Cookie' };
+  if (askedVersion !== undefined && seenVersions.has(askedVersion)) {
+    const etag = `"m${askedVersion}"`;
+    if (request.headers.get('if-none-match') === etag) return new Response(null, { status: 304, headers: { etag, ...immutable } });
+    const kept = rendered.get(`${askedVersion}/${z}/${x}/${y}`);
+    if (kept) return tileAnswer(kept, { etag, ...immutable });
+  }
+  const { tile, version } = await renderTile(db, z, x, y);
+  seenVersions.set(version, true);
+  rendered.set(`${version}/${z}/${x}/${y}`, tile);
   const etag = `"m${version}"`;
-  const cache = askedVersion === version ? 'private, max-age=86400, immutable' : 'private, no-cache';
-  const headers = { etag, 'cache-control': cache, vary: 'Cookie' };
+  const headers = askedVersion === version ? { etag, ...immutable } : { etag, 'cache-control': 'private, no-cache', vary: 'Cookie' };
   if (request.headers.get('if-none-match') === etag) return new Response(null, { status: 304, headers });
-  const tile = await renderTile(db, z, x, y);
-  return new Response(tile as Uint8Array<ArrayBuffer>, { status: 200, headers: { ...headers, 'content-type': 'application/vnd.mapbox-vector-tile' } });
+  return tileAnswer(tile, headers);
 }
+
+const tileAnswer = (tile: Uint8Array, headers: Record<string, string>) =>
+  new Response(tile as Uint8Array<ArrayBuffer>, { status: 200, headers: { ...headers, 'content-type': 'application/vnd.mapbox-vector-tile' } });
 
 export const MAX_SNAP_FEATURES = 1500;
 
