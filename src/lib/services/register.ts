@@ -207,7 +207,7 @@ export function registerCsv(f: store.RegisterFilter, room?: Room): ReadableStrea
     yield stringify([[...CSV_COLUMNS]]);
     const { where, args } = store.filterSql({ ...f, region: await regionKeyOf(f.region) });
     for await (const rows of readAhead((after) => store.csvBatchAfter(db, after, EXPORT_BATCH, where, args))) if (rows.length) yield stringify(rows.map((r) => CSV_COLUMNS.map((c) => r[c] ?? '')));
-  })());
+  })(), room);
 }
 
 /** RFC 7946 FeatureCollection: one Feature per entry, its parcels as one MultiPolygon (WGS 84 lon/lat). */
@@ -231,7 +231,7 @@ export function registerGeoJson(f: store.RegisterFilter, room?: Room): ReadableS
       first = false;
     }
     yield ']}';
-  })());
+  })(), room);
 }
 
 export type CorrectionInput = { kind: 'correction' | 'appeal-outcome'; note: string; outcome?: Outcome; reasons?: string; conditions?: Condition[]; effectiveDate?: string };
