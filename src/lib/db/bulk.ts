@@ -7,9 +7,9 @@ import type { Db } from './client';
  * after autovacuum has run once after an earlier upload) and picks a nested loop over the whole
  * batch. Call it after bulk writes only, never per single-row edit. Tables are named by the
  * caller from a fixed list, in one order (upload_staging_feature, parcel, land_use_event,
- * parcel_overlay_run, parcel_overlay, reference_feature), so concurrent saves queue, not deadlock.
+ * parcel_overlay_run, parcel_overlay, reference_feature, reference_piece), so concurrent saves queue, not deadlock.
  */
-export const BULK_TABLES = ['upload_staging_feature', 'parcel', 'land_use_event', 'parcel_overlay_run', 'parcel_overlay', 'reference_feature', 'screening_result'] as const;
+export const BULK_TABLES = ['upload_staging_feature', 'parcel', 'land_use_event', 'parcel_overlay_run', 'parcel_overlay', 'reference_feature', 'reference_piece', 'screening_result'] as const;
 export async function analyzeAfterBulkWrite(conn: Db, ...tables: (typeof BULK_TABLES)[number][]): Promise<void> {
   for (const t of BULK_TABLES) if (tables.includes(t)) await conn.raw(`analyze ${t}`);
 }

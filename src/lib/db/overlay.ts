@@ -1,7 +1,11 @@
 /**
  * Parcel × reference-layer overlay in PostGIS: for each parcel and layer version, the area in
- * each class (ST_Intersection, union of the pieces per class so overlapping features of one
- * class are not counted twice, ST_Area on geography = ellipsoidal m²) and the covered share.
+ * each class (ST_Area on geography = ellipsoidal m²) and the covered share. Parcels are joined
+ * with the version's pieces (reference_piece: each feature cut by ST_Subdivide when the version
+ * was made; GiST on both sides), so every test is against a small polygon. Containment first: a
+ * parcel covered by a piece is its own piece and needs no ST_Intersection. The pieces of one feature do not overlap, so their
+ * areas add up; when two features of one class meet a parcel, the pieces are unioned first, so
+ * overlapping features are not counted twice.
  */
 import type { ReferenceKind } from '../gis/reference-kinds';
 import type { OverlayRow } from '../gis/overlay-summary';
@@ -25,33 +29,40 @@ export async function computeOverlay(db: Db, sel: ParcelSelector, versionIds: nu
   const bulk = !('parcelIds' in sel) || sel.parcelIds.length > 100;
   const fp = parcelFilter(sel, 'p');
   await db.raw(`delete from parcel_overlay_run where layer_version_id = any(?::bigint[]) and parcel_id in (select id from parcel where ${f.sql})`, [versionIds, ...f.args]);
+  // The class areas go to a scratch table first, so each run row is written once with its covered share.
+  await db.raw('drop table if exists overlay_scratch');
   await db.raw(
-    `insert into parcel_overlay_run (parcel_id, layer_version_id, covered_share)
-     select p.id, v, 0 from parcel p cross join unnest(?::bigint[]) v where ${fp.sql}`,
-    [versionIds, ...fp.args],
-  );
-  if (bulk) await analyzeAfterBulkWrite(db, 'parcel_overlay_run');
-  await db.raw(
-    `insert into parcel_overlay (parcel_id, layer_version_id, class, area_ha, share)
-     select pid, vid, class, a / 10000, least(1, a / 10000 / nullif(parcel_ha, 0))
-     from (
-       select p.id pid, r.version_id vid, r.class, p.area_ha parcel_ha,
-              case when count(*) = 1 then st_area((array_agg(
-                     case when st_coveredby(p.geom, r.geom) then p.geom else st_intersection(p.geom, r.geom) end))[1]::geography)
-                   else st_area(st_union(case when st_coveredby(p.geom, r.geom) then p.geom else st_intersection(p.geom, r.geom) end)::geography) end a
-       from parcel p join reference_feature r on r.version_id = any(?::bigint[]) and r.geom && p.geom and st_intersects(p.geom, r.geom)
+    `create temp table overlay_scratch on commit drop as
+     with hit as materialized (
+       select p.id pid, q.version_id vid, q.class, q.feature_id fid, p.area_ha parcel_ha, p.geom pg, q.geom qg, st_coveredby(p.geom, q.geom) inside
+       from parcel p join reference_piece q on q.version_id = any(?::bigint[]) and q.geom && p.geom and st_intersects(p.geom, q.geom)
        where ${fp.sql}
-       group by p.id, r.version_id, r.class, p.area_ha
+     ), cut as (
+       select pid, vid, class, fid, parcel_ha, inside,
+              case when inside then pg else st_intersection(pg, qg) end piece
+       from hit
+     )
+     select pid, vid, class, a / 10000 area_ha, least(1, a / 10000 / nullif(parcel_ha, 0)) share
+     from (
+       select pid, vid, class, parcel_ha,
+              case when count(distinct fid) = 1 then sum(st_area(piece::geography))
+                   else st_area(st_union(piece)::geography) end a
+       from cut
+       group by pid, vid, class, parcel_ha
      ) x where a > 0`,
     [versionIds, ...fp.args],
   );
-  if (bulk) await analyzeAfterBulkWrite(db, 'parcel_overlay');
   await db.raw(
-    `update parcel_overlay_run r set covered_share = least(1, s.total)
-     from (select parcel_id, layer_version_id, sum(share) total from parcel_overlay where layer_version_id = any(?::bigint[]) group by 1, 2) s
-     where r.parcel_id = s.parcel_id and r.layer_version_id = s.layer_version_id`,
-    [versionIds],
+    `insert into parcel_overlay_run (parcel_id, layer_version_id, covered_share)
+     select p.id, v, least(1, coalesce(s.total, 0))
+     from parcel p cross join unnest(?::bigint[]) v
+     left join (select pid, vid, sum(share) total from overlay_scratch group by 1, 2) s on s.pid = p.id and s.vid = v
+     where ${fp.sql}`,
+    [versionIds, ...fp.args],
   );
+  await db.raw('insert into parcel_overlay (parcel_id, layer_version_id, class, area_ha, share) select pid, vid, class, area_ha, share from overlay_scratch');
+  await db.raw('drop table overlay_scratch');
+  if (bulk) await analyzeAfterBulkWrite(db, 'parcel_overlay_run', 'parcel_overlay');
 }
 
 /** The overlay rows of one parcel against the current published version of each kind. */
