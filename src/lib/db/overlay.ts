@@ -1,11 +1,13 @@
 /**
  * Parcel × reference-layer overlay in PostGIS: for each parcel and layer version, the area in
  * each class (ST_Area on geography = ellipsoidal m²) and the covered share. Parcels are joined
- * with the version's pieces (reference_piece: each feature cut by ST_Subdivide when the version
- * was made; GiST on both sides), so every test is against a small polygon. Containment first: a
- * parcel covered by a piece is its own piece and needs no ST_Intersection. The pieces of one feature do not overlap, so their
- * areas add up; when two features of one class meet a parcel, the pieces are unioned first, so
- * overlapping features are not counted twice.
+ * with the version's pieces (reference_piece: each feature cut by ST_Subdivide when it was
+ * written; GiST on both sides), so every test is against a small polygon. Containment first: a
+ * parcel inside a piece (ST_Contains(piece, parcel), which for polygons with area is ST_CoveredBy
+ * and several times faster) counts its whole ellipsoidal area and needs no ST_Intersection. The
+ * pieces of one feature do not overlap, so their areas add up; when pieces of two features of one
+ * class meet a parcel (rare), the pieces are unioned, so overlapping features are not counted twice.
+ * Only scalars are sorted and grouped; geometry never goes through a sort.
  */
 import type { ReferenceKind } from '../gis/reference-kinds';
 import type { OverlayRow } from '../gis/overlay-summary';
@@ -34,22 +36,25 @@ export async function computeOverlay(db: Db, sel: ParcelSelector, versionIds: nu
   await db.raw(
     `create temp table overlay_scratch on commit drop as
      with hit as materialized (
-       select p.id pid, q.version_id vid, q.class, q.feature_id fid, p.area_ha parcel_ha, p.geom pg, q.geom qg, st_coveredby(p.geom, q.geom) inside
+       select p.id pid, q.version_id vid, q.class, q.feature_id fid, q.id qid,
+              case when st_contains(q.geom, p.geom) then null else st_area(st_intersection(p.geom, q.geom)::geography) end a
        from parcel p join reference_piece q on q.version_id = any(?::bigint[]) and q.geom && p.geom and st_intersects(p.geom, q.geom)
        where ${fp.sql}
-     ), cut as (
-       select pid, vid, class, fid, parcel_ha, inside,
-              case when inside then pg else st_intersection(pg, qg) end piece
-       from hit
+     ), whole as materialized (
+       select p.id pid, st_area(p.geom::geography) a from parcel p where p.id in (select pid from hit where a is null)
+     ), grp as (
+       select h.pid, h.vid, h.class, count(distinct h.fid) nf, sum(coalesce(h.a, w.a)) a
+       from hit h left join whole w on h.a is null and w.pid = h.pid group by 1, 2, 3
+     ), multi as (
+       select g.pid, g.vid, g.class,
+              st_area(st_union(case when st_contains(q.geom, p.geom) then p.geom else st_intersection(p.geom, q.geom) end)::geography) a
+       from grp g join hit h on h.pid = g.pid and h.vid = g.vid and h.class = g.class
+       join parcel p on p.id = h.pid join reference_piece q on q.id = h.qid
+       where g.nf > 1 group by 1, 2, 3
      )
-     select pid, vid, class, a / 10000 area_ha, least(1, a / 10000 / nullif(parcel_ha, 0)) share
-     from (
-       select pid, vid, class, parcel_ha,
-              case when count(distinct fid) = 1 then sum(st_area(piece::geography))
-                   else st_area(st_union(piece)::geography) end a
-       from cut
-       group by pid, vid, class, parcel_ha
-     ) x where a > 0`,
+     select g.pid, g.vid, g.class, coalesce(m.a, g.a) / 10000 area_ha, least(1, coalesce(m.a, g.a) / 10000 / nullif(p.area_ha, 0)) share
+     from grp g left join multi m on m.pid = g.pid and m.vid = g.vid and m.class = g.class join parcel p on p.id = g.pid
+     where coalesce(m.a, g.a) > 0`,
     [versionIds, ...fp.args],
   );
   await db.raw(
