@@ -2,7 +2,7 @@ import type { Knex } from 'knex';
 
 /**
  * Reference features cut into small pieces (ST_Subdivide, at most 256 vertices each), made once per
- * feature by a trigger when the feature is written (so no insert path can leave a feature without pieces). The overlay tests parcels against the pieces: a test against a
+ * feature by triggers when features are written (so no insert path can leave a feature without pieces). The overlay tests parcels against the pieces: a test against a
  * small piece is cheap without PostGIS's prepared-geometry cache, and a parcel inside a piece needs no
  * intersection at all, so the overlay stays close to linear in the parcel count. Pieces of one feature
  * do not overlap; pieces of different features may (as the features may).
@@ -19,16 +19,20 @@ export async function up(knex: Knex): Promise<void> {
     t.index(['feature_id'], 'reference_piece_feature_idx');
   });
   await knex.raw('create index reference_piece_geom_gist on reference_piece using gist (geom)');
+  // Statement-level triggers over the transition table: one set-based insert per statement, not one per feature.
   await knex.raw(`create function reference_piece_make() returns trigger language plpgsql as $$
     begin
-      if tg_op = 'UPDATE' then delete from reference_piece where feature_id = new.id; end if;
+      if tg_op = 'UPDATE' then delete from reference_piece where feature_id in (select id from new_rows); end if;
       insert into reference_piece (version_id, feature_id, class, geom)
-        select new.version_id, new.id, new.class, d.geom from (select (st_dump(st_subdivide(new.geom, 256))).geom) d
-        where geometrytype(d.geom) = 'POLYGON';
+        select f.version_id, f.id, f.class, d.geom from new_rows f
+        cross join lateral (select (st_dump(st_subdivide(f.geom, 256))).geom) d
+        where geometrytype(d.geom) = 'POLYGON' order by f.id;
       return null;
     end $$`);
-  await knex.raw(`create trigger reference_piece_make after insert or update of geom, class, version_id on reference_feature
-    for each row execute function reference_piece_make()`);
+  await knex.raw(`create trigger reference_piece_make after insert on reference_feature
+    referencing new table as new_rows for each statement execute function reference_piece_make()`);
+  await knex.raw(`create trigger reference_piece_remake after update on reference_feature
+    referencing new table as new_rows for each statement execute function reference_piece_make()`);
   await knex.raw(`insert into reference_piece (version_id, feature_id, class, geom)
     select f.version_id, f.id, f.class, d.geom from reference_feature f
     cross join lateral (select (st_dump(st_subdivide(f.geom, 256))).geom) d where geometrytype(d.geom) = 'POLYGON' order by f.id`);
@@ -37,6 +41,7 @@ export async function up(knex: Knex): Promise<void> {
 
 export async function down(knex: Knex): Promise<void> {
   await knex.raw('drop trigger reference_piece_make on reference_feature');
+  await knex.raw('drop trigger reference_piece_remake on reference_feature');
   await knex.raw('drop function reference_piece_make()');
   await knex.schema.dropTable('reference_piece');
 }
