@@ -3,16 +3,18 @@
 # (swardkeep_test_bench, reset before each fresh run), the built app on BENCH_PORT and generated
 # zipped shapefiles in .data/bench/ (BENCH_SIZES, default "20000 100000"). Each size is saved
 # BENCH_RUNS times (default 2) on a fresh database and as often on one that has already taken an
-# upload; the slowest run of each size is printed last. See scripts/bench.ts.
+# upload; the slowest run of each size is printed last. See scripts/bench.ts. Before the runs of a size,
+# ogr2ogr and shp2pgsql|psql load the same zip BENCH_REF_RUNS times (default 3; scripts/bench/reference-loads.ts),
+# and the end compares upload-to-saved and peak server memory with them (scripts/bench/ingest-summary.ts).
 # Then the public register at BENCH_REGISTER_ENTRIES entries (default 100000; scripts/bench/register.ts).
 # Switches for iterating: BENCH_SIZES=none (register only), BENCH_STATES (default "fresh warm"; "again" re-runs the assessment and
-# screening on the database a fresh run left, without an upload), BENCH_SKIP (any of huge, tiles,
+# screening on the database a fresh run left, without an upload), BENCH_SKIP (any of ref, huge, tiles,
 # assess, screening, register).
 set -euo pipefail
 cd "$(dirname "$0")/.."
 source scripts/env.sh
 
-bash scripts/ensure-system.sh
+bash scripts/ensure-system.sh --bench
 bash scripts/ensure-deps.sh
 export BENCH_PORT="${BENCH_PORT:-4395}"
 export BENCH_SIZES="${BENCH_SIZES:-${BENCH_COUNT:-20000 100000}}" BENCH_RUNS="${BENCH_RUNS:-2}" BENCH_STATES="${BENCH_STATES:-fresh warm}"
@@ -22,11 +24,14 @@ node --import tsx scripts/db.ts start
 build_if_stale
 require_port "$BENCH_PORT" "the benchmark server" BENCH_PORT
 results=$(mktemp)
+export BENCH_REF_RESULTS=$(mktemp)
 skip=",$(echo "${BENCH_SKIP:-}" | tr ' ' ','),"
 for size in $BENCH_SIZES; do
   [ "$size" = none ] && continue
   zip=".data/bench/parcels-${size}.zip"
   [ -s "$zip" ] || node --import tsx gis/make-bench.ts "$zip" "$size"
+  # The floor: ogr2ogr and shp2pgsql|psql load the same zip plainly (scripts/bench/reference-loads.ts).
+  case "$skip" in *,ref,*) ;; *) node --import tsx scripts/bench/reference-loads.ts "$zip" "$size" ;; esac
   for state in $BENCH_STATES; do
     for run in $(seq 1 "$BENCH_RUNS"); do
       echo "=== ${size} parcels, ${state} database, run ${run} of ${BENCH_RUNS}"
@@ -42,7 +47,8 @@ echo
 echo "slowest upload-to-saved per size (a plan flip shows here as an outlier):"
 sort -k1,1n -k3,3gr "$results" | awk '!seen[$1]++ { printf "  %6d parcels: slowest %6.2f s (%s database)\n", $1, $3, $2 }'
 awk '{ runs[$1] = runs[$1] sprintf(" %s:%.2f", $2, $3) } END { for (k in runs) printf "  %6d parcels, every run (s):%s\n", k, runs[k] }' "$results" | sort -n
-rm -f "$results"
+[ -s "$results" ] && node --import tsx scripts/bench/ingest-summary.ts "$results"
+rm -f "$results" "$BENCH_REF_RESULTS"
 case "$skip" in
   *,register,*) ;;
   *)

@@ -1,7 +1,8 @@
 #!/usr/bin/env bash
 # Installs the Debian packages Swardkeep needs when they are missing: PostgreSQL 15 + PostGIS
-# (skipped when DATABASE_URL names an existing server), proj-bin (projinfo) and, with --browser, Chromium for the
-# browser tests. Needs root or sudo; never downloads anything but Debian packages.
+# (skipped when DATABASE_URL names an existing server), proj-bin (projinfo), with --browser Chromium for the
+# browser tests and with --bench gdal-bin (ogr2ogr) and postgis (shp2pgsql), the plain loads the benchmark
+# compares the ingest with. Needs root or sudo; never downloads anything but Debian packages.
 set -euo pipefail
 need=()
 if [ -z "${DATABASE_URL:-}" ] || [ "${SWARDKEEP_LOCAL_DB:-}" = 1 ]; then
@@ -10,9 +11,15 @@ if [ -z "${DATABASE_URL:-}" ] || [ "${SWARDKEEP_LOCAL_DB:-}" = 1 ]; then
 fi
 # PROJ's command-line tools: projinfo identifies .prj files without an EPSG code (src/lib/gis/proj-cli.server.ts).
 command -v projinfo >/dev/null || need+=(proj-bin)
-if [ "${1:-}" = "--browser" ]; then
-  [ -x /usr/bin/chromium ] || need+=(chromium)
-fi
+for arg in "$@"; do
+  case "$arg" in
+    --browser) [ -x /usr/bin/chromium ] || need+=(chromium) ;;
+    --bench)
+      command -v ogr2ogr >/dev/null || need+=(gdal-bin)
+      command -v shp2pgsql >/dev/null || need+=(postgis)
+      ;;
+  esac
+done
 [ ${#need[@]} -eq 0 ] && exit 0
 echo "setup: installing Debian packages: ${need[*]}"
 sudo=""

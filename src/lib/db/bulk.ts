@@ -7,9 +7,20 @@ import type { Db } from './client';
  * after autovacuum has run once after an earlier upload) and picks a nested loop over the whole
  * batch. Call it after bulk writes only, never per single-row edit. Tables are named by the
  * caller from a fixed list, in one order (upload_staging_feature, parcel, land_use_event,
- * parcel_overlay_run, parcel_overlay, reference_feature), so concurrent saves queue, not deadlock.
+ * parcel_overlay_run, parcel_overlay, reference_feature, reference_piece), so concurrent saves queue, not deadlock.
  */
-export const BULK_TABLES = ['upload_staging_feature', 'parcel', 'land_use_event', 'parcel_overlay_run', 'parcel_overlay', 'reference_feature', 'screening_result'] as const;
+export const BULK_TABLES = ['upload_staging_feature', 'parcel', 'land_use_event', 'parcel_overlay_run', 'parcel_overlay', 'reference_feature', 'reference_piece', 'screening_result'] as const;
 export async function analyzeAfterBulkWrite(conn: Db, ...tables: (typeof BULK_TABLES)[number][]): Promise<void> {
   for (const t of BULK_TABLES) if (tables.includes(t)) await conn.raw(`analyze ${t}`);
+}
+
+/**
+ * Plans the rest of the caller's transaction without parallel workers (SET LOCAL). An upload's
+ * validation and save are many short GiST-probe joins over one batch: each parallel worker first
+ * loads PostGIS, which costs more than it saves (measured on the 2-core bench machine: the
+ * register overlap check 0.43-0.61 s serial against 0.77-1.03 s parallel), and the machine's
+ * cores are better left to the other requests an ingest must not block.
+ */
+export async function serialPlans(conn: Db): Promise<void> {
+  await conn.raw('set local max_parallel_workers_per_gather = 0');
 }

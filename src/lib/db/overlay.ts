@@ -1,7 +1,13 @@
 /**
  * Parcel × reference-layer overlay in PostGIS: for each parcel and layer version, the area in
- * each class (ST_Intersection, union of the pieces per class so overlapping features of one
- * class are not counted twice, ST_Area on geography = ellipsoidal m²) and the covered share.
+ * each class (ST_Area on geography = ellipsoidal m²) and the covered share. Parcels are joined
+ * with the version's pieces (reference_piece: each feature cut by ST_Subdivide when it was
+ * written; GiST on both sides), so every test is against a small polygon. Containment first: a
+ * parcel inside a piece (ST_Contains(piece, parcel), which for polygons with area is ST_CoveredBy
+ * and several times faster) counts its whole ellipsoidal area and needs no ST_Intersection. The
+ * pieces of one feature do not overlap, so their areas add up; when pieces of two features of one
+ * class meet a parcel (rare), the pieces are unioned, so overlapping features are not counted twice.
+ * Only scalars are sorted and grouped; geometry never goes through a sort.
  */
 import type { ReferenceKind } from '../gis/reference-kinds';
 import type { OverlayRow } from '../gis/overlay-summary';
@@ -25,33 +31,43 @@ export async function computeOverlay(db: Db, sel: ParcelSelector, versionIds: nu
   const bulk = !('parcelIds' in sel) || sel.parcelIds.length > 100;
   const fp = parcelFilter(sel, 'p');
   await db.raw(`delete from parcel_overlay_run where layer_version_id = any(?::bigint[]) and parcel_id in (select id from parcel where ${f.sql})`, [versionIds, ...f.args]);
+  // The class areas go to a scratch table first, so each run row is written once with its covered share.
+  await db.raw('drop table if exists overlay_scratch');
+  await db.raw(
+    `create temp table overlay_scratch on commit drop as
+     with hit as materialized (
+       select p.id pid, q.version_id vid, q.class, q.feature_id fid, q.id qid,
+              case when st_contains(q.geom, p.geom) then null else st_area(st_intersection(p.geom, q.geom)::geography) end a
+       from parcel p join reference_piece q on q.version_id = any(?::bigint[]) and q.geom && p.geom and st_intersects(p.geom, q.geom)
+       where ${fp.sql}
+     ), whole as materialized (
+       select p.id pid, st_area(p.geom::geography) a from parcel p where p.id in (select pid from hit where a is null)
+     ), grp as (
+       select h.pid, h.vid, h.class, count(distinct h.fid) nf, sum(coalesce(h.a, w.a)) a
+       from hit h left join whole w on h.a is null and w.pid = h.pid group by 1, 2, 3
+     ), multi as (
+       select g.pid, g.vid, g.class,
+              st_area(st_union(case when st_contains(q.geom, p.geom) then p.geom else st_intersection(p.geom, q.geom) end)::geography) a
+       from grp g join hit h on h.pid = g.pid and h.vid = g.vid and h.class = g.class
+       join parcel p on p.id = h.pid join reference_piece q on q.id = h.qid
+       where g.nf > 1 group by 1, 2, 3
+     )
+     select g.pid, g.vid, g.class, coalesce(m.a, g.a) / 10000 area_ha, least(1, coalesce(m.a, g.a) / 10000 / nullif(p.area_ha, 0)) share
+     from grp g left join multi m on m.pid = g.pid and m.vid = g.vid and m.class = g.class join parcel p on p.id = g.pid
+     where coalesce(m.a, g.a) > 0`,
+    [versionIds, ...fp.args],
+  );
   await db.raw(
     `insert into parcel_overlay_run (parcel_id, layer_version_id, covered_share)
-     select p.id, v, 0 from parcel p cross join unnest(?::bigint[]) v where ${fp.sql}`,
+     select p.id, v, least(1, coalesce(s.total, 0))
+     from parcel p cross join unnest(?::bigint[]) v
+     left join (select pid, vid, sum(share) total from overlay_scratch group by 1, 2) s on s.pid = p.id and s.vid = v
+     where ${fp.sql}`,
     [versionIds, ...fp.args],
   );
-  if (bulk) await analyzeAfterBulkWrite(db, 'parcel_overlay_run');
-  await db.raw(
-    `insert into parcel_overlay (parcel_id, layer_version_id, class, area_ha, share)
-     select pid, vid, class, a / 10000, least(1, a / 10000 / nullif(parcel_ha, 0))
-     from (
-       select p.id pid, r.version_id vid, r.class, p.area_ha parcel_ha,
-              case when count(*) = 1 then st_area((array_agg(
-                     case when st_coveredby(p.geom, r.geom) then p.geom else st_intersection(p.geom, r.geom) end))[1]::geography)
-                   else st_area(st_union(case when st_coveredby(p.geom, r.geom) then p.geom else st_intersection(p.geom, r.geom) end)::geography) end a
-       from parcel p join reference_feature r on r.version_id = any(?::bigint[]) and r.geom && p.geom and st_intersects(p.geom, r.geom)
-       where ${fp.sql}
-       group by p.id, r.version_id, r.class, p.area_ha
-     ) x where a > 0`,
-    [versionIds, ...fp.args],
-  );
-  if (bulk) await analyzeAfterBulkWrite(db, 'parcel_overlay');
-  await db.raw(
-    `update parcel_overlay_run r set covered_share = least(1, s.total)
-     from (select parcel_id, layer_version_id, sum(share) total from parcel_overlay where layer_version_id = any(?::bigint[]) group by 1, 2) s
-     where r.parcel_id = s.parcel_id and r.layer_version_id = s.layer_version_id`,
-    [versionIds],
-  );
+  await db.raw('insert into parcel_overlay (parcel_id, layer_version_id, class, area_ha, share) select pid, vid, class, area_ha, share from overlay_scratch');
+  await db.raw('drop table overlay_scratch');
+  if (bulk) await analyzeAfterBulkWrite(db, 'parcel_overlay_run', 'parcel_overlay');
 }
 
 /** The overlay rows of one parcel against the current published version of each kind. */

@@ -58,7 +58,8 @@ export async function insertVersionFromStaging(
      select ?, fields->>'class', fields->>'label', geom from upload_staging_feature where staging_id = ? and status <> 'rejected' order by idx`,
     [row.id, v.stagingId],
   );
-  await analyzeAfterBulkWrite(db, 'reference_feature');
+  // The trigger reference_piece_make has cut each feature into pieces for the overlay (reference_piece).
+  await analyzeAfterBulkWrite(db, 'reference_feature', 'reference_piece');
   await db('reference_layer_version').where({ id: row.id }).update({ feature_count: inserted.rowCount ?? 0 });
   return { id: row.id, version: next };
 }

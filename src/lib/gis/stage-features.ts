@@ -9,7 +9,7 @@ import type { CrsDefinition } from './crs';
 import { mapParcelFeature, mapReferenceFeature, type ParcelMapping, type ReferenceMapping } from './field-mapping';
 import { referenceKey } from './references';
 import type { RawFeature } from './types';
-import { validateFeatures, type FeatureToValidate, type ValidationIssue } from './validate';
+import { seenNothing, validateFeatures, type FeatureToValidate, type SeenSoFar, type ValidationIssue } from './validate';
 
 export type StageOptions = {
   minAreaM2: number;
@@ -33,7 +33,8 @@ function isSelfIntersectingPolygon(raw: Geometry | null, issues: ValidationIssue
   return !!raw && (raw.type === 'Polygon' || raw.type === 'MultiPolygon') && issues.some((i) => i.code === 'self-intersection');
 }
 
-export function stageFeatures(features: RawFeature[], purpose: 'parcels' | 'reference', mapping: ParcelMapping | ReferenceMapping, options: StageOptions): StagedFeature[] {
+/** `seen` and `offset` stage a file chunk by chunk: duplicates are found across chunks and `idx` counts from the file's start. */
+export function stageFeatures(features: RawFeature[], purpose: 'parcels' | 'reference', mapping: ParcelMapping | ReferenceMapping, options: StageOptions, seen: SeenSoFar = seenNothing(), offset = 0): StagedFeature[] {
   const mapped = features.map((f) => {
     if ('kind' in mapping) {
       const r = mapReferenceFeature(f.properties, mapping);
@@ -44,14 +45,14 @@ export function stageFeatures(features: RawFeature[], purpose: 'parcels' | 'refe
     return { reference: r.reference, fields: { ...r.fields, statedAreaHa, referenceKey: r.reference ? referenceKey(r.reference) : null }, issues: r.issues, stated: r.fields.statedArea };
   });
   const toValidate: FeatureToValidate[] = features.map((f, i) => ({ geometry: f.geometry, reference: purpose === 'parcels' ? mapped[i]!.reference : null, statedArea: mapped[i]!.stated }));
-  const report = validateFeatures(toValidate, options);
+  const report = validateFeatures(toValidate, options, seen, offset);
   return report.features.map((r, i) => {
     const issues = [...mapped[i]!.issues, ...r.issues];
     const rejected = issues.some((x) => x.severity === 'error');
     const status = rejected ? 'rejected' : r.status;
     const raw = features[i]!.geometry;
     return {
-      idx: i,
+      idx: offset + i,
       status,
       reference: mapped[i]!.reference,
       issues,

@@ -1,3 +1,4 @@
+import { createHash } from 'node:crypto';
 import type { Geometry, MultiPolygon, Polygon } from 'geojson';
 import { crossesAntimeridian, splitAtAntimeridian } from './antimeridian';
 import { measureGeometry } from './area';
@@ -96,10 +97,22 @@ function checkStatedArea(f: FeatureToValidate, areaM2: number, perimeterM: numbe
  * coordinate ranges, slivers, references (invisible or mixed-script characters refused),
  * duplicates (same reference key or same geometry: the later one is rejected) and stated vs ellipsoidal area. Pure; order of `features` is kept.
  */
-export function validateFeatures(features: FeatureToValidate[], options: ValidationOptions = {}): ValidationReport {
-  const seenRefs = new Map<string, number>();
-  const seenGeoms = new Map<string, number>();
-  const reports = features.map((f, index): FeatureReport => {
+/**
+ * What validation remembers across the file to find duplicates: reference keys and boundary
+ * keys of the features seen so far (boundary keys as SHA-256 digests, so a large file's keys stay
+ * small). Pass one to validateFeatures chunk after chunk to validate a file in pieces.
+ */
+export interface SeenSoFar {
+  refs: Map<string, { index: number; reference: string }>;
+  geoms: Map<string, number>;
+}
+export const seenNothing = (): SeenSoFar => ({ refs: new Map(), geoms: new Map() });
+
+/** `offset` is the index of the first feature in the whole file, when `features` is one chunk of it. */
+export function validateFeatures(features: FeatureToValidate[], options: ValidationOptions = {}, seen: SeenSoFar = seenNothing(), offset = 0): ValidationReport {
+  const { refs: seenRefs, geoms: seenGeoms } = seen;
+  const reports = features.map((f, at): FeatureReport => {
+    const index = offset + at;
     const reference = f.reference?.trim() || null;
     const cut = crossesAntimeridian(f.geometry) ? splitAtAntimeridian(f.geometry as Polygon | MultiPolygon) : null;
     const checked = checkGeometry(cut ?? f.geometry);
@@ -122,7 +135,7 @@ export function validateFeatures(features: FeatureToValidate[], options: Validat
       }
       const mismatch = checkStatedArea(f, m.areaM2, m.perimeterM, options);
       if (mismatch) issues.push(mismatch);
-      const key = geometryKey(geometry);
+      const key = createHash('sha256').update(geometryKey(geometry)).digest('base64');
       const twin = seenGeoms.get(key);
       if (twin !== undefined) issues.push({ code: 'duplicate-geometry', message: `Same geometry as feature ${twin + 1}.`, severity: 'error' });
       else seenGeoms.set(key, index);
@@ -132,9 +145,9 @@ export function validateFeatures(features: FeatureToValidate[], options: Validat
     else if (reference) {
       const key = referenceKey(reference);
       const twin = seenRefs.get(key);
-      const same = twin === undefined ? '' : features[twin]!.reference?.trim() === reference ? '' : ` as "${features[twin]!.reference?.trim()}" (the same once case, width and look-alike letters are set aside)`;
-      if (twin !== undefined) issues.push({ code: 'duplicate-reference', message: `Parcel reference "${reference}" is also used by feature ${twin + 1}${same}.`, severity: 'error' });
-      else seenRefs.set(key, index);
+      const same = twin === undefined ? '' : twin.reference === reference ? '' : ` as "${twin.reference}" (the same once case, width and look-alike letters are set aside)`;
+      if (twin !== undefined) issues.push({ code: 'duplicate-reference', message: `Parcel reference "${reference}" is also used by feature ${twin.index + 1}${same}.`, severity: 'error' });
+      else seenRefs.set(key, { index, reference });
     }
     const rejected = issues.some((i) => i.severity === 'error');
     if (rejected && checked.geometry === null) geometry = null;

@@ -9,6 +9,7 @@ import { randomUUID } from 'node:crypto';
 import { recordAudit } from '../db/audit';
 import { db, withTransaction } from '../db/client';
 import { computeOverlay } from '../db/overlay';
+import { serialPlans } from '../db/bulk';
 import { bumpMapVersion, insertEventsFromStaging, insertParcelsFromStaging } from '../db/parcels';
 import { currentVersions, insertVersionFromStaging } from '../db/reference-layers';
 import * as uploads from '../db/uploads';
@@ -36,6 +37,7 @@ function isUniqueViolation(error: unknown): error is { code: string; detail?: st
 export async function saveUpload(by: Caller, id: string): Promise<SaveResult> {
   try {
     return await withTransaction(db, async (trx) => {
+      await serialPlans(trx);
       const staging = await loadOwnStaging(trx, by, id, true);
       if (!staging.validated_at || !staging.report_summary) throw new HttpError('CONFLICT', 'Validate the upload before saving it.');
       const summary = staging.report_summary as { total: number; rejected: number };

@@ -21,6 +21,7 @@ import * as uploads from '../db/uploads';
 import { HttpError } from '../http/errors';
 import { zodIssues, type Caller } from '../http/handle';
 import { addStagedIssues } from '../db/parcel-integrity';
+import { serialPlans } from '../db/bulk';
 import { checkStagedOverlaps } from './parcel-integrity';
 import { checkStagedTerritory } from './territory';
 import { loadOwnStaging, sourceKey } from './upload-stage';
@@ -84,6 +85,7 @@ export async function validateUpload(by: Caller, id: string, input: ValidationIn
     throw isGisInputError(error) ? gisError(error) : error;
   });
   const result = await withTransaction(db, async (trx) => {
+    await serialPlans(trx);
     await uploads.replaceStagedFeatureChunks(trx, id, chunks);
     await uploads.repairWithMakeValid(trx, id, validationOptions(settings, crs, staging.purpose).minAreaM2);
     if (staging.purpose === 'parcels') {

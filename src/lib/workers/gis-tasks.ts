@@ -5,15 +5,15 @@
  */
 import { HttpError } from '../http/errors';
 import { layerInfo, parseUpload, type UploadFormat } from '../services/upload-parse';
-import { stagedFeatureChunks } from '../gis/staged-json';
+import { STAGE_CHUNK, stagedFeatureChunks } from '../gis/staged-json';
 import { reproject, type CrsDefinition } from '../gis/crs';
 import { isGisInputError } from '../gis/errors';
 import type { ParcelMapping, ReferenceMapping } from '../gis/field-mapping';
 import { layerToWgs84 } from '../gis/ingest/to-wgs84';
 import type { GisSettings } from '../gis/settings';
-import { stageFeatures, type StageOptions } from '../gis/stage-features';
+import { stageFeatures, type StagedFeature, type StageOptions } from '../gis/stage-features';
 import type { RawFeature } from '../gis/types';
-import { validateFeatures, type FeatureToValidate, type ValidationOptions } from '../gis/validate';
+import { seenNothing, validateFeatures, type FeatureToValidate, type SeenSoFar, type ValidationOptions } from '../gis/validate';
 
 export type TaskError = { kind: 'gis'; code: string; message: string } | { kind: 'http'; code: string; message: string; issues?: unknown[] };
 export type TaskResult<T> = { ok: true; value: T } | { ok: false; error: TaskError };
@@ -28,6 +28,22 @@ async function guarded<T>(fn: () => T | Promise<T>): Promise<TaskResult<T>> {
   }
 }
 
+/**
+ * Reprojects, validates and serialises STAGE_CHUNK features at a time, letting go of each chunk's
+ * parsed features once its JSON is written, so only the parsed file and one chunk's copies are in
+ * memory at once (not a reprojected, a validated and a serialised copy of the whole file).
+ */
+function stageInChunks(features: (RawFeature | undefined)[], stage: (part: RawFeature[], seen: SeenSoFar, offset: number) => StagedFeature[]): string[] {
+  const seen = seenNothing();
+  const out: string[] = [];
+  for (let at = 0; at < features.length; at += STAGE_CHUNK) {
+    const part = features.slice(at, at + STAGE_CHUNK) as RawFeature[];
+    out.push(...stagedFeatureChunks(stage(part, seen, at)));
+    features.fill(undefined, at, at + part.length);
+  }
+  return out;
+}
+
 export const tasks = {
   parse: (i: { bytes: Uint8Array; format: UploadFormat; fileName: string; settings: GisSettings }) => guarded(() => parseUpload(i.bytes, i.format, i.fileName, i.settings)),
   /** The file's layers without their features (columns, counts, CRS hints, extent): cheap to send back to the request thread. */
@@ -40,7 +56,7 @@ export const tasks = {
     guarded(async () => {
       const layer = (await parseUpload(i.bytes, i.format, i.fileName, i.settings)).find((l) => l.name === i.layerName);
       if (!layer) throw new HttpError('UNPROCESSABLE_CONTENT', `The file has no layer "${i.layerName}".`, [{ path: ['layer'], message: 'unknown layer' }]);
-      return stagedFeatureChunks(stageFeatures(layerToWgs84(layer.features, i.proj4Crs, layer.name), i.purpose, i.mapping, i.options));
+      return stageInChunks(layer.features, (part, seen, offset) => stageFeatures(layerToWgs84(part, i.proj4Crs, layer.name), i.purpose, i.mapping, i.options, seen, offset));
     }),
   validate: (i: { features: FeatureToValidate[]; options: ValidationOptions }) => guarded(() => validateFeatures(i.features, i.options)),
   reproject: (i: { geometry: RawFeature['geometry']; crs: CrsDefinition }) => guarded(() => (i.geometry ? reproject(i.geometry, i.crs) : null)),
