@@ -74,3 +74,13 @@ export async function countAdmins(db: Db): Promise<number> {
   const r = await db('user').where('role', 'like', '%admin%').andWhere((q) => q.whereNull('banned').orWhere('banned', false)).count<{ count: number }[]>('* as count');
   return Number(r[0]?.count ?? 0);
 }
+
+/** The e-mail address a still-valid password-reset token belongs to (better-auth keeps it as `reset-password:<token>` → user id). */
+export async function emailForResetToken(db: Db, token: string): Promise<string | null> {
+  const row = await db('verification as v')
+    .join('user as u', 'u.id', 'v.value')
+    .where('v.identifier', `reset-password:${token}`)
+    .andWhere('v.expiresAt', '>', db.fn.now())
+    .first('u.email');
+  return row?.email ?? null;
+}
