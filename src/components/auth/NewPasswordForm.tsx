@@ -49,7 +49,7 @@ export function NewPasswordForm({ token, mode, prompt, email = null }: { token: 
         <p className="notice" role="status" data-testid="password-set">
           ✓ Your password is {mode === 'invite' ? 'set' : 'changed'}. Sign in with it now{signInEmail ? '' : ' (your e-mail address and the new password)'}.
         </p>
-        <SignInForm next="/" defaultEmail={signInEmail ?? undefined} />
+        <SignInForm next="/work" defaultEmail={signInEmail ?? undefined} />
       </div>
     );
   }
