@@ -34,7 +34,8 @@ describe('users page', () => {
     await hydrated(page);
     const group = page.getByRole('group', { name: `Roles of ${name}` });
     await expect(group.getByRole('checkbox', { name: 'Planner' }).isDisabled()).resolves.toBe(true);
-    await group.getByText('Only role: everyone needs at least one.').waitFor();
+    const why = await group.getByRole('checkbox', { name: 'Planner' }).getAttribute('aria-describedby');
+    await expect(page.locator(`[id="${why}"]`).textContent()).resolves.toMatch('Planner: the only role, and everyone needs one.');
 
     await group.getByRole('checkbox', { name: 'Assessor' }).check();
     await page.getByText(`Not saved yet: ${name} would have Planner and Assessor (now Planner).`).waitFor();

@@ -21,20 +21,19 @@ export function RoleEditor({ user, isSelf, onSave }: { user: AdminUser; isSelf: 
         {ROLES.map((r) => {
           const reason = pending.includes(r) ? lockedReason(r, pending, isSelf) : null;
           return (
-            <span key={r} className="flex flex-col">
-              <label className="flex items-center gap-1 text-sm">
-                <input type="checkbox" checked={pending.includes(r)} disabled={reason !== null || busy} aria-describedby={reason ? `${base}-${r}` : undefined} onChange={() => toggle(r)} />
-                {ROLE_LABELS[r]}
-              </label>
-              {reason && (
-                <span id={`${base}-${r}`} className="max-w-[14rem] text-xs text-muted">
-                  {reason}
-                </span>
-              )}
-            </span>
+            <label key={r} className="flex items-center gap-1 text-sm">
+              <input type="checkbox" checked={pending.includes(r)} disabled={reason !== null || busy} aria-describedby={reason ? `${base}-${r}` : undefined} onChange={() => toggle(r)} />
+              {ROLE_LABELS[r]}
+              {reason && <span aria-hidden="true">🔒</span>}
+            </label>
           );
         })}
       </div>
+      {ROLES.filter((r) => pending.includes(r) && lockedReason(r, pending, isSelf)).map((r) => (
+        <p key={r} id={`${base}-${r}`} className="text-xs text-muted">
+          🔒 {ROLE_LABELS[r]}: {lockedReason(r, pending, isSelf)}
+        </p>
+      ))}
       {changed && (
         <div className="mt-1 flex flex-wrap items-center gap-2 text-sm" role="group" aria-label={`Unsaved role change for ${user.name}`}>
           <span>
