@@ -79,3 +79,23 @@ describe('audit log query', () => {
     expect((await api('GET', '/api/audit', { session: planner })).status).toBe(403);
   });
 });
+
+describe('map words', () => {
+  it('names uploads in words and lists what an upload saved', async () => {
+    const planner = await signIn(DEMO.planner);
+    const config = await api('GET', '/api/map', { session: planner });
+    expect(config.status).toBe(200);
+    for (const a of config.body.areas) expect(a.label).not.toMatch(/\.(zip|geojson|json)\b/);
+    const upload = config.body.areas.find((a: { id: string | null }) => a.id);
+    const one = await api('GET', `/api/map/uploads/${upload.id}`, { session: planner });
+    expect(one.status).toBe(200);
+    expect(one.body.label).toBe(upload.label);
+    expect(one.body.count).toBe(upload.count);
+    expect(one.body.parcels.length).toBe(Math.min(upload.count, 2000));
+    expect(one.body.parcels[0]).toMatchObject({ id: expect.any(Number), reference: expect.any(String), geometry: { type: 'MultiPolygon' } });
+    expect(JSON.stringify(one.body)).not.toMatch(/owner/i);
+    expect((await api('GET', '/api/map/uploads/00000000-0000-4000-8000-000000000000', { session: planner })).status).toBe(404);
+    expect((await api('GET', '/api/map/uploads/not-a-uuid', { session: planner })).status).toBe(422);
+    expect((await api('GET', `/api/map/uploads/${upload.id}`)).status).toBe(401);
+  });
+});
