@@ -163,7 +163,7 @@ export function ParcelMap({ canEdit }: { canEdit: boolean }) {
   const actions = canEdit && mode === 'view' && detail ? <button className="btn btn-quiet self-start" onClick={() => void begin('edit')}>Edit boundary</button> : null;
   return (
     <div className="grid gap-3 lg:grid-cols-[16rem_minmax(0,1fr)_22rem]">
-      <aside className="panel order-3 flex flex-col gap-3 lg:order-1">
+      <aside className="panel order-3 flex min-w-0 flex-col gap-3 lg:order-1">
         {config && (
           <>
             {upload && <UploadList upload={upload} onPick={(id) => void select(id, true)} onClose={() => (setUpload(null), handles.current?.upload.clear())} />}
@@ -171,7 +171,7 @@ export function ParcelMap({ canEdit }: { canEdit: boolean }) {
             {config.areas.length > 1 && (
               <div className="field">
                 <label htmlFor="map-area" className="text-sm font-medium text-muted">Show area</label>
-                <select key={upload?.id ?? 'all'} id="map-area" className="input" defaultValue={Math.max(0, config.areas.findIndex((a) => upload && a.id === upload.id))} onChange={(e) => handles.current && fitLonLat(handles.current.map, config.areas[Number(e.target.value)]!.extent)}>
+                <select key={upload?.id ?? 'all'} id="map-area" className="input w-full" defaultValue={Math.max(0, config.areas.findIndex((a) => upload && a.id === upload.id))} onChange={(e) => handles.current && fitLonLat(handles.current.map, config.areas[Number(e.target.value)]!.extent)}>
                   {config.areas.map((a, i) => (<option key={a.id ?? 'drawn'} value={i}>{a.label} ({a.count.toLocaleString('en-GB')} parcels)</option>))}
                 </select>
               </div>
