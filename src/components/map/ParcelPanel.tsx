@@ -70,7 +70,7 @@ export function ParcelPanel({ p, onClose, actions, recordForm }: { p: ParcelDeta
       </dl>
       {actions}
       <section aria-labelledby="flags-heading">
-        <h3 id="flags-heading" className="mb-1">Status on {p.flags.asOf}</h3>
+        <h3 id="flags-heading" className="mb-1">Status on {formatDate(p.flags.asOf)}</h3>
         <dl className="flex flex-col gap-1 text-sm">
           <FlagRow label="Permanent grassland" flag={p.flags.permanentGrassland} />
           <FlagRow label="Uncultivated" flag={p.flags.uncultivated} />
