@@ -35,7 +35,7 @@ describe('users page', () => {
     const group = page.getByRole('group', { name: `Roles of ${name}` });
     await expect(group.getByRole('checkbox', { name: 'Planner' }).isDisabled()).resolves.toBe(true);
     const why = await group.getByRole('checkbox', { name: 'Planner' }).getAttribute('aria-describedby');
-    await expect(page.locator(`[id="${why}"]`).textContent()).resolves.toMatch('Planner: the only role, and everyone needs one.');
+    await expect(page.locator(`[id="${why}"]`).textContent()).resolves.toMatch('Planner cannot be unticked: it is the only role, and everyone needs one.');
 
     await group.getByRole('checkbox', { name: 'Assessor' }).check();
     await page.getByText(`Not saved yet: ${name} would have Planner and Assessor (now Planner).`).waitFor();

@@ -24,14 +24,13 @@ export function RoleEditor({ user, isSelf, onSave }: { user: AdminUser; isSelf: 
             <label key={r} className="flex items-center gap-1 text-sm">
               <input type="checkbox" checked={pending.includes(r)} disabled={reason !== null || busy} aria-describedby={reason ? `${base}-${r}` : undefined} onChange={() => toggle(r)} />
               {ROLE_LABELS[r]}
-              {reason && <span aria-hidden="true">🔒</span>}
             </label>
           );
         })}
       </div>
       {ROLES.filter((r) => pending.includes(r) && lockedReason(r, pending, isSelf)).map((r) => (
         <p key={r} id={`${base}-${r}`} className="text-xs text-muted">
-          🔒 {ROLE_LABELS[r]}: {lockedReason(r, pending, isSelf)}
+          {ROLE_LABELS[r]} cannot be unticked: {lockedReason(r, pending, isSelf)}
         </p>
       ))}
       {changed && (

@@ -11,7 +11,7 @@ export function rolesText(roles: Role[]): string {
 
 /** Why a role's box cannot be unticked, or null when it can. */
 export function lockedReason(role: Role, pending: Role[], isSelf: boolean): string | null {
-  if (pending.length === 1 && pending[0] === role) return 'the only role, and everyone needs one. Tick the new role first, then untick this one.';
-  if (isSelf && role === 'admin' && pending.includes('admin')) return 'your own; another administrator must remove it.';
+  if (pending.length === 1 && pending[0] === role) return 'it is the only role, and everyone needs one. Tick the new role first, then untick this one.';
+  if (isSelf && role === 'admin' && pending.includes('admin')) return 'it is your own; another administrator must remove it.';
   return null;
 }
