@@ -30,7 +30,7 @@ describe('carbon calculator', () => {
     await expect(page.getByText('Exploration only.').count()).resolves.toBe(1);
     // The warning names the unchecked values themselves, so no row marked "checked" is listed as unchecked.
     const warning = (await page.getByRole('note').filter({ hasText: 'Exploration only.' }).textContent())!;
-    const checkedRows = await page.locator('tr', { has: page.getByText('✓ checked') }).locator('td:first-child span.text-xs').allTextContents();
+    const checkedRows = await page.locator('tr', { has: page.getByText('✓ checked') }).locator('td:first-child span.block').allTextContents();
     for (const row of checkedRows) expect(warning).not.toContain(row);
     await page.locator('.recharts-line').first().waitFor();
     await screenshotBoth(page, 'calculator-result');
