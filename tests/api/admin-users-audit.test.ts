@@ -19,16 +19,16 @@ describe('role changes', () => {
   it('need the version read, bump it, and refuse a stale one with 409', async () => {
     const { admin, user } = await invite('Teasel Grange');
     expect(user.version).toBe(1);
-    const noVersion = await api('PATCH', `/api/users/${user.id}`, { session: admin, body: { roles: ['assessor'] } });
+    const noVersion = await api('PATCH', `/api/users/${user.id}`, { session: admin, body: { roles: ['board'] } });
     expect(noVersion.status).toBe(422);
-    const first = await api('PATCH', `/api/users/${user.id}`, { session: admin, body: { version: 1, roles: ['planner', 'assessor'] } });
+    const first = await api('PATCH', `/api/users/${user.id}`, { session: admin, body: { version: 1, roles: ['planner', 'board'] } });
     expect(first.status).toBe(200);
-    expect(first.body).toMatchObject({ roles: ['planner', 'assessor'], version: 2 });
-    const stale = await api('PATCH', `/api/users/${user.id}`, { session: admin, body: { version: 1, roles: ['board'] } });
+    expect(first.body).toMatchObject({ roles: ['planner', 'board'], version: 2 });
+    const stale = await api('PATCH', `/api/users/${user.id}`, { session: admin, body: { version: 1, roles: ['planner'] } });
     expect(stale.status).toBe(409);
     expect(stale.body.error.message).toMatch(/Teasel Grange was changed by someone else/);
     const now = (await api('GET', '/api/users', { session: admin })).body.items.find((u: { id: string }) => u.id === user.id);
-    expect(now.roles).toEqual(['planner', 'assessor']);
+    expect(now.roles).toEqual(['planner', 'board']);
     // Undo is a change like any other, from the version now read.
     const undo = await api('PATCH', `/api/users/${user.id}`, { session: admin, body: { version: 2, roles: ['planner'] } });
     expect(undo.body).toMatchObject({ roles: ['planner'], version: 3 });
@@ -36,18 +36,18 @@ describe('role changes', () => {
 
   it('are audited as the fields changed, before and after', async () => {
     const { admin, user } = await invite('Burnet Hale');
-    await api('PATCH', `/api/users/${user.id}`, { session: admin, body: { version: 1, roles: ['assessor'] } });
+    await api('PATCH', `/api/users/${user.id}`, { session: admin, body: { version: 1, roles: ['board'] } });
     const log = await api('GET', `/api/audit?action=user.update&entityType=user&entityId=${user.id}`, { session: admin });
     expect(log.status).toBe(200);
     expect(log.body.total).toBe(1);
-    expect(log.body.items[0].details).toEqual({ before: { roles: ['planner'] }, after: { roles: ['assessor'] } });
+    expect(log.body.items[0].details).toEqual({ before: { roles: ['planner'] }, after: { roles: ['board'] } });
   });
 });
 
 describe('audit log query', () => {
   it('filters by action, actor, days and record, and pages on the server', async () => {
     const { admin, user } = await invite('Sorrel Voss');
-    for (let v = 1; v <= 3; v++) await api('PATCH', `/api/users/${user.id}`, { session: admin, body: { version: v, roles: v % 2 ? ['assessor'] : ['planner'] } });
+    for (let v = 1; v <= 3; v++) await api('PATCH', `/api/users/${user.id}`, { session: admin, body: { version: v, roles: v % 2 ? ['board'] : ['planner'] } });
     const base = `/api/audit?entityType=user&entityId=${user.id}`;
     const all = await api('GET', base, { session: admin });
     expect(all.body.total).toBe(4); // the invitation and three changes

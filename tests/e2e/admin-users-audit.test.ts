@@ -37,17 +37,17 @@ describe('users page', () => {
     const why = await group.getByRole('checkbox', { name: 'Planner' }).getAttribute('aria-describedby');
     await expect(page.locator(`[id="${why}"]`).textContent()).resolves.toMatch('Planner cannot be unticked: it is the only role, and everyone needs one.');
 
-    await group.getByRole('checkbox', { name: 'Assessor' }).check();
-    await page.getByText(`Not saved yet: ${name} would have Planner and Assessor (now Planner).`).waitFor();
+    await group.getByRole('checkbox', { name: 'Board member' }).check();
+    await page.getByText(`Not saved yet: ${name} would have Planner and Board member (now Planner).`).waitFor();
     await screenshotBoth(page, 'admin-users-pending');
     expect((await rolesOf(id)).roles).toEqual(['planner']);
     await page.getByRole('button', { name: 'Cancel' }).click();
-    await expect(group.getByRole('checkbox', { name: 'Assessor' }).isChecked()).resolves.toBe(false);
+    await expect(group.getByRole('checkbox', { name: 'Board member' }).isChecked()).resolves.toBe(false);
 
-    await group.getByRole('checkbox', { name: 'Assessor' }).check();
+    await group.getByRole('checkbox', { name: 'Board member' }).check();
     await page.getByRole('button', { name: `Save roles of ${name}` }).click();
-    await page.getByText(`Roles of ${name} changed from Planner to Planner and Assessor.`).waitFor();
-    expect((await rolesOf(id)).roles).toEqual(['planner', 'assessor']);
+    await page.getByText(`Roles of ${name} changed from Planner to Planner and Board member.`).waitFor();
+    expect((await rolesOf(id)).roles).toEqual(['planner', 'board']);
     await screenshotBoth(page, 'admin-users-saved');
     await page.getByRole('button', { name: 'Undo' }).click();
     await page.getByText(`Undone: ${name} has Planner again.`).waitFor();
@@ -56,7 +56,7 @@ describe('users page', () => {
     // Someone else changes the person meanwhile: the page says so instead of overwriting.
     const now = await rolesOf(id);
     await api('PATCH', `/api/users/${id}`, { session: await signIn(DEMO.admin), body: { version: now.version, roles: ['board'] } });
-    await group.getByRole('checkbox', { name: 'Assessor' }).check();
+    await group.getByRole('checkbox', { name: 'Board member' }).check();
     await page.getByRole('button', { name: `Save roles of ${name}` }).click();
     await expect(page.getByRole('alert').first().textContent()).resolves.toMatch(`${name} was changed by someone else meanwhile`);
     expect((await rolesOf(id)).roles).toEqual(['board']);
@@ -65,7 +65,7 @@ describe('users page', () => {
     await page.goto(`${BASE_URL}/admin/audit?entityType=user&entityId=${id}`);
     await page.getByTestId('audit-count').getByText('4 entries; page 1 of 1.').waitFor();
     const text = await page.locator('table').textContent();
-    expect(text).toContain('Roles: planner → planner, assessor');
+    expect(text).toContain('Roles: planner → planner, board');
     expect(text).not.toContain('{"');
     await screenshotBoth(page, 'admin-audit-filtered');
     await page.goto(`${BASE_URL}/admin/audit?action=user.update&pageSize=2`);
