@@ -161,7 +161,7 @@ describe('sign-in, reset and sign-out', () => {
     const token = tokenOf(linkIn((await waitForMail(email, /account/, before)).body_text));
     await api('POST', '/api/invitations/accept', { body: { token, password: 'temporary meadow pass' } });
     const session = await signIn(email, 'temporary meadow pass');
-    const off = await api('PATCH', `/api/users/${created.body.id}`, { session: admin, body: { active: false } });
+    const off = await api('PATCH', `/api/users/${created.body.id}`, { session: admin, body: { version: created.body.version, active: false } });
     expect(off.body.status).toBe('deactivated');
     expect((await api('GET', '/api/me', { session })).status).toBe(401);
     expect((await api('POST', '/api/auth/sign-in/email', { body: { email, password: 'temporary meadow pass' } })).status).toBe(403);
@@ -170,7 +170,8 @@ describe('sign-in, reset and sign-out', () => {
   it('an admin cannot remove their own admin role', async () => {
     const admin = await signIn(DEMO.admin);
     const me = await api('GET', '/api/me', { session: admin });
-    const res = await api('PATCH', `/api/users/${me.body.id}`, { session: admin, body: { roles: ['planner'] } });
+    const mine = (await api('GET', '/api/users', { session: admin })).body.items.find((u: { id: string }) => u.id === me.body.id);
+    const res = await api('PATCH', `/api/users/${me.body.id}`, { session: admin, body: { version: mine.version, roles: ['planner'] } });
     expect(res.status).toBe(409);
   });
 });

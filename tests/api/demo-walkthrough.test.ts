@@ -33,7 +33,7 @@ describe('the demo walk-through', () => {
     const saved = await api('POST', `/api/uploads/${staged.body.id}/save`, { session: planner });
     expect(saved.body).toMatchObject({ saved: 39, rejected: 2 });
     const map = await api('GET', '/api/map', { session: planner });
-    expect(map.body.areas.find((a: { label: string }) => a.label === 'corrowmere-north-block.geojson')).toMatchObject({ count: 39 });
+    expect(map.body.areas.find((a: { label: string }) => a.label.startsWith('Corrowmere north block, uploaded '))).toMatchObject({ count: 39 });
     const found = await api('GET', '/api/parcels/search?q=CN-0001', { session: planner });
     const detail = (await api('GET', `/api/parcels/${found.body.items[0].id}`, { session: planner })).body;
     // CN-0001: grassland, in grass since 2002-12-29 (the file), so more than 5 years out of rotation.

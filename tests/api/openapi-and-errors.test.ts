@@ -35,7 +35,7 @@ describe('error shape', () => {
 
   it('an unknown record is a 404 in the same shape', async () => {
     const admin = await signIn(DEMO.admin);
-    const res = await api('PATCH', '/api/users/no-such-user', { session: admin, body: { name: 'Someone Else' } });
+    const res = await api('PATCH', '/api/users/no-such-user', { session: admin, body: { version: 1, name: 'Someone Else' } });
     expect(res.status).toBe(404);
     expect(res.body.error.code).toBe('NOT_FOUND');
   });

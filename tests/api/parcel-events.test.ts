@@ -2,6 +2,7 @@
  * POST /api/parcels/{id}/events: a recorded tillage changes the derived status flags, every event
  * is audited, and each bad input is refused with 422 naming the field and writes nothing.
  */
+import { formatDate } from '~/lib/format/dates';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { yearsBefore } from '~/lib/gis/land-use-history';
 import { testDb } from '../support/db';
@@ -39,15 +40,15 @@ describe('recording land-use events', () => {
     // EU Reg. (EU) 2021/2115 Art. 4(3)(c): grassland out of the crop rotation for 5 years or more is permanent grassland.
     expect(before.permanentGrassland.value).toBe(true);
     // England EIA (Agriculture) Regulations screening guidance: uncultivated = no cultivation in the last 15 years.
-    expect(before.uncultivated).toEqual({ value: true, reason: `No cultivation recorded between ${yearsBefore(today, 15)} and ${today}.` });
+    expect(before.uncultivated).toEqual({ value: true, reason: `No cultivation recorded between ${formatDate(yearsBefore(today, 15))} and ${formatDate(today)}.` });
     expect(before.neverTilled.value).toBe(true);
 
     const tilled = await record({ date: tilledOn, kind: 'tillage', value: 'Ploughing', evidence: 'Aerial image of spring 2 years ago' });
     expect(tilled.status).toBe(201);
     const after = await flags();
     // England EIA (Agriculture) Regulations, 15-year window: a ploughing 2 years ago is inside it.
-    expect(after.uncultivated).toEqual({ value: false, reason: `Cultivated on ${tilledOn} (tillage: ploughing), within the last 15 years.` });
-    expect(after.neverTilled).toEqual({ value: false, reason: `Tilled on ${tilledOn} (ploughing).` });
+    expect(after.uncultivated).toEqual({ value: false, reason: `Cultivated on ${formatDate(tilledOn)} (tillage: ploughing), within the last 15 years.` });
+    expect(after.neverTilled).toEqual({ value: false, reason: `Tilled on ${formatDate(tilledOn)} (ploughing).` });
     // EU Reg. (EU) 2021/2115 Art. 4(3)(c): ploughing alone does not put grass into the crop rotation, so the
     // 5-year spell runs on unless the Member State counts ploughing (setting land-use.tillage-ends-grassland, default off).
     expect(after.permanentGrassland.value).toBe(true);
@@ -68,7 +69,7 @@ describe('recording land-use events', () => {
     await testDb('app_setting').insert({ key: 'land-use.tillage-ends-grassland', value: JSON.stringify(true) }).onConflict('key').merge();
     try {
       // EU Reg. (EU) 2021/2115 Art. 4(3)(c), Member-State option: ploughed, tilled or reseeded within 5 years → not permanent.
-      expect((await flags()).permanentGrassland).toEqual({ value: false, reason: `Grassland only since ${tilledOn} (since the tillage of ${tilledOn}): less than 5 years before ${today}.` });
+      expect((await flags()).permanentGrassland).toEqual({ value: false, reason: `Grassland only since ${formatDate(tilledOn)} (since the tillage of ${formatDate(tilledOn)}): less than 5 years before ${formatDate(today)}.` });
     } finally {
       await testDb('app_setting').where({ key: 'land-use.tillage-ends-grassland' }).delete();
     }

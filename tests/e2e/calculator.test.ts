@@ -28,6 +28,10 @@ describe('carbon calculator', () => {
     await expect(page.locator('section').first().textContent()).resolves.toMatch(/114\.2 t CO2e/);
     await expect(page.getByText('Not a substitute for a site survey or soil sampling', { exact: false }).count()).resolves.toBeGreaterThan(0);
     await expect(page.getByText('Exploration only.').count()).resolves.toBe(1);
+    // The warning names the unchecked values themselves, so no row marked "checked" is listed as unchecked.
+    const warning = (await page.getByRole('note').filter({ hasText: 'Exploration only.' }).textContent())!;
+    const checkedRows = await page.locator('tr', { has: page.getByText('✓ checked') }).locator('td:first-child span.block').allTextContents();
+    for (const row of checkedRows) expect(warning).not.toContain(row);
     await page.locator('.recharts-line').first().waitFor();
     await screenshotBoth(page, 'calculator-result');
     expect(seen.errors).toEqual([]);
@@ -60,6 +64,10 @@ describe('factor-set pages', () => {
     await page.goto(`${BASE_URL}/admin/factor-sets/ipcc-2006`);
     await expect(page.locator('#soc-ref').textContent()).resolves.toMatch(/Table 2\.3/);
     await page.locator('#soc-ref summary').first().click();
+    // One name per zone: the table's rows say "cool temperate", as the calculator's climate menu does.
+    await expect(page.locator('#soc-ref table').textContent()).resolves.toMatch(/cool temperate moist · high-activity clay/);
+    await expect(page.locator('#soc-ref table').textContent()).resolves.not.toMatch(/cold/i);
+    await expect(page.locator('#grassland-stock-factors').textContent()).resolves.toMatch(/Partly checked: 15 of 35 values/);
     await screenshotBoth(page, 'factor-set-detail');
     await page.goto(`${BASE_URL}/admin/factor-sets/diff?a=ipcc-2006@1&b=ipcc-2019@1`);
     await expect(page.locator('main').textContent()).resolves.toMatch(/entries differ/);

@@ -3,8 +3,8 @@ import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { BASE_URL } from '../support/env';
 import { hydrated, launchBrowser, screenshotBoth, signInThroughForm, watchPage } from '../support/browser';
-import { linkIn, testDb, waitForMail } from '../support/db';
-import { DEMO, DEMO_PASSWORD } from '../support/http';
+import { lastMailId, linkIn, testDb, waitForMail } from '../support/db';
+import { api, DEMO, DEMO_PASSWORD, signIn } from '../support/http';
 
 let browser: Browser;
 beforeAll(async () => {
@@ -49,7 +49,14 @@ describe('invitation through the pages', () => {
     await p2.getByLabel('The same password again').fill('curlew over the fen');
     await p2.getByRole('button', { name: 'Set password' }).click();
     await p2.getByText('Your password is set.').waitFor();
-    await signInThroughForm(p2, email, 'curlew over the fen');
+    // The prompt gives way to the confirmation and a sign-in form with the address filled in.
+    expect(await p2.getByText('Choose the password you will sign in with.').count()).toBe(0);
+    expect(await p2.getByLabel('New password').count()).toBe(0);
+    await expect(p2.getByLabel('E-mail address').inputValue()).resolves.toBe(email);
+    await screenshotBoth(p2, 'welcome-password-set');
+    await p2.getByLabel('Password', { exact: true }).fill('curlew over the fen');
+    await p2.getByRole('button', { name: 'Sign in' }).click();
+    await p2.waitForURL((url) => url.pathname.startsWith('/work'));
     await expect(p2.locator('h1').textContent()).resolves.toBe('Assessment desk');
     expect(seen.errors).toEqual([]);
     await invitee.close();
@@ -66,6 +73,36 @@ describe('invitation through the pages', () => {
     await screenshotBoth(page, 'forgot-password-sent');
     await page.goto(`${BASE_URL}/reset-password?error=INVALID_TOKEN`);
     await expect(page.getByRole('alert').textContent()).resolves.toMatch(/not valid any more/);
+    await page.goto(`${BASE_URL}/reset-password?token=no-such-token-at-all`);
+    await expect(page.getByRole('alert').textContent()).resolves.toMatch(/not valid any more/);
+    await context.close();
+  });
+
+  it('a reset link ends in a confirmation and a sign-in form with the address filled in', async () => {
+    const who = `sedge.${Date.now()}@tarrow.example`;
+    let before = await lastMailId();
+    await api('POST', '/api/users', { session: await signIn(DEMO.admin), body: { name: 'Sedge Marlow', email: who, roles: ['planner'] } });
+    const invite = new URL(linkIn((await waitForMail(who, /account/, before)).body_text)).searchParams.get('token');
+    expect((await api('POST', '/api/invitations/accept', { body: { token: invite, password: 'first reed bed walk' } })).status).toBe(200);
+    before = await lastMailId();
+    const asked = await api('POST', '/api/auth/request-password-reset', { body: { email: who, redirectTo: '/reset-password' } });
+    expect(asked.status).toBe(200);
+    const link = linkIn((await waitForMail(who, /Reset your Swardkeep password/, before)).body_text);
+    const context = await browser.newContext();
+    const page = await context.newPage();
+    await page.goto(link);
+    await hydrated(page);
+    await page.getByText('Choose a new password.').waitFor();
+    await page.getByLabel('New password').fill('second reed bed walk');
+    await page.getByLabel('The same password again').fill('second reed bed walk');
+    await page.getByRole('button', { name: 'Change password' }).click();
+    await page.getByText('Your password is changed.').waitFor();
+    expect(await page.getByText('Choose a new password.').count()).toBe(0);
+    await expect(page.getByLabel('E-mail address').inputValue()).resolves.toBe(who);
+    await screenshotBoth(page, 'reset-password-done');
+    await page.getByLabel('Password', { exact: true }).fill('second reed bed walk');
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.locator('header').getByText('Sign out').first().waitFor();
     await context.close();
   });
 });

@@ -4,6 +4,7 @@
  * record grows; then a tillage is recorded through the panel form and the flags follow.
  * Screenshots at 1280 and 390 px go to screenshots/.
  */
+import { formatDate } from '~/lib/format/dates';
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { yearsBefore } from '~/lib/gis/land-use-history';
@@ -131,11 +132,11 @@ describe('drawing and editing parcels on the map', () => {
     await page.getByLabel('Method (optional)').selectOption('ploughing');
     await page.getByLabel('Evidence (required)').fill('Aerial image two springs ago');
     await page.getByLabel('Evidence (required)').press('Enter');
-    await expect.poll(() => page.locator('form[aria-label="Record a land-use event"] [role=status]').textContent()).toContain(`Recorded tillage (Ploughing) on ${tilledOn}.`);
-    await expect.poll(neverTilled).toMatch(new RegExp(`^✕ No\\. Tilled on ${tilledOn} \\(ploughing\\)\\.`));
+    await expect.poll(() => page.locator('form[aria-label="Record a land-use event"] [role=status]').textContent()).toContain(`Recorded tillage (Ploughing) on ${formatDate(tilledOn)}.`);
+    await expect.poll(neverTilled).toMatch(new RegExp(`^✕ No\\. Tilled on ${formatDate(tilledOn)} \\(ploughing\\)\\.`));
     const history = page.getByRole('list', { name: 'Events, newest first' }).locator('li');
     await expect(history.first().textContent()).resolves.toMatch(/Land use: Grassland/);
-    await expect(history.last().textContent()).resolves.toMatch(new RegExp(`${tilledOn} Tillage: Ploughing.*Aerial image two springs ago · recorded .* by Tomas Brevin`));
+    await expect(history.last().textContent()).resolves.toMatch(new RegExp(`${formatDate(tilledOn)} Tillage: Ploughing.*Aerial image two springs ago · recorded .* by Tomas Brevin`));
     await screenshotBoth(page, 'draw-6-event-recorded');
     await panelShot(page, 'draw-6-event-recorded');
 

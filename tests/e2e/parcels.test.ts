@@ -69,8 +69,18 @@ describe('parcel upload and map', () => {
 
     const tiles: number[] = [];
     page.on('response', (r) => r.url().includes('/api/tiles/') && tiles.push(r.status()));
-    await page.goto(`${BASE_URL}/map`);
+    // The saved step links to the map with this upload's parcels outlined and listed, in words.
+    await page.getByRole('link', { name: 'See the saved parcels on the map, outlined and listed' }).click();
+    await page.waitForURL(`${BASE_URL}/map?upload=${batch.id}`);
     await page.locator('.ol-viewport canvas').first().waitFor();
+    const list = page.getByRole('region', { name: 'Saved by this upload' });
+    await list.getByText(/Corrowmere parcels noprj, uploaded \d{1,2} [A-Z][a-z]{2,3} \d{4}/).waitFor();
+    await expect(list.textContent()).resolves.toMatch(/: 285 parcels, outlined/);
+    await list.getByRole('button', { name: /^CM-\d{4}$/ }).first().waitFor();
+    const legend = page.getByRole('region', { name: 'Layers' });
+    await legend.getByText('Small square inside a parcel: a hole in its boundary').waitFor();
+    await legend.getByText('Saved by the upload listed above').waitFor();
+    expect((await page.locator('#map-area option').allTextContents()).filter((t) => /\.(zip|geojson)/.test(t))).toEqual([]);
     await expect.poll(() => tiles.filter((s) => s === 200).length, { timeout: 15_000 }).toBeGreaterThan(0);
     await page.waitForTimeout(800);
     await screenshotBoth(page, 'map-1-parcels');

@@ -6,6 +6,7 @@ import { passwordLengthProblem, PASSWORD_MIN } from '~/lib/auth/password-length'
 import { apiFetch, ApiError } from '../ui/api-client';
 import { Field } from '../ui/Field';
 import { resetPassword } from './auth-requests';
+import { SignInForm } from './SignInForm';
 
 const schema = z
   .object({ password: z.string(), confirm: z.string() })
@@ -17,10 +18,15 @@ const schema = z
   });
 type Values = z.infer<typeof schema>;
 
-/** Sets a password from an invitation (mode "invite") or a reset link (mode "reset"). */
-export function NewPasswordForm({ token, mode }: { token: string; mode: 'invite' | 'reset' }) {
+/**
+ * Sets a password from an invitation (mode "invite") or a reset link (mode "reset"). Once set, the
+ * prompt and form give way to a confirmation and the sign-in form with the e-mail address filled in
+ * (`email`: known to the page for a reset link; an accepted invitation answers with it).
+ */
+export function NewPasswordForm({ token, mode, prompt, email = null }: { token: string; mode: 'invite' | 'reset'; prompt?: string; email?: string | null }) {
   const [error, setError] = useState<string | null>(null);
   const [done, setDone] = useState(false);
+  const [signInEmail, setSignInEmail] = useState<string | null>(email);
   const { register, handleSubmit, formState } = useForm<Values>({ resolver: zodResolver(schema) });
   const onSubmit = handleSubmit(async (v) => {
     setError(null);
@@ -29,7 +35,8 @@ export function NewPasswordForm({ token, mode }: { token: string; mode: 'invite'
       return problem ? setError(problem) : setDone(true);
     }
     try {
-      await apiFetch('/api/invitations/accept', { body: { token, password: v.password } });
+      const r = await apiFetch<{ email: string }>('/api/invitations/accept', { body: { token, password: v.password } });
+      setSignInEmail(r.email);
       setDone(true);
     } catch (e) {
       // A field problem (a cut-off link, a weak password) reads best in the field's own words.
@@ -38,14 +45,18 @@ export function NewPasswordForm({ token, mode }: { token: string; mode: 'invite'
   });
   if (done) {
     return (
-      <p className="notice" role="status">
-        Your password is set. <a href="/sign-in">Sign in</a>.
-      </p>
+      <div className="flex flex-col gap-3">
+        <p className="notice" role="status" data-testid="password-set">
+          ✓ Your password is {mode === 'invite' ? 'set' : 'changed'}. Sign in with it now{signInEmail ? '' : ' (your e-mail address and the new password)'}.
+        </p>
+        <SignInForm next="/work" defaultEmail={signInEmail ?? undefined} />
+      </div>
     );
   }
   const errors = formState.errors;
   return (
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-3">
+      {prompt && <p className="text-sm text-muted">{prompt}</p>}
       <Field label="New password" htmlFor="password" error={errors.password?.message} hint={`At least ${PASSWORD_MIN} characters. A short sentence works well.`}>
         <input id="password" type="password" autoComplete="new-password" className="input" aria-invalid={!!errors.password} {...register('password')} />
       </Field>

@@ -8,9 +8,9 @@ import { signIn } from './auth-requests';
 const schema = z.object({ email: z.email('Give your e-mail address.'), password: z.string().min(1, 'Give your password.') });
 type Values = z.infer<typeof schema>;
 
-export function SignInForm({ next, initialError = null }: { next: string; initialError?: string | null }) {
+export function SignInForm({ next, initialError = null, defaultEmail }: { next: string; initialError?: string | null; defaultEmail?: string }) {
   const [error, setError] = useState<string | null>(initialError);
-  const { register, handleSubmit, formState } = useForm<Values>({ resolver: zodResolver(schema) });
+  const { register, handleSubmit, formState } = useForm<Values>({ resolver: zodResolver(schema), defaultValues: defaultEmail ? { email: defaultEmail, password: '' } : undefined });
   const onSubmit = handleSubmit(async (v) => {
     setError(null);
     const problem = await signIn(v.email, v.password);

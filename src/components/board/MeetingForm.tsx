@@ -1,4 +1,5 @@
 /** The chair (or an admin as clerk) builds a meeting: date, place, and the assessed proposals in agenda order. */
+import { formatDate } from '~/lib/format/dates';
 import { useState } from 'react';
 import { apiFetch } from '../ui/api-client';
 import { problemText } from './errors';
@@ -44,7 +45,7 @@ export function MeetingForm({ candidates, defaultDate }: { candidates: Candidate
         {candidates.map((c) => (
           <label key={c.id} className="flex items-start gap-2 text-sm">
             <input type="checkbox" className="mt-1" checked={order.includes(c.id)} onChange={() => toggle(c.id)} />
-            <span className="min-w-0 break-words"><strong>{c.reference}</strong> {c.title}{c.riskLevel ? ` · risk ${c.riskLevel} of 4 (${c.riskLabel})` : ''}{c.decisionDue ? ` · decision due ${c.decisionDue}` : ''}</span>
+            <span className="min-w-0 break-words"><strong>{c.reference}</strong> {c.title}{c.riskLevel ? ` · risk ${c.riskLevel} of 4 (${c.riskLabel})` : ''}{c.decisionDue ? ` · decision due ${formatDate(c.decisionDue)}` : ''}</span>
           </label>
         ))}
       </fieldset>

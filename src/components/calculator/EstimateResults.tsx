@@ -49,7 +49,7 @@ export function EstimateResults({ result, transitionYears }: { result: Estimate;
         </dl>
         {!result.signOffReady && (
           <p className="notice notice-warn mt-3 text-sm" role="note">
-            <strong>Exploration only.</strong> Some values come from tables this authority has not yet checked against the published document ({[...new Set(result.factors.filter((f) => f.status === 'unconfirmed').map((f) => f.source.table))].join(', ')}; listed under Cautions). An assessment built on them cannot be signed off until an administrator records the check.
+            <strong>Exploration only.</strong> Values this authority has not yet checked against the published document: {[...new Set(result.factors.filter((f) => f.status === 'unconfirmed').map((f) => `${f.role} (${f.source.table})`))].join('; ')} (marked “! not yet checked” below). An assessment built on them cannot be signed off until an administrator records the check.
           </p>
         )}
       </section>

@@ -1,3 +1,4 @@
+import { factorKeyWords } from '~/lib/carbon/entry-words';
 import { formatNumber } from './labels';
 
 export type UsedFactor = { key: string; value: number; unit: string; role: string; status: 'confirmed' | 'unconfirmed'; source: { document: string; volume?: string; chapter?: string; table: string; page?: string } };
@@ -20,7 +21,7 @@ export function FactorList({ factors }: { factors: UsedFactor[] }) {
             <tr key={f.key + f.role}>
               <td>
                 <span className="block">{f.role}</span>
-                <code className="text-xs text-muted">{f.key}</code>
+                <span className="text-xs text-muted" title={f.key}>{factorKeyWords(f.key)}</span>
               </td>
               <td className="num whitespace-nowrap">
                 {formatNumber(f.value, f.value < 1 ? 4 : 2)} <span className="text-xs text-muted">{f.unit}</span>

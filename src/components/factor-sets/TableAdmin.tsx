@@ -1,4 +1,5 @@
 import { ActionForm } from './ActionForm';
+import { entryWords } from '~/lib/carbon/entry-words';
 
 type Props = { setId: string; version: number; status: 'draft' | 'published'; tableKey: string; confirmed: boolean; entries: { key: string; value: number | null }[] };
 
@@ -33,7 +34,7 @@ export function TableAdmin({ setId, version, status, tableKey, confirmed, entrie
           <select name="entry" className="input">
             {editable.map((e) => (
               <option key={e.key} value={e.key}>
-                {e.key} (now {e.value})
+                {entryWords(e.key)} (now {e.value})
               </option>
             ))}
           </select>

@@ -1,4 +1,5 @@
 /** "Record a land-use event" in the parcel panel (planners and admins): date, kind, value for the kind, evidence. */
+import { formatDate } from '~/lib/format/dates';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
@@ -32,7 +33,7 @@ export function EventForm({ parcelId, onRecorded }: { parcelId: number; onRecord
     try {
       await apiFetch<{ id: number }>(`/api/parcels/${parcelId}/events`, { body: { date: v.date, kind: v.kind, value: v.value || undefined, evidence: v.evidence } });
       reset(EMPTY);
-      setDone(`Recorded ${kindWord}${v.value ? ` (${EVENT_VALUES[v.kind][v.value]})` : ''} on ${v.date}. The status above is updated.`);
+      setDone(`Recorded ${kindWord}${v.value ? ` (${EVENT_VALUES[v.kind][v.value]})` : ''} on ${formatDate(v.date)}. The status above is updated.`);
       await onRecorded();
     } catch (e) {
       if (!(e instanceof ApiError)) return setFailure('The event could not be recorded.');

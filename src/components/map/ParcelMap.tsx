@@ -11,6 +11,7 @@ import { createMap, fitLonLat, tileUrl, type MapHandles } from './map-setup';
 import { ParcelPanel } from './ParcelPanel';
 import { ParcelSearch } from './ParcelSearch';
 import type { MapConfig, ParcelDetail } from './types';
+import { UploadList, type UploadOnMap } from './UploadList';
 
 const geojson = new GeoJSON({ dataProjection: 'EPSG:4326', featureProjection: 'EPSG:3857' });
 type Mode = 'view' | 'draw' | 'edit';
@@ -28,6 +29,7 @@ export function ParcelMap({ canEdit }: { canEdit: boolean }) {
   const [busy, setBusy] = useState(false);
   const [note, setNote] = useState<{ ok: boolean; text: string } | null>(null);
   const [zoom, setZoom] = useState(0);
+  const [upload, setUpload] = useState<UploadOnMap | null>(null);
 
   const select = useCallback(async (id: number, fit = false, focus = true) => {
     const h = handles.current;
@@ -62,6 +64,17 @@ export function ParcelMap({ canEdit }: { canEdit: boolean }) {
       // A link such as /map?parcel=42 (from the screening table) opens that parcel.
       const linked = new URLSearchParams(window.location.search).get('parcel');
       if (linked && /^\d{1,9}$/.test(linked)) void select(Number(linked), true, false);
+      // /map?upload=<id> (the upload wizard links here after saving) outlines and lists what that upload saved.
+      const saved = new URLSearchParams(window.location.search).get('upload');
+      if (saved && /^[0-9a-f-]{36}$/i.test(saved)) {
+        apiFetch<UploadOnMap>(`/api/map/uploads/${saved}`).then((u) => {
+          if (disposed) return;
+          setUpload(u);
+          h.upload.addFeatures(u.parcels.map((p) => geojson.readFeature({ type: 'Feature', id: p.id, properties: {}, geometry: p.geometry })) as never);
+          const box = h.upload.getExtent();
+          if (!linked && box && u.parcels.length) h.map.getView().fit(box, { padding: [40, 40, 40, 40], maxZoom: 16 });
+        }, (e: Error) => setNote({ ok: false, text: e.message }));
+      }
     }, (e: Error) => setNote({ ok: false, text: e.message }));
     return () => {
       disposed = true;
@@ -150,19 +163,20 @@ export function ParcelMap({ canEdit }: { canEdit: boolean }) {
   const actions = canEdit && mode === 'view' && detail ? <button className="btn btn-quiet self-start" onClick={() => void begin('edit')}>Edit boundary</button> : null;
   return (
     <div className="grid gap-3 lg:grid-cols-[16rem_minmax(0,1fr)_22rem]">
-      <aside className="panel order-3 flex flex-col gap-3 lg:order-1">
+      <aside className="panel order-3 flex min-w-0 flex-col gap-3 lg:order-1">
         {config && (
           <>
+            {upload && <UploadList upload={upload} onPick={(id) => void select(id, true)} onClose={() => (setUpload(null), handles.current?.upload.clear())} />}
             <ParcelSearch onPick={(id) => void select(id, true)} />
             {config.areas.length > 1 && (
               <div className="field">
                 <label htmlFor="map-area" className="text-sm font-medium text-muted">Show area</label>
-                <select id="map-area" className="input" onChange={(e) => handles.current && fitLonLat(handles.current.map, config.areas[Number(e.target.value)]!.extent)}>
-                  {config.areas.map((a, i) => (<option key={a.label} value={i}>{a.label} ({a.count})</option>))}
+                <select key={upload?.id ?? 'all'} id="map-area" className="input w-full" defaultValue={Math.max(0, config.areas.findIndex((a) => upload && a.id === upload.id))} onChange={(e) => handles.current && fitLonLat(handles.current.map, config.areas[Number(e.target.value)]!.extent)}>
+                  {config.areas.map((a, i) => (<option key={a.id ?? 'drawn'} value={i}>{a.label} ({a.count.toLocaleString('en-GB')} parcels)</option>))}
                 </select>
               </div>
             )}
-            <Legend legend={config.legend} visible={visible} onToggle={toggle} parcelMinZoom={config.parcelMinZoom} />
+            <Legend legend={config.legend} visible={visible} onToggle={toggle} parcelMinZoom={config.parcelMinZoom} showUpload={upload !== null} />
           </>
         )}
       </aside>

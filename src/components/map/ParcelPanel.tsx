@@ -1,4 +1,5 @@
 /** Side panel of one parcel: area of record, land use, status flags with reasons, overlay, history. */
+import { formatDate } from '~/lib/format/dates';
 import { EVENT_KIND_LABELS, EVENT_VALUES } from '~/lib/gis/land-use-events';
 import type { LandUseEventKind } from '~/lib/gis/land-use-history';
 import { classLabel } from '~/lib/gis/reference-kinds';
@@ -22,8 +23,8 @@ function HistoryItem({ e }: { e: ParcelDetail['history'][number] }) {
   const value = e.value ? (EVENT_VALUES[e.kind as LandUseEventKind]?.[e.value] ?? e.value) : null;
   return (
     <li>
-      <strong>{e.date}</strong> {kind}{value ? `: ${value}` : ''}{e.cultivation && e.kind === 'management' ? ' (cultivation)' : ''}
-      <span className="block text-xs text-muted">Evidence: {e.evidence} · recorded {e.recordedAt.slice(0, 10)}{e.recordedBy ? ` by ${e.recordedBy}` : ''}</span>
+      <strong>{formatDate(e.date)}</strong> {kind}{value ? `: ${value}` : ''}{e.cultivation && e.kind === 'management' ? ' (cultivation)' : ''}
+      <span className="block text-xs text-muted">Evidence: {e.evidence} · recorded {formatDate(e.recordedAt)}{e.recordedBy ? ` by ${e.recordedBy}` : ''}</span>
     </li>
   );
 }
@@ -65,11 +66,11 @@ export function ParcelPanel({ p, onClose, actions, recordForm }: { p: ParcelDeta
         <dt className="font-medium">Management</dt><dd>{p.management ?? 'not recorded'}</dd>
         <dt className="font-medium">Climate region</dt><dd>{o.climate?.dominant ? `${classLabel(o.climate.dominant)} (largest share)` : 'unknown'}</dd>
         {p.ownerRef && (<><dt className="font-medium">Holding (private)</dt><dd>{p.ownerRef}</dd></>)}
-        <dt className="font-medium">Source</dt><dd>{p.source.kind === 'upload' ? `Upload “${p.source.fileName}”` : 'Drawn on the map'}{p.source.savedAt ? `, ${p.source.savedAt.slice(0, 10)}` : ''}</dd>
+        <dt className="font-medium">Source</dt><dd>{p.source.kind === 'upload' ? `Upload “${p.source.fileName}”` : 'Drawn on the map'}{p.source.savedAt ? `, ${formatDate(p.source.savedAt)}` : ''}</dd>
       </dl>
       {actions}
       <section aria-labelledby="flags-heading">
-        <h3 id="flags-heading" className="mb-1">Status on {p.flags.asOf}</h3>
+        <h3 id="flags-heading" className="mb-1">Status on {formatDate(p.flags.asOf)}</h3>
         <dl className="flex flex-col gap-1 text-sm">
           <FlagRow label="Permanent grassland" flag={p.flags.permanentGrassland} />
           <FlagRow label="Uncultivated" flag={p.flags.uncultivated} />

@@ -11,7 +11,10 @@ export function Swatch({ colour, pattern, id, dashed = false }: { colour: string
     vertical: <path d="M5 0 L5 10" stroke={stroke} strokeWidth="1.4" />,
     horizontal: <path d="M0 5 L10 5" stroke={stroke} strokeWidth="1.4" />,
     dots: <circle cx="5" cy="5" r="1.8" fill={stroke} />,
-    solid: <rect width="10" height="10" fill={hexToRgba(colour, 0.4)} />,
+    solid: <rect width="10" height="10" fill={hexToRgba(colour, 0.28)} />,
+    grid: <path d="M5 0 L5 10 M0 5 L10 5" stroke={stroke} strokeWidth="1.2" />,
+    rings: <circle cx="5" cy="5" r="2.6" fill="none" stroke={stroke} strokeWidth="1.2" />,
+    checker: <path d="M0 0 H5 V5 H0 Z M5 5 H10 V10 H5 Z" fill={hexToRgba(colour, 0.55)} />,
   };
   if (pattern === 'outline') {
     return (

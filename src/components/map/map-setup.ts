@@ -49,6 +49,8 @@ function keepTileUrlFresh(map: OlMap, tiles: VectorTileSource): void {
 
 const PARCEL = new Style({ stroke: new Stroke({ color: '#1d2320', width: 1 }), fill: new Fill({ color: 'rgba(255,255,255,0.01)' }) });
 const PARCEL_ARABLE = new Style({ stroke: new Stroke({ color: '#1d2320', width: 1, lineDash: [4, 3] }), fill: new Fill({ color: 'rgba(255,255,255,0.01)' }) });
+/** Parcels saved by the upload named in `/map?upload=<id>`: a vermilion outline on a white halo (legend: Legend.tsx). */
+export const UPLOADED = [new Style({ stroke: new Stroke({ color: '#ffffff', width: 5 }) }), new Style({ stroke: new Stroke({ color: '#D55E00', width: 2.5, lineDash: [10, 4] }) })];
 export const HIGHLIGHT = [new Style({ stroke: new Stroke({ color: '#ffffff', width: 6 }) }), new Style({ stroke: new Stroke({ color: '#1f5a85', width: 3 }) })];
 export const EDIT = new Style({
   stroke: new Stroke({ color: '#9a3b17', width: 2.5 }),
@@ -56,7 +58,7 @@ export const EDIT = new Style({
   image: new CircleStyle({ radius: 5, fill: new Fill({ color: '#9a3b17' }), stroke: new Stroke({ color: '#fff', width: 1.5 }) }),
 });
 
-export type MapHandles = { map: OlMap; tiles: VectorTileSource; tileLayer: VectorTileLayer; highlight: VectorSource; edit: VectorSource; snap: VectorSource };
+export type MapHandles = { map: OlMap; tiles: VectorTileSource; tileLayer: VectorTileLayer; highlight: VectorSource; upload: VectorSource; edit: VectorSource; snap: VectorSource };
 
 /** Style by MVT layer: parcels always (arable dashed), reference features only when their kind is switched on. */
 export function styleFor(config: MapConfig, visible: () => Set<string>) {
@@ -84,11 +86,13 @@ export function createMap(target: HTMLElement, config: MapConfig, visible: () =>
   const tiles = new VectorTileSource({ format: new MVT({ idProperty: undefined }), url: tileUrl(config), maxZoom: 16 });
   const tileLayer = new VectorTileLayer({ source: tiles, style: styleFor(config, visible), renderMode: 'hybrid' });
   const highlight = new VectorSource();
+  const upload = new VectorSource();
   const edit = new VectorSource();
   const snap = new VectorSource();
   const layers = [
     ...(config.basemapUrl ? [new TileLayer({ source: new XYZ({ url: config.basemapUrl, crossOrigin: 'anonymous' }) })] : []),
     tileLayer,
+    new VectorLayer({ source: upload, style: UPLOADED }),
     new VectorLayer({ source: highlight, style: HIGHLIGHT }),
     new VectorLayer({ source: snap, style: new Style({ stroke: new Stroke({ color: 'rgba(31,90,133,0.5)', width: 1 }) }) }),
     new VectorLayer({ source: edit, style: EDIT }),
@@ -101,7 +105,7 @@ export function createMap(target: HTMLElement, config: MapConfig, visible: () =>
   });
   if (config.areas[0]) fitLonLat(map, config.areas[0].extent);
   keepTileUrlFresh(map, tiles);
-  return { map, tiles, tileLayer, highlight, edit, snap };
+  return { map, tiles, tileLayer, highlight, upload, edit, snap };
 }
 
 export function fitLonLat(map: OlMap, extent: [number, number, number, number], maxZoom = 15): void {

@@ -47,8 +47,22 @@ function drawTile(ctx: CanvasRenderingContext2D, colour: string, pattern: Patter
     ctx.arc(SIZE / 2, SIZE / 2, 1.6, 0, Math.PI * 2);
     ctx.fill();
   }
+  if (pattern === 'grid') {
+    line(SIZE / 2, 0, SIZE / 2, SIZE);
+    line(0, SIZE / 2, SIZE, SIZE / 2);
+  }
+  if (pattern === 'rings') {
+    ctx.beginPath();
+    ctx.arc(SIZE / 2, SIZE / 2, 2.6, 0, Math.PI * 2);
+    ctx.stroke();
+  }
+  if (pattern === 'checker') {
+    ctx.fillStyle = hexToRgba(colour, 0.5);
+    ctx.fillRect(0, 0, SIZE / 2, SIZE / 2);
+    ctx.fillRect(SIZE / 2, SIZE / 2, SIZE / 2, SIZE / 2);
+  }
   if (pattern === 'solid') {
-    ctx.fillStyle = hexToRgba(colour, 0.35);
+    ctx.fillStyle = hexToRgba(colour, 0.24);
     ctx.fillRect(0, 0, SIZE, SIZE);
   }
 }

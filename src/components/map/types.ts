@@ -2,7 +2,7 @@
 import type { Pattern } from '~/lib/gis/reference-kinds';
 
 export type LegendKind = { kind: string; label: string; version: number | null; classes: Record<string, { label: string; colour: string; pattern: Pattern }> };
-export type MapConfig = { dataVersion: number; tileToken: string; areas: { label: string; count: number; extent: [number, number, number, number] }[]; legend: LegendKind[]; basemapUrl: string | null; parcelMinZoom: number };
+export type MapConfig = { dataVersion: number; tileToken: string; areas: { id: string | null; label: string; count: number; extent: [number, number, number, number] }[]; legend: LegendKind[]; basemapUrl: string | null; parcelMinZoom: number };
 export type Flag = { value: boolean | null; reason: string };
 export type KindSummary = { kind: string; layerVersion: number | null; classes: { class: string; areaHa: number; share: number }[]; dominant: string | null; uncoveredShare: number; flag: string | null };
 export type ParcelDetail = {

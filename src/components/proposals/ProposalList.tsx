@@ -1,4 +1,5 @@
 /** The proposals list: a headless table (@tanstack/react-table) over the paged, sorted, filtered GET /api/proposals. */
+import { formatDate } from '~/lib/format/dates';
 import { useEffect, useMemo, useRef, useState } from 'react';
 import { createColumnHelper, getCoreRowModel, useReactTable, type SortingState } from '@tanstack/react-table';
 import { Pager, ServerTable } from '../table/ServerTable';
@@ -32,7 +33,7 @@ const COLUMNS = [
   col.accessor('riskLevel', { id: 'risk', header: 'Risk', cell: (c) => <Risk r={c.row.original} /> }),
   col.accessor('co2eTotal', { id: 'co2e', header: 'CO2e', cell: (c) => tonnes(c.getValue(), 0), meta: { num: true } }),
   col.accessor('daysLeft', { id: 'deadline', header: 'Decision due', cell: (c) => <Clock r={c.row.original} /> }),
-  col.accessor('updatedAt', { id: 'updated', header: 'Updated', cell: (c) => c.getValue().slice(0, 10) }),
+  col.accessor('updatedAt', { id: 'updated', header: 'Updated', cell: (c) => formatDate(c.getValue()) }),
 ];
 
 export function ProposalList({ initial, initialQuery, canFile }: { initial: Page; initialQuery: ListQuery; canFile: boolean }) {
@@ -111,7 +112,7 @@ export function ProposalList({ initial, initialQuery, canFile }: { initial: Page
             <p>{stateLabel(r.state)} · {hectares(r.areaHa)} · {r.parcelCount} parcel{r.parcelCount === 1 ? '' : 's'}: {parcelsText(r)}</p>
             <p className="flex flex-wrap items-center gap-2">Risk: <Risk r={r} />{r.co2eTotal !== null && <span>· {tonnes(r.co2eTotal, 0)}</span>}</p>
             <p>Decision: <Clock r={r} /></p>
-            <p className="text-xs text-muted">Updated {r.updatedAt.slice(0, 10)}</p>
+            <p className="text-xs text-muted">Updated {formatDate(r.updatedAt)}</p>
           </li>
         ))}
       </ul>

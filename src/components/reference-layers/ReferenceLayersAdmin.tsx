@@ -1,4 +1,5 @@
 /** Admin view of the reference layers: every version of each kind, and publishing a draft. */
+import { formatDate } from '~/lib/format/dates';
 import { useCallback, useEffect, useState } from 'react';
 import { classLabel } from '~/lib/gis/reference-kinds';
 import { apiFetch, ApiError } from '../ui/api-client';
@@ -49,8 +50,8 @@ export function ReferenceLayersAdmin() {
                       <td className="[overflow-wrap:anywhere]">{v.fileName ?? '—'}</td>
                       <td>{v.classes.map(classLabel).join(', ')} <span className="text-xs text-muted">({v.classAttribute})</span></td>
                       <td className="num">{v.featureCount}</td>
-                      <td>{v.createdAt.slice(0, 10)}{v.createdBy ? `, ${v.createdBy}` : ''}</td>
-                      <td>{v.publishedAt ? `${v.publishedAt.slice(0, 10)}${v.publishedBy ? `, ${v.publishedBy}` : ''}` : '—'}</td>
+                      <td>{formatDate(v.createdAt)}{v.createdBy ? `, ${v.createdBy}` : ''}</td>
+                      <td>{v.publishedAt ? `${formatDate(v.publishedAt)}${v.publishedBy ? `, ${v.publishedBy}` : ''}` : '—'}</td>
                       <td>{v.status === 'draft' && <button className="btn" disabled={busy !== null} onClick={() => void publish(k, v)}>{busy === v.id ? 'Publishing…' : `Publish v${v.version}`}</button>}</td>
                     </tr>
                   ))}

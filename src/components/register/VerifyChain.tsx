@@ -1,4 +1,5 @@
 /** Recomputes the register's hash chain on the server (GET /api/register/verify) and says what it found. */
+import { formatDateTime } from '~/lib/format/dates';
 import { useEffect, useState } from 'react';
 
 type Result = { ok: boolean; entries: number; firstBrokenEntry: number | null; problem: string | null; headHash: string | null; checkedAt: string };
@@ -17,7 +18,7 @@ export function VerifyChain() {
       {!result && !failed && <p>Checking the chain of every entry…</p>}
       {failed && <p className="error-text">The check could not be run just now. Try again in a moment.</p>}
       {result && result.ok && (
-        <p><strong>Chain intact.</strong> All {result.entries.toLocaleString('en')} entries match their hashes and each names the one before it (checked {new Date(result.checkedAt).toLocaleString('en-GB')}).</p>
+        <p><strong>Chain intact.</strong> All {result.entries.toLocaleString('en')} entries match their hashes and each names the one before it (checked {formatDateTime(result.checkedAt)}).</p>
       )}
       {result && !result.ok && (
         <p className="notice notice-warn"><strong>Chain broken at entry {result.firstBrokenEntry}.</strong> {result.problem}. Entries before it still match.</p>

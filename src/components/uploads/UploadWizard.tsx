@@ -192,7 +192,7 @@ export function UploadWizard({ purpose }: { purpose: 'parcels' | 'reference' }) 
             {saved.referenceVersion ? (
               <p>Version {saved.referenceVersion.version} of this layer is a draft. <a href="/admin/reference-layers">Publish it on the reference layers page</a>.</p>
             ) : (
-              <p><a href="/map">See them on the map</a></p>
+              <p><a href={`/map?upload=${saved.batchId}`}>See the saved parcels on the map, outlined and listed</a></p>
             )}
             <button className="btn btn-quiet self-start" onClick={() => (setPhases(initialPhases()), setStaged(null), go('file'))}>Upload another file</button>
           </>

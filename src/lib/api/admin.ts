@@ -4,15 +4,35 @@ import { defineSpec } from '../http/spec';
 
 const pageQuery = z.object({ limit: z.coerce.number().int().min(1).max(200).default(50), before: z.coerce.number().int().positive().optional() });
 
+const day = z
+  .string()
+  .regex(/^\d{4}-\d{2}-\d{2}$/, 'Give a date as YYYY-MM-DD.')
+  .refine((v) => !Number.isNaN(Date.parse(`${v}T00:00:00Z`)) && new Date(`${v}T00:00:00Z`).toISOString().startsWith(v), 'No such day.');
+
+/** Filters and paging of the audit log, applied by the database. */
+export const auditQuery = z.object({
+  action: z.string().max(60).optional().describe('Exact action, e.g. user.update'),
+  actor: z.string().max(100).optional().describe('User id of whoever acted, or "system"'),
+  from: day.optional().describe('First day (UTC) included'),
+  to: day.optional().describe('Last day (UTC) included'),
+  entityType: z.string().max(50).optional().describe('Kind of record, e.g. user, proposal'),
+  entityId: z.string().max(100).optional().describe('The record’s id'),
+  page: z.coerce.number().int().min(1).max(100000).default(1),
+  pageSize: z.coerce.number().int().min(1).max(200).default(50),
+});
+
 export const listAudit = defineSpec({
   method: 'GET',
   path: '/api/audit',
   tag: 'Admin',
-  summary: 'Audit log, newest first',
+  summary: 'Audit log, newest first, filtered and paged',
   access: ['admin'],
-  query: pageQuery.extend({ entityType: z.string().max(50).optional(), entityId: z.string().max(100).optional() }),
+  query: auditQuery,
   response: z.object({
     items: z.array(z.object({ id: z.number(), at: z.string(), actorId: z.string().nullable(), actorName: z.string().nullable(), action: z.string(), entityType: z.string(), entityId: z.string(), details: z.record(z.string(), z.unknown()) })),
+    total: z.number().int().describe('Entries matching the filter'),
+    page: z.number().int(),
+    pageSize: z.number().int(),
   }),
 });
 

@@ -66,6 +66,7 @@ export const allSpecs: ApiSpec[] = [
   parcels.parcelsForSnapping,
   parcels.searchParcels,
   parcels.mapConfig,
+  parcels.uploadOnMap,
   parcels.tile,
   parcels.listReferenceLayers,
   parcels.publishReferenceLayer,

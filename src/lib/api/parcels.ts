@@ -106,6 +106,21 @@ export const parcelsForSnapping = defineSpec({
   response: z.object({ type: z.literal('FeatureCollection'), features: z.array(z.record(z.string(), z.unknown())) }),
 });
 
+export const uploadOnMap = defineSpec({
+  method: 'GET',
+  path: '/api/map/uploads/{id}',
+  tag: 'Map',
+  summary: 'The parcels an upload saved (id, reference, outline; at most 2,000), to outline and list them on the map',
+  access: 'signed-in',
+  params: z.object({ id: z.uuid('Upload ids are UUIDs.') }),
+  response: z.object({
+    id: z.string(),
+    label: z.string(),
+    count: z.number().int().describe('Parcels of the upload still in the register; more than listed when above 2,000'),
+    parcels: z.array(z.object({ id: z.number(), reference: z.string(), geometry: z.record(z.string(), z.unknown()) })),
+  }),
+});
+
 export const mapConfig = defineSpec({
   method: 'GET',
   path: '/api/map',
@@ -115,7 +130,7 @@ export const mapConfig = defineSpec({
   response: z.object({
     dataVersion: z.number(),
     tileToken: z.string(),
-    areas: z.array(z.object({ label: z.string(), count: z.number(), extent: z.array(z.number()).length(4) })),
+    areas: z.array(z.object({ id: z.string().nullable().describe('Upload id; null for parcels drawn on the map'), label: z.string(), count: z.number(), extent: z.array(z.number()).length(4) })),
     legend: z.array(z.object({ kind: z.string(), label: z.string(), version: z.number().nullable(), classes: z.record(z.string(), z.object({ label: z.string(), colour: z.string(), pattern: z.string() })) })),
     basemapUrl: z.string().nullable(),
     parcelMinZoom: z.number(),

@@ -13,6 +13,7 @@ export const userSchema = z
     roles: z.array(roleSchema),
     status: z.enum(['invited', 'active', 'deactivated']),
     createdAt: z.string(),
+    version: z.number().int().describe('Row version; send it back with a change (409 when someone changed the user meanwhile)'),
   })
   .meta({ id: 'User' });
 
@@ -36,8 +37,8 @@ export const updateUser = defineSpec({
   access: ['admin'],
   params: idParams,
   body: z
-    .object({ name: z.string().trim().min(2).max(120).optional(), roles: z.array(roleSchema).min(1).optional(), active: z.boolean().optional() })
-    .refine((v) => Object.keys(v).length > 0, 'Change at least one field.'),
+    .object({ version: z.number().int().min(1), name: z.string().trim().min(2).max(120).optional(), roles: z.array(roleSchema).min(1).optional(), active: z.boolean().optional() })
+    .refine((v) => Object.keys(v).length > 1, 'Change at least one field.'),
   response: userSchema,
 });
 

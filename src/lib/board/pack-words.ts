@@ -1,4 +1,5 @@
 /** The board pack in plain words, shared by the meeting page and the PDF (pure). */
+import { formatDate } from '~/lib/format/dates';
 import { CLIMATE_LABELS, SOIL_LABELS } from '~/components/calculator/labels';
 import { describeUse } from '~/components/proposals/words';
 import type { ClimateRegion, LandUseState, SoilType } from '../carbon';
@@ -13,10 +14,10 @@ export const pct = (x: number | null, dp = 1) => (x === null ? '—' : `${fmt(x 
 /** The statutory clock: overdue and near are said in words, never only marked. */
 export function clockText(c: Clock): string {
   if (!c.decisionDue) return 'No statutory clock (not submitted)';
-  if (c.daysLeft === null) return `Decision was due ${c.decisionDue} (clock stopped)`;
-  if (c.state === 'overdue') return `Overdue by ${-c.daysLeft} day${c.daysLeft === -1 ? '' : 's'}: the decision was due ${c.decisionDue}`;
+  if (c.daysLeft === null) return `Decision was due ${formatDate(c.decisionDue)} (clock stopped)`;
+  if (c.state === 'overdue') return `Overdue by ${-c.daysLeft} day${c.daysLeft === -1 ? '' : 's'}: the decision was due ${formatDate(c.decisionDue)}`;
   const left = c.daysLeft === 0 ? 'Due today' : `${c.daysLeft} day${c.daysLeft === 1 ? '' : 's'} left`;
-  return `${c.state === 'near' ? 'Deadline near: ' : ''}${left} (decision due ${c.decisionDue})`;
+  return `${c.state === 'near' ? 'Deadline near: ' : ''}${left} (decision due ${formatDate(c.decisionDue)})`;
 }
 
 export const useText = (s: object | null) => (s ? describeUse(s as LandUseState) : "Not recorded");

@@ -137,15 +137,28 @@ const width = (g: string) => `(st_xmax(st_extent(${g})) - st_xmin(st_extent(${g}
 const LOCAL_EXTENT = `case when ${width('st_shiftlongitude(p.geom)')} + 1 < ${width('p.geom')} then st_extent(st_shiftlongitude(p.geom)) else st_extent(p.geom) end::geometry`;
 
 /** Where parcels are: one lon/lat extent per upload batch (drawn parcels together), largest first. */
-export async function parcelAreas(db: Db, limit = 20): Promise<{ label: string; count: number; extent: [number, number, number, number] }[]> {
+export type ParcelArea = { id: string | null; fileName: string | null; savedAt: Date | null; count: number; extent: [number, number, number, number] };
+
+export async function parcelAreas(db: Db, limit = 20): Promise<ParcelArea[]> {
   const r = await db.raw(
-    `select label, n, st_xmin(e) w, st_ymin(e) s, st_xmax(e) e, st_ymax(e) n2 from (
-       select coalesce(b.file_name, 'Parcels drawn on the map') as label, count(*)::int as n, ${LOCAL_EXTENT} as e, max(b.saved_at) as saved_at
+    `select id, file_name, saved_at, n, st_xmin(e) w, st_ymin(e) s, st_xmax(e) e, st_ymax(e) n2 from (
+       select b.id, b.file_name, count(*)::int as n, ${LOCAL_EXTENT} as e, max(b.saved_at) as saved_at
        from parcel p left join upload_batch b on b.id = p.batch_id group by b.id, b.file_name
      ) x order by n desc, saved_at desc nulls last limit ?`,
     [limit],
   );
-  return r.rows.map((x: { label: string; n: number; w: number; s: number; e: number; n2: number }) => ({ label: x.label, count: x.n, extent: [x.w, x.s, x.e, x.n2] }));
+  return r.rows.map((x: { id: string | null; file_name: string | null; saved_at: Date | null; n: number; w: number; s: number; e: number; n2: number }) => ({ id: x.id, fileName: x.file_name, savedAt: x.saved_at, count: x.n, extent: [x.w, x.s, x.e, x.n2] }));
+}
+
+/** The parcels an upload saved (still in the register), with their outlines, first `limit` by reference. */
+export async function parcelsOfUpload(db: Db, batchId: string, limit: number) {
+  const batch = await db('upload_batch').where({ id: batchId, purpose: 'parcels' }).first('id', 'file_name', 'saved_at');
+  if (!batch) return null;
+  const [{ n }] = (await db.raw('select count(*)::int as n from parcel where batch_id = ?', [batchId])).rows;
+  const rows = (
+    await db.raw(`select id::int as id, reference, st_asgeojson(geom, 7)::json as geometry from parcel where batch_id = ? order by reference limit ?`, [batchId, limit])
+  ).rows as { id: number; reference: string; geometry: GeoJSON.MultiPolygon }[];
+  return { fileName: batch.file_name as string, savedAt: batch.saved_at as Date, count: Number(n), rows };
 }
 
 export async function bumpMapVersion(db: Db): Promise<number> {

@@ -3,13 +3,13 @@ import { formatRoles, parseRoles, type Role } from '../auth/roles';
 import type { Db } from './client';
 
 export type UserStatus = 'invited' | 'active' | 'deactivated';
-export type UserSummary = { id: string; name: string; email: string; roles: Role[]; status: UserStatus; createdAt: string };
+export type UserSummary = { id: string; name: string; email: string; roles: Role[]; status: UserStatus; createdAt: string; version: number };
 
-type Row = { id: string; name: string; email: string; role: string | null; banned: boolean | null; createdAt: Date; has_password: boolean };
+type Row = { id: string; name: string; email: string; role: string | null; banned: boolean | null; createdAt: Date; has_password: boolean; version: number };
 
 function toSummary(r: Row): UserSummary {
   const status: UserStatus = r.banned ? 'deactivated' : r.has_password ? 'active' : 'invited';
-  return { id: r.id, name: r.name, email: r.email, roles: parseRoles(r.role), status, createdAt: r.createdAt.toISOString() };
+  return { id: r.id, name: r.name, email: r.email, roles: parseRoles(r.role), status, createdAt: r.createdAt.toISOString(), version: r.version };
 }
 
 function baseQuery(db: Db) {
@@ -20,6 +20,7 @@ function baseQuery(db: Db) {
     'u.role',
     'u.banned',
     'u.createdAt',
+    'u.version',
     db.raw(`exists (select 1 from account a where a."userId" = u.id and a."providerId" = 'credential' and a.password is not null) as has_password`),
   );
 }
@@ -43,15 +44,16 @@ export async function insertUser(db: Db, u: { id: string; name: string; email: s
   await db('user').insert({ id: u.id, name: u.name, email: u.email.toLowerCase(), emailVerified: false, role: formatRoles(u.roles), banned: false });
 }
 
-export async function updateUser(db: Db, id: string, patch: { name?: string; roles?: Role[]; active?: boolean }): Promise<void> {
-  const values: Record<string, unknown> = { updatedAt: db.fn.now() };
+/** Applies an administrator's change when the row is still at `version`; false when someone changed it meanwhile. */
+export async function updateUser(db: Db, id: string, version: number, patch: { name?: string; roles?: Role[]; active?: boolean }): Promise<boolean> {
+  const values: Record<string, unknown> = { updatedAt: db.fn.now(), version: db.raw('version + 1') };
   if (patch.name !== undefined) values.name = patch.name;
   if (patch.roles !== undefined) values.role = formatRoles(patch.roles);
   if (patch.active !== undefined) {
     values.banned = !patch.active;
     values.banReason = patch.active ? null : 'Deactivated by an administrator';
   }
-  await db('user').where({ id }).update(values);
+  return (await db('user').where({ id, version }).update(values)) === 1;
 }
 
 export async function deleteSessionsOf(db: Db, userId: string): Promise<void> {
@@ -71,4 +73,14 @@ export async function setPassword(db: Db, userId: string, passwordHash: string):
 export async function countAdmins(db: Db): Promise<number> {
   const r = await db('user').where('role', 'like', '%admin%').andWhere((q) => q.whereNull('banned').orWhere('banned', false)).count<{ count: number }[]>('* as count');
   return Number(r[0]?.count ?? 0);
+}
+
+/** The e-mail address a still-valid password-reset token belongs to (better-auth keeps it as `reset-password:<token>` → user id). */
+export async function emailForResetToken(db: Db, token: string): Promise<string | null> {
+  const row = await db('verification as v')
+    .join('user as u', 'u.id', 'v.value')
+    .where('v.identifier', `reset-password:${token}`)
+    .andWhere('v.expiresAt', '>', db.fn.now())
+    .first('u.email');
+  return row?.email ?? null;
 }

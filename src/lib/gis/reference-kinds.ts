@@ -33,7 +33,7 @@ export const KIND_INFO: Record<ReferenceKind, KindInfo> = {
 };
 
 /** Fill patterns drawn by the map legend and layer styles. */
-export type Pattern = 'solid' | 'hatch' | 'cross' | 'dots' | 'vertical' | 'horizontal' | 'backslash';
+export type Pattern = 'solid' | 'hatch' | 'cross' | 'dots' | 'vertical' | 'horizontal' | 'backslash' | 'grid' | 'rings' | 'checker';
 
 export interface LegendEntry {
   label: string;
@@ -41,8 +41,13 @@ export interface LegendEntry {
   pattern: Pattern;
 }
 
-const OKABE_ITO = ['#0072B2', '#E69F00', '#009E73', '#CC79A7', '#56B4E9', '#D55E00', '#F0E442', '#000000'];
-const PATTERNS: Pattern[] = ['hatch', 'dots', 'cross', 'vertical', 'horizontal', 'backslash', 'solid'];
+/**
+ * Seven hues of the Okabe-Ito colour-blind-safe set (common practice), in our own order: dark and
+ * light alternate, and the pale yellow is left out (it vanishes on the paper background).
+ */
+const COLOURS = ['#0072B2', '#E69F00', '#000000', '#CC79A7', '#009E73', '#D55E00', '#56B4E9'];
+/** Ten patterns; with seven colours (coprime), the first 70 classes on the map each get their own pair. */
+const PATTERNS: Pattern[] = ['hatch', 'dots', 'grid', 'backslash', 'rings', 'horizontal', 'cross', 'checker', 'vertical', 'solid'];
 
 const CLASS_LABELS: Record<string, string> = {
   hac: 'High-activity clay (HAC)',
@@ -62,15 +67,31 @@ export function classLabel(cls: string): string {
 }
 
 /**
- * Legend entries for a kind's classes, stable by class order: the i-th class gets the i-th
- * colour and pattern, so two classes differ in both (7 patterns x 8 colours).
+ * Legend entries for a kind's classes, stable by class order. `start` is the number of classes
+ * of the layers before this one on the map (`legendForAll`), so every class on the map, whatever
+ * its layer, gets its own colour and pattern, and neighbours in the legend differ in both.
  */
-export function legendFor(kind: ReferenceKind, classes: readonly string[]): Record<string, LegendEntry> {
-  const ordered = KIND_INFO[kind].classes ? KIND_INFO[kind].classes!.filter((c) => classes.includes(c)) : [...classes].sort();
-  const offset = REFERENCE_KINDS.indexOf(kind) * 2;
+export function legendFor(kind: ReferenceKind, classes: readonly string[], start = 0): Record<string, LegendEntry> {
   return Object.fromEntries(
-    ordered.map((cls, i) => [cls, { label: classLabel(cls), colour: OKABE_ITO[(i + offset) % OKABE_ITO.length]!, pattern: PATTERNS[i % PATTERNS.length]! }]),
+    orderedClasses(kind, classes).map((cls, i) => [cls, { label: classLabel(cls), colour: COLOURS[(start + i) % COLOURS.length]!, pattern: PATTERNS[(start + i) % PATTERNS.length]! }]),
   );
+}
+
+function orderedClasses(kind: ReferenceKind, classes: readonly string[]): string[] {
+  return KIND_INFO[kind].classes ? KIND_INFO[kind].classes!.filter((c) => classes.includes(c)) : [...classes].sort();
+}
+
+/** Legends of the current layers, numbered across layers in the order of REFERENCE_KINDS. */
+export function legendForAll(layers: { kind: ReferenceKind; classes: readonly string[] }[]): Map<ReferenceKind, Record<string, LegendEntry>> {
+  const out = new Map<ReferenceKind, Record<string, LegendEntry>>();
+  let start = 0;
+  for (const kind of REFERENCE_KINDS) {
+    const layer = layers.find((l) => l.kind === kind);
+    if (!layer) continue;
+    out.set(kind, legendFor(kind, layer.classes, start));
+    start += orderedClasses(kind, layer.classes).length;
+  }
+  return out;
 }
 
 /** Checks a class value for a kind; returns a message when it is not allowed. */

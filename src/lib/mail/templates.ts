@@ -1,4 +1,5 @@
 /** Mail texts (pure: data in, subject/text/html out). Plain words, no tracking, no images. */
+import { formatDate } from '../format/dates';
 export type MailContent = { subject: string; text: string; html: string };
 
 function escapeHtml(s: string): string {
@@ -44,7 +45,7 @@ type ProposalRef = { reference: string; title: string; url: string };
 export function proposalSubmittedMail(p: ProposalRef & { name: string; by: string; decisionDue: string }): MailContent {
   return render(
     `Proposal ${p.reference} submitted for assessment`,
-    [`Hello ${p.name},`, `${p.by} has submitted proposal ${p.reference}, "${p.title}", for assessment.`, `The decision is due by ${p.decisionDue}.`],
+    [`Hello ${p.name},`, `${p.by} has submitted proposal ${p.reference}, "${p.title}", for assessment.`, `The decision is due by ${formatDate(p.decisionDue)}.`],
     { url: p.url, label: 'Open the proposal' },
   );
 }
@@ -78,8 +79,8 @@ export function boardDecisionMail(p: ProposalRef & { name: string; outcome: stri
       `Hello ${p.name},`,
       `The board has decided on proposal ${p.reference}, "${p.title}": ${outcome}.`,
       `Reasons: ${p.reasons}`,
-      ...p.conditions.map((c, i) => `Condition ${i + 1}: ${c.text} (due ${c.dueDate}; checked by ${c.checkedBy}).`),
-      `Effective from ${p.effectiveDate}.${p.appealUntil ? ` An appeal may be lodged until ${p.appealUntil}; local law sets how.` : ''}`,
+      ...p.conditions.map((c, i) => `Condition ${i + 1}: ${c.text} (due ${formatDate(c.dueDate)}; checked by ${c.checkedBy}).`),
+      `Effective from ${formatDate(p.effectiveDate)}.${p.appealUntil ? ` An appeal may be lodged until ${formatDate(p.appealUntil)}; local law sets how.` : ''}`,
       `The decision is entry ${p.registerSeq} of the public register.`,
     ],
     { url: p.url, label: 'Open the proposal' },
@@ -87,9 +88,9 @@ export function boardDecisionMail(p: ProposalRef & { name: string; outcome: stri
 }
 
 export function decisionDueMail(p: ProposalRef & { name: string; decisionDue: string; daysLeft: number; state: string }): MailContent {
-  const when = p.daysLeft === 0 ? 'today' : `in ${p.daysLeft} day${p.daysLeft === 1 ? '' : 's'}, on ${p.decisionDue}`;
+  const when = p.daysLeft === 0 ? 'today' : `in ${p.daysLeft} day${p.daysLeft === 1 ? '' : 's'}, on ${formatDate(p.decisionDue)}`;
   return render(
-    `Decision on ${p.reference} due ${p.daysLeft === 0 ? 'today' : `by ${p.decisionDue}`}`,
+    `Decision on ${p.reference} due ${p.daysLeft === 0 ? 'today' : `by ${formatDate(p.decisionDue)}`}`,
     [`Hello ${p.name},`, `The decision on proposal ${p.reference}, "${p.title}", is due ${when}. The proposal is now "${p.state}".`, 'The decision period is set by local law; check what it allows if the decision cannot be made in time.'],
     { url: p.url, label: 'Open the proposal' },
   );
@@ -98,7 +99,7 @@ export function decisionDueMail(p: ProposalRef & { name: string; decisionDue: st
 export function decisionOverdueMail(p: ProposalRef & { name: string; decisionDue: string; daysOver: number; state: string }): MailContent {
   return render(
     `Decision on ${p.reference} is overdue`,
-    [`Hello ${p.name},`, `The decision on proposal ${p.reference}, "${p.title}", was due on ${p.decisionDue}, ${p.daysOver} day${p.daysOver === 1 ? '' : 's'} ago. The proposal is still "${p.state}".`, 'Local law says what follows from a missed decision period; check it with your legal adviser.'],
+    [`Hello ${p.name},`, `The decision on proposal ${p.reference}, "${p.title}", was due on ${formatDate(p.decisionDue)}, ${p.daysOver} day${p.daysOver === 1 ? '' : 's'} ago. The proposal is still "${p.state}".`, 'Local law says what follows from a missed decision period; check it with your legal adviser.'],
     { url: p.url, label: 'Open the proposal' },
   );
 }
@@ -106,7 +107,7 @@ export function decisionOverdueMail(p: ProposalRef & { name: string; decisionDue
 export function followUpOverdueMail(p: ProposalRef & { name: string; task: string; dueDate: string; checkedBy: string }): MailContent {
   return render(
     `Follow-up overdue on ${p.reference}`,
-    [`Hello ${p.name},`, `A follow-up of the decision on proposal ${p.reference}, "${p.title}", was due on ${p.dueDate} and has no outcome yet:`, p.task, `Checked by: ${p.checkedBy}. Record the outcome, with evidence, on the follow-ups page.`],
+    [`Hello ${p.name},`, `A follow-up of the decision on proposal ${p.reference}, "${p.title}", was due on ${formatDate(p.dueDate)} and has no outcome yet:`, p.task, `Checked by: ${p.checkedBy}. Record the outcome, with evidence, on the follow-ups page.`],
     { url: p.url, label: 'Open the follow-ups' },
   );
 }
@@ -116,10 +117,10 @@ export function compensationReversedMail(p: ProposalRef & { name: string; parcel
     `Compensation for ${p.reference} reversed: parcel ${p.parcel} ploughed`,
     [
       `Hello ${p.name},`,
-      `Parcel ${p.parcel} was restored to grassland as compensation for proposal ${p.reference}, "${p.title}", and had to stay in grass until ${p.permanenceUntil}.`,
+      `Parcel ${p.parcel} was restored to grassland as compensation for proposal ${p.reference}, "${p.title}", and had to stay in grass until ${formatDate(p.permanenceUntil)}.`,
       p.creditedCo2e
-        ? `The land-use record now shows ${p.event} on ${p.eventDate}. The ${p.creditedCo2e} credited for it has been taken back in register entry ${p.registerSeq} and counts again in the year's committed emissions.`
-        : `The land-use record now shows ${p.event} on ${p.eventDate}. A condition of register entry ${p.registerSeq} required the parcel restored; no gain was credited for it, so the register is unchanged.`,
+        ? `The land-use record now shows ${p.event} on ${formatDate(p.eventDate)}. The ${p.creditedCo2e} credited for it has been taken back in register entry ${p.registerSeq} and counts again in the year's committed emissions.`
+        : `The land-use record now shows ${p.event} on ${formatDate(p.eventDate)}. A condition of register entry ${p.registerSeq} required the parcel restored; no gain was credited for it, so the register is unchanged.`,
       'A follow-up task asks you to put this before the board. What the authority can require of the holder is a matter for local law.',
     ],
     { url: p.url, label: 'Open the follow-ups' },

@@ -1,4 +1,5 @@
 /** The board pack of a meeting as a PDF: one section per agenda item. */
+import { formatDate } from '~/lib/format/dates';
 import { budgetText, clockText, parcelFacts, pct, regionText, t, useText } from '../board/pack-words';
 import type { ItemPack } from '../services/board-pack';
 import { bullets, footers, heading, newPdf, para, parcelMap, riskLine, rows, MUTED, CLAY, type Pdf } from './document';
@@ -39,7 +40,7 @@ function itemSection(doc: Pdf, p: ItemPack, first: boolean): void {
 
   heading(doc, 'Assessor’s findings');
   para(doc, p.assessment.findings || 'No findings written.');
-  para(doc, `Signed off by ${p.assessment.signedBy ?? '—'}${p.assessment.signedAt ? ` on ${p.assessment.signedAt.slice(0, 10)}` : ''}.`, { size: 8, color: MUTED });
+  para(doc, `Signed off by ${p.assessment.signedBy ?? '—'}${p.assessment.signedAt ? ` on ${formatDate(p.assessment.signedAt)}` : ''}.`, { size: 8, color: MUTED });
 
   heading(doc, 'Impact preview: if the board approves');
   bullets(doc, [
@@ -53,12 +54,12 @@ function itemSection(doc: Pdf, p: ItemPack, first: boolean): void {
 }
 
 export async function boardPackPdf(meeting: { id: number; date: string; place: string }, packs: ItemPack[]): Promise<Buffer> {
-  const { doc, done } = newPdf({ title: `Board pack, meeting of ${meeting.date}`, subject: `Board meeting ${meeting.id}, ${meeting.place}` });
-  heading(doc, `Board pack — meeting of ${meeting.date}`, 18);
+  const { doc, done } = newPdf({ title: `Board pack, meeting of ${formatDate(meeting.date)}`, subject: `Board meeting ${meeting.id}, ${meeting.place}` });
+  heading(doc, `Board pack — meeting of ${formatDate(meeting.date)}`, 18);
   para(doc, `${meeting.place}. ${packs.length} item${packs.length === 1 ? '' : 's'} on the agenda. Board-internal: not for publication before the decision.`);
   if (!packs.length) para(doc, 'The agenda is empty.');
   packs.forEach((p, i) => itemSection(doc, p, i === 0));
-  footers(doc, `Swardkeep board pack, meeting of ${meeting.date}. Tier 1 estimates; not a substitute for survey; defer to local law and licensed professionals`);
+  footers(doc, `Swardkeep board pack, meeting of ${formatDate(meeting.date)}. Tier 1 estimates; not a substitute for survey; defer to local law and licensed professionals`);
   doc.end();
   return done;
 }

@@ -1,4 +1,5 @@
 /** The decision notice of a register entry as a PDF: only the public register content. */
+import { formatDate } from '~/lib/format/dates';
 import { ENTRY_KIND_LABELS, OUTCOME_LABELS, type RegisterContent } from '../register/content';
 import { STANDARD_CAUTIONS } from '../carbon/cautions';
 import { t } from '../board/pack-words';
@@ -15,9 +16,9 @@ export async function decisionNoticePdf(e: Entry): Promise<Buffer> {
   if (e.supersedesSeq) para(doc, `This entry replaces entry ${e.supersedesSeq}. ${c.note ?? ''}`);
   rows(doc, [
     ['Outcome', OUTCOME_LABELS[c.outcome]],
-    ['Decided', `${c.decidedOn}${c.meeting ? `, board meeting of ${c.meeting.date} (${c.meeting.place})` : ''}`],
-    ['Effective', c.effectiveDate],
-    ['Appeal until', c.appealUntil ?? '—'],
+    ['Decided', `${formatDate(c.decidedOn)}${c.meeting ? `, board meeting of ${formatDate(c.meeting.date)} (${c.meeting.place})` : ''}`],
+    ['Effective', formatDate(c.effectiveDate)],
+    ['Appeal until', formatDate(c.appealUntil)],
     ['Proposed use', `${c.proposal.proposedUse}, from ${c.proposal.startYear}`],
     ['Area', `${c.areaHa.toFixed(2)} ha${c.region ? `, region ${c.region}` : ''}`],
     ['Parcels', c.parcels.map((p) => `${p.reference} (${p.areaHa.toFixed(2)} ha${p.part ? ', part' : ''})`).join(', ')],
@@ -34,7 +35,7 @@ export async function decisionNoticePdf(e: Entry): Promise<Buffer> {
   para(doc, c.reasons);
   if (c.conditions.length) {
     heading(doc, 'Conditions');
-    c.conditions.forEach((x, i) => para(doc, `${i + 1}. ${x.text} Due ${x.dueDate}; checked by ${x.checkedBy}.`));
+    c.conditions.forEach((x, i) => para(doc, `${i + 1}. ${x.text} Due ${formatDate(x.dueDate)}; checked by ${x.checkedBy}.`));
   }
   heading(doc, 'Hashes', 11);
   para(doc, `Entry hash: ${e.hash}`, { size: 8 });

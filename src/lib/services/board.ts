@@ -3,6 +3,7 @@
  * Recording a decision is one transaction: the decision row, the register entry (approvals and
  * refusals), the proposal moved to `decided` and the planner's mail all land together or not at all.
  */
+import { formatDate } from '~/lib/format/dates';
 import type { MultiPolygon } from 'geojson';
 import { tally, type DecisionOutcome, type VoteChoice } from '../board/settings';
 import { recordAudit } from '../db/audit';
@@ -33,7 +34,7 @@ async function listProposal(trx: Db, by: Caller, meeting: store.MeetingRow, prop
   const signed = await store.latestSigned(trx, p.id);
   if (!signed) throw new HttpError('CONFLICT', `Proposal ${p.reference} has no signed assessment.`);
   const itemId = await store.insertItem(trx, { meetingId: meeting.id, proposalId: p.id, assessmentId: signed.id });
-  await proposals.setState(trx, p.id, { from: p.state, to: 'on-agenda', reason: `On the agenda of the board meeting of ${meeting.meeting_date} (${meeting.place}).`, by: by.id });
+  await proposals.setState(trx, p.id, { from: p.state, to: 'on-agenda', reason: `On the agenda of the board meeting of ${formatDate(meeting.meeting_date)} (${meeting.place}).`, by: by.id });
   await recordAudit(trx, { actorId: by.id, action: 'meeting.add-item', entityType: 'meeting', entityId: String(meeting.id), details: { proposal: p.reference, itemId, assessment: signed.number } });
   return itemId;
 }
@@ -149,7 +150,7 @@ async function deferItem(trx: Db, by: Caller, item: store.ItemRow, input: Decisi
     carriedTo = next.id;
   }
   const p = (await proposals.getProposal(trx, item.proposal_id, { lock: true }))!;
-  await proposals.setState(trx, p.id, { from: p.state, to: 'on-agenda', reason: `Deferred by the board on ${item.meeting_date}: ${input.reasons}${carriedTo ? ` Listed for the meeting of ${next!.meeting_date}.` : ' It goes on the next meeting’s agenda.'}`, by: by.id });
+  await proposals.setState(trx, p.id, { from: p.state, to: 'on-agenda', reason: `Deferred by the board on ${formatDate(item.meeting_date)}: ${input.reasons}${carriedTo ? ` Listed for the meeting of ${formatDate(next!.meeting_date)}.` : ' It goes on the next meeting’s agenda.'}`, by: by.id });
   await recordAudit(trx, { actorId: by.id, action: 'meeting.defer', entityType: 'meeting_item', entityId: String(item.id), details: { proposal: item.reference, carriedTo } });
   return { decisionId, outcome: 'deferred' as const, registerSeq: null, registerHash: null, proposalState: 'on-agenda', carriedToMeeting: carriedTo };
 }

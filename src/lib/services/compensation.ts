@@ -5,6 +5,7 @@
  * period appends a `compensation-reversed` entry in the event's own transaction, sets the chair a
  * follow-up task and mails the chair.
  */
+import { formatDate } from '~/lib/format/dates';
 import type { MultiPolygon } from 'geojson';
 import { recordAudit } from '../db/audit';
 import type { Db } from '../db/client';
@@ -102,7 +103,7 @@ async function reverseOne(trx: Db, by: Caller, s: SiteRow, e: { eventId: number;
   const taskId = await insertTask(trx, {
     proposalId: s.proposal_id, decisionId: null, kind: 'compensation-reversed', assigneeRole: 'chair', checkedBy: 'Board chair',
     dueDate: addDays(new Date().toISOString().slice(0, 10), settings['follow-up.reversal-review-days']),
-    title: `Put before the board: compensation parcel ${p.reference} of ${ref.reference} was broken (${e.what} on ${e.date}) before ${s.permanence_until}; ${consequence}.`,
+    title: `Put before the board: compensation parcel ${p.reference} of ${ref.reference} was broken (${e.what} on ${formatDate(e.date)}) before ${formatDate(s.permanence_until)}; ${consequence}.`,
   });
   await mailRole(trx, 'chair', (u) => compensationReversedMail({
     reference: ref.reference, title: ref.title, url: followUpsUrl(), name: u.name, parcel: p.reference, eventDate: e.date, event: e.what, permanenceUntil: s.permanence_until,

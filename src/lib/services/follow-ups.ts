@@ -2,6 +2,7 @@
  * Follow-up tasks of board decisions: created in the decision's transaction, listed (overdue first),
  * closed with an outcome (optimistic locking: a stale version gets 409) and backed by evidence files.
  */
+import { formatDate } from '~/lib/format/dates';
 import { createHash, randomUUID } from 'node:crypto';
 import { recordAudit } from '../db/audit';
 import { db, withTransaction, type Db } from '../db/client';
@@ -35,7 +36,7 @@ export async function createDecisionTasks(trx: Db, f: DecisionTaskFacts): Promis
   const parcels = f.parcelReferences.join(', ');
   ids.push(await store.insertTask(trx, {
     proposalId: f.proposalId, decisionId: f.decisionId, kind: 'site-check', dueDate: siteDue, checkedBy: 'Field officer', assigneeRole: 'assessor',
-    title: `Confirm on site that the conversion of ${f.parcelReferences.length === 1 ? 'parcel' : 'parcels'} ${parcels} follows the decision (effective ${f.effectiveDate}).`,
+    title: `Confirm on site that the conversion of ${f.parcelReferences.length === 1 ? 'parcel' : 'parcels'} ${parcels} follows the decision (effective ${formatDate(f.effectiveDate)}).`,
   }));
   if (f.compensationParcel) {
     ids.push(await store.insertTask(trx, {

@@ -3,14 +3,30 @@ import { LRUCache } from 'lru-cache';
 import { db } from '../db/client';
 import { getGisSettings } from '../db/gis-settings';
 import { issueTileToken } from '../auth/tile-token';
-import { mapVersion, parcelAreas, parcelsInBox } from '../db/parcels';
+import { mapVersion, parcelAreas, parcelsInBox, parcelsOfUpload } from '../db/parcels';
+import { uploadLabel } from '../gis/upload-name';
 import { PARCEL_MIN_ZOOM, renderTile } from '../db/tiles';
 import { HttpError } from '../http/errors';
 import { currentLegend } from './reference-layers';
 
 export async function mapConfig(userId: string) {
   const [version, areas, legend, settings] = await Promise.all([mapVersion(db), parcelAreas(db), currentLegend(), getGisSettings(db)]);
-  return { dataVersion: version, tileToken: issueTileToken(userId), areas, legend, basemapUrl: settings['map.basemap-url'], parcelMinZoom: PARCEL_MIN_ZOOM };
+  const named = areas.map((a) => ({ id: a.id, label: a.fileName ? uploadLabel(a.fileName, a.savedAt) : 'Parcels drawn on the map', count: a.count, extent: a.extent }));
+  return { dataVersion: version, tileToken: issueTileToken(userId), areas: named, legend, basemapUrl: settings['map.basemap-url'], parcelMinZoom: PARCEL_MIN_ZOOM };
+}
+
+export const MAX_UPLOAD_OUTLINES = 2000;
+
+/** The parcels an upload saved, to outline and list on the map (`/map?upload=<id>`). */
+export async function uploadOnMap(batchId: string) {
+  const u = await parcelsOfUpload(db, batchId, MAX_UPLOAD_OUTLINES);
+  if (!u) throw new HttpError('NOT_FOUND', 'No saved parcel upload has that id.');
+  return {
+    id: batchId,
+    label: uploadLabel(u.fileName, u.savedAt),
+    count: u.count,
+    parcels: u.rows.map((r) => ({ id: r.id, reference: r.reference, geometry: r.geometry })),
+  };
 }
 
 /**

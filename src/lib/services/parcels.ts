@@ -1,4 +1,5 @@
 /** Parcel use cases: detail for the side panel, drawing a new parcel, editing a boundary, recording history. */
+import { uploadName } from '../gis/upload-name';
 import type { Geometry, MultiPolygon } from 'geojson';
 import { hasAnyRole } from '../auth/roles';
 import { recordAudit } from '../db/audit';
@@ -50,7 +51,7 @@ export async function parcelDetail(by: Caller, id: number) {
     ownerRef: seesOwner ? p.owner_ref : null,
     geometry: p.geometry,
     version: p.version,
-    source: p.batch_id ? { kind: 'upload' as const, fileName: p.batch_file_name, savedAt: p.batch_saved_at?.toISOString() ?? null } : { kind: 'drawn' as const, fileName: null, savedAt: p.created_at.toISOString() },
+    source: p.batch_id ? { kind: 'upload' as const, fileName: p.batch_file_name ? uploadName(p.batch_file_name) : null, savedAt: p.batch_saved_at?.toISOString() ?? null } : { kind: 'drawn' as const, fileName: null, savedAt: p.created_at.toISOString() },
     flags: { asOf, ...flags },
     overlay: summariseOverlay(overlay),
     history: events.map((e) => ({ id: e.id, date: e.event_date, kind: e.kind, value: e.value, cultivation: e.cultivation, evidence: e.evidence, recordedBy: e.recorded_by_name, recordedAt: e.recorded_at.toISOString() })),

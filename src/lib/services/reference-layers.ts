@@ -5,7 +5,7 @@ import { db, withTransaction } from '../db/client';
 import { computeOverlay } from '../db/overlay';
 import { bumpMapVersion } from '../db/parcels';
 import * as layers from '../db/reference-layers';
-import { KIND_INFO, legendFor, REFERENCE_KINDS } from '../gis/reference-kinds';
+import { KIND_INFO, legendForAll, REFERENCE_KINDS, type ReferenceKind } from '../gis/reference-kinds';
 import { HttpError } from '../http/errors';
 import type { Caller } from '../http/handle';
 
@@ -59,8 +59,9 @@ export async function publishLayerVersion(by: Caller, id: number, note: string |
 /** What the map legend needs: the current version and named, symbolised classes of each kind. */
 export async function currentLegend() {
   const current = await layers.currentVersions(db);
+  const legends = legendForAll(current.map((c) => ({ kind: c.kind as ReferenceKind, classes: c.classes })));
   return REFERENCE_KINDS.map((kind) => {
     const v = current.find((c) => c.kind === kind);
-    return { kind, label: KIND_INFO[kind].label, version: v?.version ?? null, classes: v ? legendFor(kind, v.classes) : {} };
+    return { kind, label: KIND_INFO[kind].label, version: v?.version ?? null, classes: legends.get(kind) ?? {} };
   });
 }

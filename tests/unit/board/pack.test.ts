@@ -16,8 +16,8 @@ describe('statutory clock of an item', () => {
   it('stops once decided, and says overdue in words', () => {
     expect(clockOf(due, 'decided', 7, '2027-02-01').state).toBe('stopped');
     expect(clockOf(null, 'assessed', 7, '2027-02-01').state).toBe('stopped');
-    expect(clockText(clockOf(due, 'on-agenda', 7, '2027-01-09'))).toBe('Overdue by 3 days: the decision was due 2027-01-06');
-    expect(clockText(clockOf(due, 'on-agenda', 7, '2027-01-01'))).toBe('Deadline near: 5 days left (decision due 2027-01-06)');
+    expect(clockText(clockOf(due, 'on-agenda', 7, '2027-01-09'))).toBe('Overdue by 3 days: the decision was due 6 Jan 2027');
+    expect(clockText(clockOf(due, 'on-agenda', 7, '2027-01-01'))).toBe('Deadline near: 5 days left (decision due 6 Jan 2027)');
   });
 });
 

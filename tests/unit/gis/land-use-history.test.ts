@@ -14,9 +14,9 @@ describe('deriveLandUseFlags', () => {
     expect(flags.currentLandUse).toBe('grassland');
     expect(flags.permanentGrassland).toEqual({
       value: true,
-      reason: 'Grassland since 2012-04-01 (after "arable" in 2008-04-01): out of the crop rotation for 5 years or more on 2025-06-30.',
+      reason: 'Grassland since 1 Apr 2012 (after "arable" in 1 Apr 2008): out of the crop rotation for 5 years or more on 30 Jun 2025.',
     });
-    expect(flags.uncultivated).toEqual({ value: false, reason: 'Cultivated on 2011-09-15 (tillage: ploughed), within the last 15 years.' });
+    expect(flags.uncultivated).toEqual({ value: false, reason: 'Cultivated on 15 Sept 2011 (tillage: ploughed), within the last 15 years.' });
     expect(flags.neverTilled.value).toBe(false);
   });
 
@@ -26,7 +26,7 @@ describe('deriveLandUseFlags', () => {
       { asOf },
     );
     expect(flags.permanentGrassland.value).toBe(false);
-    expect(flags.permanentGrassland.reason).toMatch(/^Grassland only since 2022-03-01 .*less than 5 years before 2025-06-30\.$/);
+    expect(flags.permanentGrassland.reason).toMatch(/^Grassland only since 1 Mar 2022 .*less than 5 years before 30 Jun 2025\.$/);
   });
 
   it('the windows are settings: 3 years makes the same parcel permanent', () => {
@@ -38,15 +38,15 @@ describe('deriveLandUseFlags', () => {
     const events: LandUseEvent[] = [{ date: '2000-05-01', kind: 'land-use', value: 'grassland' }, { date: '2023-08-20', kind: 'reseeding', value: 'direct drilled' }];
     expect(deriveLandUseFlags(events, { asOf }).permanentGrassland.value).toBe(true);
     const strict = deriveLandUseFlags(events, { asOf, tillageEndsGrassland: true }).permanentGrassland;
-    expect(strict).toEqual({ value: false, reason: 'Grassland only since 2023-08-20 (since the reseeding of 2023-08-20): less than 5 years before 2025-06-30.' });
+    expect(strict).toEqual({ value: false, reason: 'Grassland only since 20 Aug 2023 (since the reseeding of 20 Aug 2023): less than 5 years before 30 Jun 2025.' });
   });
 
   it('old grassland with no cultivation for 15 years: uncultivated and never tilled', () => {
     const events: LandUseEvent[] = [{ date: '1990-01-01', kind: 'land-use', value: 'grassland' }, { date: '2015-05-05', kind: 'management', value: 'grazed' }];
     const flags = deriveLandUseFlags(events, { asOf });
-    expect(flags.uncultivated).toEqual({ value: true, reason: 'No cultivation recorded between 2010-06-30 and 2025-06-30.' });
-    expect(flags.neverTilled).toEqual({ value: true, reason: 'No tillage or arable use recorded since records began on 1990-01-01.' });
-    expect(flags.permanentGrassland.reason).toMatch(/^Grassland at least since 1990-01-01 \(with no other use recorded\)/);
+    expect(flags.uncultivated).toEqual({ value: true, reason: 'No cultivation recorded between 30 Jun 2010 and 30 Jun 2025.' });
+    expect(flags.neverTilled).toEqual({ value: true, reason: 'No tillage or arable use recorded since records began on 1 Jan 1990.' });
+    expect(flags.permanentGrassland.reason).toMatch(/^Grassland at least since 1 Jan 1990 \(with no other use recorded\)/);
   });
 
   it('liming counts as cultivation when flagged (chemical cultivation, England EIA guidance, from memory)', () => {
@@ -62,7 +62,7 @@ describe('deriveLandUseFlags', () => {
     const events: LandUseEvent[] = [{ date: '2021-01-01', kind: 'land-use', value: 'grassland' }, { date: '2026-01-01', kind: 'tillage' }];
     const flags = deriveLandUseFlags(events, { asOf });
     expect(flags.permanentGrassland.value).toBeNull();
-    expect(flags.uncultivated).toEqual({ value: null, reason: 'Records begin 2021-01-01, later than 2010-06-30: the 15-year window is not covered.' });
+    expect(flags.uncultivated).toEqual({ value: null, reason: 'Records begin 1 Jan 2021, later than 30 Jun 2010: the 15-year window is not covered.' });
     expect(flags.neverTilled.value).toBe(true);
     expect(deriveLandUseFlags([], { asOf }).permanentGrassland.reason).toBe('No land use is recorded, so permanent grassland cannot be decided.');
   });

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { mapParcelFeature, mapReferenceFeature, parcelMappingSchema, readDate } from '~/lib/gis/field-mapping';
 import { summariseKind } from '~/lib/gis/overlay-summary';
-import { legendFor } from '~/lib/gis/reference-kinds';
+import { legendFor, legendForAll } from '~/lib/gis/reference-kinds';
 import { readGisSettings } from '~/lib/gis/settings';
 
 describe('column mapping', () => {
@@ -46,6 +46,27 @@ describe('legend and settings', () => {
     const l = Object.values(legendFor('soil', ['hac', 'lac', 'sandy', 'spodic', 'volcanic', 'wetland', 'organic']));
     expect(new Set(l.map((e) => e.colour)).size).toBe(7);
     expect(new Set(l.map((e) => e.pattern)).size).toBe(7);
+  });
+
+  it('gives every class on the map, across layers, its own colour-and-pattern pair; neighbours differ in both', () => {
+    // The demo's layers: climate 2, soil 4, sensitive 1, slope 3, never-tilled 1, regions 3 classes.
+    const all = legendForAll([
+      { kind: 'climate', classes: ['cool-temperate-moist', 'warm-temperate-moist'] },
+      { kind: 'soil', classes: ['hac', 'lac', 'sandy', 'wetland'] },
+      { kind: 'sensitive', classes: ['sensitive-grassland'] },
+      { kind: 'slope', classes: ['gentle', 'moderate', 'steep'] },
+      { kind: 'never-tilled', classes: ['never-tilled'] },
+      { kind: 'region', classes: ['north', 'south', 'west'] },
+    ]);
+    const entries = [...all.values()].flatMap((k) => Object.values(k));
+    expect(entries).toHaveLength(14);
+    expect(new Set(entries.map((e) => `${e.colour}|${e.pattern}`)).size).toBe(14);
+    // No two classes share a pattern in the same colour, nor the same pattern among the first ten.
+    expect(new Set(entries.slice(0, 10).map((e) => e.pattern)).size).toBe(10);
+    for (let i = 1; i < entries.length; i++) {
+      expect(entries[i]!.colour).not.toBe(entries[i - 1]!.colour);
+      expect(entries[i]!.pattern).not.toBe(entries[i - 1]!.pattern);
+    }
   });
 
   it('uses defaults for missing settings and refuses invalid stored ones', () => {

@@ -2,4 +2,4 @@ import { updateUser } from '~/lib/api/users';
 import { handle } from '~/lib/http/handle';
 import { changeUser } from '~/lib/services/users';
 
-export const PATCH = handle(updateUser, async ({ user, params, body }) => changeUser(user, params.id, body));
+export const PATCH = handle(updateUser, async ({ user, params, body: { version, ...patch } }) => changeUser(user, params.id, version, patch));
