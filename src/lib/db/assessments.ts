@@ -1,6 +1,7 @@
 /** SQL of the assessment aggregate: versions of a proposal's assessment, and the overlay it reads. */
 import type { OverlayRow } from '../gis/overlay-summary';
 import type { ReferenceKind } from '../gis/reference-kinds';
+import { unpackResult } from '../proposals/stored-result';
 import type { Db } from './client';
 
 export type AssessmentRow = {
@@ -31,7 +32,8 @@ const FROM = `from assessment a left join "user" s on s.id = a.signed_by left jo
 
 export async function getAssessment(db: Db, id: number, opts: { lock?: boolean } = {}): Promise<AssessmentRow | null> {
   const r = await db.raw(`select ${COLUMNS} ${FROM} where a.id = ? ${opts.lock ? 'for update of a' : ''}`, [id]);
-  return r.rows[0] ?? null;
+  const row = r.rows[0];
+  return row ? { ...row, result: unpackResult(row.result) } : null;
 }
 
 /** The draft of a proposal, locked; without its (large) inputs and result. */
@@ -60,6 +62,7 @@ export async function listForProposal(db: Db, proposalId: number): Promise<Omit<
 }
 
 export type AssessmentWrite = {
+  /** Written as given: the service passes the stored form (`packResult`). */
   inputs: unknown; result: unknown; factorSet: { id: string; version: number }; ruleSet: { id: string; version: number } | null;
   gradeLevel: number | null; gradeLabel: string | null; co2eTotal: number; by: string;
 };

@@ -4,7 +4,8 @@
  * history (src/lib/gis/region-figures.ts); reference ratios are computed the same way for the
  * reference date when the history covers it, else entered by an admin with their source.
  */
-import { regionFigures, historyCovers, type RegionFigures } from '../gis/region-figures';
+import type { LandUseEvent } from '../gis/land-use-history';
+import { regionFigures, historyCovers, type RegionFigures, type RegionParcel } from '../gis/region-figures';
 import { classLabel } from '../gis/reference-kinds';
 import type { Db } from './client';
 import { getSetting } from './factor-sets';
@@ -44,22 +45,34 @@ export async function regionsOfVersion(conn: Db, versionId: number): Promise<{ k
 
 /** Per region: agricultural area and permanent grassland (ha) as of `asOf` ("YYYY-MM-DD"). */
 export async function regionStats(conn: Db, asOf: string, keys?: string[]): Promise<RegionStat[]> {
+  return (await regionStatsAt(conn, [asOf], keys))[0] ?? [];
+}
+
+/**
+ * `regionStats` for several dates from one read of the regions' parcels and their land-use
+ * events (up to the latest date): one list of figures per date, in the order given.
+ */
+export async function regionStatsAt(conn: Db, dates: string[], keys?: string[]): Promise<RegionStat[][]> {
   const v = await currentRegionVersion(conn);
-  if (!v) return [];
-  const { regions } = await regionList(conn);
+  if (!v || !dates.length) return dates.map(() => []);
+  const regions = await regionsOfVersion(conn, v.id);
   const wanted = keys ? regions.filter((r) => keys.includes(r.key)) : regions;
+  if (!wanted.length) return dates.map(() => []);
+  const latest = dates.reduce((a, b) => (b > a ? b : a));
   const assigned = await conn.raw(
     `with a as (select distinct on (o.parcel_id) o.parcel_id, o.class from parcel_overlay o where o.layer_version_id = ? order by o.parcel_id, o.share desc, o.class)
-     select a.class as region_key, p.id, p.area_ha,
+     select a.class as region_key, p.area_ha,
             coalesce((select json_agg(json_build_object('date', to_char(e.event_date, 'YYYY-MM-DD'), 'kind', e.kind, 'value', e.value, 'cultivation', e.cultivation) order by e.event_date, e.id)
                       from land_use_event e where e.parcel_id = p.id and e.event_date <= ?::date), '[]') as events
      from a join parcel p on p.id = a.parcel_id where a.class = any(?::text[])`,
-    [v.id, asOf, wanted.map((r) => r.key)],
+    [v.id, latest, wanted.map((r) => r.key)],
   );
   const s = await getGisSettings(conn);
   const windows = { permanentGrasslandYears: s['land-use.permanent-grassland-years'], uncultivatedYears: s['land-use.uncultivated-years'], tillageEndsGrassland: s['land-use.tillage-ends-grassland'] };
-  const parcels = assigned.rows.map((r: { region_key: string; area_ha: number; events: never[] }) => ({ regionKey: r.region_key, areaHa: Number(r.area_ha), events: r.events }));
-  return regionFigures(wanted, parcels, asOf, windows);
+  const parcels: RegionParcel[] = assigned.rows.map((r: { region_key: string; area_ha: number; events: LandUseEvent[] }) => ({ regionKey: r.region_key, areaHa: Number(r.area_ha), events: r.events }));
+  return dates.map((asOf) =>
+    regionFigures(wanted, asOf === latest ? parcels : parcels.map((p) => ({ ...p, events: p.events.filter((e) => e.date <= asOf) })), asOf, windows),
+  );
 }
 
 export async function referenceYear(conn: Db): Promise<number> {
@@ -74,14 +87,46 @@ export const referenceDate = (year: number) => `${year}-12-31`;
  * history covers it, else the newest ratio an admin entered (with its source), else null.
  */
 export async function referenceRatio(conn: Db, key: string): Promise<ReferenceRatio | null> {
+  return (await referenceRatios(conn, [key])).get(key) ?? null;
+}
+
+/** `referenceRatio` for several regions from one read of the history (a key with no ratio is absent). */
+export async function referenceRatios(conn: Db, keys: string[]): Promise<Map<string, ReferenceRatio>> {
+  if (!keys.length) return new Map();
   const year = await referenceYear(conn);
-  const [fig] = await regionStats(conn, referenceDate(year), [key]);
-  if (fig && historyCovers(fig)) {
-    return { key, referenceYear: year, ratio: fig.permanentGrasslandHa / fig.agriculturalHa, origin: 'computed', source: `Computed from the recorded land-use history as of ${referenceDate(year)}`, enteredBy: null, enteredAt: null };
+  const [figs] = await regionStatsAt(conn, [referenceDate(year)], keys);
+  return ratiosFrom(conn, year, figs ?? [], keys);
+}
+
+/**
+ * Figures as of `asOf` and reference ratios of the same regions from one read of the history
+ * (what an assessment, the screening map and the dashboard need together).
+ */
+export async function regionStatsWithReference(conn: Db, asOf: string, keys?: string[]): Promise<{ stats: RegionStat[]; refs: Map<string, ReferenceRatio> }> {
+  const year = await referenceYear(conn);
+  const [stats = [], figs = []] = await regionStatsAt(conn, [asOf, referenceDate(year)], keys);
+  return { stats, refs: await ratiosFrom(conn, year, figs, stats.map((s) => s.key)) };
+}
+
+async function ratiosFrom(conn: Db, year: number, figs: RegionStat[], keys: string[]): Promise<Map<string, ReferenceRatio>> {
+  const out = new Map<string, ReferenceRatio>();
+  if (!keys.length) return out;
+  for (const fig of figs) {
+    if (!keys.includes(fig.key)) continue;
+    if (historyCovers(fig)) {
+      out.set(fig.key, { key: fig.key, referenceYear: year, ratio: fig.permanentGrasslandHa / fig.agriculturalHa, origin: 'computed', source: `Computed from the recorded land-use history as of ${referenceDate(year)}`, enteredBy: null, enteredAt: null });
+    }
   }
-  const row = await conn('region_reference_ratio as r').leftJoin('user as u', 'u.id', 'r.entered_by').where('r.region_key', key).orderBy('r.id', 'desc').first('r.reference_year', 'r.ratio', 'r.source', 'u.name', 'r.entered_at');
-  if (!row) return null;
-  return { key, referenceYear: row.reference_year, ratio: Number(row.ratio), origin: 'entered', source: row.source, enteredBy: row.name ?? null, enteredAt: row.entered_at.toISOString() };
+  const missing = keys.filter((k) => !out.has(k));
+  if (missing.length) {
+    const rows = await conn('region_reference_ratio as r').leftJoin('user as u', 'u.id', 'r.entered_by').whereIn('r.region_key', missing)
+      .distinctOn('r.region_key').orderBy([{ column: 'r.region_key' }, { column: 'r.id', order: 'desc' }])
+      .select('r.region_key', 'r.reference_year', 'r.ratio', 'r.source', 'u.name', 'r.entered_at');
+    for (const row of rows) {
+      out.set(row.region_key, { key: row.region_key, referenceYear: row.reference_year, ratio: Number(row.ratio), origin: 'entered', source: row.source, enteredBy: row.name ?? null, enteredAt: row.entered_at.toISOString() });
+    }
+  }
+  return out;
 }
 
 export async function insertReferenceRatio(conn: Db, r: { key: string; referenceYear: number; ratio: number; source: string; by: string }): Promise<number> {

@@ -7,7 +7,7 @@ import type { FactorSetDocument, LandUseState } from '../carbon';
 import * as store from '../db/assessments';
 import type { Db } from '../db/client';
 import type { ProposalRow } from '../db/proposals';
-import { referenceRatio, regionStats } from '../db/regions';
+import { regionStatsWithReference } from '../db/regions';
 import { committedCo2e } from '../db/register';
 import type { LandUseFlags } from '../gis/land-use-history';
 import { summariseOverlay, type OverlayRow } from '../gis/overlay-summary';
@@ -49,10 +49,11 @@ export async function buildGradeFacts(
   const convertedByRegion = new Map<string, number>();
   parcels.forEach((p, i) => p.regionKey && convertedByRegion.set(p.regionKey, (convertedByRegion.get(p.regionKey) ?? 0) + pgConverted(p, i)));
   const keys = [...convertedByRegion.keys()];
-  const stats = keys.length ? await regionStats(conn, new Date().toISOString().slice(0, 10), keys) : [];
+  // Figures now and the reference ratios from one read of the touched regions' history.
+  const { stats, refs } = keys.length ? await regionStatsWithReference(conn, new Date().toISOString().slice(0, 10), keys) : { stats: [], refs: new Map() };
   const regions = [];
   for (const s of stats) {
-    const ref = await referenceRatio(conn, s.key);
+    const ref = refs.get(s.key);
     regions.push(regionFacts(s, ref ? { ratio: ref.ratio, referenceYear: ref.referenceYear } : null, convertedByRegion.get(s.key) ?? 0));
   }
 

@@ -21,6 +21,7 @@ import { assessmentSignedMail } from '../mail/templates';
 import { assessmentFigures, estimatesAsApi, RESTORED_STATE, type ApiEstimate, type FigureInput, type ParcelRequest } from '../proposals/assessment-figures';
 import { stateFromRecord } from '../proposals/current-state';
 import { checkPlausibility } from '../proposals/plausibility';
+import { packResult } from '../proposals/stored-result';
 import { gradeProposal, levelInfo, type GradeFacts } from '../rules';
 import { buildGradeFacts, publicFacts } from './assessment-facts';
 import { defaultSetId, loadPublished } from './factor-sets';
@@ -208,7 +209,7 @@ export async function runAssessment(by: Caller, proposalId: number, input: Input
     const c = await compute(trx, p, input, phases);
     const result = resultOf(c);
     phases?.mark('result');
-    const write = { inputs: input, result, factorSet: result.factorSet, ruleSet: c.rules.ref, gradeLevel: c.grade.level, gradeLabel: result.grade.label, co2eTotal: result.totals.co2eTotal, by: by.id };
+    const write = { inputs: input, result: packResult(result), factorSet: result.factorSet, ruleSet: c.rules.ref, gradeLevel: c.grade.level, gradeLabel: result.grade.label, co2eTotal: result.totals.co2eTotal, by: by.id };
     const saved = draft ? { id: draft.id, number: draft.number, version: await store.updateDraft(trx, draft.id, write) } : { ...(await store.insertAssessment(trx, proposalId, write)), version: 1 };
     await recordAudit(trx, { actorId: by.id, action: draft ? 'assessment.rerun' : 'assessment.start', entityType: 'assessment', entityId: String(saved.id), details: { proposal: p.reference, factorSet: result.factorSet, ruleSet: c.rules.ref, level: c.grade.level, co2eTotal: result.totals.co2eTotal, overrideReason: input.overrideReason ?? null } });
     phases?.mark('store');

@@ -7,7 +7,7 @@
 import * as dash from '../db/dashboard';
 import { db, type Db } from '../db/client';
 import { getProposalSettings } from '../db/proposals';
-import { referenceRatio, regionStats } from '../db/regions';
+import { regionStatsWithReference } from '../db/regions';
 import { budgetLeft, changesByYear, conditionsByDue, conversionPending, daysPast, regionHeadroom } from '../dashboard/figures';
 import { citationText } from '../rules';
 import { loadRuleSet } from './rule-sets';
@@ -27,8 +27,9 @@ async function regionRows(conn: Db, today: string, parcels: dash.ApprovedParcelR
     pending.set(p.region, (pending.get(p.region) ?? 0) + p.areaHa);
   }
   const rows = [];
-  for (const s of await regionStats(conn, today)) {
-    const ref = await referenceRatio(conn, s.key);
+  const { stats, refs } = await regionStatsWithReference(conn, today);
+  for (const s of stats) {
+    const ref = refs.get(s.key);
     const pendingConvertedHa = pending.get(s.key) ?? 0;
     const h = regionHeadroom({ agriculturalHa: s.agriculturalHa, permanentGrasslandHa: s.permanentGrasslandHa, referenceRatio: ref?.ratio ?? null, maxRelativeFall, pendingConvertedHa });
     rows.push({

@@ -10,7 +10,7 @@ import { getGisSettings } from '../db/gis-settings';
 import { bumpMapVersion, mapVersion } from '../db/parcels';
 import { getProposalSettings } from '../db/proposals';
 import { currentVersions } from '../db/reference-layers';
-import { referenceRatio, regionStats } from '../db/regions';
+import { regionStatsWithReference } from '../db/regions';
 import { committedCo2e } from '../db/register';
 import * as store from '../db/screening';
 import { deriveLandUseFlags, type LandUseEvent } from '../gis/land-use-history';
@@ -63,8 +63,9 @@ export async function recomputeScreening(trx: Db, by: string | null, reason: str
   phases?.mark('flags');
   const keys = [...new Set(parcels.map((p) => p.regionKey).filter((k): k is string => !!k))];
   const regions = new Map<string, (ha: number) => ReturnType<typeof regionFacts>>();
-  for (const s of keys.length ? await regionStats(trx, today(), keys) : []) {
-    const ref = await referenceRatio(trx, s.key);
+  const { stats, refs } = keys.length ? await regionStatsWithReference(trx, today(), keys) : { stats: [], refs: new Map() };
+  for (const s of stats) {
+    const ref = refs.get(s.key);
     regions.set(s.key, (ha) => regionFacts(s, ref ? { ratio: ref.ratio, referenceYear: ref.referenceYear } : null, ha));
   }
   const windowYears = holdingWindowYears(rules.document) ?? 5;
