@@ -3,7 +3,7 @@
  * 1280 and 390 px, checked with axe-core (WCAG 2.1 A and AA rules and axe's best practices).
  * Fails on any serious or critical violation and on any page wider than the window.
  */
-import { readFileSync } from 'node:fs';
+import { mkdirSync, readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -22,6 +22,7 @@ let pages: PageCase[];
 beforeAll(async () => {
   browser = await launchBrowser();
   pages = await allPages();
+  mkdirSync('screenshots', { recursive: true });
 });
 afterAll(async () => {
   await browser?.close();
@@ -58,6 +59,7 @@ async function sweep(context: BrowserContext, viewer: Viewer): Promise<string[]>
       await page.evaluate(() => window.scrollTo(0, 0));
       await page.waitForLoadState('networkidle', { timeout: 10_000 }).catch(() => undefined);
       const where = `${p.path} as ${viewer} at ${label} (${width} px)`;
+      if (viewer === p.viewers[0]) await page.screenshot({ path: `screenshots/page${p.path.replace(/[^a-z0-9]+/gi, '-').replace(/-$/, '')}-${label}.png`, fullPage: true });
       const scrollWidth = await page.evaluate(() => document.documentElement.scrollWidth);
       if (scrollWidth > width) problems.push(`${where}: the page is ${scrollWidth} px wide`);
       for (const v of await axeProblems(page)) problems.push(`${where}: ${v.impact} ${v.id} (${v.help}) at ${v.nodes.join(' ')}`);

@@ -62,7 +62,7 @@ describe('carbon calculator', () => {
     await hydrated(page);
     await page.getByRole('button', { name: 'Add a soil class' }).click();
     await page.getByRole('button', { name: 'Add a soil class' }).click();
-    await page.getByLabel('Soil class 3').selectOption('organic');
+    await page.getByLabel('Soil class 3', { exact: true }).selectOption('organic');
     for (const width of [390, 1280]) {
       await page.setViewportSize({ width, height: 900 });
       const panel = (await page.getByRole('group', { name: 'Soils under the area' }).boundingBox())!;

@@ -60,8 +60,8 @@ export function scriptsInHtml(html: string): { eager: string[]; deferred: string
   return { eager, deferred, inline };
 }
 
-/** The module and everything it imports statically, as absolute paths. */
-async function staticGraph(entries: string[]): Promise<string[]> {
+/** The modules and everything they import statically, as absolute paths; `dynamic` collects the targets of `import()`. */
+async function staticGraph(entries: string[], dynamic: Set<string> = new Set()): Promise<string[]> {
   await init;
   const seen = new Set<string>();
   const queue = [...entries];
@@ -70,17 +70,23 @@ async function staticGraph(entries: string[]): Promise<string[]> {
     if (seen.has(url)) continue;
     seen.add(url);
     const [imports] = parse(readFileSync(fileOf(url), 'utf8'));
-    for (const i of imports) if (i.d === -1 && i.n) queue.push(new URL(i.n, `http://x${url}`).pathname);
+    for (const i of imports) {
+      if (!i.n || !i.n.startsWith('.')) continue;
+      const target = new URL(i.n, `http://x${url}`).pathname;
+      if (i.d === -1) queue.push(target);
+      else dynamic.add(target);
+    }
   }
   return [...seen];
 }
 
 export async function pageScript(html: string): Promise<PageScript> {
   const { eager, deferred, inline } = scriptsInHtml(html);
-  const urls = await staticGraph(eager);
+  const dynamic = new Set<string>();
+  const urls = await staticGraph(eager, dynamic);
   const modules = urls.map((url) => ({ url, bytes: moduleBytes(url) })).sort((a, b) => b.bytes - a.bytes);
   const inlineBytes = inline.length ? brotliBytes(inline.join('\n')) : 0;
   const eagerSet = new Set(urls);
-  const later = [...new Set((await staticGraph(deferred)).filter((u) => !eagerSet.has(u)))];
+  const later = [...new Set((await staticGraph([...deferred, ...dynamic])).filter((u) => !eagerSet.has(u)))];
   return { totalBytes: modules.reduce((s, m) => s + m.bytes, 0) + inlineBytes, modules, inlineBytes, deferred: later };
 }

@@ -41,7 +41,7 @@ export function Calculator({ sets }: { sets: SetOption[] }) {
   });
 
   return (
-    <div className="grid gap-5 lg:grid-cols-[minmax(300px,380px)_1fr]">
+    <div className="grid gap-5 lg:grid-cols-[minmax(300px,380px)_1fr] print:block">
       <form onSubmit={onSubmit} noValidate className="no-print panel flex min-w-0 flex-col gap-3 self-start" aria-label="Estimate inputs">
         <Field label="Factor set" htmlFor="factorSet">
           <select id="factorSet" className="input" {...register('factorSet')}>

@@ -4,7 +4,7 @@ import type { estimateResponseSchema } from '~/lib/api/estimates';
 import { EstimateInputs } from './EstimateInputs';
 import { FactorList } from './FactorList';
 import { formatNumber } from './labels';
-import { formatRounded, roundingStep } from './precision';
+import { formatRounded, roundingStep, roundTo } from './precision';
 
 export type Estimate = z.output<typeof estimateResponseSchema>;
 
@@ -35,8 +35,10 @@ export function EstimateResults({ result, transitionYears, inputs, onDownload }:
   const range = u ? { low: u.co2eLow, high: u.co2eHigh } : null;
   const step = roundingStep(result.co2eTotal, range);
   const t = (x: number) => formatRounded(x, step);
-  const signedT = (x: number) => sign(x) + formatRounded(Math.abs(x), step);
-  const tC = (x: number) => sign(x) + formatRounded(Math.abs(x), roundingStep(x));
+  // The sign of the figure as shown: a part that rounds to nothing reads 0, not +0.
+  const signedAt = (x: number, at: number) => sign(roundTo(x, at)) + formatRounded(Math.abs(x), at);
+  const signedT = (x: number) => signedAt(x, step);
+  const tC = (x: number) => signedAt(x, roundingStep(x));
   const lossShare = result.socBeforePerHa > 0 ? (result.socAfterPerHa - result.socBeforePerHa) / result.socBeforePerHa : 0;
   const emission = result.co2eTotal >= 0;
   return (
