@@ -27,7 +27,7 @@ export function ProposalForm({ start }: { start: FormStart }) {
   const [picked, setPicked] = useState<Picked[]>(start?.picked ?? []);
   const [drawingFor, setDrawingFor] = useState<number | null>(null);
   const [failure, setFailure] = useState<{ conflict: boolean; text: string } | null>(null);
-  const { register, handleSubmit, control, setValue, setError, formState } = useForm<Input>({ defaultValues: start?.values ?? EMPTY });
+  const { register, handleSubmit, control, setValue, setError, clearErrors, formState } = useForm<Input>({ defaultValues: start?.values ?? EMPTY });
   const errors = formState.errors;
 
   // The form's `parcels` follow the chosen list (validated again once the form has been sent).
@@ -43,7 +43,12 @@ export function ProposalForm({ start }: { start: FormStart }) {
     setDrawingFor(null);
   }, []);
 
-  const onSubmit = handleSubmit(async (values) => {
+  // The server's messages from the last try are cleared first: fields without rules (parcels) would keep them and block the form.
+  const onSubmit = (event: React.FormEvent<HTMLFormElement>) => {
+    clearErrors();
+    return send(event);
+  };
+  const send = handleSubmit(async (values) => {
     setFailure(null);
     try {
       const r = start
