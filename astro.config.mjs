@@ -45,6 +45,13 @@ export default defineConfig({
     server: { strictPort: true, watch: { ignored: ['**/.data/**', '**/screenshots/**', '**/dist*/**'] } },
     build: {
       rollupOptions: {
+        output: {
+          // zod in a chunk of its own, so an island that does not validate never fetches it
+          // with a shared chunk (script budgets, DEVELOPERS.md).
+          manualChunks(id) {
+            if (/node_modules\/zod\//.test(id)) return 'zod';
+          },
+        },
         // zod 4 ships comments rollup cannot place; harmless, and they bury real warnings.
         onwarn(warning, warn) {
           if (warning.message.includes('contains an annotation that Rollup cannot interpret')) return;

@@ -15,6 +15,11 @@ export default tseslint.config(
   ...astro.configs.recommended,
   ...astro.configs['jsx-a11y-recommended'],
   {
+    // Scroll regions take keyboard focus (axe-core: scrollable-region-focusable) as labelled regions.
+    files: ['**/*.astro'],
+    rules: { 'astro/jsx-a11y/no-noninteractive-tabindex': ['error', { tags: [], roles: ['tabpanel', 'region'] }] },
+  },
+  {
     languageOptions: { globals: { ...globals.node, ...globals.browser } },
     rules: {
       '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_', caughtErrorsIgnorePattern: '^_', ignoreRestSiblings: true }],

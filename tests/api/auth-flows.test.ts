@@ -67,7 +67,7 @@ describe('invitation and first password', () => {
     // A link cut off in a mail program reads the same as an unknown one, never a schema message.
     const cut = await api('POST', '/api/invitations/accept', { body: { token: 'x'.repeat(6), password: 'hay meadow in june' } });
     expect(cut.status).toBe(422);
-    // The page shows the field's message (NewPasswordForm), which is the unknown link's wording.
+    // The page shows the field's message (the welcome page, src/lib/auth/form-passwords.ts), which is the unknown link's wording.
     expect(cut.body.error.issues[0].message).toBe(unknown.body.error.message);
     expect(cut.body.error.message).not.toMatch(/expected|>=/i);
     const other = `late.${Date.now()}@tarrow.example`;

@@ -1,4 +1,5 @@
 /** The calculator and factor-set pages as a person uses them; screenshots at 1280 and 390 px. */
+import { readFileSync } from 'node:fs';
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { BASE_URL } from '../support/env';
@@ -25,7 +26,19 @@ describe('carbon calculator', () => {
     await page.getByLabel('Area, ha').fill('1');
     await page.getByRole('button', { name: 'Estimate' }).click();
     await page.getByText('Net emission').waitFor();
-    await expect(page.locator('section').first().textContent()).resolves.toMatch(/114\.2 t CO2e/);
+    // Focus moves to the result, not back to the page.
+    await expect(page.evaluate(() => document.activeElement?.id)).resolves.toBe('result-heading');
+    // Shown to the place the 95% range supports (JCGM 100:2008 7.2.6), with the inputs restated.
+    const headline = (await page.locator('section').first().textContent()) ?? '';
+    expect(headline).toMatch(/Net emission of about [\d,]+ t CO2e \(95% range [\d,]+ to [\d,]+ t CO2e, 1000 Monte Carlo runs/);
+    expect(headline).not.toMatch(/114\.2/);
+    await expect(page.getByRole('region', { name: 'What was estimated' }).textContent()).resolves.toMatch(/Warm temperate moist.*1\.00 ha/);
+    // The download carries the unrounded figures: worked example 1 → 114.2 t CO2e.
+    const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Download (JSON)' }).click()]);
+    const saved = JSON.parse(readFileSync((await download.path())!, 'utf8'));
+    expect(saved.result.co2eTotal).toBeCloseTo(114.2, 1);
+    expect(saved.inputs.Area).toBe('1.00 ha');
+    expect(saved.request.areaHa).toBe(1);
     await expect(page.getByText('Not a substitute for a site survey or soil sampling', { exact: false }).count()).resolves.toBeGreaterThan(0);
     await expect(page.getByText('Exploration only.').count()).resolves.toBe(1);
     // The warning names the unchecked values themselves, so no row marked "checked" is listed as unchecked.
@@ -33,9 +46,37 @@ describe('carbon calculator', () => {
     const checkedRows = await page.locator('tr', { has: page.getByText('✓ checked') }).locator('td:first-child span.block').allTextContents();
     for (const row of checkedRows) expect(warning).not.toContain(row);
     await page.locator('.recharts-line').first().waitFor();
+    await expect(page.locator('.recharts-reference-area').count()).resolves.toBe(1);
     await screenshotBoth(page, 'calculator-result');
+    await page.emulateMedia({ media: 'print' });
+    await expect(page.getByRole('form', { name: 'Estimate inputs' }).isVisible()).resolves.toBe(false);
+    await expect(page.locator('body > header').isVisible()).resolves.toBe(false);
+    await page.screenshot({ path: 'screenshots/calculator-print.png', fullPage: true });
+    await page.emulateMedia({ media: 'screen' });
     expect(seen.errors).toEqual([]);
     expect(seen.foreign).toEqual([]);
+    await context.close();
+  });
+
+  it('added soil rows stay inside their panel at 1280 and 390 px', async () => {
+    const context = await browser.newContext({ viewport: { width: 390, height: 900 } });
+    const page = await context.newPage();
+    await signInThroughForm(page, DEMO.planner, DEMO_PASSWORD);
+    await page.goto(`${BASE_URL}/calculator`);
+    await hydrated(page);
+    await page.getByRole('button', { name: 'Add a soil class' }).click();
+    await page.getByRole('button', { name: 'Add a soil class' }).click();
+    await page.getByLabel('Soil class 3', { exact: true }).selectOption('organic');
+    for (const width of [390, 1280]) {
+      await page.setViewportSize({ width, height: 900 });
+      const panel = (await page.getByRole('group', { name: 'Soils under the area' }).boundingBox())!;
+      for (const el of await page.getByRole('group', { name: 'Soils under the area' }).locator('select, input, button').all()) {
+        const box = (await el.boundingBox())!;
+        expect(box.x + box.width, `${width} px`).toBeLessThanOrEqual(panel.x + panel.width);
+      }
+      expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(width);
+    }
+    await screenshotBoth(page, 'calculator-soils');
     await context.close();
   });
 

@@ -58,7 +58,8 @@ describe('invitation through the pages', () => {
     await p2.getByRole('button', { name: 'Sign in' }).click();
     await p2.waitForURL((url) => url.pathname.startsWith('/work'));
     await expect(p2.locator('h1').textContent()).resolves.toBe('Assessment desk');
-    expect(seen.errors).toEqual([]);
+    // The page is a plain form post: the refused short password comes back with status 422, which the browser logs.
+    expect(seen.errors.filter((e) => !/status of 422/.test(e))).toEqual([]);
     await invitee.close();
   });
 

@@ -103,7 +103,9 @@ describe('parcel upload and map', () => {
     const seen = watchPage(page);
     await signInThroughForm(page, DEMO.admin, DEMO_PASSWORD);
     await page.goto(`${BASE_URL}/admin/reference-layers`);
-    await expect.poll(() => page.getByText('● Current').count()).toBe(6);
+    // A table from 768 px, one card per version below (both in the page).
+    await expect.poll(() => page.locator('table').getByText('● Current').count()).toBe(6);
+    await expect(page.locator('ul').getByText('● Current').count()).resolves.toBe(6);
     await screenshotBoth(page, 'reference-layers');
     await page.goto(`${BASE_URL}/admin/reference-layers/upload`);
     await hydrated(page);

@@ -1,6 +1,6 @@
 /** For assessors on a draft: findings (saved with the row version), sign-off, and re-running with overrides. */
 import { useState } from 'react';
-import { GWP_SETS, type LandUseState } from '~/lib/carbon';
+import { GWP_SETS, type LandUseState } from '~/lib/carbon/types';
 import { GWP_LABELS } from '../calculator/labels';
 import { ParcelSearch } from '../map/ParcelSearch';
 import { DEFAULT_GRASSLAND, UseFields } from '../proposals/UseFields';

@@ -4,6 +4,8 @@ import { useForm } from 'react-hook-form';
 import { CLIMATE_REGIONS, GWP_SETS } from '~/lib/carbon';
 import { apiFetch, ApiError } from '../ui/api-client';
 import { Field } from '../ui/Field';
+import { downloadEstimate } from './download';
+import { inputRows } from './EstimateInputs';
 import { EstimateResults, type Estimate } from './EstimateResults';
 import { calculatorFormSchema, DEFAULT_FORM, toRequestBody, type CalculatorForm, type CalculatorValues } from './form-model';
 import { CLIMATE_LABELS, GWP_LABELS } from './labels';
@@ -13,7 +15,7 @@ import { SoilFields } from './SoilFields';
 type SetOption = { id: string; title: string; isDefault: boolean; version: number; unconfirmed: number };
 
 export function Calculator({ sets }: { sets: SetOption[] }) {
-  const [result, setResult] = useState<{ estimate: Estimate; years: number } | null>(null);
+  const [result, setResult] = useState<{ estimate: Estimate; years: number; values: CalculatorValues } | null>(null);
   const [failure, setFailure] = useState<string | null>(null);
   const defaultSet = sets.find((s) => s.isDefault)?.id ?? DEFAULT_FORM.factorSet;
   const { register, handleSubmit, control, watch, formState } = useForm<CalculatorForm, unknown, CalculatorValues>({
@@ -21,13 +23,17 @@ export function Calculator({ sets }: { sets: SetOption[] }) {
     defaultValues: { ...DEFAULT_FORM, factorSet: defaultSet },
   });
   const errors = formState.errors;
+  const setTitle = (id: string) => {
+    const s = sets.find((x) => x.id === id);
+    return s ? `${s.title}, version ${s.version}` : id;
+  };
   const withUncertainty = watch('withUncertainty');
 
   const onSubmit = handleSubmit(async (values) => {
     setFailure(null);
     try {
       const estimate = await apiFetch<Estimate>('/api/estimates', { body: toRequestBody(values) });
-      setResult({ estimate, years: values.transitionYears });
+      setResult({ estimate, years: values.transitionYears, values });
     } catch (e) {
       setResult(null);
       setFailure(e instanceof ApiError ? e.message : 'The estimate could not be computed.');
@@ -35,8 +41,8 @@ export function Calculator({ sets }: { sets: SetOption[] }) {
   });
 
   return (
-    <div className="grid gap-5 lg:grid-cols-[minmax(300px,380px)_1fr]">
-      <form onSubmit={onSubmit} noValidate className="panel flex min-w-0 flex-col gap-3 self-start" aria-label="Estimate inputs">
+    <div className="grid gap-5 lg:grid-cols-[minmax(300px,380px)_1fr] print:block">
+      <form onSubmit={onSubmit} noValidate className="no-print panel flex min-w-0 flex-col gap-3 self-start" aria-label="Estimate inputs">
         <Field label="Factor set" htmlFor="factorSet">
           <select id="factorSet" className="input" {...register('factorSet')}>
             {sets.map((s) => (
@@ -111,9 +117,14 @@ export function Calculator({ sets }: { sets: SetOption[] }) {
       </form>
       <div className="min-w-0">
         {result ? (
-          <EstimateResults result={result.estimate} transitionYears={result.years} />
+          <EstimateResults
+            result={result.estimate}
+            transitionYears={result.years}
+            inputs={inputRows(result.values, setTitle(result.values.factorSet))}
+            onDownload={() => downloadEstimate(inputRows(result.values, setTitle(result.values.factorSet)), toRequestBody(result.values), result.estimate)}
+          />
         ) : (
-          <div className="panel text-sm text-muted">
+          <div className="no-print panel text-sm text-muted">
             <p>Choose the region, soils and the change, then press <strong>Estimate</strong>.</p>
             <p className="mt-2">The estimate follows the IPCC Tier 1 stock-change method (2006 Guidelines, Vol 4, Eq 2.25): reference stock × land-use, management and input factors, changing linearly over the transition period. It adds biomass lost at conversion and N2O from mineralised nitrogen, in CO2-equivalent.</p>
           </div>

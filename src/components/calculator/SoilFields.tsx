@@ -12,12 +12,12 @@ export function SoilFields({ control, register, errors }: Props) {
     <fieldset className="flex flex-col gap-2 rounded border border-line p-3">
       <legend className="px-1 text-sm font-semibold">Soils under the area</legend>
       {fields.map((f, i) => (
-        <div key={f.id} className="flex items-end gap-2">
-          <div className="field min-w-0 flex-1">
+        <div key={f.id} className="grid grid-cols-[minmax(0,1fr)_5rem] items-end gap-2">
+          <div className="field min-w-0">
             <label htmlFor={`soil-${i}`} className="text-sm font-medium text-muted">
               Soil class {i + 1}
             </label>
-            <select id={`soil-${i}`} className="input" {...register(`soils.${i}.type`)}>
+            <select id={`soil-${i}`} className="input w-full" {...register(`soils.${i}.type`)}>
               {SOIL_TYPES.map((s) => (
                 <option key={s} value={s}>
                   {SOIL_LABELS[s]}
@@ -25,14 +25,14 @@ export function SoilFields({ control, register, errors }: Props) {
               ))}
             </select>
           </div>
-          <div className="field w-24">
+          <div className="field">
             <label htmlFor={`soil-pct-${i}`} className="text-sm font-medium text-muted">
               Share %
             </label>
-            <input id={`soil-pct-${i}`} type="number" step="any" min="0" max="100" className="input" aria-invalid={!!errors.soils?.[i]?.percent} {...register(`soils.${i}.percent`)} />
+            <input id={`soil-pct-${i}`} type="number" step="any" min="0" max="100" className="input w-full" aria-invalid={!!errors.soils?.[i]?.percent} {...register(`soils.${i}.percent`)} />
           </div>
           {fields.length > 1 && (
-            <button type="button" className="btn btn-quiet px-2" aria-label={`Remove soil class ${i + 1}`} onClick={() => remove(i)}>
+            <button type="button" className="btn btn-quiet col-span-2 justify-self-end px-2 py-1 text-sm" aria-label={`Remove soil class ${i + 1}`} onClick={() => remove(i)}>
               Remove
             </button>
           )}

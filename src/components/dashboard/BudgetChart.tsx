@@ -13,7 +13,7 @@ export function BudgetChart({ rows, budgetT }: { rows: Row[]; budgetT: number | 
       {rows.length > 0 && (
         <div className="h-64 w-full" aria-hidden="true">
           <ResponsiveContainer width="100%" height="100%">
-            <ComposedChart data={rows} margin={{ top: 16, right: 8, bottom: 4, left: 8 }}>
+            <ComposedChart accessibilityLayer={false} data={rows} margin={{ top: 16, right: 8, bottom: 4, left: 8 }}>
               <CartesianGrid stroke="#d5d8d0" strokeDasharray="3 3" />
               <XAxis dataKey="year" tick={{ fontSize: 12 }} />
               <YAxis tick={{ fontSize: 12 }} width={56} domain={[low, ticks[ticks.length - 1]!]} ticks={ticks} tickFormatter={(v) => fmt(Number(v))} />

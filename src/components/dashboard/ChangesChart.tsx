@@ -10,7 +10,7 @@ export function ChangesChart({ rows }: { rows: Row[] }) {
       {rows.length > 0 && (
         <div className="h-64 w-full" aria-hidden="true">
           <ResponsiveContainer width="100%" height="100%">
-            <BarChart data={rows} margin={{ top: 8, right: 8, bottom: 4, left: 0 }}>
+            <BarChart accessibilityLayer={false} data={rows} margin={{ top: 8, right: 8, bottom: 4, left: 0 }}>
               <CartesianGrid stroke="#d5d8d0" strokeDasharray="3 3" />
               <XAxis dataKey="year" tick={{ fontSize: 12 }} />
               <YAxis tick={{ fontSize: 12 }} width={44} label={{ value: 'ha', angle: -90, position: 'insideLeft', fontSize: 12 }} />

@@ -11,7 +11,7 @@ export function RatioChart({ rows, maxRelativeFall }: { rows: Row[]; maxRelative
       {rows.length > 0 && (
         <div className="h-72 w-full" aria-hidden="true">
           <ResponsiveContainer width="100%" height="100%">
-            <ComposedChart data={data} margin={{ top: 8, right: 8, bottom: 4, left: 0 }}>
+            <ComposedChart accessibilityLayer={false} data={data} margin={{ top: 8, right: 8, bottom: 4, left: 0 }}>
               <CartesianGrid stroke="#d5d8d0" strokeDasharray="3 3" />
               <XAxis dataKey="label" tick={{ fontSize: 12 }} />
               <YAxis tick={{ fontSize: 12 }} width={44} domain={[0, 1]} tickFormatter={(v) => `${Math.round(Number(v) * 100)} %`} />

@@ -1,9 +1,8 @@
 /** "Record a land-use event" in the parcel panel (planners and admins): date, kind, value for the kind, evidence. */
 import { formatDate } from '~/lib/format/dates';
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
-import { useForm } from 'react-hook-form';
-import { z } from 'zod';
+import { useForm, type FieldErrors, type Resolver } from 'react-hook-form';
+import type { LandUseEventKind } from '~/lib/gis/land-use-history';
 import { checkLandUseEvent, EARLIEST_EVENT_DATE, EVENT_KIND_LABELS, EVENT_KINDS, EVENT_VALUES, VALUE_OPTIONAL } from '~/lib/gis/land-use-events';
 import { apiFetch, ApiError } from '../ui/api-client';
 import { Field } from '../ui/Field';
@@ -11,18 +10,26 @@ import { Field } from '../ui/Field';
 const todayUtc = () => new Date().toISOString().slice(0, 10);
 const FIELDS = ['date', 'kind', 'value', 'evidence'] as const;
 
-/** The same checks as the server (src/lib/gis/land-use-events.ts); the server checks again. */
-const eventFormSchema = z
-  .object({ date: z.string(), kind: z.enum(EVENT_KINDS), value: z.string(), evidence: z.string() })
-  .superRefine((v, ctx) => checkLandUseEvent(v, todayUtc()).forEach((i) => ctx.addIssue({ code: 'custom', path: i.path, message: i.message })));
-type EventFormValues = z.infer<typeof eventFormSchema>;
+type EventFormValues = { date: string; kind: LandUseEventKind; value: string; evidence: string };
+
+/** The same checks as the server (src/lib/gis/land-use-events.ts); the server checks again. No zod here: it would weigh on the map page. */
+const eventResolver: Resolver<EventFormValues> = async (values) => {
+  const issues = checkLandUseEvent(values, todayUtc());
+  if (issues.length === 0) return { values, errors: {} };
+  const errors: FieldErrors<EventFormValues> = {};
+  for (const i of issues) {
+    const key = i.path[0] as keyof EventFormValues;
+    errors[key] ??= { type: 'custom', message: i.message };
+  }
+  return { values: {}, errors };
+};
 
 const EMPTY: EventFormValues = { date: '', kind: 'land-use', value: '', evidence: '' };
 
 export function EventForm({ parcelId, onRecorded }: { parcelId: number; onRecorded: () => Promise<void> }) {
   const [done, setDone] = useState<string | null>(null);
   const [failure, setFailure] = useState<string | null>(null);
-  const { register, handleSubmit, watch, setValue, setError, reset, formState } = useForm<EventFormValues>({ resolver: zodResolver(eventFormSchema), defaultValues: EMPTY });
+  const { register, handleSubmit, watch, setValue, setError, reset, formState } = useForm<EventFormValues>({ resolver: eventResolver, defaultValues: EMPTY });
   const errors = formState.errors;
   const kind = watch('kind');
   const kindWord = EVENT_KIND_LABELS[kind].toLowerCase();

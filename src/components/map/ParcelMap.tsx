@@ -163,7 +163,7 @@ export function ParcelMap({ canEdit }: { canEdit: boolean }) {
   const actions = canEdit && mode === 'view' && detail ? <button className="btn btn-quiet self-start" onClick={() => void begin('edit')}>Edit boundary</button> : null;
   return (
     <div className="grid gap-3 lg:grid-cols-[16rem_minmax(0,1fr)_22rem]">
-      <aside className="panel order-3 flex min-w-0 flex-col gap-3 lg:order-1">
+      <aside className="panel order-3 flex min-w-0 flex-col gap-3 lg:order-1" aria-label="Find a parcel and choose layers">
         {config && (
           <>
             {upload && <UploadList upload={upload} onPick={(id) => void select(id, true)} onClose={() => (setUpload(null), handles.current?.upload.clear())} />}
@@ -188,7 +188,7 @@ export function ParcelMap({ canEdit }: { canEdit: boolean }) {
         </div>
         <div ref={target} className="h-[60vh] min-h-[22rem] w-full rounded border border-line bg-[#eef1ec] lg:h-[calc(100vh-12rem)]" role="region" aria-label="Map of parcels and reference layers" tabIndex={0} />
       </div>
-      <aside className="panel order-2 overflow-y-auto lg:order-3 lg:max-h-[calc(100vh-10rem)]" aria-live="polite">
+      <aside className="panel order-2 overflow-y-auto lg:order-3 lg:max-h-[calc(100vh-10rem)]" role="region" aria-label="Selected parcel" aria-live="polite" tabIndex={0}>
         {mode === 'draw' && <DrawForm ready={drawn} busy={busy} onSave={(v) => void saveDrawn(v)} onCancel={endEditing} />}
         {mode === 'edit' && detail && <BoundaryForm reference={detail.reference} busy={busy} onSave={(r) => void saveBoundary(r)} onCancel={endEditing} />}
         {mode === 'view' && detail && <ParcelPanel p={detail} actions={actions} recordForm={recordForm} onClose={() => (setDetail(null), handles.current?.highlight.clear())} />}

@@ -1,12 +1,12 @@
 /**
- * Filing or changing a proposal: react-hook-form checked by the API's own schema (proposalFieldsSchema),
+ * Filing or changing a proposal: react-hook-form, checked by the API with its own schema (proposalFieldsSchema,
+ * whose messages are shown beside each field; the island carries no zod, see "Script budgets" in DEVELOPERS.md),
  * parcels picked by reference or on the map (optionally a drawn part), the proposed use in the engine's terms.
  */
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useCallback, useEffect, useState } from 'react';
 import { Controller, useForm } from 'react-hook-form';
 import type { z } from 'zod';
-import { proposalFieldsSchema } from '~/lib/api/proposals';
+import type { proposalFieldsSchema } from '~/lib/api/proposals';
 import { ParcelSearch } from '../map/ParcelSearch';
 import { Field } from '../ui/Field';
 import { ApiError, apiFetch } from '../ui/api-client';
@@ -27,10 +27,7 @@ export function ProposalForm({ start }: { start: FormStart }) {
   const [picked, setPicked] = useState<Picked[]>(start?.picked ?? []);
   const [drawingFor, setDrawingFor] = useState<number | null>(null);
   const [failure, setFailure] = useState<{ conflict: boolean; text: string } | null>(null);
-  const { register, handleSubmit, control, setValue, formState } = useForm<Input, unknown, Values>({
-    resolver: zodResolver(proposalFieldsSchema),
-    defaultValues: start?.values ?? EMPTY,
-  });
+  const { register, handleSubmit, control, setValue, setError, clearErrors, formState } = useForm<Input>({ defaultValues: start?.values ?? EMPTY });
   const errors = formState.errors;
 
   // The form's `parcels` follow the chosen list (validated again once the form has been sent).
@@ -46,7 +43,12 @@ export function ProposalForm({ start }: { start: FormStart }) {
     setDrawingFor(null);
   }, []);
 
-  const onSubmit = handleSubmit(async (values) => {
+  // The server's messages from the last try are cleared first: fields without rules (parcels) would keep them and block the form.
+  const onSubmit = (event: React.FormEvent<HTMLFormElement>) => {
+    clearErrors();
+    return send(event);
+  };
+  const send = handleSubmit(async (values) => {
     setFailure(null);
     try {
       const r = start
@@ -54,7 +56,10 @@ export function ProposalForm({ start }: { start: FormStart }) {
         : await apiFetch<{ id: number }>('/api/proposals', { body: values });
       window.location.href = `/proposals/${r.id}`;
     } catch (e) {
-      if (e instanceof ApiError && e.status === 409 && /someone else/i.test(e.message)) setFailure({ conflict: true, text: e.message });
+      if (e instanceof ApiError && e.status === 422 && e.issues.length) {
+        for (const i of e.issues) setError((i.path.length > 1 && i.path[0] === 'parcels' ? 'parcels' : i.path.join('.')) as never, { message: i.message });
+        setFailure({ conflict: false, text: 'Nothing was saved: see the messages beside the fields.' });
+      } else if (e instanceof ApiError && e.status === 409 && /someone else/i.test(e.message)) setFailure({ conflict: true, text: e.message });
       else setFailure({ conflict: false, text: e instanceof ApiError ? e.message : 'The proposal could not be saved.' });
     }
   });

@@ -1,5 +1,5 @@
 /** A land use and its IPCC management choices in the engine's terms (controlled; the calculator's labels). */
-import { CROPLAND_INPUT, CROPLAND_SYSTEMS, GRASSLAND_INPUT, GRASSLAND_MANAGEMENT, TILLAGE, type LandUseState } from '~/lib/carbon';
+import { CROPLAND_INPUT, CROPLAND_SYSTEMS, GRASSLAND_INPUT, GRASSLAND_MANAGEMENT, TILLAGE, type LandUseState } from '~/lib/carbon/types';
 import { CROP_INPUT_LABELS, GRASS_INPUT_LABELS, MANAGEMENT_LABELS, SYSTEM_LABELS, TILLAGE_LABELS } from '../calculator/labels';
 
 export const DEFAULT_CROPLAND: LandUseState = { landUse: 'cropland', system: 'long-term-cultivated', tillage: 'full', input: 'medium' };

@@ -39,7 +39,24 @@ export function ReferenceLayersAdmin() {
           <h2 id={`kind-${k.kind}`} className="mb-1">{k.label}</h2>
           {k.allowedClasses && <p className="mb-2 text-xs text-muted">Classes: {k.allowedClasses.map(classLabel).join(', ')}.</p>}
           {k.versions.length === 0 ? <p className="text-sm text-muted">No version uploaded yet. Parcels show “not covered” for this layer until one is published.</p> : (
-            <div className="overflow-x-auto">
+            <>
+            {/* Phones get one card per version; the table needs the width of a tablet or more. */}
+            <ul className="flex flex-col gap-2 md:hidden" aria-label={`Versions of ${k.label.toLowerCase()}`}>
+              {k.versions.map((v) => (
+                <li key={v.id} className="rounded border border-line bg-white p-3 text-sm">
+                  <p className="flex flex-wrap items-baseline justify-between gap-2"><strong>v{v.version}</strong><span>{statusText(v)}</span></p>
+                  <dl className="mt-1 grid grid-cols-[max-content_minmax(0,1fr)] gap-x-3 gap-y-0.5">
+                    <dt className="text-muted">File</dt><dd className="[overflow-wrap:anywhere]">{v.fileName ?? '—'}</dd>
+                    <dt className="text-muted">Classes</dt><dd>{v.classes.map(classLabel).join(', ')} <span className="text-xs text-muted">({v.classAttribute})</span></dd>
+                    <dt className="text-muted">Features</dt><dd>{v.featureCount}</dd>
+                    <dt className="text-muted">Uploaded</dt><dd>{v.createdAt.slice(0, 10)}{v.createdBy ? `, ${v.createdBy}` : ''}</dd>
+                    <dt className="text-muted">Published</dt><dd>{v.publishedAt ? `${v.publishedAt.slice(0, 10)}${v.publishedBy ? `, ${v.publishedBy}` : ''}` : '—'}</dd>
+                  </dl>
+                  {v.status === 'draft' && <button className="btn mt-2" disabled={busy !== null} onClick={() => void publish(k, v)}>{busy === v.id ? 'Publishing…' : `Publish v${v.version}`}</button>}
+                </li>
+              ))}
+            </ul>
+            <div className="hidden overflow-x-auto md:block">
               <table className="data-table">
                 <thead><tr><th scope="col">Version</th><th scope="col">Status</th><th scope="col">File</th><th scope="col">Classes (column)</th><th scope="col" className="num">Features</th><th scope="col">Uploaded</th><th scope="col">Published</th><th scope="col"><span className="sr-only">Action</span></th></tr></thead>
                 <tbody>
@@ -47,7 +64,7 @@ export function ReferenceLayersAdmin() {
                     <tr key={v.id}>
                       <td>v{v.version}</td>
                       <td className="whitespace-nowrap">{statusText(v)}</td>
-                      <td className="[overflow-wrap:anywhere]">{v.fileName ?? '—'}</td>
+                      <td className="min-w-[10rem] [overflow-wrap:anywhere]">{v.fileName ?? '—'}</td>
                       <td>{v.classes.map(classLabel).join(', ')} <span className="text-xs text-muted">({v.classAttribute})</span></td>
                       <td className="num">{v.featureCount}</td>
                       <td>{formatDate(v.createdAt)}{v.createdBy ? `, ${v.createdBy}` : ''}</td>
@@ -58,6 +75,7 @@ export function ReferenceLayersAdmin() {
                 </tbody>
               </table>
             </div>
+            </>
           )}
         </section>
       ))}

@@ -47,5 +47,5 @@ export function EntryMap({ seq, headSeq, extent, basemapUrl, fallbackId, label }
     });
     return () => map.setTarget(undefined);
   }, [seq, headSeq, extent, basemapUrl, fallbackId]);
-  return <div ref={target} className="h-72 w-full rounded border border-line bg-sward-50 md:h-96" role="img" aria-label={label} />;
+  return <div ref={target} className="h-72 w-full rounded border border-line bg-sward-50 md:h-96" role="region" aria-label={label} />;
 }

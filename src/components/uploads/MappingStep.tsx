@@ -1,5 +1,5 @@
 /** Step 2: map the layer's columns to Swardkeep fields, with sample values beside each column. */
-import { PARCEL_FIELD_LABELS } from '~/lib/gis/field-mapping';
+import { PARCEL_FIELD_LABELS } from '~/lib/gis/field-labels';
 import { AREA_UNITS } from '~/lib/gis/area-units';
 import { KIND_INFO, REFERENCE_KINDS } from '~/lib/gis/reference-kinds';
 import type { Mapping, StagedLayer } from './types';

@@ -42,7 +42,22 @@ export function ReportStep({ report, purpose, uploadId }: { report: Report; purp
               </label>
             ))}
           </div>
-          <div className="max-h-[28rem] overflow-auto rounded border border-line bg-white">
+          {/* Phones get one card per feature; the table needs more width than 390 px. */}
+          <div className="max-h-[28rem] overflow-auto sm:hidden" role="region" aria-label={`${noun} with remarks`} tabIndex={0}>
+          <ul className="flex flex-col gap-2">
+            {rows.map((f) => (
+              <li key={f.index} className="rounded border border-line bg-white p-2 text-sm">
+                <p className="flex flex-wrap items-baseline justify-between gap-x-3">
+                  <span><span className="text-muted">#{f.index + 1}</span> <strong className="[overflow-wrap:anywhere]">{f.reference ?? '—'}</strong></span>
+                  <span className={f.status === 'rejected' ? 'text-clay-700' : undefined}><span aria-hidden="true">{STATUS[f.status].mark} </span>{STATUS[f.status].word}</span>
+                </p>
+                <ul className="mt-1 list-disc pl-5">{f.issues.map((i, n) => (<li key={n}>{i.message}</li>))}</ul>
+                {f.areaHa !== null && <p className="mt-1 text-xs text-muted">Measured area {f.areaHa.toFixed(2)} ha</p>}
+              </li>
+            ))}
+          </ul>
+          </div>
+          <div className="hidden max-h-[28rem] overflow-auto rounded border border-line bg-white sm:block" tabIndex={0} role="region" aria-label={`${noun} with remarks`}>
             <table className="data-table">
               <caption className="sr-only">{noun} with remarks</caption>
               <thead className="sticky top-0 bg-white">
