@@ -7,7 +7,10 @@ import { cspHashOf, ZOD_JITLESS_SCRIPT } from './src/lib/inline-scripts.mjs';
 
 // Host names the app may be reached under. Astro's node adapter ignores the Host header
 // unless it is listed here, and then refuses same-origin form posts (see DEVELOPERS.md).
-const extraHosts = (process.env.PUBLIC_HOSTNAMES ?? '').split(',').map((h) => h.trim()).filter(Boolean);
+const extraHosts = (process.env.PUBLIC_HOSTNAMES ?? '')
+  .split(',')
+  .map((h) => h.trim())
+  .filter(Boolean);
 
 export default defineConfig({
   output: 'server',
@@ -17,7 +20,11 @@ export default defineConfig({
   integrations: [react()],
   security: {
     checkOrigin: true,
-    allowedDomains: [{ hostname: '127.0.0.1' }, { hostname: 'localhost' }, ...extraHosts.map((hostname) => ({ hostname }))],
+    allowedDomains: [
+      { hostname: '127.0.0.1' },
+      { hostname: 'localhost' },
+      ...extraHosts.map((hostname) => ({ hostname })),
+    ],
   },
   // Content-Security-Policy as a response header on every page: Astro adds script-src and
   // style-src with the SHA-256 hashes of the scripts and styles it emits (island hydration

@@ -46,4 +46,6 @@ const zip = createZip(
 mkdirSync(dirname(outPath), { recursive: true });
 writeFileSync(outPath, zip);
 const seconds = ((performance.now() - started) / 1000).toFixed(1);
-console.log(`wrote ${outPath}: ${parcels.length} parcels (${cols}×${rows} grid, EPSG:${region.epsg}), ${zip.length} bytes, ${seconds} s`);
+console.log(
+  `wrote ${outPath}: ${parcels.length} parcels (${cols}×${rows} grid, EPSG:${region.epsg}), ${zip.length} bytes, ${seconds} s`,
+);

@@ -25,8 +25,17 @@ const crs = await crsFromEpsg(CORROWMERE.epsg);
 const origin = regionOrigin(CORROWMERE, crs);
 const random = seededRandom(SEED);
 const ring = (x: number, y: number, w: number, h: number) =>
-  [[x, y], [x + w, y], [x + w, y + h], [x, y + h], [x, y]].map(([ex, ny]) => toWgs84([origin[0]! + ex!, origin[1]! + ny!], crs).map(round7));
-const yearsAgo = (min: number, max: number) => new Date(Date.UTC(2025, 5, 30) - Math.floor(random.range(min * 365.25, max * 365.25)) * 86_400_000).toISOString().slice(0, 10);
+  [
+    [x, y],
+    [x + w, y],
+    [x + w, y + h],
+    [x, y + h],
+    [x, y],
+  ].map(([ex, ny]) => toWgs84([origin[0]! + ex!, origin[1]! + ny!], crs).map(round7));
+const yearsAgo = (min: number, max: number) =>
+  new Date(Date.UTC(2025, 5, 30) - Math.floor(random.range(min * 365.25, max * 365.25)) * 86_400_000)
+    .toISOString()
+    .slice(0, 10);
 
 const features: Feature<Polygon>[] = [];
 for (let row = 0; row < ROWS; row++) {
@@ -36,14 +45,29 @@ for (let row = 0; row < ROWS; row++) {
     const grass = a.land_use !== 'arable';
     const inGrass = !grass ? null : a.last_till ? String(a.last_till) : yearsAgo(6, 40);
     const { stated_ha: _s, ...rest } = a;
-    features.push({ type: 'Feature', properties: { ...rest, in_grass: inGrass }, geometry: { type: 'Polygon', coordinates: [ring(X0 + col * W, Y0 + row * H, W, H)] } });
+    features.push({
+      type: 'Feature',
+      properties: { ...rest, in_grass: inGrass },
+      geometry: { type: 'Polygon', coordinates: [ring(X0 + col * W, Y0 + row * H, W, H)] },
+    });
   }
 }
 features[16]!.properties!.land_use = 'Permanent pasture';
 features.push({
   type: 'Feature',
-  properties: { field_ref: 'CN-0041', name: 'Corrow Field annex', land_use: 'grassland', management: 'grazed', last_till: null, owner_ref: 'HLD-104', in_grass: '2001-04-01' },
+  properties: {
+    field_ref: 'CN-0041',
+    name: 'Corrow Field annex',
+    land_use: 'grassland',
+    management: 'grazed',
+    last_till: null,
+    owner_ref: 'HLD-104',
+    in_grass: '2001-04-01',
+  },
   geometry: { type: 'Polygon', coordinates: [ring(X0 + 9 * W - W / 2, Y0 + 3 * H, W, H)] },
 });
-writeFileSync(new URL('./demo/corrowmere-north-block.geojson', import.meta.url), `${JSON.stringify({ type: 'FeatureCollection', features })}\n`);
+writeFileSync(
+  new URL('./demo/corrowmere-north-block.geojson', import.meta.url),
+  `${JSON.stringify({ type: 'FeatureCollection', features })}\n`,
+);
 console.log(`wrote gis/demo/corrowmere-north-block.geojson (${features.length} fields)`);

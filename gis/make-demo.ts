@@ -49,7 +49,9 @@ function referenceLayers(region: RegionSpec, crs: CrsDefinition) {
     climate: l.climate.flatMap(([cls, boxes]) => boxFeatures(o, crs, cls, boxes, tag)),
     soil: l.soil.flatMap(([cls, boxes]) => boxFeatures(o, crs, cls, boxes, tag)),
     slope: l.slope.flatMap(([cls, boxes]) => boxFeatures(o, crs, cls, boxes, tag)),
-    sensitive: l.sensitive.flatMap((s) => boxFeatures(o, crs, 'sensitive-grassland', [s.box], { ...tag, name: s.name, site_code: s.code })),
+    sensitive: l.sensitive.flatMap((s) =>
+      boxFeatures(o, crs, 'sensitive-grassland', [s.box], { ...tag, name: s.name, site_code: s.code }),
+    ),
     neverTilled: boxFeatures(o, crs, 'never-tilled', l.neverTilled, tag),
     districts: l.districts.flatMap((d) => boxFeatures(o, crs, d.key, d.boxes, { ...tag, name: d.name })),
   };
@@ -58,7 +60,10 @@ function referenceLayers(region: RegionSpec, crs: CrsDefinition) {
 function toGeoJsonFeatures(parcels: DemoParcel[], crs: CrsDefinition): Feature[] {
   return parcels.map((p) => {
     const g = p.geometry ? reproject(p.geometry, crs) : null;
-    const geometry: Polygon | null = g && { type: 'Polygon', coordinates: g.coordinates.map((r) => r.map((q) => q.map(round7))) };
+    const geometry: Polygon | null = g && {
+      type: 'Polygon',
+      coordinates: g.coordinates.map((r) => r.map((q) => q.map(round7))),
+    };
     return { type: 'Feature', properties: p.properties, geometry } as Feature;
   });
 }
@@ -73,7 +78,10 @@ async function main(): Promise<void> {
   const tropDefects = addDefects(trop, 'VM', [7, 22]);
   // One GeoJSON parcel wound clockwise, which the validation report repairs (RFC 7946 §3.1.6).
   trop[15]!.geometry!.coordinates[0]!.reverse();
-  tropDefects.push({ field_ref: String(trop[15]!.properties.field_ref), defect: 'outer ring clockwise (ring-orientation, repaired)' });
+  tropDefects.push({
+    field_ref: String(trop[15]!.properties.field_ref),
+    defect: 'outer ring clockwise (ring-orientation, repaired)',
+  });
 
   write('corrowmere-parcels-utm28n.zip', shapefileZip(cool, 'corrowmere_parcels', prjWkt(CORROWMERE.epsg)));
   write('corrowmere-parcels-noprj.zip', shapefileZip(cool, 'corrowmere_parcels', null));
@@ -95,11 +103,27 @@ async function main(): Promise<void> {
     seed: SEED,
     datesRelativeTo: DEMO_AS_OF,
     parcels: [
-      { file: 'corrowmere-parcels-utm28n.zip', layer: 'corrowmere_parcels', crs: 'EPSG:32628', features: cool.length, defects: coolDefects },
-      { file: 'corrowmere-parcels-noprj.zip', layer: 'corrowmere_parcels', crs: 'none (.prj omitted; coordinates are EPSG:32628)', features: cool.length },
+      {
+        file: 'corrowmere-parcels-utm28n.zip',
+        layer: 'corrowmere_parcels',
+        crs: 'EPSG:32628',
+        features: cool.length,
+        defects: coolDefects,
+      },
+      {
+        file: 'corrowmere-parcels-noprj.zip',
+        layer: 'corrowmere_parcels',
+        crs: 'none (.prj omitted; coordinates are EPSG:32628)',
+        features: cool.length,
+      },
       { file: 'velomari-parcels.geojson', crs: 'EPSG:4326', features: trop.length, defects: tropDefects },
     ],
-    layers: Object.fromEntries(Object.entries(layers).map(([n, f]) => [n, { features: f.length, classes: [...new Set(f.map((x) => x.properties?.class))] }])),
+    layers: Object.fromEntries(
+      Object.entries(layers).map(([n, f]) => [
+        n,
+        { features: f.length, classes: [...new Set(f.map((x) => x.properties?.class))] },
+      ]),
+    ),
   };
   write('manifest.json', `${JSON.stringify(manifest, null, 2)}\n`);
 }

@@ -39,7 +39,10 @@ export async function up(knex: Knex): Promise<void> {
     t.timestamp('confirmed_at', { useTz: true }).notNullable().defaultTo(knex.fn.now());
     t.text('document').notNullable();
     t.text('page').notNullable();
-    t.foreign(['set_id', 'version'], 'factor_table_confirmation_version_fk').references(['set_id', 'version']).inTable('factor_set_version').onDelete('CASCADE');
+    t.foreign(['set_id', 'version'], 'factor_table_confirmation_version_fk')
+      .references(['set_id', 'version'])
+      .inTable('factor_set_version')
+      .onDelete('CASCADE');
     t.unique(['set_id', 'version', 'table_key'], { indexName: 'factor_table_confirmation_unique' });
   });
 
@@ -55,7 +58,10 @@ export async function up(knex: Knex): Promise<void> {
     t.text('reason').notNullable();
     t.text('edited_by').references('id').inTable('user').onDelete('SET NULL');
     t.timestamp('edited_at', { useTz: true }).notNullable().defaultTo(knex.fn.now());
-    t.foreign(['set_id', 'version'], 'factor_edit_version_fk').references(['set_id', 'version']).inTable('factor_set_version').onDelete('CASCADE');
+    t.foreign(['set_id', 'version'], 'factor_edit_version_fk')
+      .references(['set_id', 'version'])
+      .inTable('factor_set_version')
+      .onDelete('CASCADE');
   });
 
   await knex.schema.createTable('app_setting', (t) => {

@@ -2,7 +2,9 @@ import type { Knex } from 'knex';
 
 export async function up(knex: Knex): Promise<void> {
   await knex.schema.createTable('upload_batch', (t) => {
-    t.comment('A saved upload (parcels or a reference layer): the original file, its SHA-256 and who brought it, for provenance.');
+    t.comment(
+      'A saved upload (parcels or a reference layer): the original file, its SHA-256 and who brought it, for provenance.',
+    );
     t.uuid('id').primary();
     t.text('purpose').notNullable().comment('parcels or reference');
     t.text('file_name').notNullable();

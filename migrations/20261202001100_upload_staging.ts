@@ -2,7 +2,9 @@ import type { Knex } from 'knex';
 
 export async function up(knex: Knex): Promise<void> {
   await knex.schema.createTable('upload_staging', (t) => {
-    t.comment('An upload between parse and save: kept in the database (any instance can continue it) until saved, cancelled or expired.');
+    t.comment(
+      'An upload between parse and save: kept in the database (any instance can continue it) until saved, cancelled or expired.',
+    );
     t.uuid('id').primary();
     t.text('purpose').notNullable().comment('parcels or reference');
     t.text('file_name').notNullable();
@@ -29,9 +31,14 @@ export async function up(knex: Knex): Promise<void> {
     t.text('status').notNullable().comment('ok, repaired or rejected');
     t.text('reference');
     t.jsonb('issues').notNullable().defaultTo('[]');
-    t.jsonb('fields').notNullable().defaultTo('{}').comment('mapped values: land use, management, dates, owner, stated area, class');
+    t.jsonb('fields')
+      .notNullable()
+      .defaultTo('{}')
+      .comment('mapped values: land use, management, dates, owner, stated area, class');
     t.specificType('geom', 'geometry(MultiPolygon, 4326)').comment('normalised geometry; null when rejected');
-    t.specificType('raw_geom', 'geometry(Geometry, 4326)').comment('reprojected source geometry of a self-intersecting feature, for ST_MakeValid');
+    t.specificType('raw_geom', 'geometry(Geometry, 4326)').comment(
+      'reprojected source geometry of a self-intersecting feature, for ST_MakeValid',
+    );
     t.primary(['staging_id', 'idx']);
     t.check("status in ('ok', 'repaired', 'rejected')", [], 'upload_staging_feature_status_check');
   });

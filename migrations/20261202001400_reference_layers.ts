@@ -2,7 +2,9 @@ import type { Knex } from 'knex';
 
 export async function up(knex: Knex): Promise<void> {
   await knex.schema.createTable('reference_layer_version', (t) => {
-    t.comment('A version of a reference layer (climate, soil, sensitive, slope, never-tilled). Published versions stay for old assessments.');
+    t.comment(
+      'A version of a reference layer (climate, soil, sensitive, slope, never-tilled). Published versions stay for old assessments.',
+    );
     t.bigIncrements('id');
     t.text('kind').notNullable();
     t.integer('version').notNullable();
@@ -18,7 +20,11 @@ export async function up(knex: Knex): Promise<void> {
     t.timestamp('published_at', { useTz: true });
     t.text('note');
     t.unique(['kind', 'version'], { indexName: 'reference_layer_version_unique' });
-    t.check("kind in ('climate', 'soil', 'sensitive', 'slope', 'never-tilled')", [], 'reference_layer_version_kind_check');
+    t.check(
+      "kind in ('climate', 'soil', 'sensitive', 'slope', 'never-tilled')",
+      [],
+      'reference_layer_version_kind_check',
+    );
     t.check("status in ('draft', 'published')", [], 'reference_layer_version_status_check');
   });
 
@@ -31,7 +37,9 @@ export async function up(knex: Knex): Promise<void> {
     t.specificType('geom', 'geometry(MultiPolygon, 4326)').notNullable();
     t.index(['version_id'], 'reference_feature_version_idx');
   });
-  await knex.raw('alter table reference_feature add column geom_3857 geometry(MultiPolygon, 3857) generated always as (st_transform(geom, 3857)) stored');
+  await knex.raw(
+    'alter table reference_feature add column geom_3857 geometry(MultiPolygon, 3857) generated always as (st_transform(geom, 3857)) stored',
+  );
   await knex.raw('create index reference_feature_geom_gist on reference_feature using gist (geom)');
   await knex.raw('create index reference_feature_geom_3857_gist on reference_feature using gist (geom_3857)');
 }

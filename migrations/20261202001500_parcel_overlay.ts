@@ -2,9 +2,15 @@ import type { Knex } from 'knex';
 
 export async function up(knex: Knex): Promise<void> {
   await knex.schema.createTable('parcel_overlay_run', (t) => {
-    t.comment('A parcel was overlaid with a reference layer version; covered_share < 1 means part lies outside every unit.');
+    t.comment(
+      'A parcel was overlaid with a reference layer version; covered_share < 1 means part lies outside every unit.',
+    );
     t.bigInteger('parcel_id').notNullable().references('id').inTable('parcel').onDelete('CASCADE');
-    t.bigInteger('layer_version_id').notNullable().references('id').inTable('reference_layer_version').onDelete('CASCADE');
+    t.bigInteger('layer_version_id')
+      .notNullable()
+      .references('id')
+      .inTable('reference_layer_version')
+      .onDelete('CASCADE');
     t.double('covered_share').notNullable().comment('share of the parcel inside any feature of the layer, 0-1');
     t.timestamp('computed_at', { useTz: true }).notNullable().defaultTo(knex.fn.now());
     t.primary(['parcel_id', 'layer_version_id']);
@@ -19,7 +25,10 @@ export async function up(knex: Knex): Promise<void> {
     t.double('area_ha').notNullable();
     t.double('share').notNullable().comment('area_ha / parcel area, 0-1');
     t.primary(['parcel_id', 'layer_version_id', 'class']);
-    t.foreign(['parcel_id', 'layer_version_id'], 'parcel_overlay_run_fk').references(['parcel_id', 'layer_version_id']).inTable('parcel_overlay_run').onDelete('CASCADE');
+    t.foreign(['parcel_id', 'layer_version_id'], 'parcel_overlay_run_fk')
+      .references(['parcel_id', 'layer_version_id'])
+      .inTable('parcel_overlay_run')
+      .onDelete('CASCADE');
   });
 }
 

@@ -8,10 +8,15 @@ import { referenceKey } from '../src/lib/gis/references';
  */
 export async function up(knex: Knex): Promise<void> {
   await knex.schema.alterTable('parcel', (t) => {
-    t.text('reference_key').comment('referenceKey(reference): NFKC, case folded, look-alike letters mapped (UTS #39); unique');
+    t.text('reference_key').comment(
+      'referenceKey(reference): NFKC, case folded, look-alike letters mapped (UTS #39); unique',
+    );
   });
   const rows: { id: number; reference: string }[] = await knex('parcel').select('id', 'reference');
-  for (const r of rows) await knex('parcel').where({ id: r.id }).update({ reference_key: referenceKey(r.reference) });
+  for (const r of rows)
+    await knex('parcel')
+      .where({ id: r.id })
+      .update({ reference_key: referenceKey(r.reference) });
   await knex.raw('alter table parcel alter column reference_key set not null');
   await knex.raw('create unique index parcel_reference_key_unique on parcel (reference_key)');
   // Cc, Cf (zero-width, soft hyphen, BOM, bidi embeddings/overrides/isolates), line/paragraph separators.

@@ -2,7 +2,9 @@ import type { Knex } from 'knex';
 
 export async function up(knex: Knex): Promise<void> {
   await knex.schema.createTable('rule_set', (t) => {
-    t.comment('A named set of risk-grading rules (the screening rules of an authority). Documents live in its versions.');
+    t.comment(
+      'A named set of risk-grading rules (the screening rules of an authority). Documents live in its versions.',
+    );
     t.text('id').primary().comment('kebab-case, e.g. tarrow-screening');
     t.text('title').notNullable();
     t.text('description').notNullable();
@@ -15,12 +17,17 @@ export async function up(knex: Knex): Promise<void> {
   });
 
   await knex.schema.createTable('rule_set_version', (t) => {
-    t.comment('One version of a rule set. Published versions are immutable (trigger rule_set_version_immutable); an assessment names the version it used.');
+    t.comment(
+      'One version of a rule set. Published versions are immutable (trigger rule_set_version_immutable); an assessment names the version it used.',
+    );
     t.text('set_id').notNullable().references('id').inTable('rule_set').onDelete('RESTRICT');
     t.integer('version').notNullable();
     t.text('status').notNullable().comment('draft (editable by admins) or published (immutable)');
     t.jsonb('document').notNullable().comment('RuleSetDocument, validated by ruleSetDocumentSchema');
-    t.integer('revision').notNullable().defaultTo(1).comment('row version of a draft, +1 on every edit; a stale edit gets 409');
+    t.integer('revision')
+      .notNullable()
+      .defaultTo(1)
+      .comment('row version of a draft, +1 on every edit; a stale edit gets 409');
     t.text('publish_note');
     t.text('published_by').references('id').inTable('user').onDelete('SET NULL');
     t.timestamp('published_at', { useTz: true });
@@ -45,7 +52,9 @@ export async function up(knex: Knex): Promise<void> {
       end if;
       return new;
     end $$`);
-  await knex.raw('create trigger rule_set_version_immutable before update or delete on rule_set_version for each row execute function rule_set_version_guard()');
+  await knex.raw(
+    'create trigger rule_set_version_immutable before update or delete on rule_set_version for each row execute function rule_set_version_guard()',
+  );
 
   await knex.schema.createTable('rule_edit', (t) => {
     t.comment('Every change to a rule of a draft, with its required reason.');
@@ -59,7 +68,10 @@ export async function up(knex: Knex): Promise<void> {
     t.text('reason').notNullable();
     t.text('edited_by').references('id').inTable('user').onDelete('SET NULL');
     t.timestamp('edited_at', { useTz: true }).notNullable().defaultTo(knex.fn.now());
-    t.foreign(['set_id', 'version'], 'rule_edit_version_fk').references(['set_id', 'version']).inTable('rule_set_version').onDelete('CASCADE');
+    t.foreign(['set_id', 'version'], 'rule_edit_version_fk')
+      .references(['set_id', 'version'])
+      .inTable('rule_set_version')
+      .onDelete('CASCADE');
     t.check("action in ('put', 'remove')", [], 'rule_edit_action_check');
   });
 }

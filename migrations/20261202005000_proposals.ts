@@ -4,23 +4,37 @@ export async function up(knex: Knex): Promise<void> {
   await knex.schema.createTable('proposal', (t) => {
     t.comment('A proposed change of use or management on one or more parcels, filed by a planner.');
     t.bigIncrements('id');
-    t.text('reference').notNullable().unique({ indexName: 'proposal_reference_unique' }).comment('Public reference, e.g. P-2026-0007');
+    t.text('reference')
+      .notNullable()
+      .unique({ indexName: 'proposal_reference_unique' })
+      .comment('Public reference, e.g. P-2026-0007');
     t.text('title').notNullable();
     t.text('description').notNullable();
     t.integer('start_year').notNullable();
-    t.jsonb('proposed').notNullable().comment("The carbon engine's `after` state (landUse, system, tillage, input | management, input)");
+    t.jsonb('proposed')
+      .notNullable()
+      .comment("The carbon engine's `after` state (landUse, system, tillage, input | management, input)");
     t.text('state').notNullable().defaultTo('draft');
     t.text('applicant_name').notNullable().comment('PRIVATE: never on public pages, tiles or exports');
     t.text('applicant_contact').notNullable().comment('PRIVATE');
     t.text('applicant_interest').notNullable().comment('PRIVATE: owner, tenant or agent');
-    t.integer('version').notNullable().defaultTo(1).comment('Row version for optimistic locking; every write sends the version it read');
-    t.timestamp('submitted_at', { useTz: true }).comment('The latest valid submission: the statutory clock starts here');
+    t.integer('version')
+      .notNullable()
+      .defaultTo(1)
+      .comment('Row version for optimistic locking; every write sends the version it read');
+    t.timestamp('submitted_at', { useTz: true }).comment(
+      'The latest valid submission: the statutory clock starts here',
+    );
     t.date('decision_due').comment('Decision deadline: submission date + the decision-days setting');
     t.text('created_by').references('id').inTable('user').onDelete('SET NULL');
     t.timestamp('created_at', { useTz: true }).notNullable().defaultTo(knex.fn.now());
     t.text('updated_by').references('id').inTable('user').onDelete('SET NULL');
     t.timestamp('updated_at', { useTz: true }).notNullable().defaultTo(knex.fn.now());
-    t.check("state in ('draft', 'submitted', 'returned', 'in-assessment', 'assessed', 'withdrawn', 'on-agenda', 'decided')", [], 'proposal_state_check');
+    t.check(
+      "state in ('draft', 'submitted', 'returned', 'in-assessment', 'assessed', 'withdrawn', 'on-agenda', 'decided')",
+      [],
+      'proposal_state_check',
+    );
     t.check("applicant_interest in ('owner', 'tenant', 'agent')", [], 'proposal_interest_check');
     t.index(['state'], 'proposal_state_idx');
   });
@@ -30,7 +44,9 @@ export async function up(knex: Knex): Promise<void> {
     t.bigInteger('proposal_id').notNullable().references('id').inTable('proposal').onDelete('CASCADE');
     t.bigInteger('parcel_id').notNullable().references('id').inTable('parcel').onDelete('RESTRICT');
     t.integer('position').notNullable();
-    t.specificType('part', 'geometry(MultiPolygon, 4326)').comment('The drawn part inside the parcel; null = the whole parcel');
+    t.specificType('part', 'geometry(MultiPolygon, 4326)').comment(
+      'The drawn part inside the parcel; null = the whole parcel',
+    );
     t.double('area_ha').notNullable().comment('Ellipsoidal area of the part, or the parcel area when whole');
     t.primary(['proposal_id', 'parcel_id']);
     t.index(['parcel_id'], 'proposal_parcel_parcel_idx');
@@ -70,7 +86,9 @@ export async function up(knex: Knex): Promise<void> {
     t.integer('number').notNullable().comment('Assessment version of the proposal: 1, 2, ...');
     t.text('status').notNullable().defaultTo('draft');
     t.integer('version').notNullable().defaultTo(1).comment('Row version for optimistic locking');
-    t.jsonb('inputs').notNullable().comment('What the assessor chose: factor set, GWP, current states, alternatives, each override with its reason');
+    t.jsonb('inputs')
+      .notNullable()
+      .comment('What the assessor chose: factor set, GWP, current states, alternatives, each override with its reason');
     t.jsonb('result').notNullable().comment('Every output and the overlay used (frozen when signed)');
     t.text('factor_set_id').notNullable();
     t.integer('factor_set_version').notNullable();

@@ -2,14 +2,18 @@ import type { Knex } from 'knex';
 
 export async function up(knex: Knex): Promise<void> {
   await knex.schema.createTable('screening_run', (t) => {
-    t.comment('One computation of the screening map: what converting each permanent-grassland parcel to full-tillage cropland would get.');
+    t.comment(
+      'One computation of the screening map: what converting each permanent-grassland parcel to full-tillage cropland would get.',
+    );
     t.bigIncrements('id');
     t.text('factor_set_id').notNullable();
     t.integer('factor_set_version').notNullable();
     t.text('rule_set_id').notNullable();
     t.integer('rule_set_version').notNullable();
     t.jsonb('layer_versions').notNullable().comment('kind → version of the reference layers used');
-    t.bigInteger('map_data_version').notNullable().comment('map_data_version when computed: parcels changed since when it is lower');
+    t.bigInteger('map_data_version')
+      .notNullable()
+      .comment('map_data_version when computed: parcels changed since when it is lower');
     t.integer('parcels_screened').notNullable();
     t.integer('duration_ms').notNullable();
     t.text('reason').notNullable();

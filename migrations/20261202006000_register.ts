@@ -7,12 +7,20 @@ import type { Knex } from 'knex';
  */
 export async function up(knex: Knex): Promise<void> {
   await knex.schema.createTable('register_entry', (t) => {
-    t.comment('Append-only, hash-chained public register of board decisions, corrections and appeal outcomes. No personal data.');
+    t.comment(
+      'Append-only, hash-chained public register of board decisions, corrections and appeal outcomes. No personal data.',
+    );
     t.bigInteger('seq').primary().comment('1, 2, 3 ... without gaps; appended under an advisory lock');
     t.text('prev_hash').notNullable().comment('hash of entry seq - 1 (64 zeros for the first entry)');
     t.text('hash').notNullable().comment('SHA-256 hex of the RFC 8785 canonical JSON of { content, prevHash, seq }');
-    t.jsonb('content').notNullable().comment('The public content of the entry (never applicants, owners, holdings or votes by name)');
-    t.bigInteger('supersedes_seq').references('seq').inTable('register_entry').onDelete('RESTRICT').comment('The entry a correction or appeal outcome replaces');
+    t.jsonb('content')
+      .notNullable()
+      .comment('The public content of the entry (never applicants, owners, holdings or votes by name)');
+    t.bigInteger('supersedes_seq')
+      .references('seq')
+      .inTable('register_entry')
+      .onDelete('RESTRICT')
+      .comment('The entry a correction or appeal outcome replaces');
     t.timestamp('created_at', { useTz: true }).notNullable().defaultTo(knex.fn.now());
     t.check('seq >= 1', [], 'register_entry_seq_check');
     t.check("hash ~ '^[0-9a-f]{64}$' and prev_hash ~ '^[0-9a-f]{64}$'", [], 'register_entry_hash_check');

@@ -21,7 +21,11 @@ export async function up(knex: Knex): Promise<void> {
     t.bigInteger('assessment_id').notNullable().references('id').inTable('assessment').onDelete('RESTRICT');
     t.integer('position').notNullable();
     t.text('status').notNullable().defaultTo('listed');
-    t.bigInteger('carried_from').references('id').inTable('meeting_item').onDelete('SET NULL').comment('The deferred item this one continues');
+    t.bigInteger('carried_from')
+      .references('id')
+      .inTable('meeting_item')
+      .onDelete('SET NULL')
+      .comment('The deferred item this one continues');
     t.timestamp('created_at', { useTz: true }).notNullable().defaultTo(knex.fn.now());
     t.check("status in ('listed', 'decided', 'deferred', 'withdrawn')", [], 'meeting_item_status_check');
     t.unique(['meeting_id', 'proposal_id'], { indexName: 'meeting_item_proposal_unique' });
@@ -39,18 +43,24 @@ export async function up(knex: Knex): Promise<void> {
   });
 
   await knex.schema.createTable('meeting_vote', (t) => {
-    t.comment("A vote of a member on an item (PRIVATE: who voted how never reaches the public register).");
+    t.comment('A vote of a member on an item (PRIVATE: who voted how never reaches the public register).');
     t.bigInteger('item_id').notNullable().references('id').inTable('meeting_item').onDelete('CASCADE');
     t.text('user_id').notNullable().references('id').inTable('user').onDelete('RESTRICT');
     t.text('choice').notNullable();
     t.text('comment');
     t.timestamp('voted_at', { useTz: true }).notNullable().defaultTo(knex.fn.now());
     t.primary(['item_id', 'user_id']);
-    t.check("choice in ('approve', 'approve-with-conditions', 'refuse', 'defer', 'abstain')", [], 'meeting_vote_choice_check');
+    t.check(
+      "choice in ('approve', 'approve-with-conditions', 'refuse', 'defer', 'abstain')",
+      [],
+      'meeting_vote_choice_check',
+    );
   });
 
   await knex.schema.createTable('board_decision', (t) => {
-    t.comment('What the board decided on an item (a deferral too); at most one per item. Approvals and refusals are written to the register.');
+    t.comment(
+      'What the board decided on an item (a deferral too); at most one per item. Approvals and refusals are written to the register.',
+    );
     t.bigIncrements('id');
     t.bigInteger('item_id').notNullable().references('id').inTable('meeting_item').onDelete('RESTRICT');
     t.bigInteger('proposal_id').notNullable().references('id').inTable('proposal').onDelete('RESTRICT');
@@ -64,7 +74,11 @@ export async function up(knex: Knex): Promise<void> {
     t.timestamp('decided_at', { useTz: true }).notNullable().defaultTo(knex.fn.now());
     t.unique(['item_id'], { indexName: 'board_decision_item_unique' });
     t.index(['proposal_id'], 'board_decision_proposal_idx');
-    t.check("outcome in ('approved', 'approved-with-conditions', 'refused', 'deferred')", [], 'board_decision_outcome_check');
+    t.check(
+      "outcome in ('approved', 'approved-with-conditions', 'refused', 'deferred')",
+      [],
+      'board_decision_outcome_check',
+    );
   });
 }
 

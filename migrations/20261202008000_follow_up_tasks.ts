@@ -6,15 +6,23 @@ import type { Knex } from 'knex';
  */
 export async function up(knex: Knex): Promise<void> {
   await knex.schema.createTable('follow_up_task', (t) => {
-    t.comment('Work a board decision leaves behind: check a condition, confirm a conversion on site, confirm or review a compensation parcel.');
+    t.comment(
+      'Work a board decision leaves behind: check a condition, confirm a conversion on site, confirm or review a compensation parcel.',
+    );
     t.bigIncrements('id');
     t.bigInteger('proposal_id').notNullable().references('id').inTable('proposal').onDelete('RESTRICT');
-    t.bigInteger('decision_id').references('id').inTable('board_decision').onDelete('RESTRICT').comment('The decision that created the task');
+    t.bigInteger('decision_id')
+      .references('id')
+      .inTable('board_decision')
+      .onDelete('RESTRICT')
+      .comment('The decision that created the task');
     t.text('kind').notNullable().comment('condition | site-check | compensation-check | compensation-reversed');
     t.integer('condition_index').comment('Position of the condition in the decision (0-based), for kind = condition');
     t.text('title').notNullable();
     t.date('due_date').notNullable();
-    t.text('checked_by').notNullable().comment('The office that checks, as the decision names it (e.g. "Field officer")');
+    t.text('checked_by')
+      .notNullable()
+      .comment('The office that checks, as the decision names it (e.g. "Field officer")');
     t.text('assignee_role').notNullable().comment('Role that is mailed and expected to record the outcome');
     t.text('status').notNullable().defaultTo('open').comment('open | done | not-done | partly');
     t.text('outcome_note');
@@ -22,7 +30,11 @@ export async function up(knex: Knex): Promise<void> {
     t.timestamp('outcome_at', { useTz: true });
     t.integer('version').notNullable().defaultTo(1).comment('Row version for optimistic locking');
     t.timestamp('created_at', { useTz: true }).notNullable().defaultTo(knex.fn.now());
-    t.check("kind in ('condition', 'site-check', 'compensation-check', 'compensation-reversed')", [], 'follow_up_task_kind_check');
+    t.check(
+      "kind in ('condition', 'site-check', 'compensation-check', 'compensation-reversed')",
+      [],
+      'follow_up_task_kind_check',
+    );
     t.check("status in ('open', 'done', 'not-done', 'partly')", [], 'follow_up_task_status_check');
     t.check("assignee_role in ('assessor', 'chair')", [], 'follow_up_task_role_check');
     t.index(['status', 'due_date'], 'follow_up_task_status_due_idx');

@@ -17,5 +17,7 @@ export async function up(knex: Knex): Promise<void> {
 }
 
 export async function down(knex: Knex): Promise<void> {
-  await knex.raw('drop index register_entry_committed_idx; alter table register_entry drop column start_year, drop column co2e_total');
+  await knex.raw(
+    'drop index register_entry_committed_idx; alter table register_entry drop column start_year, drop column co2e_total',
+  );
 }

@@ -9,7 +9,9 @@ import type { Knex } from 'knex';
  */
 export async function up(knex: Knex): Promise<void> {
   await knex.schema.createTable('reference_piece', (t) => {
-    t.comment('A piece of a reference feature (ST_Subdivide), for the parcel overlay; the pieces of a feature cover it exactly.');
+    t.comment(
+      'A piece of a reference feature (ST_Subdivide), for the parcel overlay; the pieces of a feature cover it exactly.',
+    );
     t.bigIncrements('id');
     t.bigInteger('version_id').notNullable().references('id').inTable('reference_layer_version').onDelete('CASCADE');
     t.bigInteger('feature_id').notNullable().references('id').inTable('reference_feature').onDelete('CASCADE');

@@ -7,7 +7,12 @@ import type { Knex } from 'knex';
  */
 export async function up(knex: Knex): Promise<void> {
   await knex.schema.alterTable('user', (t) => {
-    t.integer('version').notNullable().defaultTo(1).comment('Bumped by every administrator change (roles, name, active); writers send the version they read, else 409');
+    t.integer('version')
+      .notNullable()
+      .defaultTo(1)
+      .comment(
+        'Bumped by every administrator change (roles, name, active); writers send the version they read, else 409',
+      );
   });
 }
 

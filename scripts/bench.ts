@@ -35,9 +35,21 @@ async function importFile(cookie: string, purpose: string, name: string, bytes: 
   const form = new FormData();
   form.set('purpose', purpose);
   form.set('file', new Blob([bytes as BlobPart]), name);
-  const staged = await call<{ id: string; layers: { name: string }[]; timings: { parseMs: number } }>(cookie, 'POST', '/api/uploads', form);
-  const report = await call<{ summary: { total: number; rejected: number }; timings: { parseMs: number; validateMs: number } }>(cookie, 'POST', `/api/uploads/${staged.data.id}/validation`, { layer: staged.data.layers[0]!.name, mapping });
-  const saved = await call<{ saved: number; referenceVersion: { id: number } | null; timings: { storeMs: number; overlayMs: number } }>(cookie, 'POST', `/api/uploads/${staged.data.id}/save`);
+  const staged = await call<{ id: string; layers: { name: string }[]; timings: { parseMs: number } }>(
+    cookie,
+    'POST',
+    '/api/uploads',
+    form,
+  );
+  const report = await call<{
+    summary: { total: number; rejected: number };
+    timings: { parseMs: number; validateMs: number };
+  }>(cookie, 'POST', `/api/uploads/${staged.data.id}/validation`, { layer: staged.data.layers[0]!.name, mapping });
+  const saved = await call<{
+    saved: number;
+    referenceVersion: { id: number } | null;
+    timings: { storeMs: number; overlayMs: number };
+  }>(cookie, 'POST', `/api/uploads/${staged.data.id}/save`);
   return { staged, report, saved };
 }
 
@@ -48,19 +60,35 @@ async function benchLayers(admin: string): Promise<void> {
   const [w, h] = [cols * CORROWMERE.cellWidthM, Math.ceil(COUNT / cols) * CORROWMERE.cellHeightM];
   const soil: ReturnType<typeof boxFeatures> = [];
   let i = 0;
-  for (let x = -1000; x < w + 1000; x += 4000) for (let y = -1000; y < h + 1000; y += 3000) soil.push(...boxFeatures(origin, crs, SOILS[i++ % SOILS.length]!, [[x, y, x + 4000, y + 3000] as Box]));
+  for (let x = -1000; x < w + 1000; x += 4000)
+    for (let y = -1000; y < h + 1000; y += 3000)
+      soil.push(...boxFeatures(origin, crs, SOILS[i++ % SOILS.length]!, [[x, y, x + 4000, y + 3000] as Box]));
   const climate = boxFeatures(origin, crs, 'cool-temperate-moist', [[-1000, -1000, w + 1000, h + 1000]]);
-  for (const [kind, features] of [['climate', climate], ['soil', soil]] as const) {
-    const { saved } = await importFile(admin, 'reference', `bench-${kind}.geojson`, new TextEncoder().encode(JSON.stringify(collection(features))), { kind, classAttribute: 'class' });
+  for (const [kind, features] of [
+    ['climate', climate],
+    ['soil', soil],
+  ] as const) {
+    const { saved } = await importFile(
+      admin,
+      'reference',
+      `bench-${kind}.geojson`,
+      new TextEncoder().encode(JSON.stringify(collection(features))),
+      { kind, classAttribute: 'class' },
+    );
     await call(admin, 'POST', `/api/reference-layers/${saved.data.referenceVersion!.id}/publish`, {});
   }
-  console.log(`bench layers: climate 1 polygon, soil ${soil.length} polygons over ${(w / 1000).toFixed(0)} km × ${(h / 1000).toFixed(0)} km`);
+  console.log(
+    `bench layers: climate 1 polygon, soil ${soil.length} polygons over ${(w / 1000).toFixed(0)} km × ${(h / 1000).toFixed(0)} km`,
+  );
 }
 
 function tileOf(lon: number, lat: number, z: number): [number, number] {
   const n = 2 ** z;
   const r = (lat * Math.PI) / 180;
-  return [Math.floor(((lon + 180) / 360) * n), Math.floor(((1 - Math.log(Math.tan(r) + 1 / Math.cos(r)) / Math.PI) / 2) * n)];
+  return [
+    Math.floor(((lon + 180) / 360) * n),
+    Math.floor(((1 - Math.log(Math.tan(r) + 1 / Math.cos(r)) / Math.PI) / 2) * n),
+  ];
 }
 
 async function tiles(cookie: string, extent: number[]): Promise<void> {
@@ -80,19 +108,27 @@ async function tiles(cookie: string, extent: number[]): Promise<void> {
       }
     }
     all.push(...times);
-    console.log(`tiles z${z}: 16 tiles, p50 ${pct(times, 50).toFixed(1)} ms, p95 ${pct(times, 95).toFixed(1)} ms, avg ${(bytes / 16 / 1024).toFixed(0)} kB`);
+    console.log(
+      `tiles z${z}: 16 tiles, p50 ${pct(times, 50).toFixed(1)} ms, p95 ${pct(times, 95).toFixed(1)} ms, avg ${(bytes / 16 / 1024).toFixed(0)} kB`,
+    );
   }
-  console.log(`tiles all zooms: ${all.length} tiles, p50 ${pct(all, 50).toFixed(1)} ms, p95 ${pct(all, 95).toFixed(1)} ms (aim: p95 < 50 ms)`);
+  console.log(
+    `tiles all zooms: ${all.length} tiles, p50 ${pct(all, 50).toFixed(1)} ms, p95 ${pct(all, 95).toFixed(1)} ms (aim: p95 < 50 ms)`,
+  );
 }
 
 /** The state an earlier upload leaves: its parcels gone again (so the references are free), statistics stale. */
 async function forgetEarlierUpload(): Promise<void> {
   const knex = knexFactory({ client: 'pg', connection: process.env.DATABASE_URL });
   try {
-    const gone = await knex('parcel').whereIn('batch_id', knex('upload_batch').select('id').where({ file_name: 'bench.zip' })).delete();
+    const gone = await knex('parcel')
+      .whereIn('batch_id', knex('upload_batch').select('id').where({ file_name: 'bench.zip' }))
+      .delete();
     await knex.raw('vacuum analyze upload_staging_feature');
     await knex.raw('vacuum analyze parcel');
-    console.log(`warm database: removed the ${gone} parcels of the earlier bench upload; statistics taken with staging empty`);
+    console.log(
+      `warm database: removed the ${gone} parcels of the earlier bench upload; statistics taken with staging empty`,
+    );
   } finally {
     await knex.destroy();
   }
@@ -108,7 +144,14 @@ async function hugePolygon(vertices: number): Promise<Uint8Array> {
     ring.push(toWgs84([x0! - 600 + 300 * Math.cos(a), y0! - 600 + 300 * Math.sin(a)], crs));
   }
   ring.push(ring[0]!);
-  return new TextEncoder().encode(JSON.stringify({ type: 'FeatureCollection', features: [{ type: 'Feature', properties: { ref: 'HUGE-1' }, geometry: { type: 'Polygon', coordinates: [ring] } }] }));
+  return new TextEncoder().encode(
+    JSON.stringify({
+      type: 'FeatureCollection',
+      features: [
+        { type: 'Feature', properties: { ref: 'HUGE-1' }, geometry: { type: 'Polygon', coordinates: [ring] } },
+      ],
+    }),
+  );
 }
 
 /** /api/health every 25 ms while a huge polygon is uploaded and validated: p50 / p99 / max (aim: p99 < 200 ms). */
@@ -120,7 +163,10 @@ async function healthDuringHugeValidation(cookie: string, vertices = 300_000): P
   const poll = (async () => {
     while (running) {
       const t0 = performance.now();
-      const ok = await fetch(`${BASE}/api/health`).then((r) => r.text().then(() => r.ok), () => false);
+      const ok = await fetch(`${BASE}/api/health`).then(
+        (r) => r.text().then(() => r.ok),
+        () => false,
+      );
       if (ok) times.push(performance.now() - t0);
       else failed++;
       await new Promise((r) => setTimeout(r, 25));
@@ -131,32 +177,57 @@ async function healthDuringHugeValidation(cookie: string, vertices = 300_000): P
   form.set('purpose', 'parcels');
   form.set('file', new Blob([bytes as BlobPart]), 'huge.geojson');
   const staged = await call<{ id: string; layers: { name: string }[] }>(cookie, 'POST', '/api/uploads', form);
-  const report = await call<{ summary: { total: number; rejected: number }; timings: { validateMs: number } }>(cookie, 'POST', `/api/uploads/${staged.data.id}/validation`, { layer: staged.data.layers[0]!.name, mapping: { reference: 'ref' } });
+  const report = await call<{ summary: { total: number; rejected: number }; timings: { validateMs: number } }>(
+    cookie,
+    'POST',
+    `/api/uploads/${staged.data.id}/validation`,
+    { layer: staged.data.layers[0]!.name, mapping: { reference: 'ref' } },
+  );
   running = false;
   await poll;
   await call(cookie, 'DELETE', `/api/uploads/${staged.data.id}`);
-  console.log(`huge polygon (${vertices} vertices, ${(bytes.length / 1e6).toFixed(1)} MB): stage + validate ${s(performance.now() - t0)} (server validate ${s(report.data.timings.validateMs)}, ${report.data.summary.rejected} rejected)`);
-  console.log(`  /api/health meanwhile: ${times.length} answers, ${failed} failed, p50 ${pct(times, 50).toFixed(1)} ms, p99 ${pct(times, 99).toFixed(1)} ms, max ${Math.max(...times).toFixed(1)} ms (aim: p99 < 200 ms)\n`);
+  console.log(
+    `huge polygon (${vertices} vertices, ${(bytes.length / 1e6).toFixed(1)} MB): stage + validate ${s(performance.now() - t0)} (server validate ${s(report.data.timings.validateMs)}, ${report.data.summary.rejected} rejected)`,
+  );
+  console.log(
+    `  /api/health meanwhile: ${times.length} answers, ${failed} failed, p50 ${pct(times, 50).toFixed(1)} ms, p99 ${pct(times, 99).toFixed(1)} ms, max ${Math.max(...times).toFixed(1)} ms (aim: p99 < 200 ms)\n`,
+  );
 }
 
 async function ingest(planner: string): Promise<string> {
   const rssBefore = vm('VmRSS');
   const bytes = new Uint8Array(readFileSync(ZIP));
-  const mapping = { reference: 'field_ref', name: 'name', landUse: 'land_use', management: 'management', lastTillage: 'last_till', ownerRef: 'owner_ref', statedArea: 'stated_ha', statedAreaUnit: 'ha' };
+  const mapping = {
+    reference: 'field_ref',
+    name: 'name',
+    landUse: 'land_use',
+    management: 'management',
+    lastTillage: 'last_till',
+    ownerRef: 'owner_ref',
+    statedArea: 'stated_ha',
+    statedAreaUnit: 'ha',
+  };
   const stopWatch = watchIngest(server.pid!);
   const { staged, report, saved } = await importFile(planner, 'parcels', 'bench.zip', bytes, mapping);
   const total = staged.ms + report.ms + saved.ms;
   const watched = await stopWatch();
   const peakMb = Math.max(vm('VmHWM'), watched.peakMb);
-  console.log(`\ningest of ${ZIP} (${(bytes.length / 1e6).toFixed(1)} MB, ${report.data.summary.total} features, ${saved.data.saved} saved):`);
+  console.log(
+    `\ningest of ${ZIP} (${(bytes.length / 1e6).toFixed(1)} MB, ${report.data.summary.total} features, ${saved.data.saved} saved):`,
+  );
   console.log(`  upload + parse      ${s(staged.ms)}   (server parse ${s(staged.data.timings.parseMs)})`);
-  console.log(`  validate            ${s(report.ms)}   (server: re-parse ${s(report.data.timings.parseMs)}, reproject + validate + stage ${s(report.data.timings.validateMs)})`);
+  console.log(
+    `  validate            ${s(report.ms)}   (server: re-parse ${s(report.data.timings.parseMs)}, reproject + validate + stage ${s(report.data.timings.validateMs)})`,
+  );
   console.log(`  store               ${s(saved.data.timings.storeMs)}`);
   console.log(`  overlay             ${s(saved.data.timings.overlayMs)}`);
   console.log(`  save request total  ${s(saved.ms)}`);
   console.log(`  upload-to-saved     ${s(total)}   ${ratioLine(COUNT, total / 1000)}`);
-  if (process.env.BENCH_RESULTS) appendFileSync(process.env.BENCH_RESULTS, `${COUNT} ${STATE} ${(total / 1000).toFixed(3)} ${peakMb.toFixed(0)}\n`);
-  console.log(`  server memory: RSS before ingest ${rssBefore.toFixed(0)} MB, peak ${peakMb.toFixed(0)} MB (VmHWM ${vm('VmHWM').toFixed(0)} MB, process tree sampled ${watched.peakMb.toFixed(0)} MB) ${memoryMark(peakMb)}`);
+  if (process.env.BENCH_RESULTS)
+    appendFileSync(process.env.BENCH_RESULTS, `${COUNT} ${STATE} ${(total / 1000).toFixed(3)} ${peakMb.toFixed(0)}\n`);
+  console.log(
+    `  server memory: RSS before ingest ${rssBefore.toFixed(0)} MB, peak ${peakMb.toFixed(0)} MB (VmHWM ${vm('VmHWM').toFixed(0)} MB, process tree sampled ${watched.peakMb.toFixed(0)} MB) ${memoryMark(peakMb)}`,
+  );
   console.log(`  ${healthLine(watched.times, watched.failed)}\n`);
   return (saved.data as unknown as { batchId: string }).batchId;
 }
@@ -165,8 +236,13 @@ async function ingest(planner: string): Promise<string> {
 async function earlierBatch(): Promise<string> {
   const knex = knexFactory({ client: 'pg', connection: process.env.DATABASE_URL });
   try {
-    const b = await knex('upload_batch').where({ file_name: 'bench.zip' }).whereExists(knex('parcel').whereRaw('parcel.batch_id = upload_batch.id')).orderBy('saved_at', 'desc').first('id');
-    if (!b) throw new Error('BENCH_STATE=again needs a database that has taken the bench upload (run a fresh state first)');
+    const b = await knex('upload_batch')
+      .where({ file_name: 'bench.zip' })
+      .whereExists(knex('parcel').whereRaw('parcel.batch_id = upload_batch.id'))
+      .orderBy('saved_at', 'desc')
+      .first('id');
+    if (!b)
+      throw new Error('BENCH_STATE=again needs a database that has taken the bench upload (run a fresh state first)');
     return String(b.id);
   } finally {
     await knex.destroy();
@@ -185,7 +261,8 @@ try {
   if (!skipped('tiles')) {
     const map = await call<{ areas: { label: string; extent: number[] }[] }>(planner, 'GET', '/api/map');
     await tiles(planner, map.data.areas.filter((a) => a.label === 'bench.zip').at(-1)!.extent);
-    if (!skipped('compare')) await compareWithBare(planner, map.data.areas.filter((a) => a.label === 'bench.zip').at(-1)!.extent);
+    if (!skipped('compare'))
+      await compareWithBare(planner, map.data.areas.filter((a) => a.label === 'bench.zip').at(-1)!.extent);
   }
   if (STATE !== 'warm') await assessAndScreen(planner, await session('assessor@tarrow.example'), batchId, COUNT);
 } finally {

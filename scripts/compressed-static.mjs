@@ -33,8 +33,11 @@ export function compressedStatic(clientDir) {
     res.setHeader('content-encoding', encoding);
     res.setHeader('content-length', info.size);
     res.setHeader('vary', 'Accept-Encoding');
-    res.setHeader('cache-control', pathname.startsWith('/_astro/') ? 'public, max-age=31536000, immutable' : 'public, max-age=0');
-    if (req.method === 'HEAD') return res.end(), true;
+    res.setHeader(
+      'cache-control',
+      pathname.startsWith('/_astro/') ? 'public, max-age=31536000, immutable' : 'public, max-age=0',
+    );
+    if (req.method === 'HEAD') return (res.end(), true);
     createReadStream(compressed).pipe(res);
     return true;
   };

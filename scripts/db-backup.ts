@@ -38,8 +38,13 @@ function target(): { full: string; url: string; name: string; password: string }
 }
 
 function run(bin: string, args: string[], password: string): void {
-  const r = spawnSync(bin, args, { encoding: 'utf8', env: { ...process.env, PGPASSWORD: password }, stdio: ['ignore', 'inherit', 'pipe'] });
-  if (r.status !== 0) fail(`${path.basename(bin)} failed:\n${(r.stderr ?? '').trim().split('\n').slice(-15).join('\n')}`);
+  const r = spawnSync(bin, args, {
+    encoding: 'utf8',
+    env: { ...process.env, PGPASSWORD: password },
+    stdio: ['ignore', 'inherit', 'pipe'],
+  });
+  if (r.status !== 0)
+    fail(`${path.basename(bin)} failed:\n${(r.stderr ?? '').trim().split('\n').slice(-15).join('\n')}`);
 }
 
 export function backup(args: string[], pgBin: Bin): void {
@@ -68,8 +73,13 @@ async function prepareTarget(full: string, name: string, clean: boolean): Promis
     return;
   }
   try {
-    const r = await client.query("select count(*)::int as n from information_schema.tables where table_schema in ('public', 'pgboss') and table_type = 'BASE TABLE' and table_name <> 'spatial_ref_sys'");
-    if (r.rows[0].n > 0 && !clean) fail(`${name} already holds ${r.rows[0].n} tables. Restore into an empty database, or pass --clean to replace what the backup holds (stop the app first).`);
+    const r = await client.query(
+      "select count(*)::int as n from information_schema.tables where table_schema in ('public', 'pgboss') and table_type = 'BASE TABLE' and table_name <> 'spatial_ref_sys'",
+    );
+    if (r.rows[0].n > 0 && !clean)
+      fail(
+        `${name} already holds ${r.rows[0].n} tables. Restore into an empty database, or pass --clean to replace what the backup holds (stop the app first).`,
+      );
   } finally {
     await client.end();
   }
@@ -84,9 +94,25 @@ function restoreInOneTransaction(pgBin: Bin, file: string, url: string, password
   try {
     const sql = path.join(tmp, 'restore.sql');
     run(pgBin('pg_restore'), ['--no-owner', '--file', sql, file], password);
-    const psqlArgs = ['-X', '-q', '-v', 'ON_ERROR_STOP=1', '--single-transaction', ...preamble.flatMap((c) => ['-c', c]), '-f', sql, '--dbname', url];
-    const r = spawnSync(pgBin('psql'), psqlArgs, { encoding: 'utf8', env: { ...process.env, PGPASSWORD: password }, stdio: ['ignore', 'ignore', 'pipe'] });
-    if (r.status !== 0) fail(`restore failed, nothing was changed:\n${(r.stderr ?? '').trim().split('\n').slice(-15).join('\n')}`);
+    const psqlArgs = [
+      '-X',
+      '-q',
+      '-v',
+      'ON_ERROR_STOP=1',
+      '--single-transaction',
+      ...preamble.flatMap((c) => ['-c', c]),
+      '-f',
+      sql,
+      '--dbname',
+      url,
+    ];
+    const r = spawnSync(pgBin('psql'), psqlArgs, {
+      encoding: 'utf8',
+      env: { ...process.env, PGPASSWORD: password },
+      stdio: ['ignore', 'ignore', 'pipe'],
+    });
+    if (r.status !== 0)
+      fail(`restore failed, nothing was changed:\n${(r.stderr ?? '').trim().split('\n').slice(-15).join('\n')}`);
   } finally {
     rmSync(tmp, { recursive: true, force: true });
   }
@@ -99,8 +125,14 @@ export async function restore(args: string[], pgBin: Bin): Promise<void> {
   if (!existsSync(file)) fail(`no such file: ${file}`);
   const { full, url, name, password } = target();
   await prepareTarget(full, name, clean);
-  const role = "do $$ begin if not exists (select 1 from pg_roles where rolname = 'swardkeep_register_writer') then create role swardkeep_register_writer nologin; end if; end $$";
-  const preamble = [role, ...(clean ? ['drop schema if exists pgboss cascade', 'drop schema if exists public cascade', 'create schema public'] : [])];
+  const role =
+    "do $$ begin if not exists (select 1 from pg_roles where rolname = 'swardkeep_register_writer') then create role swardkeep_register_writer nologin; end if; end $$";
+  const preamble = [
+    role,
+    ...(clean
+      ? ['drop schema if exists pgboss cascade', 'drop schema if exists public cascade', 'create schema public']
+      : []),
+  ];
   restoreInOneTransaction(pgBin, path.resolve(file), url, password, preamble);
   console.log(`db: ${file} restored into ${name}`);
 }

@@ -17,7 +17,8 @@ import pg from 'pg';
 
 const root = path.resolve(import.meta.dirname, '..');
 const port = Number(process.env.PGPORT ?? 54329);
-const externalUrl = process.env.DATABASE_URL && process.env.SWARDKEEP_LOCAL_DB !== '1' ? process.env.DATABASE_URL : null;
+const externalUrl =
+  process.env.DATABASE_URL && process.env.SWARDKEEP_LOCAL_DB !== '1' ? process.env.DATABASE_URL : null;
 
 function fail(message: string): never {
   console.error(`db: ${message}`);
@@ -28,7 +29,10 @@ function pgBin(name: string): string {
   const base = '/usr/lib/postgresql';
   const versions = existsSync(base) ? readdirSync(base).filter((v) => existsSync(`${base}/${v}/bin/${name}`)) : [];
   versions.sort((a, b) => Number(b) - Number(a));
-  if (!versions.length) fail(`PostgreSQL binaries not found under ${base}. Run scripts/ensure-system.sh (it installs postgresql-15 and postgresql-15-postgis-3 with apt).`);
+  if (!versions.length)
+    fail(
+      `PostgreSQL binaries not found under ${base}. Run scripts/ensure-system.sh (it installs postgresql-15 and postgresql-15-postgis-3 with apt).`,
+    );
   return `${base}/${versions[0]}/bin/${name}`;
 }
 
@@ -89,7 +93,11 @@ async function start(): Promise<void> {
       chownSync(pgdata, ids.uid, ids.gid!);
       chownSync(pwfile, ids.uid, ids.gid!);
     }
-    const init = run(pgBin('initdb'), ['-D', pgdata, '-U', 'postgres', '--pwfile', pwfile, '-A', 'scram-sha-256', '-E', 'UTF8', '--locale=C'], { ...ids, cwd: base });
+    const init = run(
+      pgBin('initdb'),
+      ['-D', pgdata, '-U', 'postgres', '--pwfile', pwfile, '-A', 'scram-sha-256', '-E', 'UTF8', '--locale=C'],
+      { ...ids, cwd: base },
+    );
     rmSync(pwfile, { force: true });
     if (init.status !== 0) fail(`initdb failed:\n${init.stderr}`);
     console.log(`db: created a new cluster in ${pgdata}`);
@@ -98,13 +106,18 @@ async function start(): Promise<void> {
     await createDatabases();
     return;
   }
-  if (!(await portFree(port))) fail(`port ${port} on 127.0.0.1 is taken by another program. Stop it, or choose another port with PGPORT=...`);
+  if (!(await portFree(port)))
+    fail(`port ${port} on 127.0.0.1 is taken by another program. Stop it, or choose another port with PGPORT=...`);
   if (!existsSync(log)) writeFileSync(log, '');
   if (ids.uid !== undefined) chownSync(log, ids.uid, ids.gid!);
   // Durability stays at PostgreSQL's defaults; only the throwaway test run may relax it (SWARDKEEP_FAST_DB=1).
-  const fast = process.env.SWARDKEEP_FAST_DB === '1' ? ' -c fsync=off -c synchronous_commit=off -c full_page_writes=off' : '';
+  const fast =
+    process.env.SWARDKEEP_FAST_DB === '1' ? ' -c fsync=off -c synchronous_commit=off -c full_page_writes=off' : '';
   const opts = `-c listen_addresses=127.0.0.1 -c port=${port} -c unix_socket_directories='' -c max_connections=200${fast}`;
-  const started = run(pgBin('pg_ctl'), ['start', '-D', pgdata, '-l', log, '-w', '-t', '60', '-o', opts], { ...ids, cwd: base });
+  const started = run(pgBin('pg_ctl'), ['start', '-D', pgdata, '-l', log, '-w', '-t', '60', '-o', opts], {
+    ...ids,
+    cwd: base,
+  });
   if (started.status !== 0) {
     const tail = existsSync(log) ? String(readFileSync(log, 'utf8')).split('\n').slice(-15).join('\n') : '';
     fail(`PostgreSQL did not start (see ${log}):\n${tail}`);
@@ -136,7 +149,8 @@ async function checkExternal(url: string): Promise<void> {
   try {
     await client.connect();
     const r = await client.query("select count(*)::int as n from pg_available_extensions where name = 'postgis'");
-    if (!r.rows[0].n) fail('the database in DATABASE_URL has no PostGIS extension available; install PostGIS on that server.');
+    if (!r.rows[0].n)
+      fail('the database in DATABASE_URL has no PostGIS extension available; install PostGIS on that server.');
     console.log('db: using the database in DATABASE_URL (no local cluster)');
   } catch (err) {
     fail(`cannot reach the database in DATABASE_URL: ${(err as Error).message}`);

@@ -21,7 +21,13 @@ const server = new SMTPServer({
       .then(async (mail) => {
         const to = session.envelope.rcptTo.map((r) => r.address.toLowerCase());
         const from = session.envelope.mailFrom ? session.envelope.mailFrom.address : '';
-        await insertCapturedMail(db, { from, to, subject: mail.subject ?? '', text: mail.text ?? '', html: typeof mail.html === 'string' ? mail.html : null });
+        await insertCapturedMail(db, {
+          from,
+          to,
+          subject: mail.subject ?? '',
+          text: mail.text ?? '',
+          html: typeof mail.html === 'string' ? mail.html : null,
+        });
         callback();
       })
       .catch((err: Error) => callback(err));
@@ -29,11 +35,17 @@ const server = new SMTPServer({
 });
 
 server.on('error', (err: NodeJS.ErrnoException) => {
-  console.error(err.code === 'EADDRINUSE' ? `mail-fake: port ${port} is taken; set SMTP_PORT to another port` : `mail-fake: ${err.message}`);
+  console.error(
+    err.code === 'EADDRINUSE'
+      ? `mail-fake: port ${port} is taken; set SMTP_PORT to another port`
+      : `mail-fake: ${err.message}`,
+  );
   process.exit(1);
 });
 
-server.listen(port, '127.0.0.1', () => console.log(`mail-fake: SMTP on 127.0.0.1:${port}, storing mail in the database`));
+server.listen(port, '127.0.0.1', () =>
+  console.log(`mail-fake: SMTP on 127.0.0.1:${port}, storing mail in the database`),
+);
 
 for (const sig of ['SIGINT', 'SIGTERM'] as const) {
   process.on(sig, () => server.close(() => db.destroy().finally(() => process.exit(0))));

@@ -28,7 +28,8 @@ try {
     console.log(`migrate: rolled back ${files.length}`);
   } else if (cmd === 'reset') {
     // Drops everything, for the throwaway test database only.
-    if (!/_test(_[a-z0-9]+)?$/.test(new URL(String(config.connection)).pathname)) throw new Error('reset only runs on a *_test or *_test_NAME database');
+    if (!/_test(_[a-z0-9]+)?$/.test(new URL(String(config.connection)).pathname))
+      throw new Error('reset only runs on a *_test or *_test_NAME database');
     await knex.raw('drop schema public cascade; create schema public; drop schema if exists pgboss cascade');
     const [, files] = await knex.migrate.latest();
     console.log(`migrate: reset, ${files.length} migration(s)`);

@@ -37,7 +37,12 @@ export async function precompress(root) {
     const bytes = await readFile(file);
     if (bytes.length < MIN_BYTES) continue;
     const size = bytes.length;
-    await writeFile(`${file}.br`, await brotli(bytes, { params: { [zlib.constants.BROTLI_PARAM_QUALITY]: 11, [zlib.constants.BROTLI_PARAM_SIZE_HINT]: size } }));
+    await writeFile(
+      `${file}.br`,
+      await brotli(bytes, {
+        params: { [zlib.constants.BROTLI_PARAM_QUALITY]: 11, [zlib.constants.BROTLI_PARAM_SIZE_HINT]: size },
+      }),
+    );
     await writeFile(`${file}.gz`, await gzip(bytes, { level: 9 }));
     count++;
   }

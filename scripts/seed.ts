@@ -30,9 +30,14 @@ async function main(): Promise<void> {
   console.log(`seed: ${await seedDemoProposals(planner.email, assessor.email)}`);
   const board = DEMO_PEOPLE.find((p) => p.roles.includes('board') && !p.roles.includes('chair'))!;
   const chair = DEMO_PEOPLE.find((p) => p.roles.includes('chair'))!;
-  console.log(`seed: ${await seedDemoHistory({ planner: planner.email, assessor: assessor.email, board: board.email, chair: chair.email })}`);
-  const member = (role: 'board' | 'chair') => DEMO_PEOPLE.find((p) => p.roles.includes(role) && (role === 'chair' || !p.roles.includes('chair')))!.email;
-  console.log(`seed: ${await seedDemoCompensation({ planner: planner.email, assessor: assessor.email, board: member('board'), chair: member('chair') })}`);
+  console.log(
+    `seed: ${await seedDemoHistory({ planner: planner.email, assessor: assessor.email, board: board.email, chair: chair.email })}`,
+  );
+  const member = (role: 'board' | 'chair') =>
+    DEMO_PEOPLE.find((p) => p.roles.includes(role) && (role === 'chair' || !p.roles.includes('chair')))!.email;
+  console.log(
+    `seed: ${await seedDemoCompensation({ planner: planner.email, assessor: assessor.email, board: member('board'), chair: member('chair') })}`,
+  );
   const screened = await db.transaction((trx) => recomputeScreening(trx, null, 'Demo scenario seeded'));
   console.log(`seed: screening map of ${screened.screened} permanent-grassland parcels computed in ${screened.ms} ms`);
 }
@@ -44,7 +49,13 @@ async function seedPeople(): Promise<void> {
       const id = crypto.randomUUID();
       await insertUser(trx, { id, ...p });
       await setPassword(trx, id, hash);
-      await recordAudit(trx, { actorId: null, action: 'user.seed', entityType: 'user', entityId: id, details: { email: p.email } });
+      await recordAudit(trx, {
+        actorId: null,
+        action: 'user.seed',
+        entityType: 'user',
+        entityId: id,
+        details: { email: p.email },
+      });
     }
   });
   console.log(`seed: demo scenario added (${DEMO_PEOPLE.length} people)`);

@@ -37,11 +37,24 @@ export function trustFrom(setting) {
     const hops = Number(value);
     return (_addr, i) => i < hops;
   }
-  return proxyaddr.compile(value.split(',').map((s) => s.trim()).filter(Boolean));
+  return proxyaddr.compile(
+    value
+      .split(',')
+      .map((s) => s.trim())
+      .filter(Boolean),
+  );
 }
 
 const trust = trustFrom(process.env.TRUSTED_PROXIES);
-const FORWARDING = ['x-forwarded-for', 'x-forwarded-host', 'x-forwarded-proto', 'x-forwarded-port', 'forwarded', 'x-real-ip', 'x-client-ip'];
+const FORWARDING = [
+  'x-forwarded-for',
+  'x-forwarded-host',
+  'x-forwarded-proto',
+  'x-forwarded-port',
+  'forwarded',
+  'x-real-ip',
+  'x-client-ip',
+];
 
 function prepare(req, res) {
   const socketAddress = req.socket.remoteAddress ?? '';
@@ -61,7 +74,8 @@ const EXTRA_COMPRESSIBLE = /^(application\/(vnd\.mapbox-vector-tile|geo\+json|x-
 export const compress = compression({
   level: 5,
   brotli: { params: { [zlib.constants.BROTLI_PARAM_QUALITY]: 4 } },
-  filter: (req, res) => EXTRA_COMPRESSIBLE.test(String(res.getHeader('content-type') ?? '')) || compression.filter(req, res),
+  filter: (req, res) =>
+    EXTRA_COMPRESSIBLE.test(String(res.getHeader('content-type') ?? '')) || compression.filter(req, res),
 });
 
 /**
@@ -111,7 +125,14 @@ const PROBES = new Set(['/api/health', '/api/ready']);
 function logRequest(req, res, record, started) {
   const durationMs = Math.round(Number(process.hrtime.bigint() - started) / 1e5) / 10;
   const status = res.statusCode;
-  const line = { reqId: record.id, method: req.method, route: record.route, status, durationMs, ...(res.writableFinished ? {} : { aborted: true }) };
+  const line = {
+    reqId: record.id,
+    method: req.method,
+    route: record.route,
+    status,
+    durationMs,
+    ...(res.writableFinished ? {} : { aborted: true }),
+  };
   const level = status >= 500 ? 'error' : PROBES.has(record.route ?? '') && status < 400 ? 'debug' : 'info';
   logger[level](line, 'request');
 }
@@ -137,7 +158,11 @@ async function main() {
     });
     if (['TRACE', 'TRACK', 'CONNECT'].includes(req.method ?? '')) {
       record.route = 'refused';
-      res.writeHead(405, { allow: 'GET, HEAD, POST', 'content-type': 'text/plain; charset=utf-8', 'x-content-type-options': 'nosniff' });
+      res.writeHead(405, {
+        allow: 'GET, HEAD, POST',
+        'content-type': 'text/plain; charset=utf-8',
+        'x-content-type-options': 'nosniff',
+      });
       res.end(`${req.method} is not served.`);
       return;
     }
@@ -154,7 +179,10 @@ async function main() {
   server.listen(port, host, () => {
     logger.info({ host, port }, `Swardkeep listening on http://${host}:${port}`);
     // Warm up now rather than on a user's first request (src/lib/warm-up.ts).
-    fetch(`http://${host.includes(':') ? `[${host}]` : host}:${port}/api/health`).then((r) => r.arrayBuffer(), () => undefined);
+    fetch(`http://${host.includes(':') ? `[${host}]` : host}:${port}/api/health`).then(
+      (r) => r.arrayBuffer(),
+      () => undefined,
+    );
   });
   const stop = async (signal) => {
     if (stopping) {
@@ -163,7 +191,10 @@ async function main() {
     }
     stopping = true;
     const graceMs = Number(process.env.SHUTDOWN_GRACE_MS ?? 15000);
-    logger.info({ signal, inFlight: inFlight.size, graceMs }, 'shutting down: no new connections, finishing requests in flight');
+    logger.info(
+      { signal, inFlight: inFlight.size, graceMs },
+      'shutting down: no new connections, finishing requests in flight',
+    );
     // Answers still to be written tell the client to close; idle keep-alive connections go now.
     for (const res of inFlight) if (!res.headersSent) res.setHeader('connection', 'close');
     const closed = new Promise((resolve) => server.close(resolve));
@@ -171,7 +202,8 @@ async function main() {
     let cutOff = false;
     const grace = setTimeout(() => {
       cutOff = inFlight.size > 0;
-      if (cutOff) logger.warn({ inFlight: inFlight.size }, 'requests still running after the grace period: closing them');
+      if (cutOff)
+        logger.warn({ inFlight: inFlight.size }, 'requests still running after the grace period: closing them');
       server.closeAllConnections();
     }, graceMs);
     await closed;
@@ -184,7 +216,8 @@ async function main() {
     for (const name of ['swardkeep.stop-hooks', 'swardkeep.close-hooks']) {
       const hooks = globalThis[Symbol.for(name)] ?? [];
       const results = await Promise.allSettled(hooks.map((hook) => hook()));
-      for (const r of results) if (r.status === 'rejected') logger.error({ err: r.reason, hooks: name }, 'a shutdown hook failed');
+      for (const r of results)
+        if (r.status === 'rejected') logger.error({ err: r.reason, hooks: name }, 'a shutdown hook failed');
     }
     logger.info({ cutOff }, 'stopped');
     logger.flush();

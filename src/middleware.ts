@@ -18,7 +18,12 @@ const STATE_CHANGING = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
 const NEVER = new Set(['TRACE', 'TRACK', 'CONNECT']);
 
 function refuse(api: boolean, code: ErrorCode, message: string, headers: Record<string, string> = {}): Response {
-  const res = api ? errorResponse(code, message) : new Response(message, { status: errorResponse(code, message).status, headers: { 'content-type': 'text/plain; charset=utf-8' } });
+  const res = api
+    ? errorResponse(code, message)
+    : new Response(message, {
+        status: errorResponse(code, message).status,
+        headers: { 'content-type': 'text/plain; charset=utf-8' },
+      });
   for (const [k, v] of Object.entries(headers)) res.headers.set(k, v);
   return res;
 }
@@ -30,7 +35,10 @@ function refuse(api: boolean, code: ErrorCode, message: string, headers: Record<
  */
 function foreignOrigin(request: Request): string | null {
   const origin = request.headers.get('origin');
-  if (origin !== null) return origin === new URL(config().BETTER_AUTH_URL).origin ? null : `the request came from ${origin === 'null' ? 'an opaque origin' : 'another site'}`;
+  if (origin !== null)
+    return origin === new URL(config().BETTER_AUTH_URL).origin
+      ? null
+      : `the request came from ${origin === 'null' ? 'an opaque origin' : 'another site'}`;
   const site = request.headers.get('sec-fetch-site');
   if (site === 'same-origin') return null;
   return 'the request did not say where it came from (send an Origin header)';
@@ -40,20 +48,26 @@ function foreignOrigin(request: Request): string | null {
 function gate(ctx: { request: Request; url: URL }): Response | null {
   const { request, url } = ctx;
   const api = url.pathname.startsWith('/api/');
-  if (NEVER.has(request.method)) return refuse(api, 'METHOD_NOT_ALLOWED', `${request.method} is not served.`, { allow: 'GET, HEAD, POST' });
+  if (NEVER.has(request.method))
+    return refuse(api, 'METHOD_NOT_ALLOWED', `${request.method} is not served.`, { allow: 'GET, HEAD, POST' });
   let multipart = false;
   if (api && !url.pathname.startsWith('/api/auth/')) {
     const route = matchApiRoute(url.pathname, request.method);
     if (!route) return refuse(true, 'NOT_FOUND', 'No such API route.');
-    if (request.method === 'OPTIONS') return new Response(null, { status: 204, headers: { allow: [...route.allowed, 'OPTIONS'].join(', ') } });
-    if (!route.allowed.includes(request.method)) return refuse(true, 'METHOD_NOT_ALLOWED', `Use ${route.allowed.join(' or ')} here.`, { allow: route.allowed.join(', ') });
+    if (request.method === 'OPTIONS')
+      return new Response(null, { status: 204, headers: { allow: [...route.allowed, 'OPTIONS'].join(', ') } });
+    if (!route.allowed.includes(request.method))
+      return refuse(true, 'METHOD_NOT_ALLOWED', `Use ${route.allowed.join(' or ')} here.`, {
+        allow: route.allowed.join(', '),
+      });
     multipart = route.multipart;
   }
   if (STATE_CHANGING.has(request.method)) {
     const why = foreignOrigin(request);
     if (why) return refuse(api, 'FORBIDDEN', `Refused: ${why}.`);
     // Uploads have their own, larger cap (lib/http/multipart.ts); everything else stays small.
-    if (!multipart && declaredTooLarge(request, MAX_JSON_BYTES)) return refuse(api, 'PAYLOAD_TOO_LARGE', `The request body is larger than the allowed ${MAX_JSON_BYTES} bytes.`);
+    if (!multipart && declaredTooLarge(request, MAX_JSON_BYTES))
+      return refuse(api, 'PAYLOAD_TOO_LARGE', `The request body is larger than the allowed ${MAX_JSON_BYTES} bytes.`);
   }
   return null;
 }
@@ -71,20 +85,28 @@ async function widenPolicy(response: Response, withMap: boolean): Promise<void> 
   if (!csp) return;
   const basemap = withMap ? (await getGisSettings(db))['map.basemap-url'] : null;
   const imgSrc = basemap ? `img-src 'self' data: blob: ${new URL(basemap).origin}` : null;
-  const widened = (imgSrc ? csp.replace("img-src 'self' data: blob:", imgSrc) : csp).trim().replace(/;?$/, "; style-src-attr 'unsafe-inline';");
+  const widened = (imgSrc ? csp.replace("img-src 'self' data: blob:", imgSrc) : csp)
+    .trim()
+    .replace(/;?$/, "; style-src-attr 'unsafe-inline';");
   response.headers.set('content-security-policy', widened);
 }
 
 function secure(response: Response, ctx: { url: URL; locals: App.Locals }): Response {
   try {
     // Routes that set their own caching (vector tiles: private, ETag by data version) keep it.
-    if ((ctx.url.pathname.startsWith('/api/') || ctx.locals.user) && !response.headers.has('cache-control')) response.headers.set('cache-control', 'no-store');
+    if ((ctx.url.pathname.startsWith('/api/') || ctx.locals.user) && !response.headers.has('cache-control'))
+      response.headers.set('cache-control', 'no-store');
     response.headers.set('x-content-type-options', 'nosniff');
     response.headers.set('referrer-policy', 'same-origin');
     response.headers.set('x-frame-options', 'DENY');
-    if (config().BETTER_AUTH_URL.startsWith('https://')) response.headers.set('strict-transport-security', 'max-age=31536000');
+    if (config().BETTER_AUTH_URL.startsWith('https://'))
+      response.headers.set('strict-transport-security', 'max-age=31536000');
     // Pages get Astro's policy (hashes of its scripts and styles, astro.config.mjs); anything else none at all.
-    if (!response.headers.has('content-security-policy')) response.headers.set('content-security-policy', "default-src 'none'; frame-ancestors 'none'; base-uri 'none'; form-action 'none'");
+    if (!response.headers.has('content-security-policy'))
+      response.headers.set(
+        'content-security-policy',
+        "default-src 'none'; frame-ancestors 'none'; base-uri 'none'; form-action 'none'",
+      );
   } catch {
     // Redirect responses have immutable headers; they carry no content to protect.
   }
@@ -109,7 +131,9 @@ export const onRequest = defineMiddleware(async (ctx, next) => {
   const refused = gate(ctx);
   if (refused) return secure(refused, ctx);
   // Vector tiles carry a short-lived signed token (lib/auth/tile-token.ts) instead of needing a session look-up.
-  const tileUser = ctx.url.pathname.startsWith('/api/tiles/') ? verifyTileToken(ctx.url.searchParams.get('t') ?? '') : null;
+  const tileUser = ctx.url.pathname.startsWith('/api/tiles/')
+    ? verifyTileToken(ctx.url.searchParams.get('t') ?? '')
+    : null;
   if (tileUser) {
     ctx.locals.user = { id: tileUser, name: '', email: '', roles: [] };
     return secure(await next(), ctx);
@@ -127,7 +151,8 @@ export const onRequest = defineMiddleware(async (ctx, next) => {
     const u = found.user as typeof found.user & { role?: string | null };
     ctx.locals.user = { id: u.id, name: u.name, email: u.email, roles: parseRoles(u.role) };
     ctx.locals.sessionId = found.session.id;
-    if (copyAllowed) rememberSession(ctx.request.headers.get('cookie'), { user: ctx.locals.user, sessionId: found.session.id });
+    if (copyAllowed)
+      rememberSession(ctx.request.headers.get('cookie'), { user: ctx.locals.user, sessionId: found.session.id });
   }
   const response = await next();
   await widenPolicy(response, MAP_PAGES.test(ctx.url.pathname) && response.status === 200);

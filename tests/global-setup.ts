@@ -14,7 +14,11 @@ export async function setup(): Promise<void> {
   if (!existsSync(`${DIST}/server/entry.mjs`)) throw new Error('Build the app first (npm test does: astro build).');
   mkdirSync('.data', { recursive: true });
   const env = appEnv();
-  const run = (script: string, ...args: string[]) => execFileSync(process.execPath, ['--import', 'tsx', script, ...args], { stdio: 'inherit', env: { ...env, SWARDKEEP_DATABASES: `swardkeep,${TEST_DATABASE_NAME}` } });
+  const run = (script: string, ...args: string[]) =>
+    execFileSync(process.execPath, ['--import', 'tsx', script, ...args], {
+      stdio: 'inherit',
+      env: { ...env, SWARDKEEP_DATABASES: `swardkeep,${TEST_DATABASE_NAME}` },
+    });
   run('scripts/db.ts', 'start');
   run('scripts/migrate.ts', 'reset');
   run('scripts/seed.ts');

@@ -7,8 +7,28 @@ import type { Random } from './random';
  * codes. No real people, holdings or places.
  */
 const NAME_FIRST = ['Lower', 'Upper', 'Long', 'Broad', 'Old', 'Far', 'Near', 'Little', 'Great', 'West', 'East'];
-const NAME_SECOND = ['Fenmoor', 'Ashrindle', 'Ríoghbrook', 'Haldrennow', 'Skarrowen', 'Émbrenlea', 'Corrow Field', 'Tollivane', 'Brackwater', 'Søvrinholt', 'Quarrelby', 'Mireside'];
-const TROPICAL_NAMES = ['Keluvo Ridge', 'Tembiri Flats', 'Orapesi Slope', 'Lunavai Field', 'Marutesa Plot', 'Ivolani Bench'];
+const NAME_SECOND = [
+  'Fenmoor',
+  'Ashrindle',
+  'Ríoghbrook',
+  'Haldrennow',
+  'Skarrowen',
+  'Émbrenlea',
+  'Corrow Field',
+  'Tollivane',
+  'Brackwater',
+  'Søvrinholt',
+  'Quarrelby',
+  'Mireside',
+];
+const TROPICAL_NAMES = [
+  'Keluvo Ridge',
+  'Tembiri Flats',
+  'Orapesi Slope',
+  'Lunavai Field',
+  'Marutesa Plot',
+  'Ivolani Bench',
+];
 
 /** Reference date for generated dates (fixed, so output never depends on the clock). */
 export const DEMO_AS_OF = '2025-06-30';
@@ -32,7 +52,11 @@ export function parcelAttributes(ctx: ParcelContext, random: Random): Record<str
   let landUse = roll < 0.6 ? 'grassland' : roll < 0.75 ? 'temporary-grassland' : roll < 0.9 ? 'arable' : 'meadow';
   if (ctx.inNeverTilled) landUse = random.next() < 0.7 ? 'grassland' : 'meadow';
   const management =
-    landUse === 'arable' ? 'cropped' : landUse === 'meadow' ? random.pick(['hay', 'ungrazed']) : random.pick(['grazed', 'cut-for-silage', 'mixed', 'grazed']);
+    landUse === 'arable'
+      ? 'cropped'
+      : landUse === 'meadow'
+        ? random.pick(['hay', 'ungrazed'])
+        : random.pick(['grazed', 'cut-for-silage', 'mixed', 'grazed']);
   let lastTill: string | null = null;
   if (!ctx.inNeverTilled) {
     if (landUse === 'arable') lastTill = dateYearsAgo(random, 0.2, 1.5);

@@ -31,7 +31,13 @@ export function trueAreaHa(geometry: Polygon, crs: CrsDefinition): number {
 }
 
 /** Clean parcels for a region: tiled grid, attributes, stated area = true area to 0.01 ha. */
-export function buildParcels(region: RegionSpec, crs: CrsDefinition, random: Random, prefix: string, holdings: number): DemoParcel[] {
+export function buildParcels(
+  region: RegionSpec,
+  crs: CrsDefinition,
+  random: Random,
+  prefix: string,
+  holdings: number,
+): DemoParcel[] {
   const origin = regionOrigin(region, crs);
   const grid = makeParcelGrid({
     originE: origin[0]!,
@@ -47,7 +53,10 @@ export function buildParcels(region: RegionSpec, crs: CrsDefinition, random: Ran
   return grid.map((cell, index) => {
     const geometry: Polygon = { type: 'Polygon', coordinates: cell.rings };
     const inNeverTilled = inBoxes(cell.rings[0]!, origin, region.layers.neverTilled);
-    const properties = parcelAttributes({ index, prefix, holdings, inNeverTilled, tropical: region.epsg === 32747 }, random);
+    const properties = parcelAttributes(
+      { index, prefix, holdings, inNeverTilled, tropical: region.epsg === 32747 },
+      random,
+    );
     properties.stated_ha = Math.round(trueAreaHa(geometry, crs) * 100) / 100;
     return { geometry, properties };
   });
@@ -86,11 +95,17 @@ export function addDefects(parcels: DemoParcel[], prefix: string, areaOff: numbe
   const extra = (n: number) => `${prefix}-${String(count + n).padStart(4, '0')}`;
   const dup = { geometry: structuredClone(base.geometry), properties: { ...base.properties, field_ref: extra(1) } };
   const p0 = ring(0)[0]!;
-  const sliver: Polygon = { type: 'Polygon', coordinates: [[p0, [p0[0]! + 4, p0[1]!], [p0[0]!, p0[1]! + 3], p0].map((p) => [...p])] };
+  const sliver: Polygon = {
+    type: 'Polygon',
+    coordinates: [[p0, [p0[0]! + 4, p0[1]!], [p0[0]!, p0[1]! + 3], p0].map((p) => [...p])],
+  };
   const tiny = { geometry: sliver, properties: { ...parcels[0]!.properties, field_ref: extra(2), stated_ha: 0 } };
   const empty = { geometry: null, properties: { ...parcels[1]!.properties, field_ref: extra(3), stated_ha: null } };
   parcels.push(dup, tiny, empty);
-  notes.push({ field_ref: extra(1), defect: `same geometry as ${String(base.properties.field_ref)} (duplicate-geometry)` });
+  notes.push({
+    field_ref: extra(1),
+    defect: `same geometry as ${String(base.properties.field_ref)} (duplicate-geometry)`,
+  });
   notes.push({ field_ref: extra(2), defect: '6 m² triangle (sliver)' });
   notes.push({ field_ref: extra(3), defect: 'null shape (empty-geometry)' });
   return notes;

@@ -46,13 +46,24 @@ export function makeParcelGrid(o: GridOptions): GridParcel[] {
       const a = node[c]![r]!;
       const b = node[c + 1]![r]!;
       const t = o.random.range(0.35, 0.65);
-      bend[c]!.push([round2(a[0]! + t * (b[0]! - a[0]!)), round2(a[1]! + t * (b[1]! - a[1]!) + o.random.range(-o.jitterM, o.jitterM) / 2)]);
+      bend[c]!.push([
+        round2(a[0]! + t * (b[0]! - a[0]!)),
+        round2(a[1]! + t * (b[1]! - a[1]!) + o.random.range(-o.jitterM, o.jitterM) / 2),
+      ]);
     }
   }
   const parcels: GridParcel[] = [];
   for (let r = 0; r < o.rows; r++) {
     for (let c = 0; c < o.cols; c++) {
-      const outer = [node[c]![r]!, bend[c]![r]!, node[c + 1]![r]!, node[c + 1]![r + 1]!, bend[c]![r + 1]!, node[c]![r + 1]!, node[c]![r]!];
+      const outer = [
+        node[c]![r]!,
+        bend[c]![r]!,
+        node[c + 1]![r]!,
+        node[c + 1]![r + 1]!,
+        bend[c]![r + 1]!,
+        node[c]![r + 1]!,
+        node[c]![r]!,
+      ];
       const rings = [outer.map((p) => [...p])];
       if (o.random.next() < o.holeShare) rings.push(pond(outer, o.random));
       parcels.push({ col: c, row: r, rings });

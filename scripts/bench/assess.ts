@@ -15,45 +15,78 @@ async function benchParcels(batchId: string): Promise<number[]> {
   try {
     const done = await knex('land_use_event').where({ batch_id: batchId, evidence: HISTORY }).first();
     if (!done) {
-      await knex.raw(`insert into land_use_event (parcel_id, event_date, kind, value, evidence, batch_id)
-                      select id, date '2010-04-01', 'land-use', land_use, ?, batch_id from parcel where batch_id = ? and land_use in ('grassland', 'meadow', 'pasture')`, [HISTORY, batchId]);
+      await knex.raw(
+        `insert into land_use_event (parcel_id, event_date, kind, value, evidence, batch_id)
+                      select id, date '2010-04-01', 'land-use', land_use, ?, batch_id from parcel where batch_id = ? and land_use in ('grassland', 'meadow', 'pasture')`,
+        [HISTORY, batchId],
+      );
       await knex.raw('analyze land_use_event');
     }
-    return (await knex('parcel').where({ batch_id: batchId, land_use: 'grassland' }).orderBy('id').limit(2000).select('id')).map((r) => Number(r.id));
+    return (
+      await knex('parcel').where({ batch_id: batchId, land_use: 'grassland' }).orderBy('id').limit(2000).select('id')
+    ).map((r) => Number(r.id));
   } finally {
     await knex.destroy();
   }
 }
 
 /** "a;dur=1, b;dur=2" → "a 1 ms, b 2 ms" */
-const phases = (h: string | null) => (h ?? '').split(',').map((p) => { const [name, ...rest] = p.trim().split(';'); const d = rest.find((x) => x.startsWith('dur=')); return `${name} ${d ? Number(d.slice(4)).toFixed(0) : '?'} ms`; }).join(', ');
+const phases = (h: string | null) =>
+  (h ?? '')
+    .split(',')
+    .map((p) => {
+      const [name, ...rest] = p.trim().split(';');
+      const d = rest.find((x) => x.startsWith('dur='));
+      return `${name} ${d ? Number(d.slice(4)).toFixed(0) : '?'} ms`;
+    })
+    .join(', ');
 
 async function assess(planner: string, assessor: string, ids: number[]): Promise<void> {
   const created = await call<{ id: number; version: number }>(planner, 'POST', '/api/proposals', {
-    title: 'Benchmark block', description: 'Two thousand parcels converted at once.', startYear: 2027, parcels: ids.map((parcelId) => ({ parcelId })),
-    proposed: { landUse: 'cropland', system: 'long-term-cultivated', tillage: 'full', input: 'medium' }, applicant: { name: 'Bench Applicant', contact: 'bench@bench.example', interest: 'owner' },
+    title: 'Benchmark block',
+    description: 'Two thousand parcels converted at once.',
+    startYear: 2027,
+    parcels: ids.map((parcelId) => ({ parcelId })),
+    proposed: { landUse: 'cropland', system: 'long-term-cultivated', tillage: 'full', input: 'medium' },
+    applicant: { name: 'Bench Applicant', contact: 'bench@bench.example', interest: 'owner' },
   });
-  await call(planner, 'POST', `/api/proposals/${created.data.id}/transitions`, { to: 'submitted', version: created.data.version });
+  await call(planner, 'POST', `/api/proposals/${created.data.id}/transitions`, {
+    to: 'submitted',
+    version: created.data.version,
+  });
   for (const run of ['first run', 're-run']) {
     const t0 = performance.now();
-    const r = await fetch(`${BASE}/api/proposals/${created.data.id}/assessment`, { method: 'POST', headers: { cookie: assessor, origin: BASE, 'content-type': 'application/json' }, body: '{}' });
+    const r = await fetch(`${BASE}/api/proposals/${created.data.id}/assessment`, {
+      method: 'POST',
+      headers: { cookie: assessor, origin: BASE, 'content-type': 'application/json' },
+      body: '{}',
+    });
     const body = await r.text();
     if (!r.ok) throw new Error(`assessment: ${r.status} ${body.slice(0, 300)}`);
     const wall = performance.now() - t0;
     const timing = r.headers.get('server-timing');
     const server = Number(/(?:^|,\s*)assess;dur=([\d.]+)/.exec(timing ?? '')?.[1]);
     const a = JSON.parse(body) as { totals: { runs: number; co2eTotal: number } };
-    console.log(`\nassessment of a ${ids.length}-parcel proposal (${run}), ${a.totals.runs} joint Monte Carlo runs: server ${s(server)} (aim: < 1 s), request ${s(wall)} with a ${(body.length / 1e6).toFixed(1)} MB answer`);
+    console.log(
+      `\nassessment of a ${ids.length}-parcel proposal (${run}), ${a.totals.runs} joint Monte Carlo runs: server ${s(server)} (aim: < 1 s), request ${s(wall)} with a ${(body.length / 1e6).toFixed(1)} MB answer`,
+    );
     console.log(`  server phases: ${phases(timing)}`);
   }
 }
 
-export async function assessAndScreen(planner: string, assessor: string, batchId: string, count: number): Promise<void> {
+export async function assessAndScreen(
+  planner: string,
+  assessor: string,
+  batchId: string,
+  count: number,
+): Promise<void> {
   const ids = await benchParcels(batchId);
   if (!skipped('assess')) await assess(planner, assessor, ids);
   if (skipped('screening')) return;
   const screening = await call<{ screened: number; ms: number }>(assessor, 'POST', '/api/screening/recompute');
-  console.log(`screening map recomputed over ${count} parcels (${screening.data.screened} permanent grassland): ${s(screening.data.ms)} computing (aim: < 5 s), request ${s(screening.ms)}`);
+  console.log(
+    `screening map recomputed over ${count} parcels (${screening.data.screened} permanent grassland): ${s(screening.data.ms)} computing (aim: < 5 s), request ${s(screening.ms)}`,
+  );
   const timing = screening.headers.get('server-timing');
   if (timing) console.log(`  server phases: ${phases(timing)}`);
 }

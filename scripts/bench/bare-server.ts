@@ -24,15 +24,22 @@ createServer((req, res) => {
   };
   if (req.method === 'GET' && tile) {
     const [z, x, y] = tile.slice(1).map(Number) as [number, number, number];
-    pool.query(text, tileBindings(z, x, y)).then((r) => res.writeHead(200, { 'content-type': 'application/vnd.mapbox-vector-tile' }).end(r.rows[0].tile), fail);
+    pool
+      .query(text, tileBindings(z, x, y))
+      .then(
+        (r) => res.writeHead(200, { 'content-type': 'application/vnd.mapbox-vector-tile' }).end(r.rows[0].tile),
+        fail,
+      );
     return;
   }
   if (req.method === 'POST' && req.url === '/estimates') {
     const chunks: Buffer[] = [];
     req.on('data', (c: Buffer) => chunks.push(c));
     req.on('end', () => {
-      runEstimate(estimateBodySchema.parse(JSON.parse(Buffer.concat(chunks).toString())))
-        .then((out) => res.writeHead(200, { 'content-type': 'application/json' }).end(JSON.stringify(out)), fail);
+      runEstimate(estimateBodySchema.parse(JSON.parse(Buffer.concat(chunks).toString()))).then(
+        (out) => res.writeHead(200, { 'content-type': 'application/json' }).end(JSON.stringify(out)),
+        fail,
+      );
     });
     return;
   }

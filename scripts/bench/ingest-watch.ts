@@ -51,7 +51,10 @@ export function watchIngest(pid: number) {
   const poll = (async () => {
     while (running) {
       const t0 = performance.now();
-      const ok = await fetch(`${BASE}/api/health`).then((r) => r.text().then(() => r.ok), () => false);
+      const ok = await fetch(`${BASE}/api/health`).then(
+        (r) => r.text().then(() => r.ok),
+        () => false,
+      );
       if (ok) times.push(performance.now() - t0);
       else failed++;
       await new Promise((r) => setTimeout(r, 25));
@@ -75,7 +78,10 @@ export function healthLine(times: number[], failed: number): string {
 export function plainLoad(count: number, tool = 'ogr2ogr'): { min: number; median: number } | null {
   const file = process.env.BENCH_REF_RESULTS;
   if (!file || !existsSync(file)) return null;
-  const line = readFileSync(file, 'utf8').split('\n').map((l) => l.split(' ')).find((f) => Number(f[0]) === count && f[1] === tool);
+  const line = readFileSync(file, 'utf8')
+    .split('\n')
+    .map((l) => l.split(' '))
+    .find((f) => Number(f[0]) === count && f[1] === tool);
   return line ? { min: Number(line[2]), median: Number(line[3]) } : null;
 }
 

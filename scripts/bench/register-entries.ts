@@ -11,9 +11,20 @@ import { round, type Outcome, type RegisterContent } from '../../src/lib/registe
 
 const BATCH = 2000;
 const APPEND_LOCK = 0x5257_4b01;
-const REGIONS = ['bench-district-1', 'bench-district-2', 'bench-district-3', 'bench-district-4', 'bench-district-5', 'bench-district-6'];
+const REGIONS = [
+  'bench-district-1',
+  'bench-district-2',
+  'bench-district-3',
+  'bench-district-4',
+  'bench-district-5',
+  'bench-district-6',
+];
 const OUTCOMES: Outcome[] = ['approved', 'approved', 'approved-with-conditions', 'refused'];
-const USES = ['cropland, long-term-cultivated, full, medium', 'cropland, long-term-cultivated, reduced, medium', 'cropland, long-term-cultivated, no-till, high-without-manure'];
+const USES = [
+  'cropland, long-term-cultivated, full, medium',
+  'cropland, long-term-cultivated, reduced, medium',
+  'cropland, long-term-cultivated, no-till, high-without-manure',
+];
 const LABELS = ['Routine', 'Closer look', 'Full review', 'Barred unless cleared'];
 
 /** mulberry32: a small seeded generator (common practice for reproducible test data). */
@@ -30,8 +41,19 @@ function random(seed: number) {
 function parcel(rnd: () => number, seq: number, k: number): RegisterContent['parcels'][number] {
   const [lon, lat] = [-16.4 + rnd() * 0.5, 28.1 + rnd() * 0.2];
   const [w, h] = [0.001 + rnd() * 0.002, 0.001 + rnd() * 0.002];
-  const ring = [[lon, lat], [lon + w, lat], [lon + w, lat + h], [lon, lat + h], [lon, lat]].map((p) => p.map((c) => round(c, 7)));
-  return { reference: `BENCH-${String(seq).padStart(6, '0')}-${k + 1}`, areaHa: round(1 + rnd() * 20, 4), part: false, geometry: { type: 'MultiPolygon', coordinates: [[ring]] } };
+  const ring = [
+    [lon, lat],
+    [lon + w, lat],
+    [lon + w, lat + h],
+    [lon, lat + h],
+    [lon, lat],
+  ].map((p) => p.map((c) => round(c, 7)));
+  return {
+    reference: `BENCH-${String(seq).padStart(6, '0')}-${k + 1}`,
+    areaHa: round(1 + rnd() * 20, 4),
+    part: false,
+    geometry: { type: 'MultiPolygon', coordinates: [[ring]] },
+  };
 }
 
 function decision(rnd: () => number, seq: number): RegisterContent {
@@ -43,14 +65,54 @@ function decision(rnd: () => number, seq: number): RegisterContent {
   const co2e = round(50 + rnd() * 5000);
   return {
     kind: 'decision',
-    proposal: { reference: `PR-B${String(seq).padStart(6, '0')}`, title: `Conversion of bench field block ${seq}`, proposedUse: USES[seq % USES.length]!, startYear: year + 1 },
-    parcels, areaHa: round(parcels.reduce((s, p) => s + p.areaHa, 0), 4), region: REGIONS[Math.floor(rnd() * REGIONS.length)]!, outcome,
-    reasons: outcome === 'refused' ? 'The loss of soil carbon outweighs the benefit stated.' : 'Within the authority’s thresholds.',
-    conditions: outcome === 'approved-with-conditions' ? [{ text: 'Keep a 6 m grass margin along the watercourse.', dueDate: `${year + 1}-03-31`, checkedBy: 'Field officer' }] : [],
-    figures: { co2eTotal: co2e, co2eLow: round(co2e * 0.6), co2eHigh: round(co2e * 1.5), socChangeTotal: round(-co2e / 3.67), runs: 1000, gwp: 'AR5', unit: 't CO2e' },
-    risk: { level, label: LABELS[level - 1]! }, factorSet: { id: 'ipcc-2006', version: 1 }, ruleSet: { id: 'tarrow-screening', version: 1 }, assessment: { number: 1 },
-    meeting: { date: decidedOn, place: 'Bench hall' }, votes: { approve: 3, approveWithConditions: 0, refuse: 1, defer: 0, abstain: 0, declaredConflicts: 0 },
-    appealUntil: null, effectiveDate: decidedOn, decidedOn, recordedAt: `${decidedOn}T12:00:00.000Z`, supersedes: null, note: null,
+    proposal: {
+      reference: `PR-B${String(seq).padStart(6, '0')}`,
+      title: `Conversion of bench field block ${seq}`,
+      proposedUse: USES[seq % USES.length]!,
+      startYear: year + 1,
+    },
+    parcels,
+    areaHa: round(
+      parcels.reduce((s, p) => s + p.areaHa, 0),
+      4,
+    ),
+    region: REGIONS[Math.floor(rnd() * REGIONS.length)]!,
+    outcome,
+    reasons:
+      outcome === 'refused'
+        ? 'The loss of soil carbon outweighs the benefit stated.'
+        : 'Within the authority’s thresholds.',
+    conditions:
+      outcome === 'approved-with-conditions'
+        ? [
+            {
+              text: 'Keep a 6 m grass margin along the watercourse.',
+              dueDate: `${year + 1}-03-31`,
+              checkedBy: 'Field officer',
+            },
+          ]
+        : [],
+    figures: {
+      co2eTotal: co2e,
+      co2eLow: round(co2e * 0.6),
+      co2eHigh: round(co2e * 1.5),
+      socChangeTotal: round(-co2e / 3.67),
+      runs: 1000,
+      gwp: 'AR5',
+      unit: 't CO2e',
+    },
+    risk: { level, label: LABELS[level - 1]! },
+    factorSet: { id: 'ipcc-2006', version: 1 },
+    ruleSet: { id: 'tarrow-screening', version: 1 },
+    assessment: { number: 1 },
+    meeting: { date: decidedOn, place: 'Bench hall' },
+    votes: { approve: 3, approveWithConditions: 0, refuse: 1, defer: 0, abstain: 0, declaredConflicts: 0 },
+    appealUntil: null,
+    effectiveDate: decidedOn,
+    decidedOn,
+    recordedAt: `${decidedOn}T12:00:00.000Z`,
+    supersedes: null,
+    note: null,
   };
 }
 
@@ -58,7 +120,8 @@ function decision(rnd: () => number, seq: number): RegisterContent {
 export async function fillRegister(knex: Knex, target: number): Promise<number> {
   return knex.transaction(async (trx) => {
     await trx.raw('select pg_advisory_xact_lock(?)', [APPEND_LOCK]);
-    const head = (await trx.raw('select seq::int as seq, hash from register_entry order by seq desc limit 1')).rows[0] as { seq: number; hash: string } | undefined;
+    const head = (await trx.raw('select seq::int as seq, hash from register_entry order by seq desc limit 1'))
+      .rows[0] as { seq: number; hash: string } | undefined;
     let [seq, prevHash] = [head?.seq ?? 0, head?.hash ?? GENESIS_HASH];
     const start = seq;
     const rnd = random(seq + 7);
@@ -72,7 +135,14 @@ export async function fillRegister(knex: Knex, target: number): Promise<number> 
         // One entry in forty corrects an earlier decision still in force (a new entry naming it).
         if (seq % 40 === 0 && open.length) {
           const old = open.splice(Math.floor(rnd() * open.length), 1)[0]!;
-          content = { ...contents.get(old)!, kind: 'correction', outcome: 'refused', conditions: [], supersedes: old, note: 'The area was misstated; corrected on review.' };
+          content = {
+            ...contents.get(old)!,
+            kind: 'correction',
+            outcome: 'refused',
+            conditions: [],
+            supersedes: old,
+            note: 'The area was misstated; corrected on review.',
+          };
         } else if (contents.size < 5000) {
           contents.set(seq, content);
           open.push(seq);

@@ -44,7 +44,9 @@ async function load(path: string): Promise<{ times: number[]; bad: number; rps: 
   const times: number[] = [];
   let bad = 0;
   const result = await new Promise<autocannon.Result>((resolve, reject) => {
-    const instance = autocannon({ url: `${BASE}${path}`, connections: 50, duration: SECONDS }, (err, r) => (err ? reject(err) : resolve(r)));
+    const instance = autocannon({ url: `${BASE}${path}`, connections: 50, duration: SECONDS }, (err, r) =>
+      err ? reject(err) : resolve(r),
+    );
     instance.on('response', (_client, status, _bytes, ms) => (status === 200 ? times.push(ms) : bad++));
   });
   return { times, bad: bad + result.errors + result.timeouts, rps: result.requests.average };
@@ -59,29 +61,46 @@ async function list(): Promise<void> {
   for (const path of MIXES) {
     const { times, bad, rps } = await load(path);
     all.push(...times);
-    if (!times.length) { console.log(`  ${path.padEnd(72)} no answer within ${SECONDS} s (${bad} failed)`); continue; }
-    console.log(`  ${path.padEnd(72)} p50 ${pct(times, 50).toFixed(1)} ms, p95 ${pct(times, 95).toFixed(1)} ms, p99 ${pct(times, 99).toFixed(1)} ms, ${rps.toFixed(0)} req/s${bad ? `, ${bad} failed` : ''}`);
+    if (!times.length) {
+      console.log(`  ${path.padEnd(72)} no answer within ${SECONDS} s (${bad} failed)`);
+      continue;
+    }
+    console.log(
+      `  ${path.padEnd(72)} p50 ${pct(times, 50).toFixed(1)} ms, p95 ${pct(times, 95).toFixed(1)} ms, p99 ${pct(times, 99).toFixed(1)} ms, ${rps.toFixed(0)} req/s${bad ? `, ${bad} failed` : ''}`,
+    );
   }
-  console.log(`  list, all mixes: ${all.length} answers, p50 ${pct(all, 50).toFixed(1)} ms, p95 ${pct(all, 95).toFixed(1)} ms (aim: p95 < 50 ms with 50 clients)`);
+  console.log(
+    `  list, all mixes: ${all.length} answers, p50 ${pct(all, 50).toFixed(1)} ms, p95 ${pct(all, 95).toFixed(1)} ms (aim: p95 < 50 ms with 50 clients)`,
+  );
   // The floor on this machine: the cheapest route (one `select 1`) under the same 50 clients, before and after the list.
   const after = await load('/api/health');
   const floor = { times: [...before.times, ...after.times], rps: (before.rps + after.rps) / 2 };
   const ratio = pct(all, 95) / pct(floor.times, 95);
-  console.log(`  for comparison, /api/health under the same load: p50 ${pct(floor.times, 50).toFixed(1)} ms, p95 ${pct(floor.times, 95).toFixed(1)} ms, ${floor.rps.toFixed(0)} req/s; list p95 / health p95 = ${ratio.toFixed(2)}`);
+  console.log(
+    `  for comparison, /api/health under the same load: p50 ${pct(floor.times, 50).toFixed(1)} ms, p95 ${pct(floor.times, 95).toFixed(1)} ms, ${floor.rps.toFixed(0)} req/s; list p95 / health p95 = ${ratio.toFixed(2)}`,
+  );
   const times: number[] = [];
   for (let i = 0; i < 5; i++) {
     const t0 = performance.now();
     await fetch(`${BASE}${SEARCH}`).then((r) => r.text());
     times.push(performance.now() - t0);
   }
-  console.log(`  ${SEARCH} alone, 5 times: p50 ${pct(times, 50).toFixed(1)} ms, max ${Math.max(...times).toFixed(1)} ms`);
+  console.log(
+    `  ${SEARCH} alone, 5 times: p50 ${pct(times, 50).toFixed(1)} ms, max ${Math.max(...times).toFixed(1)} ms`,
+  );
 }
 
 async function verify(): Promise<void> {
   for (const run of ['first', 'second']) {
     const t0 = performance.now();
-    const v = (await (await fetch(`${BASE}/api/register/verify`)).json()) as { ok: boolean; entries: number; firstBrokenEntry: number | null };
-    console.log(`  verify (${run}): ok ${v.ok}, ${v.entries} entries, first broken ${v.firstBrokenEntry}, ${s(performance.now() - t0)} (aim: < 2 s)`);
+    const v = (await (await fetch(`${BASE}/api/register/verify`)).json()) as {
+      ok: boolean;
+      entries: number;
+      firstBrokenEntry: number | null;
+    };
+    console.log(
+      `  verify (${run}): ok ${v.ok}, ${v.entries} entries, first broken ${v.firstBrokenEntry}, ${s(performance.now() - t0)} (aim: < 2 s)`,
+    );
   }
 }
 
@@ -96,7 +115,9 @@ async function csv(server: ReturnType<typeof startServer>): Promise<void> {
     for (const b of chunk) if (b === 10) rows++;
   }
   const ms = performance.now() - t0;
-  console.log(`  csv export: ${rows - 1} rows, ${(bytes / 1e6).toFixed(1)} MB in ${s(ms)} (aim: < 5 s); server RSS before ${before.toFixed(0)} MB, peak during ${server.vm('VmHWM').toFixed(0)} MB`);
+  console.log(
+    `  csv export: ${rows - 1} rows, ${(bytes / 1e6).toFixed(1)} MB in ${s(ms)} (aim: < 5 s); server RSS before ${before.toFixed(0)} MB, peak during ${server.vm('VmHWM').toFixed(0)} MB`,
+  );
 }
 
 await fill();

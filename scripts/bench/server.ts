@@ -16,16 +16,31 @@ export const skipped = (part: string) => (process.env.BENCH_SKIP ?? '').split(/[
 export function startServer() {
   const prof = process.env.BENCH_CPU_PROF ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_CPU_PROF}`] : [];
   const server = spawn(process.execPath, [...prof, `scripts/serve.mjs`], {
-    env: { ...process.env, NODE_ENV: 'production', HOST: '127.0.0.1', PORT: String(PORT), BETTER_AUTH_URL: BASE, MAIL_WORKER: 'off', AUTH_SIGNIN_MAX: '1000' },
+    env: {
+      ...process.env,
+      NODE_ENV: 'production',
+      HOST: '127.0.0.1',
+      PORT: String(PORT),
+      BETTER_AUTH_URL: BASE,
+      MAIL_WORKER: 'off',
+      AUTH_SIGNIN_MAX: '1000',
+    },
     stdio: ['ignore', 'inherit', 'inherit'],
   });
-  const vm = (key: 'VmHWM' | 'VmRSS') => Number(new RegExp(`${key}:\\s+(\\d+)`).exec(readFileSync(`/proc/${server.pid}/status`, 'utf8'))![1]) / 1024;
+  const vm = (key: 'VmHWM' | 'VmRSS') =>
+    Number(new RegExp(`${key}:\\s+(\\d+)`).exec(readFileSync(`/proc/${server.pid}/status`, 'utf8'))![1]) / 1024;
   /** Resets the peak (VmHWM) to the current RSS (Linux clear_refs "5"), so a later peak belongs to one step. */
   const resetPeak = () => writeFileSync(`/proc/${server.pid}/clear_refs`, '5');
   async function up(): Promise<void> {
     for (let i = 0; i < 150; i++) {
       if (server.exitCode !== null) throw new Error('the server exited');
-      if (await fetch(`${BASE}/api/health`).then((r) => r.ok, () => false)) return;
+      if (
+        await fetch(`${BASE}/api/health`).then(
+          (r) => r.ok,
+          () => false,
+        )
+      )
+        return;
       await new Promise((r) => setTimeout(r, 200));
     }
     throw new Error('the server did not start');
@@ -34,19 +49,36 @@ export function startServer() {
 }
 
 export async function session(email: string): Promise<string> {
-  const r = await fetch(`${BASE}/api/auth/sign-in/email`, { method: 'POST', headers: { 'content-type': 'application/json', origin: BASE }, body: JSON.stringify({ email, password: 'meadow-lark-2026' }) });
+  const r = await fetch(`${BASE}/api/auth/sign-in/email`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json', origin: BASE },
+    body: JSON.stringify({ email, password: 'meadow-lark-2026' }),
+  });
   if (!r.ok) throw new Error(`sign-in ${email}: ${r.status}`);
-  return r.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+  return r.headers
+    .getSetCookie()
+    .map((c) => c.split(';')[0])
+    .join('; ');
 }
 
-export async function call<T>(cookie: string, method: string, path: string, body?: unknown): Promise<{ data: T; ms: number; headers: Headers; bytes: number }> {
+export async function call<T>(
+  cookie: string,
+  method: string,
+  path: string,
+  body?: unknown,
+): Promise<{ data: T; ms: number; headers: Headers; bytes: number }> {
   const t0 = performance.now();
   const isForm = body instanceof FormData;
-  const r = await fetch(`${BASE}${path}`, { method, headers: { cookie, origin: BASE, ...(body && !isForm ? { 'content-type': 'application/json' } : {}) }, body: isForm ? body : body ? JSON.stringify(body) : undefined });
+  const r = await fetch(`${BASE}${path}`, {
+    method,
+    headers: { cookie, origin: BASE, ...(body && !isForm ? { 'content-type': 'application/json' } : {}) },
+    body: isForm ? body : body ? JSON.stringify(body) : undefined,
+  });
   const text = await r.text();
   if (!r.ok) throw new Error(`${method} ${path}: ${r.status} ${text.slice(0, 300)}`);
   return { data: text ? JSON.parse(text) : null, ms: performance.now() - t0, headers: r.headers, bytes: text.length };
 }
 
-export const pct = (xs: number[], p: number) => [...xs].sort((a, b) => a - b)[Math.min(xs.length - 1, Math.ceil((p / 100) * xs.length) - 1)]!;
+export const pct = (xs: number[], p: number) =>
+  [...xs].sort((a, b) => a - b)[Math.min(xs.length - 1, Math.ceil((p / 100) * xs.length) - 1)]!;
 export const s = (ms: number) => `${(ms / 1000).toFixed(2)} s`;

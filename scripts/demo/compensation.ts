@@ -33,33 +33,70 @@ async function freeParcel(landUse: string): Promise<{ id: number; reference: str
   return r.rows[0];
 }
 
-export async function seedDemoCompensation(emails: { planner: string; assessor: string; board: string; chair: string }): Promise<string> {
+export async function seedDemoCompensation(emails: {
+  planner: string;
+  assessor: string;
+  board: string;
+  chair: string;
+}): Promise<string> {
   if (await db('compensation_site').first()) return 'compensation demo not added (compensation sites exist)';
-  const [planner, assessor, board, chair] = await Promise.all([caller(emails.planner), caller(emails.assessor), caller(emails.board), caller(emails.chair)]);
+  const [planner, assessor, board, chair] = await Promise.all([
+    caller(emails.planner),
+    caller(emails.assessor),
+    caller(emails.board),
+    caller(emails.chair),
+  ]);
   const field = await freeParcel('grassland');
   const arable = await freeParcel('arable');
   const today = new Date().toISOString().slice(0, 10);
   const effective = addDays(today, -730);
 
   const p = await createProposal(planner, {
-    title: `Spring cereals on ${field.reference}, ${arable.reference} back to grass`, startYear: Number(effective.slice(0, 4)),
+    title: `Spring cereals on ${field.reference}, ${arable.reference} back to grass`,
+    startYear: Number(effective.slice(0, 4)),
     description: `Grass field ${field.reference} into a spring cereal rotation; the applicant offers to sow arable field ${arable.reference} to permanent grass in return.`,
-    parcels: [{ parcelId: field.id }] as never, proposed: CROP,
+    parcels: [{ parcelId: field.id }] as never,
+    proposed: CROP,
     applicant: { name: 'Edda Thornquist', contact: 'edda.thornquist@fenbrook-farm.example', interest: 'owner' },
   });
   const v = (await db('proposal').where({ id: p.id }).first()).version;
   await transitionProposal(planner, p.id, { to: 'submitted', version: v });
-  const a = await runAssessment(assessor, p.id, { sharePercent: 50, seed: 1, compensationParcelId: arable.id } as never);
-  await signOff(assessor, a.id, { findings: `A typical loss for the district; restoring ${arable.reference} to grass offsets part of it over the transition period, provided it stays in grass.`, version: a.version });
-  const m = await createMeeting(chair, { date: addDays(effective, -29), place: 'Tarrow Hall, council room', proposalIds: [p.id] });
+  const a = await runAssessment(assessor, p.id, {
+    sharePercent: 50,
+    seed: 1,
+    compensationParcelId: arable.id,
+  } as never);
+  await signOff(assessor, a.id, {
+    findings: `A typical loss for the district; restoring ${arable.reference} to grass offsets part of it over the transition period, provided it stays in grass.`,
+    version: a.version,
+  });
+  const m = await createMeeting(chair, {
+    date: addDays(effective, -29),
+    place: 'Tarrow Hall, council room',
+    proposalIds: [p.id],
+  });
   const item = m.items.find((i) => i.proposalId === p.id)!;
   for (const who of [board, chair]) await castVote(who, m.id, item.id, { choice: 'approve' });
   const d = await recordDecision(chair, m.id, item.id, {
-    outcome: 'approved', conditions: [], effectiveDate: effective,
+    outcome: 'approved',
+    conditions: [],
+    effectiveDate: effective,
     reasons: `Approved with the restoration of ${arable.reference} to permanent grass as compensation, as the assessment weighed it.`,
   });
-  await recordEvent(planner, arable.id, { date: addDays(effective, 30), kind: 'land-use', value: 'grassland', cultivation: false, evidence: 'Field officer visit: grass and clover ley established (demo)' });
-  const ploughed = await recordEvent(planner, arable.id, { date: addDays(today, -365), kind: 'tillage', value: 'ploughing', cultivation: false, evidence: 'Field officer visit: the field has been ploughed and drilled with barley (demo)' });
+  await recordEvent(planner, arable.id, {
+    date: addDays(effective, 30),
+    kind: 'land-use',
+    value: 'grassland',
+    cultivation: false,
+    evidence: 'Field officer visit: grass and clover ley established (demo)',
+  });
+  const ploughed = await recordEvent(planner, arable.id, {
+    date: addDays(today, -365),
+    kind: 'tillage',
+    value: 'ploughing',
+    cultivation: false,
+    evidence: 'Field officer visit: the field has been ploughed and drilled with barley (demo)',
+  });
   const reversal = 'compensationReversedBy' in ploughed ? ploughed.compensationReversedBy?.[0] : undefined;
   return `compensation demo added: ${p.reference} approved (register entry ${d.registerSeq}), compensation parcel ${arable.reference} ploughed, reversed in entry ${reversal ?? 'none'}`;
 }

@@ -27,7 +27,16 @@ const LAYERS = [
   { file: 'districts.geojson', kind: 'region', labelAttribute: 'name' },
 ] as const;
 
-const PARCEL_MAPPING = { reference: 'field_ref', name: 'name', landUse: 'land_use', management: 'management', lastTillage: 'last_till', ownerRef: 'owner_ref', statedArea: 'stated_ha', statedAreaUnit: 'ha' };
+const PARCEL_MAPPING = {
+  reference: 'field_ref',
+  name: 'name',
+  landUse: 'land_use',
+  management: 'management',
+  lastTillage: 'last_till',
+  ownerRef: 'owner_ref',
+  statedArea: 'stated_ha',
+  statedAreaUnit: 'ha',
+};
 
 export async function caller(email: string): Promise<Caller> {
   const u = await db('user').where({ email }).first();
@@ -36,7 +45,11 @@ export async function caller(email: string): Promise<Caller> {
 }
 
 async function importFile(by: Caller, purpose: UploadPurpose, file: string, mapping: Record<string, unknown>) {
-  const staged = await stageUpload(by, { purpose, fileName: file, bytes: new Uint8Array(readFileSync(new URL(file, DEMO_DIR))) });
+  const staged = await stageUpload(by, {
+    purpose,
+    fileName: file,
+    bytes: new Uint8Array(readFileSync(new URL(file, DEMO_DIR))),
+  });
   const layer = staged.layers[0]!;
   const report = await validateUpload(by, staged.id, { layer: layer.name, mapping });
   const saved = await saveUpload(by, staged.id);
@@ -58,7 +71,13 @@ async function addHistories(by: Caller): Promise<number> {
      ) d`,
     [evidence, by.id],
   );
-  await recordAudit(db, { actorId: by.id, action: 'parcel.seed-history', entityType: 'parcel', entityId: 'demo', details: { events: r.rowCount } });
+  await recordAudit(db, {
+    actorId: by.id,
+    action: 'parcel.seed-history',
+    entityType: 'parcel',
+    entityId: 'demo',
+    details: { events: r.rowCount },
+  });
   return r.rowCount ?? 0;
 }
 
@@ -70,7 +89,11 @@ export const DEMO_REFERENCE_RATIOS = { skarrow: 0.82, fenbrook: 0.72, tembiri: 0
 
 async function addReferenceRatios(by: Caller): Promise<void> {
   for (const [key, ratio] of Object.entries(DEMO_REFERENCE_RATIOS)) {
-    await enterReferenceRatio(by, key, { referenceYear: 2018, ratio, source: 'Upper Tarrow farm census 2018, table 3 (invented demo figure)' });
+    await enterReferenceRatio(by, key, {
+      referenceYear: 2018,
+      ratio,
+      source: 'Upper Tarrow farm census 2018, table 3 (invented demo figure)',
+    });
   }
 }
 
@@ -81,7 +104,11 @@ export async function seedDemoRegion(adminEmail: string, plannerEmail: string): 
   const admin = await caller(adminEmail);
   const planner = await caller(plannerEmail);
   for (const l of LAYERS) {
-    const { saved } = await importFile(admin, 'reference', l.file, { kind: l.kind, classAttribute: 'class', ...('labelAttribute' in l ? { labelAttribute: l.labelAttribute } : {}) });
+    const { saved } = await importFile(admin, 'reference', l.file, {
+      kind: l.kind,
+      classAttribute: 'class',
+      ...('labelAttribute' in l ? { labelAttribute: l.labelAttribute } : {}),
+    });
     await publishLayerVersion(admin, saved.referenceVersion!.id, 'Demo region (invented)');
   }
   const cm = await importFile(planner, 'parcels', 'corrowmere-parcels-utm28n.zip', PARCEL_MAPPING);

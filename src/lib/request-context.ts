@@ -8,6 +8,8 @@ import type { AsyncLocalStorage } from 'node:async_hooks';
 export type RequestRecord = { id: string; route: string | null };
 
 export function requestRecord(): RequestRecord | undefined {
-  const store = (globalThis as unknown as Record<symbol, AsyncLocalStorage<RequestRecord> | undefined>)[Symbol.for('swardkeep.request-context')];
+  const store = (globalThis as unknown as Record<symbol, AsyncLocalStorage<RequestRecord> | undefined>)[
+    Symbol.for('swardkeep.request-context')
+  ];
   return store?.getStore();
 }

@@ -40,7 +40,10 @@ export const ROLE_HOMES: Record<Role, RoleHome> = {
   board: {
     title: 'Board room',
     intro: 'You read assessed proposals and vote on them.',
-    duties: ['Read the board pack for each agenda item: map, figures, risk reasons and alternatives.', 'Vote, and see the register of earlier decisions.'],
+    duties: [
+      'Read the board pack for each agenda item: map, figures, risk reasons and alternatives.',
+      'Vote, and see the register of earlier decisions.',
+    ],
     links: [
       { href: '/board', label: 'Board meetings and their packs' },
       { href: '/proposals?state=assessed', label: 'Assessed proposals' },
@@ -50,7 +53,10 @@ export const ROLE_HOMES: Record<Role, RoleHome> = {
   chair: {
     title: 'Chair’s desk',
     intro: 'You lead the board and record its decisions.',
-    duties: ['Record decisions with reasons, conditions, monitoring dates and the appeal window.', 'Keep cumulative grassland loss and committed emissions within the authority’s limits.'],
+    duties: [
+      'Record decisions with reasons, conditions, monitoring dates and the appeal window.',
+      'Keep cumulative grassland loss and committed emissions within the authority’s limits.',
+    ],
     links: [
       { href: '/board', label: 'Build a meeting and record decisions' },
       { href: '/proposals?state=assessed', label: 'Assessed proposals' },
@@ -61,7 +67,11 @@ export const ROLE_HOMES: Record<Role, RoleHome> = {
   admin: {
     title: 'Administration',
     intro: 'You keep the system and its reference data in order.',
-    duties: ['Invite users and manage their roles.', 'Maintain factor sets, reference map layers and the authority’s rules.', 'Read the audit log and the outgoing mail.'],
+    duties: [
+      'Invite users and manage their roles.',
+      'Maintain factor sets, reference map layers and the authority’s rules.',
+      'Read the audit log and the outgoing mail.',
+    ],
     links: [
       { href: '/admin/users', label: 'Users' },
       { href: '/proposals', label: 'Proposals' },

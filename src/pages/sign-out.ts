@@ -10,7 +10,14 @@ export const POST: APIRoute = async (ctx) => {
     const res = await auth.api.signOut({ headers: ctx.request.headers, asResponse: true });
     for (const c of res.headers.getSetCookie()) headers.append('set-cookie', c);
     const { id } = ctx.locals.user;
-    if (res.ok) await recordAudit(db, { actorId: id, action: 'user.sign-out', entityType: 'user', entityId: id, details: { ip: ctx.clientAddress } });
+    if (res.ok)
+      await recordAudit(db, {
+        actorId: id,
+        action: 'user.sign-out',
+        entityType: 'user',
+        entityId: id,
+        details: { ip: ctx.clientAddress },
+      });
   }
   return new Response(null, { status: 303, headers });
 };

@@ -21,23 +21,36 @@ describe('role changes', () => {
     expect(user.version).toBe(1);
     const noVersion = await api('PATCH', `/api/users/${user.id}`, { session: admin, body: { roles: ['board'] } });
     expect(noVersion.status).toBe(422);
-    const first = await api('PATCH', `/api/users/${user.id}`, { session: admin, body: { version: 1, roles: ['planner', 'board'] } });
+    const first = await api('PATCH', `/api/users/${user.id}`, {
+      session: admin,
+      body: { version: 1, roles: ['planner', 'board'] },
+    });
     expect(first.status).toBe(200);
     expect(first.body).toMatchObject({ roles: ['planner', 'board'], version: 2 });
-    const stale = await api('PATCH', `/api/users/${user.id}`, { session: admin, body: { version: 1, roles: ['planner'] } });
+    const stale = await api('PATCH', `/api/users/${user.id}`, {
+      session: admin,
+      body: { version: 1, roles: ['planner'] },
+    });
     expect(stale.status).toBe(409);
     expect(stale.body.error.message).toMatch(/Teasel Grange was changed by someone else/);
-    const now = (await api('GET', '/api/users', { session: admin })).body.items.find((u: { id: string }) => u.id === user.id);
+    const now = (await api('GET', '/api/users', { session: admin })).body.items.find(
+      (u: { id: string }) => u.id === user.id,
+    );
     expect(now.roles).toEqual(['planner', 'board']);
     // Undo is a change like any other, from the version now read.
-    const undo = await api('PATCH', `/api/users/${user.id}`, { session: admin, body: { version: 2, roles: ['planner'] } });
+    const undo = await api('PATCH', `/api/users/${user.id}`, {
+      session: admin,
+      body: { version: 2, roles: ['planner'] },
+    });
     expect(undo.body).toMatchObject({ roles: ['planner'], version: 3 });
   });
 
   it('are audited as the fields changed, before and after', async () => {
     const { admin, user } = await invite('Burnet Hale');
     await api('PATCH', `/api/users/${user.id}`, { session: admin, body: { version: 1, roles: ['board'] } });
-    const log = await api('GET', `/api/audit?action=user.update&entityType=user&entityId=${user.id}`, { session: admin });
+    const log = await api('GET', `/api/audit?action=user.update&entityType=user&entityId=${user.id}`, {
+      session: admin,
+    });
     expect(log.status).toBe(200);
     expect(log.body.total).toBe(1);
     expect(log.body.items[0].details).toEqual({ before: { roles: ['planner'] }, after: { roles: ['board'] } });
@@ -47,16 +60,27 @@ describe('role changes', () => {
 describe('audit log query', () => {
   it('filters by action, actor, days and record, and pages on the server', async () => {
     const { admin, user } = await invite('Sorrel Voss');
-    for (let v = 1; v <= 3; v++) await api('PATCH', `/api/users/${user.id}`, { session: admin, body: { version: v, roles: v % 2 ? ['board'] : ['planner'] } });
+    for (let v = 1; v <= 3; v++)
+      await api('PATCH', `/api/users/${user.id}`, {
+        session: admin,
+        body: { version: v, roles: v % 2 ? ['board'] : ['planner'] },
+      });
     const base = `/api/audit?entityType=user&entityId=${user.id}`;
     const all = await api('GET', base, { session: admin });
     expect(all.body.total).toBe(4); // the invitation and three changes
-    expect(all.body.items.map((e: { action: string }) => e.action)).toEqual(['user.update', 'user.update', 'user.update', 'user.invite']);
+    expect(all.body.items.map((e: { action: string }) => e.action)).toEqual([
+      'user.update',
+      'user.update',
+      'user.update',
+      'user.invite',
+    ]);
 
     const p1 = await api('GET', `${base}&pageSize=2&page=1`, { session: admin });
     const p2 = await api('GET', `${base}&pageSize=2&page=2`, { session: admin });
     expect(p1.body).toMatchObject({ total: 4, page: 1, pageSize: 2 });
-    expect([...p1.body.items, ...p2.body.items].map((e: { id: number }) => e.id)).toEqual(all.body.items.map((e: { id: number }) => e.id));
+    expect([...p1.body.items, ...p2.body.items].map((e: { id: number }) => e.id)).toEqual(
+      all.body.items.map((e: { id: number }) => e.id),
+    );
 
     const me = (await api('GET', '/api/me', { session: admin })).body;
     expect((await api('GET', `${base}&actor=${me.id}&action=user.invite`, { session: admin })).body.total).toBe(1);
@@ -71,7 +95,9 @@ describe('audit log query', () => {
   it('documents its filters in OpenAPI', async () => {
     const doc = (await api('GET', '/api/openapi.json')).body;
     const names = doc.paths['/api/audit'].get.parameters.map((p: { name: string }) => p.name);
-    expect(names).toEqual(expect.arrayContaining(['action', 'actor', 'from', 'to', 'entityType', 'entityId', 'page', 'pageSize']));
+    expect(names).toEqual(
+      expect.arrayContaining(['action', 'actor', 'from', 'to', 'entityType', 'entityId', 'page', 'pageSize']),
+    );
   });
 
   it('is for administrators only', async () => {
@@ -92,9 +118,15 @@ describe('map words', () => {
     expect(one.body.label).toBe(upload.label);
     expect(one.body.count).toBe(upload.count);
     expect(one.body.parcels.length).toBe(Math.min(upload.count, 2000));
-    expect(one.body.parcels[0]).toMatchObject({ id: expect.any(Number), reference: expect.any(String), geometry: { type: 'MultiPolygon' } });
+    expect(one.body.parcels[0]).toMatchObject({
+      id: expect.any(Number),
+      reference: expect.any(String),
+      geometry: { type: 'MultiPolygon' },
+    });
     expect(JSON.stringify(one.body)).not.toMatch(/owner/i);
-    expect((await api('GET', '/api/map/uploads/00000000-0000-4000-8000-000000000000', { session: planner })).status).toBe(404);
+    expect(
+      (await api('GET', '/api/map/uploads/00000000-0000-4000-8000-000000000000', { session: planner })).status,
+    ).toBe(404);
     expect((await api('GET', '/api/map/uploads/not-a-uuid', { session: planner })).status).toBe(422);
     expect((await api('GET', `/api/map/uploads/${upload.id}`)).status).toBe(401);
   });

@@ -12,14 +12,17 @@ import { allowSignOff, assess, drawParcel, fileProposal, freeBox, rect, submit }
 
 let planner: Session, assessor: Session, admin: Session, board: Session;
 beforeAll(async () => {
-  [planner, assessor, admin, board] = await Promise.all([DEMO.planner, DEMO.assessor, DEMO.admin, DEMO.board].map((e) => signIn(e)));
+  [planner, assessor, admin, board] = await Promise.all(
+    [DEMO.planner, DEMO.assessor, DEMO.admin, DEMO.board].map((e) => signIn(e)),
+  );
 });
 afterAll(async () => {
   await testDb('app_setting').where({ key: 'assessment.allow-unconfirmed-sign-off' }).delete();
   await testDb.destroy();
 });
 
-const relWidth = (t: { co2eLow: number; co2eHigh: number; co2eTotal: number }) => (t.co2eHigh - t.co2eLow) / t.co2eTotal;
+const relWidth = (t: { co2eLow: number; co2eHigh: number; co2eTotal: number }) =>
+  (t.co2eHigh - t.co2eLow) / t.co2eTotal;
 
 describe('figures', () => {
   it('a parcel across the spodic/HAC boundary: fractions worked out by hand, estimate equal to POST /api/estimates', async () => {
@@ -34,7 +37,9 @@ describe('figures', () => {
     const a = res.body;
     const parcel = a.parcels[0];
     expect(parcel.request.climate).toBe('cool-temperate-moist');
-    const soils = Object.fromEntries(parcel.request.soils.map((s: { type: string; fraction: number }) => [s.type, s.fraction]));
+    const soils = Object.fromEntries(
+      parcel.request.soils.map((s: { type: string; fraction: number }) => [s.type, s.fraction]),
+    );
     // To 0.5 %: the layer edges are straight between points digitised every 100 m, the parcel's between its corners.
     expect(soils.spodic).toBeCloseTo(0.6, 2);
     expect(soils.hac).toBeCloseTo(0.4, 2);
@@ -44,7 +49,9 @@ describe('figures', () => {
     expect(direct.status).toBe(200);
     expect(parcel.estimate).toEqual(direct.body);
     // Read back later, each parcel's estimate is rebuilt from its stored request with the pinned set: the same.
-    expect((await api('GET', `/api/assessments/${a.id}`, { session: board })).body.parcels[0].estimate).toEqual(direct.body);
+    expect((await api('GET', `/api/assessments/${a.id}`, { session: board })).body.parcels[0].estimate).toEqual(
+      direct.body,
+    );
     // One parcel: the total is the parcel.
     expect(a.totals.co2eTotal).toBe(parcel.estimate.co2eTotal);
     expect(a.totals.co2eLow).toBeLessThan(a.totals.co2eTotal);
@@ -78,8 +85,10 @@ describe('figures', () => {
     for (const p of [pair, single]) await submit(planner, p.id);
     const a = (await assess(assessor, pair.id)).body;
     const b = (await assess(assessor, single.id)).body;
-    const sum = (k: string) => a.parcels.reduce((s: number, p: { estimate: Record<string, number> }) => s + p.estimate[k]!, 0);
-    for (const k of ['socChangeTotal', 'biomassChangeTotal', 'n2oTotal', 'co2eTotal']) expect(a.totals[k]).toBeCloseTo(sum(k), 9);
+    const sum = (k: string) =>
+      a.parcels.reduce((s: number, p: { estimate: Record<string, number> }) => s + p.estimate[k]!, 0);
+    for (const k of ['socChangeTotal', 'biomassChangeTotal', 'n2oTotal', 'co2eTotal'])
+      expect(a.totals[k]).toBeCloseTo(sum(k), 9);
     // Same soil and climate: a factor is one uncertain quantity for the whole inventory (IPCC 2006 Vol 1 Ch 3),
     // so doubling the area scales every run and the relative width stays the same.
     expect(relWidth(a.totals)).toBeCloseTo(relWidth(b.totals), 9);
@@ -102,7 +111,10 @@ describe('figures', () => {
     expect(a.parcels[0].request).toBeNull();
     expect(a.parcels[0].problems[0]).toMatch(/(59\.\d|60\.\d) % of the parcel lies outside every unit of the soil/);
     expect(a.blocking.join(' ')).toMatch(/(59\.\d|60\.\d) % of the parcel lies outside/);
-    const signed = await api('POST', `/api/assessments/${a.id}/sign-off`, { session: assessor, body: { findings: 'Trying to sign with a gap.', version: a.version } });
+    const signed = await api('POST', `/api/assessments/${a.id}/sign-off`, {
+      session: assessor,
+      body: { findings: 'Trying to sign with a gap.', version: a.version },
+    });
     expect(signed.status).toBe(409);
   });
 
@@ -112,11 +124,28 @@ describe('figures', () => {
     await submit(planner, p.id);
     const first = (await assess(assessor, p.id)).body;
     expect(first.parcels[0].problems[0]).toMatch(/Recorded as woodland/);
-    const noReason = await assess(assessor, p.id, { version: first.version, currentStates: [{ parcelId: id, state: { landUse: 'grassland', management: 'nominal', input: 'medium' }, reason: '' }] });
+    const noReason = await assess(assessor, p.id, {
+      version: first.version,
+      currentStates: [
+        { parcelId: id, state: { landUse: 'grassland', management: 'nominal', input: 'medium' }, reason: '' },
+      ],
+    });
     expect(noReason.status).toBe(422);
-    const chosen = await assess(assessor, p.id, { version: first.version, currentStates: [{ parcelId: id, state: { landUse: 'grassland', management: 'nominal', input: 'medium' }, reason: 'Site visit 3 March: wood pasture, grazed grass under scattered trees.' }] });
+    const chosen = await assess(assessor, p.id, {
+      version: first.version,
+      currentStates: [
+        {
+          parcelId: id,
+          state: { landUse: 'grassland', management: 'nominal', input: 'medium' },
+          reason: 'Site visit 3 March: wood pasture, grazed grass under scattered trees.',
+        },
+      ],
+    });
     expect(chosen.status).toBe(200);
-    expect(chosen.body.parcels[0].currentState).toEqual({ source: 'assessor', note: expect.stringMatching(/Site visit/) });
+    expect(chosen.body.parcels[0].currentState).toEqual({
+      source: 'assessor',
+      note: expect.stringMatching(/Site visit/),
+    });
     expect(chosen.body.number).toBe(first.number);
     const stale = await assess(assessor, p.id, { version: first.version });
     expect(stale.status).toBe(409);
@@ -127,26 +156,51 @@ describe('splitting a conversion on one holding', () => {
   it('two proposals on one holding, each under 2 ha, together over it: caught on the second', async () => {
     // Two permanent-grassland fields of holding HLD-T-SPLIT (in grass since the last ploughing in 2008).
     const boxes = [await freeBox(150), await freeBox(150)];
-    const features = boxes.map((b, i) => ({ type: 'Feature', properties: { ref: `T-SPLIT-${Date.now()}-${i}`, owner: 'HLD-T-SPLIT', use: 'grassland', till: '2008-04-10' }, geometry: rect(b) }));
+    const features = boxes.map((b, i) => ({
+      type: 'Feature',
+      properties: { ref: `T-SPLIT-${Date.now()}-${i}`, owner: 'HLD-T-SPLIT', use: 'grassland', till: '2008-04-10' },
+      geometry: rect(b),
+    }));
     const staged = await uploadFile(planner, 'split.geojson', JSON.stringify({ type: 'FeatureCollection', features }));
-    const report = await api('POST', `/api/uploads/${staged.body.id}/validation`, { session: planner, body: { layer: staged.body.layers[0].name, mapping: { reference: 'ref', ownerRef: 'owner', landUse: 'use', lastTillage: 'till' } } });
+    const report = await api('POST', `/api/uploads/${staged.body.id}/validation`, {
+      session: planner,
+      body: {
+        layer: staged.body.layers[0].name,
+        mapping: { reference: 'ref', ownerRef: 'owner', landUse: 'use', lastTillage: 'till' },
+      },
+    });
     expect(report.body.summary.rejected).toBe(0);
     expect((await api('POST', `/api/uploads/${staged.body.id}/save`, { session: planner })).status).toBe(201);
-    const ids = await Promise.all(features.map(async (f) => Number((await testDb('parcel').where({ reference: f.properties.ref }).first()).id)));
+    const ids = await Promise.all(
+      features.map(async (f) => Number((await testDb('parcel').where({ reference: f.properties.ref }).first()).id)),
+    );
     // Their history: in grass since 2008 (recorded from the farm's records), so permanent grassland
     // (Reg. (EU) 2021/2115 Art. 4(3)(c): not in the crop rotation for 5 years or more).
     for (const id of ids) {
-      const ev = await api('POST', `/api/parcels/${id}/events`, { session: planner, body: { date: '2008-05-01', kind: 'land-use', value: 'grassland', evidence: 'Farm records, reseeded after ploughing in April 2008' } });
+      const ev = await api('POST', `/api/parcels/${id}/events`, {
+        session: planner,
+        body: {
+          date: '2008-05-01',
+          kind: 'land-use',
+          value: 'grassland',
+          evidence: 'Farm records, reseeded after ploughing in April 2008',
+        },
+      });
       expect(ev.status, JSON.stringify(ev.body)).toBe(201);
     }
     // 1.2 ha on each (100 m x 120 m inside the 150 m squares): each under 2 ha, together 2.4 ha.
     const part = (b: number[]) => rect([b[0]! + 10, b[1]! + 10, b[0]! + 110, b[1]! + 130]);
-    const first = await fileProposal(planner, [{ parcelId: ids[0]!, part: part(boxes[0]!) }], { title: 'North paddock to barley' });
+    const first = await fileProposal(planner, [{ parcelId: ids[0]!, part: part(boxes[0]!) }], {
+      title: 'North paddock to barley',
+    });
     await submit(planner, first.id);
     const a1 = (await assess(assessor, first.id)).body;
-    const holding = (a: { grade: { reasons: { rule: string; text: string }[] } }) => a.grade.reasons.find((r) => r.rule === 'holding-cumulative-2ha');
+    const holding = (a: { grade: { reasons: { rule: string; text: string }[] } }) =>
+      a.grade.reasons.find((r) => r.rule === 'holding-cumulative-2ha');
     expect(holding(a1)).toBeUndefined();
-    const second = await fileProposal(planner, [{ parcelId: ids[1]!, part: part(boxes[1]!) }], { title: 'South paddock to barley' });
+    const second = await fileProposal(planner, [{ parcelId: ids[1]!, part: part(boxes[1]!) }], {
+      title: 'South paddock to barley',
+    });
     await submit(planner, second.id);
     const a2 = (await assess(assessor, second.id)).body;
     // England EIA (Agriculture) (No.2) Regulations 2006 (SI 2006/2522) reg. 5 / Sch. 1: 2 ha of uncultivated land,
@@ -168,25 +222,43 @@ describe('sign-off, versions and reproduction', () => {
     await submit(planner, p.id);
     const a = (await assess(assessor, p.id)).body;
     expect(a.signOffReady).toBe(false);
-    const refused = await api('POST', `/api/assessments/${a.id}/sign-off`, { session: assessor, body: { findings: 'Grassland of ordinary value; the loss is typical.', version: a.version } });
+    const refused = await api('POST', `/api/assessments/${a.id}/sign-off`, {
+      session: assessor,
+      body: { findings: 'Grassland of ordinary value; the loss is typical.', version: a.version },
+    });
     expect(refused.status).toBe(409);
     expect(refused.body.error.message).toMatch(/not yet confirmed by this authority/);
     await allowSignOff();
     const again = (await assess(assessor, p.id, { version: a.version })).body;
     expect(again.blocking).toEqual([]);
-    expect((await api('POST', `/api/assessments/${a.id}/sign-off`, { session: board, body: { findings: 'Not my job to sign.', version: again.version } })).status).toBe(403);
-    const signed = await api('POST', `/api/assessments/${a.id}/sign-off`, { session: assessor, body: { findings: 'Grassland of ordinary value; the loss is typical.', version: again.version } });
+    expect(
+      (
+        await api('POST', `/api/assessments/${a.id}/sign-off`, {
+          session: board,
+          body: { findings: 'Not my job to sign.', version: again.version },
+        })
+      ).status,
+    ).toBe(403);
+    const signed = await api('POST', `/api/assessments/${a.id}/sign-off`, {
+      session: assessor,
+      body: { findings: 'Grassland of ordinary value; the loss is typical.', version: again.version },
+    });
     expect(signed.status, JSON.stringify(signed.body)).toBe(200);
     expect(signed.body).toMatchObject({ status: 'signed', proposalState: 'assessed' });
     await waitForMail(DEMO.planner, new RegExp(`Assessment of ${p.reference} signed off`));
     await waitForMail(DEMO.chair, new RegExp(`Assessment of ${p.reference} signed off`));
     // Frozen: the database refuses any change to a signed assessment.
-    await expect(testDb('assessment').where({ id: a.id }).update({ co2e_total: 0 })).rejects.toThrow(/signed and frozen/);
+    await expect(testDb('assessment').where({ id: a.id }).update({ co2e_total: 0 })).rejects.toThrow(
+      /signed and frozen/,
+    );
     // A re-assessment is a new version; the signed one stays readable.
     const v2 = await assess(assessor, p.id, { reason: 'The applicant sent a soil survey.' });
     expect(v2.body.number).toBe(2);
     const list = (await api('GET', `/api/proposals/${p.id}/assessments`, { session: board })).body.items;
-    expect(list.map((x: { number: number; status: string }) => [x.number, x.status])).toEqual([[2, 'draft'], [1, 'signed']]);
+    expect(list.map((x: { number: number; status: string }) => [x.number, x.status])).toEqual([
+      [2, 'draft'],
+      [1, 'signed'],
+    ]);
   });
 
   it('a signed assessment re-run with its pinned versions gives identical figures after newer factor and rule sets are published', async () => {
@@ -197,34 +269,117 @@ describe('sign-off, versions and reproduction', () => {
       expect(res.status, JSON.stringify(res.body)).toBe(status);
       return res;
     };
-    await ok(api('POST', '/api/factor-sets', { session: admin, body: { from: { id: 'ipcc-2006' }, id: setId, title: 'Reproduction test set', description: 'A copy', reason: 'Reproduction test of pinned versions.' } }), 201);
+    await ok(
+      api('POST', '/api/factor-sets', {
+        session: admin,
+        body: {
+          from: { id: 'ipcc-2006' },
+          id: setId,
+          title: 'Reproduction test set',
+          description: 'A copy',
+          reason: 'Reproduction test of pinned versions.',
+        },
+      }),
+      201,
+    );
     await ok(api('POST', `/api/factor-sets/${setId}/publish`, { session: admin, body: { note: 'As shipped' } }));
-    await ok(api('POST', '/api/rule-sets', { session: admin, body: { from: { id: 'tarrow-screening' }, id: rulesId, title: 'Reproduction rules', description: 'A copy', reason: 'Reproduction test of pinned versions.' } }), 201);
-    await ok(api('POST', `/api/rule-sets/${rulesId}/publish`, { session: admin, body: { note: 'As shipped', revision: 1 } }));
+    await ok(
+      api('POST', '/api/rule-sets', {
+        session: admin,
+        body: {
+          from: { id: 'tarrow-screening' },
+          id: rulesId,
+          title: 'Reproduction rules',
+          description: 'A copy',
+          reason: 'Reproduction test of pinned versions.',
+        },
+      }),
+      201,
+    );
+    await ok(
+      api('POST', `/api/rule-sets/${rulesId}/publish`, { session: admin, body: { note: 'As shipped', revision: 1 } }),
+    );
     await allowSignOff();
     const id = await drawParcel(planner);
     const p = await fileProposal(planner, [{ parcelId: id }]);
     await submit(planner, p.id);
-    const a = (await assess(assessor, p.id, { factorSet: setId, ruleSet: rulesId, overrideReason: 'Testing reproduction with a copy of the set.' })).body;
+    const a = (
+      await assess(assessor, p.id, {
+        factorSet: setId,
+        ruleSet: rulesId,
+        overrideReason: 'Testing reproduction with a copy of the set.',
+      })
+    ).body;
     expect(a.factorSet).toEqual({ id: setId, version: 1 });
-    await ok(api('POST', `/api/assessments/${a.id}/sign-off`, { session: assessor, body: { findings: 'Signed for the reproduction test.', version: a.version } }), 200);
+    await ok(
+      api('POST', `/api/assessments/${a.id}/sign-off`, {
+        session: assessor,
+        body: { findings: 'Signed for the reproduction test.', version: a.version },
+      }),
+      200,
+    );
 
     // Newer versions: a changed reference stock, a lower CO2e threshold.
-    const socKey = a.parcels[0].estimate.factors.find((f: { key: string }) => f.key.startsWith('soc-ref/')).key.split('/').slice(1).join('/');
+    const socKey = a.parcels[0].estimate.factors
+      .find((f: { key: string }) => f.key.startsWith('soc-ref/'))
+      .key.split('/')
+      .slice(1)
+      .join('/');
     await ok(api('POST', `/api/factor-sets/${setId}/draft`, { session: admin }), 201);
-    await ok(api('PATCH', `/api/factor-sets/${setId}/draft`, { session: admin, body: { tableKey: 'soc-ref', entryKey: socKey, value: 120, reason: 'Local survey of 2026 soil cores' } }), 204);
-    expect((await ok(api('POST', `/api/factor-sets/${setId}/publish`, { session: admin, body: { note: 'Local stock' } }))).body).toEqual({ version: 2 });
+    await ok(
+      api('PATCH', `/api/factor-sets/${setId}/draft`, {
+        session: admin,
+        body: { tableKey: 'soc-ref', entryKey: socKey, value: 120, reason: 'Local survey of 2026 soil cores' },
+      }),
+      204,
+    );
+    expect(
+      (await ok(api('POST', `/api/factor-sets/${setId}/publish`, { session: admin, body: { note: 'Local stock' } })))
+        .body,
+    ).toEqual({ version: 2 });
     await ok(api('POST', `/api/rule-sets/${rulesId}/draft`, { session: admin }), 201);
-    const rule = (await api('GET', `/api/rule-sets/${rulesId}?version=draft`, { session: admin })).body.document.rules.find((r: { id: string }) => r.id === 'co2e-500');
+    const rule = (
+      await api('GET', `/api/rule-sets/${rulesId}?version=draft`, { session: admin })
+    ).body.document.rules.find((r: { id: string }) => r.id === 'co2e-500');
     const draftRev = (await api('GET', `/api/rule-sets/${rulesId}?version=draft`, { session: admin })).body.revision;
-    await ok(api('PATCH', `/api/rule-sets/${rulesId}/draft`, { session: admin, body: { action: 'put', ruleId: 'co2e-500', rule: { ...rule, params: { ...rule.params, aboveTonnesCo2e: 1 } }, reason: 'Stricter threshold from board minute 7', revision: draftRev } }), 200);
-    await ok(api('POST', `/api/rule-sets/${rulesId}/publish`, { session: admin, body: { note: 'Stricter', revision: draftRev + 1 } }), 200);
+    await ok(
+      api('PATCH', `/api/rule-sets/${rulesId}/draft`, {
+        session: admin,
+        body: {
+          action: 'put',
+          ruleId: 'co2e-500',
+          rule: { ...rule, params: { ...rule.params, aboveTonnesCo2e: 1 } },
+          reason: 'Stricter threshold from board minute 7',
+          revision: draftRev,
+        },
+      }),
+      200,
+    );
+    await ok(
+      api('POST', `/api/rule-sets/${rulesId}/publish`, {
+        session: admin,
+        body: { note: 'Stricter', revision: draftRev + 1 },
+      }),
+      200,
+    );
 
     const repro = await api('GET', `/api/assessments/${a.id}/reproduce`, { session: board });
     expect(repro.status).toBe(200);
-    expect(repro.body).toMatchObject({ identical: true, differences: [], factorSet: { id: setId, version: 1 }, ruleSet: { id: rulesId, version: 1 } });
+    expect(repro.body).toMatchObject({
+      identical: true,
+      differences: [],
+      factorSet: { id: setId, version: 1 },
+      ruleSet: { id: rulesId, version: 1 },
+    });
     // A new run takes the newest versions and gives other figures.
-    const v2 = (await assess(assessor, p.id, { factorSet: setId, ruleSet: rulesId, overrideReason: 'Testing reproduction with a copy of the set.', reason: 'New local stock published.' })).body;
+    const v2 = (
+      await assess(assessor, p.id, {
+        factorSet: setId,
+        ruleSet: rulesId,
+        overrideReason: 'Testing reproduction with a copy of the set.',
+        reason: 'New local stock published.',
+      })
+    ).body;
     expect(v2.factorSet).toEqual({ id: setId, version: 2 });
     expect(v2.totals.co2eTotal).not.toBe(a.totals.co2eTotal);
   });
@@ -232,13 +387,28 @@ describe('sign-off, versions and reproduction', () => {
 
 describe('the demo scenario', () => {
   it('seeds proposals in every state a planner and an assessor handle, with every risk level on first start', async () => {
-    const rows = await testDb('proposal as p').leftJoin('assessment as a', 'a.proposal_id', 'p.id').whereIn('p.reference', testDb('proposal').select('reference').where('applicant_contact', 'like', '%.example').orWhere('applicant_contact', 'like', '%(invented)%')).select('p.state', 'a.grade_level');
+    const rows = await testDb('proposal as p')
+      .leftJoin('assessment as a', 'a.proposal_id', 'p.id')
+      .whereIn(
+        'p.reference',
+        testDb('proposal')
+          .select('reference')
+          .where('applicant_contact', 'like', '%.example')
+          .orWhere('applicant_contact', 'like', '%(invented)%'),
+      )
+      .select('p.state', 'a.grade_level');
     const states = new Set(rows.map((r) => r.state));
-    for (const s of ['draft', 'submitted', 'returned', 'in-assessment', 'assessed', 'withdrawn'].filter((x) => x !== 'submitted')) expect(states, s).toContain(s);
+    for (const s of ['draft', 'submitted', 'returned', 'in-assessment', 'assessed', 'withdrawn'].filter(
+      (x) => x !== 'submitted',
+    ))
+      expect(states, s).toContain(s);
     expect(new Set(rows.map((r) => r.grade_level).filter(Boolean))).toEqual(new Set([1, 2, 3, 4]));
     // The sensitive-grassland and district-ratio gates, and the split holding, are each shown by one demo proposal.
-    const reasons = await testDb.raw(`select distinct r->>'rule' as rule from assessment a, jsonb_array_elements(a.result->'grade'->'reasons') r`);
+    const reasons = await testDb.raw(
+      `select distinct r->>'rule' as rule from assessment a, jsonb_array_elements(a.result->'grade'->'reasons') r`,
+    );
     const fired = reasons.rows.map((r: { rule: string }) => r.rule);
-    for (const rule of ['sensitive-grassland', 'region-ratio-fall', 'holding-cumulative-2ha']) expect(fired).toContain(rule);
+    for (const rule of ['sensitive-grassland', 'region-ratio-fall', 'holding-cumulative-2ha'])
+      expect(fired).toContain(rule);
   });
 });

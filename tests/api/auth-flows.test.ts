@@ -16,7 +16,10 @@ describe('invitation and first password', () => {
   it('an admin invites; the invitee gets a one-time link by e-mail', async () => {
     admin = await signIn(DEMO.admin);
     const before = await lastMailId();
-    const res = await api('POST', '/api/users', { session: admin, body: { name: 'Pia Sorrel', email, roles: ['assessor', 'board'] } });
+    const res = await api('POST', '/api/users', {
+      session: admin,
+      body: { name: 'Pia Sorrel', email, roles: ['assessor', 'board'] },
+    });
     expect(res.status).toBe(201);
     expect(res.body).toMatchObject({ email, roles: ['assessor', 'board'], status: 'invited' });
     const mail = await waitForMail(email, /Swardkeep account/, before);
@@ -28,7 +31,10 @@ describe('invitation and first password', () => {
   });
 
   it('the same address cannot be invited twice', async () => {
-    const res = await api('POST', '/api/users', { session: admin, body: { name: 'Pia Again', email, roles: ['planner'] } });
+    const res = await api('POST', '/api/users', {
+      session: admin,
+      body: { name: 'Pia Again', email, roles: ['planner'] },
+    });
     expect(res.status).toBe(409);
     expect(res.body.error.code).toBe('CONFLICT');
   });
@@ -45,7 +51,10 @@ describe('invitation and first password', () => {
     const common = await api('POST', '/api/invitations/accept', { body: { token, password: 'password123' } });
     expect(common.status).toBe(422);
     expect(common.body.error.message).toMatch(/too common/);
-    const inv = await testDb('invitation').whereNotNull('accepted_at').join('user', 'user.id', 'invitation.user_id').where('user.email', email);
+    const inv = await testDb('invitation')
+      .whereNotNull('accepted_at')
+      .join('user', 'user.id', 'invitation.user_id')
+      .where('user.email', email);
     expect(inv).toHaveLength(0);
   });
 
@@ -62,19 +71,28 @@ describe('invitation and first password', () => {
   });
 
   it('an unknown or expired invitation link is refused', async () => {
-    const unknown = await api('POST', '/api/invitations/accept', { body: { token: 'x'.repeat(43), password: 'hay meadow in june' } });
+    const unknown = await api('POST', '/api/invitations/accept', {
+      body: { token: 'x'.repeat(43), password: 'hay meadow in june' },
+    });
     expect(unknown.status).toBe(404);
     // A link cut off in a mail program reads the same as an unknown one, never a schema message.
-    const cut = await api('POST', '/api/invitations/accept', { body: { token: 'x'.repeat(6), password: 'hay meadow in june' } });
+    const cut = await api('POST', '/api/invitations/accept', {
+      body: { token: 'x'.repeat(6), password: 'hay meadow in june' },
+    });
     expect(cut.status).toBe(422);
     // The page shows the field's message (the welcome page, src/lib/auth/form-passwords.ts), which is the unknown link's wording.
     expect(cut.body.error.issues[0].message).toBe(unknown.body.error.message);
     expect(cut.body.error.message).not.toMatch(/expected|>=/i);
     const other = `late.${Date.now()}@tarrow.example`;
     const before = await lastMailId();
-    const created = await api('POST', '/api/users', { session: admin, body: { name: 'Late Comer', email: other, roles: ['planner'] } });
+    const created = await api('POST', '/api/users', {
+      session: admin,
+      body: { name: 'Late Comer', email: other, roles: ['planner'] },
+    });
     const late = tokenOf(linkIn((await waitForMail(other, /account/, before)).body_text));
-    await testDb('invitation').where({ user_id: created.body.id }).update({ expires_at: new Date(Date.now() - 1000) });
+    await testDb('invitation')
+      .where({ user_id: created.body.id })
+      .update({ expires_at: new Date(Date.now() - 1000) });
     const res = await api('POST', '/api/invitations/accept', { body: { token: late, password: 'hay meadow in june' } });
     expect(res.status).toBe(410);
     expect(res.body.error.message).toMatch(/expired/);
@@ -83,8 +101,12 @@ describe('invitation and first password', () => {
 
 describe('sign-in, reset and sign-out', () => {
   it('wrong password and unknown user get the same answer', async () => {
-    const wrong = await api('POST', '/api/auth/sign-in/email', { body: { email: DEMO.planner, password: 'not-the-password' } });
-    const unknown = await api('POST', '/api/auth/sign-in/email', { body: { email: 'nobody@tarrow.example', password: 'not-the-password' } });
+    const wrong = await api('POST', '/api/auth/sign-in/email', {
+      body: { email: DEMO.planner, password: 'not-the-password' },
+    });
+    const unknown = await api('POST', '/api/auth/sign-in/email', {
+      body: { email: 'nobody@tarrow.example', password: 'not-the-password' },
+    });
     expect(wrong.status).toBe(401);
     expect(unknown.status).toBe(401);
     expect(unknown.body.message).toBe(wrong.body.message);
@@ -96,7 +118,10 @@ describe('sign-in, reset and sign-out', () => {
     const ok = await api('POST', '/sign-in?next=%2Fcalculator', { body: form('meadow-lark-2026'), headers });
     expect(ok.status).toBe(303);
     expect(ok.headers.get('location')).toBe('/calculator');
-    const cookie = ok.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+    const cookie = ok.headers
+      .getSetCookie()
+      .map((c) => c.split(';')[0])
+      .join('; ');
     expect((await api('GET', '/api/me', { session: { cookie } })).body.email).toBe(DEMO.planner);
     const bad = await api('POST', '/sign-in', { body: form('not the password'), headers });
     expect(bad.status).toBe(401);
@@ -123,7 +148,9 @@ describe('sign-in, reset and sign-out', () => {
     await api('POST', '/api/invitations/accept', { body: { token: invite, password: 'first password here' } });
 
     before = await lastMailId();
-    const asked = await api('POST', '/api/auth/request-password-reset', { body: { email, redirectTo: '/reset-password' } });
+    const asked = await api('POST', '/api/auth/request-password-reset', {
+      body: { email, redirectTo: '/reset-password' },
+    });
     expect(asked.status).toBe(200);
     const link = linkIn((await waitForMail(email, /Reset your Swardkeep password/, before)).body_text);
     const follow = await fetch(link, { redirect: 'manual' });
@@ -132,23 +159,35 @@ describe('sign-in, reset and sign-out', () => {
     expect(landing.pathname).toBe('/reset-password');
     const token = landing.searchParams.get('token')!;
 
-    const done = await api('POST', '/api/auth/reset-password', { body: { token, newPassword: 'second password here' } });
+    const done = await api('POST', '/api/auth/reset-password', {
+      body: { token, newPassword: 'second password here' },
+    });
     expect(done.status).toBe(200);
-    const reused = await api('POST', '/api/auth/reset-password', { body: { token, newPassword: 'third password here' } });
+    const reused = await api('POST', '/api/auth/reset-password', {
+      body: { token, newPassword: 'third password here' },
+    });
     expect(reused.status).toBe(400);
-    expect((await api('POST', '/api/auth/sign-in/email', { body: { email, password: 'first password here' } })).status).toBe(401);
+    expect(
+      (await api('POST', '/api/auth/sign-in/email', { body: { email, password: 'first password here' } })).status,
+    ).toBe(401);
     await signIn(email, 'second password here');
   });
 
   it('a reset request for an unknown address looks the same as for a known one', async () => {
-    const res = await api('POST', '/api/auth/request-password-reset', { body: { email: 'nobody@tarrow.example', redirectTo: '/reset-password' } });
+    const res = await api('POST', '/api/auth/request-password-reset', {
+      body: { email: 'nobody@tarrow.example', redirectTo: '/reset-password' },
+    });
     expect(res.status).toBe(200);
   });
 
   it('sign-out ends the session', async () => {
     const session = await signIn(DEMO.planner);
     expect((await api('GET', '/api/me', { session })).status).toBe(200);
-    const out = await api('POST', '/sign-out', { session, body: '', headers: { 'content-type': 'application/x-www-form-urlencoded' } });
+    const out = await api('POST', '/sign-out', {
+      session,
+      body: '',
+      headers: { 'content-type': 'application/x-www-form-urlencoded' },
+    });
     expect(out.status).toBe(303);
     expect((await api('GET', '/api/me', { session })).status).toBe(401);
   });
@@ -157,21 +196,34 @@ describe('sign-in, reset and sign-out', () => {
     const admin = await signIn(DEMO.admin);
     const email = `gone.${Date.now()}@tarrow.example`;
     const before = await lastMailId();
-    const created = await api('POST', '/api/users', { session: admin, body: { name: 'Gone Soon', email, roles: ['planner'] } });
+    const created = await api('POST', '/api/users', {
+      session: admin,
+      body: { name: 'Gone Soon', email, roles: ['planner'] },
+    });
     const token = tokenOf(linkIn((await waitForMail(email, /account/, before)).body_text));
     await api('POST', '/api/invitations/accept', { body: { token, password: 'temporary meadow pass' } });
     const session = await signIn(email, 'temporary meadow pass');
-    const off = await api('PATCH', `/api/users/${created.body.id}`, { session: admin, body: { version: created.body.version, active: false } });
+    const off = await api('PATCH', `/api/users/${created.body.id}`, {
+      session: admin,
+      body: { version: created.body.version, active: false },
+    });
     expect(off.body.status).toBe('deactivated');
     expect((await api('GET', '/api/me', { session })).status).toBe(401);
-    expect((await api('POST', '/api/auth/sign-in/email', { body: { email, password: 'temporary meadow pass' } })).status).toBe(403);
+    expect(
+      (await api('POST', '/api/auth/sign-in/email', { body: { email, password: 'temporary meadow pass' } })).status,
+    ).toBe(403);
   });
 
   it('an admin cannot remove their own admin role', async () => {
     const admin = await signIn(DEMO.admin);
     const me = await api('GET', '/api/me', { session: admin });
-    const mine = (await api('GET', '/api/users', { session: admin })).body.items.find((u: { id: string }) => u.id === me.body.id);
-    const res = await api('PATCH', `/api/users/${me.body.id}`, { session: admin, body: { version: mine.version, roles: ['planner'] } });
+    const mine = (await api('GET', '/api/users', { session: admin })).body.items.find(
+      (u: { id: string }) => u.id === me.body.id,
+    );
+    const res = await api('PATCH', `/api/users/${me.body.id}`, {
+      session: admin,
+      body: { version: mine.version, roles: ['planner'] },
+    });
     expect(res.status).toBe(409);
   });
 });

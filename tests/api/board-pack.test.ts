@@ -20,7 +20,9 @@ const OWNER = 'HLD-PACK-4411';
 const COMMENT = 'Members only remark 5120';
 
 beforeAll(async () => {
-  [planner, assessor, board, chair, admin] = await Promise.all([DEMO.planner, DEMO.assessor, DEMO.board, DEMO.chair, DEMO.admin].map((e) => signIn(e)));
+  [planner, assessor, board, chair, admin] = await Promise.all(
+    [DEMO.planner, DEMO.assessor, DEMO.board, DEMO.chair, DEMO.admin].map((e) => signIn(e)),
+  );
   await testDb('app_setting').where({ key: 'board.quorum' }).delete();
   a = await assessedProposal(planner, assessor, OWNER);
   b = await assessedProposal(planner, assessor, OWNER);
@@ -35,9 +37,18 @@ const squash = (s: string) => s.replace(/\s+/g, '');
 /** Every applicant, owner, holding reference and vote comment the database knows, and (staffToo) every member's name and e-mail. */
 async function secrets(staffToo = true): Promise<string[]> {
   const applicants = await testDb('proposal').distinct('applicant_name', 'applicant_contact');
-  const owners = (await testDb('parcel').whereNotNull('owner_ref').distinct('owner_ref')).map((r) => r.owner_ref as string);
+  const owners = (await testDb('parcel').whereNotNull('owner_ref').distinct('owner_ref')).map(
+    (r) => r.owner_ref as string,
+  );
   expect(owners).toContain(OWNER);
-  return [APPLICANT.name, APPLICANT.contact, COMMENT, ...applicants.flatMap((x) => [x.applicant_name, x.applicant_contact]), ...owners, ...(staffToo ? DEMO_PEOPLE.flatMap((p) => [p.name, p.email]) : [])].filter(Boolean);
+  return [
+    APPLICANT.name,
+    APPLICANT.contact,
+    COMMENT,
+    ...applicants.flatMap((x) => [x.applicant_name, x.applicant_contact]),
+    ...owners,
+    ...(staffToo ? DEMO_PEOPLE.flatMap((p) => [p.name, p.email]) : []),
+  ].filter(Boolean);
 }
 
 describe('the pack as JSON', () => {
@@ -55,7 +66,9 @@ describe('the pack as JSON', () => {
     expect(p.proposal.reference).toBe(a.reference);
     expect(p.assessment.totals).toEqual(assessment.totals);
     expect(p.risk.level).toBe(assessment.grade.level);
-    expect(p.risk.reasons.map((r: { text: string }) => r.text)).toEqual(assessment.grade.reasons.map((r: { text: string }) => r.text));
+    expect(p.risk.reasons.map((r: { text: string }) => r.text)).toEqual(
+      assessment.grade.reasons.map((r: { text: string }) => r.text),
+    );
     expect(p.alternatives).toEqual(assessment.alternatives);
     expect(p.assessment.findings).toBe('Signed off for the board tests.');
     expect(p.parcels).toHaveLength(1);
@@ -78,7 +91,8 @@ describe('the pack as JSON', () => {
   });
 
   it('the board pages are for board, chair and admin only; only chair and admin get the meeting form', async () => {
-    const page = (s?: Session) => fetch(`${BASE_URL}/board/meetings/${meeting.id}`, { headers: s ? { cookie: s.cookie } : {}, redirect: 'manual' });
+    const page = (s?: Session) =>
+      fetch(`${BASE_URL}/board/meetings/${meeting.id}`, { headers: s ? { cookie: s.cookie } : {}, redirect: 'manual' });
     expect((await page()).status).toBe(302);
     expect((await page(planner)).status).toBe(403);
     expect((await page(assessor)).status).toBe(403);
@@ -86,7 +100,8 @@ describe('the pack as JSON', () => {
     expect(forBoard.status).toBe(200);
     const html = await forBoard.text();
     expect(html).toContain(a.reference);
-    for (const s of [APPLICANT.name, APPLICANT.contact, OWNER]) expect(html.includes(s), `meeting page contains "${s}"`).toBe(false);
+    for (const s of [APPLICANT.name, APPLICANT.contact, OWNER])
+      expect(html.includes(s), `meeting page contains "${s}"`).toBe(false);
     const list = async (s: Session) => (await fetch(`${BASE_URL}/board`, { headers: { cookie: s.cookie } })).text();
     expect(await list(board)).not.toContain('Create the meeting');
     expect(await list(chair)).toContain('Create the meeting');
@@ -95,7 +110,9 @@ describe('the pack as JSON', () => {
 
   it('an item of another meeting is 404', async () => {
     const other = await createMeeting(admin, []);
-    expect((await api('GET', `/api/meetings/${other.id}/items/${itemOf(a.id).id}/pack`, { session: board })).status).toBe(404);
+    expect(
+      (await api('GET', `/api/meetings/${other.id}/items/${itemOf(a.id).id}/pack`, { session: board })).status,
+    ).toBe(404);
   });
 });
 
@@ -104,20 +121,38 @@ describe('the agenda order', () => {
     const m = (await api('GET', `/api/meetings/${meeting.id}`, { session: chair })).body;
     const ids = m.items.map((i: { id: number }) => i.id);
     const reversed = [...ids].reverse();
-    expect((await api('PUT', `/api/meetings/${meeting.id}/order`, { session: board, body: { itemIds: reversed, version: m.version } })).status).toBe(403);
-    const ok = await api('PUT', `/api/meetings/${meeting.id}/order`, { session: chair, body: { itemIds: reversed, version: m.version } });
+    expect(
+      (
+        await api('PUT', `/api/meetings/${meeting.id}/order`, {
+          session: board,
+          body: { itemIds: reversed, version: m.version },
+        })
+      ).status,
+    ).toBe(403);
+    const ok = await api('PUT', `/api/meetings/${meeting.id}/order`, {
+      session: chair,
+      body: { itemIds: reversed, version: m.version },
+    });
     expect(ok.status).toBe(200);
     expect(ok.body.version).toBe(m.version + 1);
     const after = (await api('GET', `/api/meetings/${meeting.id}`, { session: chair })).body;
     expect(after.items.map((i: { id: number }) => i.id)).toEqual(reversed);
     expect(after.items.map((i: { position: number }) => i.position)).toEqual(ids.map((_: number, n: number) => n + 1));
 
-    const stale = await api('PUT', `/api/meetings/${meeting.id}/order`, { session: admin, body: { itemIds: ids, version: m.version } });
+    const stale = await api('PUT', `/api/meetings/${meeting.id}/order`, {
+      session: admin,
+      body: { itemIds: ids, version: m.version },
+    });
     expect(stale.status).toBe(409);
     expect(stale.body.error.message).toMatch(/changed by someone else .*nothing was saved/);
-    const missing = await api('PUT', `/api/meetings/${meeting.id}/order`, { session: chair, body: { itemIds: reversed.slice(1), version: after.version } });
+    const missing = await api('PUT', `/api/meetings/${meeting.id}/order`, {
+      session: chair,
+      body: { itemIds: reversed.slice(1), version: after.version },
+    });
     expect(missing.status).toBe(422);
-    expect((await api('GET', `/api/meetings/${meeting.id}`, { session: chair })).body.items.map((i: { id: number }) => i.id)).toEqual(reversed);
+    expect(
+      (await api('GET', `/api/meetings/${meeting.id}`, { session: chair })).body.items.map((i: { id: number }) => i.id),
+    ).toEqual(reversed);
   });
 });
 
@@ -147,10 +182,15 @@ describe('the board pack PDF', () => {
 describe('the public decision notice', () => {
   it('holds the register content and both hashes, is public, and names no applicant, owner, member or comment', async () => {
     const item = itemOf(a.id);
-    const packB = () => api('GET', `/api/meetings/${meeting.id}/items/${itemOf(b.id).id}/pack`, { session: board }).then((r) => r.body);
+    const packB = () =>
+      api('GET', `/api/meetings/${meeting.id}/items/${itemOf(b.id).id}/pack`, { session: board }).then((r) => r.body);
     const committedBefore = (await packB()).impact.budget.committedT;
-    for (const who of [board, chair]) expect((await vote(who, meeting.id, item.id, 'approve-with-conditions', COMMENT)).status).toBe(200);
-    const d = await decide(chair, meeting.id, item.id, { outcome: 'approved-with-conditions', conditions: [CONDITION] });
+    for (const who of [board, chair])
+      expect((await vote(who, meeting.id, item.id, 'approve-with-conditions', COMMENT)).status).toBe(200);
+    const d = await decide(chair, meeting.id, item.id, {
+      outcome: 'approved-with-conditions',
+      conditions: [CONDITION],
+    });
     expect(d.status).toBe(201);
     const seq = d.body.registerSeq as number;
 

@@ -11,7 +11,9 @@ import { fileProposal, drawParcel } from '../support/proposals';
 
 let planner: Session, assessor: Session, board: Session, chair: Session, admin: Session;
 beforeAll(async () => {
-  [planner, assessor, board, chair, admin] = await Promise.all([DEMO.planner, DEMO.assessor, DEMO.board, DEMO.chair, DEMO.admin].map((e) => signIn(e)));
+  [planner, assessor, board, chair, admin] = await Promise.all(
+    [DEMO.planner, DEMO.assessor, DEMO.board, DEMO.chair, DEMO.admin].map((e) => signIn(e)),
+  );
   await testDb('app_setting').whereIn('key', ['board.quorum']).delete(); // default quorum: 2 eligible votes
 });
 afterAll(async () => {
@@ -28,19 +30,31 @@ describe('building an agenda', () => {
     const [a, b] = [await assessedProposal(planner, assessor), await assessedProposal(planner, assessor)];
     const draft = await fileProposal(planner, [{ parcelId: await drawParcel(planner) }]);
     const meetings = Number((await testDb('meeting').count('* as n').first())?.n);
-    const refused = await api('POST', '/api/meetings', { session: chair, body: { date: today(), place: 'Tarrow Hall', proposalIds: [a.id, draft.id] } });
+    const refused = await api('POST', '/api/meetings', {
+      session: chair,
+      body: { date: today(), place: 'Tarrow Hall', proposalIds: [a.id, draft.id] },
+    });
     expect(refused.status).toBe(409);
     expect(refused.body.error.message).toMatch(/only proposals whose assessment is signed off/);
     expect(Number((await testDb('meeting').count('* as n').first())?.n)).toBe(meetings);
     expect(await state(a.id)).toBe('assessed');
 
-    expect((await api('POST', '/api/meetings', { session: board, body: { date: today(), place: 'Tarrow Hall', proposalIds: [a.id] } })).status).toBe(403);
+    expect(
+      (
+        await api('POST', '/api/meetings', {
+          session: board,
+          body: { date: today(), place: 'Tarrow Hall', proposalIds: [a.id] },
+        })
+      ).status,
+    ).toBe(403);
     const m = await createMeeting(chair, [b.id, a.id]);
     expect(m.items.filter((i) => [a.id, b.id].includes(i.proposalId)).map((i) => i.proposalId)).toEqual([b.id, a.id]);
     expect([await state(a.id), await state(b.id)]).toEqual(['on-agenda', 'on-agenda']);
     // One open item per proposal: listing it on another meeting is refused.
     const again = await createMeeting(admin, []);
-    expect((await api('POST', `/api/meetings/${again.id}/items`, { session: chair, body: { proposalId: a.id } })).status).toBe(409);
+    expect(
+      (await api('POST', `/api/meetings/${again.id}/items`, { session: chair, body: { proposalId: a.id } })).status,
+    ).toBe(409);
     const detail = (await api('GET', `/api/meetings/${m.id}`, { session: board })).body;
     expect(detail.quorum).toBe(2);
     expect((await api('GET', `/api/meetings/${m.id}`, { session: planner })).status).toBe(403);
@@ -70,7 +84,10 @@ describe('votes, conflicts and the quorum', () => {
     const m = await createMeeting(chair, [p.id]);
     const item = m.items.find((i) => i.proposalId === p.id)!;
     expect((await vote(board, m.id, item.id, 'refuse', 'Neighbouring land of mine.')).status).toBe(200);
-    const declared = await api('POST', `/api/meetings/${m.id}/items/${item.id}/conflicts`, { session: board, body: { reason: 'I farm the neighbouring holding.' } });
+    const declared = await api('POST', `/api/meetings/${m.id}/items/${item.id}/conflicts`, {
+      session: board,
+      body: { reason: 'I farm the neighbouring holding.' },
+    });
     expect(declared.status).toBe(201);
     const refused = await vote(board, m.id, item.id, 'approve');
     expect(refused.status).toBe(409);
@@ -83,12 +100,22 @@ describe('votes, conflicts and the quorum', () => {
     expect(it.quorumReached).toBe(false);
     expect((await decide(chair, m.id, item.id, { outcome: 'approved' })).status).toBe(409);
     // With a quorum of one (a smaller board), the chair's eligible vote is enough.
-    await testDb('app_setting').insert({ key: 'board.quorum', value: JSON.stringify(1) }).onConflict('key').merge();
+    await testDb('app_setting')
+      .insert({ key: 'board.quorum', value: JSON.stringify(1) })
+      .onConflict('key')
+      .merge();
     try {
       const ok = await decide(chair, m.id, item.id, { outcome: 'approved' });
       expect(ok.status).toBe(201);
       const entry = (await api('GET', `/api/register/${ok.body.registerSeq}`)).body;
-      expect(entry.content.votes).toEqual({ approve: 1, approveWithConditions: 0, refuse: 0, defer: 0, abstain: 0, declaredConflicts: 1 });
+      expect(entry.content.votes).toEqual({
+        approve: 1,
+        approveWithConditions: 0,
+        refuse: 0,
+        defer: 0,
+        abstain: 0,
+        declaredConflicts: 1,
+      });
     } finally {
       await testDb('app_setting').where({ key: 'board.quorum' }).delete();
     }
@@ -111,7 +138,9 @@ describe('every outcome', () => {
       const p = await assessedProposal(planner, assessor);
       const m = await createMeeting(chair, [p.id]);
       const item = m.items.find((i) => i.proposalId === p.id)!;
-      const choice = { approved: 'approve', 'approved-with-conditions': 'approve-with-conditions', refused: 'refuse' }[outcome];
+      const choice = { approved: 'approve', 'approved-with-conditions': 'approve-with-conditions', refused: 'refuse' }[
+        outcome
+      ];
       for (const s of [board, chair]) expect((await vote(s, m.id, item.id, choice)).status).toBe(200);
       const conditions = outcome === 'approved-with-conditions' ? [CONDITION] : [];
       if (outcome === 'approved-with-conditions') {
@@ -122,14 +151,32 @@ describe('every outcome', () => {
         expect((await decide(chair, m.id, item.id, { outcome, conditions: [CONDITION] })).status).toBe(422);
       }
       const mailFrom = await lastMailId();
-      const res = await decide(outcome === 'refused' ? admin : chair, m.id, item.id, { outcome, conditions, appealDays: 21 });
+      const res = await decide(outcome === 'refused' ? admin : chair, m.id, item.id, {
+        outcome,
+        conditions,
+        appealDays: 21,
+      });
       expect(res.status).toBe(201);
-      expect(res.body).toMatchObject({ outcome, proposalState: 'decided', registerSeq: expect.any(Number), registerHash: expect.stringMatching(/^[0-9a-f]{64}$/) });
+      expect(res.body).toMatchObject({
+        outcome,
+        proposalState: 'decided',
+        registerSeq: expect.any(Number),
+        registerHash: expect.stringMatching(/^[0-9a-f]{64}$/),
+      });
       expect(await state(p.id)).toBe('decided');
       const entry = (await api('GET', `/api/register/${res.body.registerSeq}`)).body;
-      expect(entry.content).toMatchObject({ kind: 'decision', outcome, conditions, proposal: { reference: p.reference }, meeting: { date: today() }, supersedes: null });
+      expect(entry.content).toMatchObject({
+        kind: 'decision',
+        outcome,
+        conditions,
+        proposal: { reference: p.reference },
+        meeting: { date: today() },
+        supersedes: null,
+      });
       // The appeal window: 21 days from the decision day.
-      const until = new Date(Date.parse(`${entry.content.decidedOn}T00:00:00Z`) + 21 * 86_400_000).toISOString().slice(0, 10);
+      const until = new Date(Date.parse(`${entry.content.decidedOn}T00:00:00Z`) + 21 * 86_400_000)
+        .toISOString()
+        .slice(0, 10);
       expect(entry.content.appealUntil).toBe(until);
       expect(entry.content.parcels[0].geometry.type).toBe('MultiPolygon');
       const mail = await waitForMail(DEMO.planner, new RegExp(`Board decision on ${p.reference}`), mailFrom);
@@ -148,7 +195,10 @@ describe('deferral', () => {
     const [ip, iq] = [m.items.find((i) => i.proposalId === p.id)!, m.items.find((i) => i.proposalId === q.id)!];
     const before = await entries();
     // A deferral needs no quorum: a board without quorum defers.
-    const dp = await decide(chair, m.id, ip.id, { outcome: 'deferred', reasons: 'The board needs the drainage survey first.' });
+    const dp = await decide(chair, m.id, ip.id, {
+      outcome: 'deferred',
+      reasons: 'The board needs the drainage survey first.',
+    });
     expect(dp.status).toBe(201);
     expect(dp.body).toMatchObject({ outcome: 'deferred', registerSeq: null, proposalState: 'on-agenda' });
     expect(await entries()).toBe(before);
@@ -159,7 +209,10 @@ describe('deferral', () => {
     expect(carried).toMatchObject({ carriedFrom: ip.id, status: 'listed' });
     expect(later.items[0]!.proposalId).toBe(p.id);
     // A later meeting exists now: deferring q lists it there straight away.
-    const dq = await decide(admin, m.id, iq.id, { outcome: 'deferred', reasons: 'Waiting for the applicant’s revised plan.' });
+    const dq = await decide(admin, m.id, iq.id, {
+      outcome: 'deferred',
+      reasons: 'Waiting for the applicant’s revised plan.',
+    });
     expect(dq.body.carriedToMeeting).toBe(later.id);
     const l = (await api('GET', `/api/meetings/${later.id}`, { session: board })).body;
     expect(l.items.map((i: { proposalId: number }) => i.proposalId)).toEqual(expect.arrayContaining([p.id, q.id]));

@@ -15,7 +15,9 @@ import { allowSignOff, APPLICANT, assess, drawParcel, fileProposal, submit } fro
 
 let planner: Session, assessor: Session, board: Session, chair: Session;
 beforeAll(async () => {
-  [planner, assessor, board, chair] = await Promise.all([DEMO.planner, DEMO.assessor, DEMO.board, DEMO.chair].map((e) => signIn(e)));
+  [planner, assessor, board, chair] = await Promise.all(
+    [DEMO.planner, DEMO.assessor, DEMO.board, DEMO.chair].map((e) => signIn(e)),
+  );
   await allowSignOff();
   await testDb('app_setting').where({ key: 'compensation.permanence-years' }).delete();
 });
@@ -36,7 +38,10 @@ async function approvedWithCompensation(effectiveDate: string) {
   expect(a.status).toBe(200);
   const alt = a.body.alternatives.find((x: { key: string }) => x.key === 'compensation');
   expect(alt.available).toBe(true);
-  const signed = await api('POST', `/api/assessments/${a.body.id}/sign-off`, { session: assessor, body: { findings: 'Compensation weighed.', version: a.body.version } });
+  const signed = await api('POST', `/api/assessments/${a.body.id}/sign-off`, {
+    session: assessor,
+    body: { findings: 'Compensation weighed.', version: a.body.version },
+  });
   expect(signed.status).toBe(200);
   const m = await createMeeting(chair, [p.id]);
   const item = m.items.find((i) => i.proposalId === p.id)!;
@@ -44,11 +49,20 @@ async function approvedWithCompensation(effectiveDate: string) {
   const d = await decide(chair, m.id, item.id, { outcome: 'approved', conditions: [], effectiveDate });
   expect(d.status).toBe(201);
   const reference = (await testDb('parcel').where({ id: arable }).first()).reference as string;
-  return { proposal: p, arable, arableReference: reference, seq: d.body.registerSeq as number, gainT: -alt.differenceFromProposal as number };
+  return {
+    proposal: p,
+    arable,
+    arableReference: reference,
+    seq: d.body.registerSeq as number,
+    gainT: -alt.differenceFromProposal as number,
+  };
 }
 
 const plough = (parcelId: number, date: string, kind = 'tillage', value = 'ploughing') =>
-  api('POST', `/api/parcels/${parcelId}/events`, { session: planner, body: { date, kind, value, evidence: 'Field officer visit (test)' } });
+  api('POST', `/api/parcels/${parcelId}/events`, {
+    session: planner,
+    body: { date, kind, value, evidence: 'Field officer visit (test)' },
+  });
 
 describe('crediting a compensation parcel', () => {
   it('puts the credited gain and the permanence date in the decision entry and tracks the site', async () => {
@@ -80,18 +94,38 @@ describe('a condition that requires a parcel restored', () => {
     const p = await fileProposal(planner, [{ parcelId: field }]);
     await submit(planner, p.id);
     const a = await assess(assessor, p.id);
-    expect((await api('POST', `/api/assessments/${a.body.id}/sign-off`, { session: assessor, body: { findings: 'Signed off for the condition test.', version: a.body.version } })).status).toBe(200);
+    expect(
+      (
+        await api('POST', `/api/assessments/${a.body.id}/sign-off`, {
+          session: assessor,
+          body: { findings: 'Signed off for the condition test.', version: a.body.version },
+        })
+      ).status,
+    ).toBe(200);
     const m = await createMeeting(chair, [p.id]);
     const item = m.items.find((i) => i.proposalId === p.id)!;
-    for (const who of [board, chair]) expect((await vote(who, m.id, item.id, 'approve-with-conditions')).status).toBe(200);
-    const condition = { text: `Sow parcel ${reference} to permanent grass before the conversion starts.`, dueDate: addDays(today(), 30), checkedBy: 'Field officer' };
+    for (const who of [board, chair])
+      expect((await vote(who, m.id, item.id, 'approve-with-conditions')).status).toBe(200);
+    const condition = {
+      text: `Sow parcel ${reference} to permanent grass before the conversion starts.`,
+      dueDate: addDays(today(), 30),
+      checkedBy: 'Field officer',
+    };
     const entries = Number((await testDb('register_entry').count('* as n').first())?.n);
-    const unknown = await decide(chair, m.id, item.id, { outcome: 'approved-with-conditions', conditions: [{ ...condition, restoreParcel: 'NO-SUCH-PARCEL' }], effectiveDate: addDays(today(), -100) });
+    const unknown = await decide(chair, m.id, item.id, {
+      outcome: 'approved-with-conditions',
+      conditions: [{ ...condition, restoreParcel: 'NO-SUCH-PARCEL' }],
+      effectiveDate: addDays(today(), -100),
+    });
     expect(unknown.status).toBe(422);
     expect(unknown.body.error.issues[0].path).toEqual(['conditions', 0, 'restoreParcel']);
     expect(Number((await testDb('register_entry').count('* as n').first())?.n)).toBe(entries);
     // The reference is matched as parcel references are (case and spacing do not matter).
-    const d = await decide(chair, m.id, item.id, { outcome: 'approved-with-conditions', conditions: [{ ...condition, restoreParcel: ` ${reference.toLowerCase()} ` }], effectiveDate: addDays(today(), -100) });
+    const d = await decide(chair, m.id, item.id, {
+      outcome: 'approved-with-conditions',
+      conditions: [{ ...condition, restoreParcel: ` ${reference.toLowerCase()} ` }],
+      effectiveDate: addDays(today(), -100),
+    });
     expect(d.status).toBe(201);
     const site = await testDb('compensation_site').where({ register_seq: d.body.registerSeq }).first();
     expect(site).toMatchObject({ status: 'held', credited_co2e_t: 0 });
@@ -102,7 +136,13 @@ describe('a condition that requires a parcel restored', () => {
     expect(res.body.compensationReversedBy).toBeUndefined();
     expect(Number((await testDb('register_entry').count('* as n').first())?.n)).toBe(entries + 1);
     expect((await testDb('compensation_site').where({ id: site.id }).first()).status).toBe('reversed');
-    expect(await testDb('follow_up_task').where({ proposal_id: p.id, kind: 'compensation-reversed', assignee_role: 'chair' })).toHaveLength(1);
+    expect(
+      await testDb('follow_up_task').where({
+        proposal_id: p.id,
+        kind: 'compensation-reversed',
+        assignee_role: 'chair',
+      }),
+    ).toHaveLength(1);
     const mail = await waitForMail(DEMO.chair, new RegExp(`Compensation for ${p.reference} reversed`), since);
     expect(mail.body_text).toContain('the register is unchanged');
   }, 120_000);
@@ -121,7 +161,9 @@ describe('ploughing a compensation parcel', () => {
     const seq = res.body.compensationReversedBy[0];
     const entry = (await api('GET', `/api/register/${seq}`)).body;
     expect(entry.content).toMatchObject({
-      kind: 'compensation-reversed', supersedes: null, outcome: 'approved',
+      kind: 'compensation-reversed',
+      supersedes: null,
+      outcome: 'approved',
       reverses: { seq: c.seq, parcelReference: c.arableReference, eventDate: ploughedOn, budgetYear: year },
       proposal: { reference: c.proposal.reference },
     });
@@ -135,7 +177,9 @@ describe('ploughing a compensation parcel', () => {
     const verify = (await api('GET', '/api/register/verify')).body;
     expect(verify).toMatchObject({ ok: true, firstBrokenEntry: null });
     expect(await committedCo2e(testDb, year)).toBeCloseTo(committedBefore + entry.content.reverses.creditedCo2e, 3);
-    const task = await testDb('follow_up_task').where({ proposal_id: c.proposal.id, kind: 'compensation-reversed' }).first();
+    const task = await testDb('follow_up_task')
+      .where({ proposal_id: c.proposal.id, kind: 'compensation-reversed' })
+      .first();
     expect(task).toMatchObject({ assignee_role: 'chair', status: 'open' });
     expect(task.title).toContain(`register entry ${seq}`);
     const mail = await waitForMail(DEMO.chair, new RegExp(`Compensation for ${c.proposal.reference} reversed`), since);
@@ -148,19 +192,32 @@ describe('ploughing a compensation parcel', () => {
   }, 120_000);
 
   it('outside the period, before the approval took effect, or with work that keeps the sward: no reversal', async () => {
-    await testDb('app_setting').insert({ key: 'compensation.permanence-years', value: JSON.stringify(1) }).onConflict('key').merge();
+    await testDb('app_setting')
+      .insert({ key: 'compensation.permanence-years', value: JSON.stringify(1) })
+      .onConflict('key')
+      .merge();
     try {
       const old = await approvedWithCompensation(addDays(today(), -800)); // in grass until 435 days ago
       const entries = Number((await testDb('register_entry').count('* as n').first())?.n);
       expect((await plough(old.arable, addDays(today(), -10))).body.compensationReversedBy).toBeUndefined();
       const recent = await approvedWithCompensation(addDays(today(), -100));
       expect((await plough(recent.arable, addDays(today(), -200))).body.compensationReversedBy).toBeUndefined(); // before it took effect
-      expect((await plough(recent.arable, addDays(today(), -5), 'tillage', 'harrowing')).body.compensationReversedBy).toBeUndefined();
-      expect((await plough(recent.arable, addDays(today(), -4), 'land-use', 'meadow')).body.compensationReversedBy).toBeUndefined();
+      expect(
+        (await plough(recent.arable, addDays(today(), -5), 'tillage', 'harrowing')).body.compensationReversedBy,
+      ).toBeUndefined();
+      expect(
+        (await plough(recent.arable, addDays(today(), -4), 'land-use', 'meadow')).body.compensationReversedBy,
+      ).toBeUndefined();
       expect(Number((await testDb('register_entry').count('* as n').first())?.n)).toBe(entries + 1); // only the second approval's decision
-      expect((await testDb('compensation_site').whereIn('register_seq', [old.seq, recent.seq]).orderBy('id')).map((x) => x.status)).toEqual(['held', 'held']);
+      expect(
+        (await testDb('compensation_site').whereIn('register_seq', [old.seq, recent.seq]).orderBy('id')).map(
+          (x) => x.status,
+        ),
+      ).toEqual(['held', 'held']);
       // A change of use to arable inside the period does reverse it.
-      expect((await plough(recent.arable, addDays(today(), -3), 'land-use', 'arable')).body.compensationReversedBy).toHaveLength(1);
+      expect(
+        (await plough(recent.arable, addDays(today(), -3), 'land-use', 'arable')).body.compensationReversedBy,
+      ).toHaveLength(1);
     } finally {
       await testDb('app_setting').where({ key: 'compensation.permanence-years' }).delete();
     }

@@ -18,7 +18,12 @@ function get(path: string, headers: Record<string, string>, method = 'GET'): Pro
     req.end();
   });
 }
-const decode = (r: Raw) => (r.headers['content-encoding'] === 'br' ? zlib.brotliDecompressSync(r.bytes) : r.headers['content-encoding'] === 'gzip' ? zlib.gunzipSync(r.bytes) : r.bytes);
+const decode = (r: Raw) =>
+  r.headers['content-encoding'] === 'br'
+    ? zlib.brotliDecompressSync(r.bytes)
+    : r.headers['content-encoding'] === 'gzip'
+      ? zlib.gunzipSync(r.bytes)
+      : r.bytes;
 
 describe('compression', () => {
   it('serves a script from its precompressed copy, Brotli first, gzip second, plain when neither is accepted', async () => {
@@ -65,12 +70,25 @@ describe('compression', () => {
     const map = await api('GET', '/api/map', { session });
     const version = map.body.dataVersion as number;
     // The tile over the demo fields of Corrowmere (slippy-map numbering, common practice).
-    const [x, y] = [Math.floor(((-16.0 + 180) / 360) * 2 ** 14), Math.floor(((1 - Math.log(Math.tan((52.39 * Math.PI) / 180) + 1 / Math.cos((52.39 * Math.PI) / 180)) / Math.PI) / 2) * 2 ** 14)];
-    const tile = await get(`/api/tiles/14/${x}/${y}.mvt?v=${version}`, { 'accept-encoding': 'br', cookie: session.cookie });
+    const [x, y] = [
+      Math.floor(((-16.0 + 180) / 360) * 2 ** 14),
+      Math.floor(
+        ((1 - Math.log(Math.tan((52.39 * Math.PI) / 180) + 1 / Math.cos((52.39 * Math.PI) / 180)) / Math.PI) / 2) *
+          2 ** 14,
+      ),
+    ];
+    const tile = await get(`/api/tiles/14/${x}/${y}.mvt?v=${version}`, {
+      'accept-encoding': 'br',
+      cookie: session.cookie,
+    });
     expect(tile.status).toBe(200);
     expect(tile.headers['content-encoding']).toBe('br');
     const etag = tile.headers.etag!;
-    const again = await get(`/api/tiles/14/${x}/${y}.mvt?v=${version}`, { 'accept-encoding': 'br', cookie: session.cookie, 'if-none-match': etag });
+    const again = await get(`/api/tiles/14/${x}/${y}.mvt?v=${version}`, {
+      'accept-encoding': 'br',
+      cookie: session.cookie,
+      'if-none-match': etag,
+    });
     expect(again.status).toBe(304);
   });
 });

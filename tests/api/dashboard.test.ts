@@ -10,7 +10,9 @@ import { api, DEMO, signIn, type Session } from '../support/http';
 
 let s: { planner: Session; assessor: Session; board: Session; chair: Session; admin: Session };
 beforeAll(async () => {
-  const [planner, assessor, board, chair, admin] = await Promise.all([DEMO.planner, DEMO.assessor, DEMO.board, DEMO.chair, DEMO.admin].map((e) => signIn(e)));
+  const [planner, assessor, board, chair, admin] = await Promise.all(
+    [DEMO.planner, DEMO.assessor, DEMO.board, DEMO.chair, DEMO.admin].map((e) => signIn(e)),
+  );
   s = { planner, assessor, board, chair, admin };
   await testDb('app_setting').where({ key: 'board.quorum' }).delete();
 }, 60_000);
@@ -21,13 +23,16 @@ const CURRENT = 'not exists (select 1 from register_entry s where s.supersedes_s
 describe('GET /api/dashboard', () => {
   it('is for staff only', async () => {
     expect((await api('GET', '/api/dashboard')).status).toBe(401);
-    for (const who of [s.planner, s.assessor, s.board, s.chair, s.admin]) expect((await api('GET', '/api/dashboard', { session: who })).status).toBe(200);
+    for (const who of [s.planner, s.assessor, s.board, s.chair, s.admin])
+      expect((await api('GET', '/api/dashboard', { session: who })).status).toBe(200);
   });
 
   it('committed CO2e per budget year is the sum of current approvals by start year; the budget is the setting', async () => {
     const d = (await api('GET', '/api/dashboard', { session: s.board })).body;
-    const rows = (await testDb.raw(`select (content->'proposal'->>'startYear')::int as y, sum((content->'figures'->>'co2eTotal')::float8) as t from register_entry e
-      where outcome in ('approved', 'approved-with-conditions') and ${CURRENT} group by 1 order by 1`)).rows;
+    const rows = (
+      await testDb.raw(`select (content->'proposal'->>'startYear')::int as y, sum((content->'figures'->>'co2eTotal')::float8) as t from register_entry e
+      where outcome in ('approved', 'approved-with-conditions') and ${CURRENT} group by 1 order by 1`)
+    ).rows;
     expect(rows.length).toBeGreaterThan(3); // the demo history spans 2021-2026
     expect(d.budget.years.map((y: { year: number }) => y.year)).toEqual(rows.map((r: { y: number }) => r.y));
     d.budget.years.forEach((y: { committedT: number; leftT: number }, i: number) => {
@@ -68,16 +73,27 @@ describe('GET /api/dashboard', () => {
     const entry = (await testDb('register_entry').where({ seq: d.seq }).first()).content;
     const after = (await api('GET', '/api/dashboard', { session: s.chair })).body;
     const year = entry.proposal.startYear;
-    const committed = (x: typeof before) => x.budget.years.find((y: { year: number }) => y.year === year)?.committedT ?? 0;
+    const committed = (x: typeof before) =>
+      x.budget.years.find((y: { year: number }) => y.year === year)?.committedT ?? 0;
     expect(committed(after) - committed(before)).toBeCloseTo(entry.figures.co2eTotal, 6);
     expect(after.conditions.open).toBe(before.conditions.open + 1);
-    expect(after.conditions.items.find((c: { seq: number }) => c.seq === d.seq)).toMatchObject({ text: CONDITION.text, dueDate: CONDITION.dueDate, overdue: false });
+    expect(after.conditions.items.find((c: { seq: number }) => c.seq === d.seq)).toMatchObject({
+      text: CONDITION.text,
+      dueDate: CONDITION.dueDate,
+      overdue: false,
+    });
     // Conditions whose due date has passed are overdue (the demo history has some).
     expect(after.conditions.items.filter((c: { overdue: boolean }) => c.overdue).length).toBe(after.conditions.overdue);
     expect(after.conditions.overdue).toBeGreaterThan(0);
     // Recorded as met through its follow-up task, the condition leaves the open ones.
-    const task = await testDb('follow_up_task as t').join('board_decision as b', 'b.id', 't.decision_id').where({ 'b.register_seq': d.seq, 't.kind': 'condition' }).first('t.id', 't.version');
-    const done = await api('POST', `/api/follow-ups/${task.id}/outcome`, { session: s.chair, body: { outcome: 'done', note: 'Margin seen on the site visit.', version: task.version } });
+    const task = await testDb('follow_up_task as t')
+      .join('board_decision as b', 'b.id', 't.decision_id')
+      .where({ 'b.register_seq': d.seq, 't.kind': 'condition' })
+      .first('t.id', 't.version');
+    const done = await api('POST', `/api/follow-ups/${task.id}/outcome`, {
+      session: s.chair,
+      body: { outcome: 'done', note: 'Margin seen on the site visit.', version: task.version },
+    });
     expect(done.status).toBe(200);
     const later = (await api('GET', '/api/dashboard', { session: s.chair })).body;
     expect(later.conditions.open).toBe(after.conditions.open - 1);
@@ -85,12 +101,24 @@ describe('GET /api/dashboard', () => {
   }, 120_000);
 
   it('lists proposals past their statutory decision date, and only those', async () => {
-    const open = await testDb('proposal').whereIn('state', ['submitted', 'in-assessment', 'assessed', 'on-agenda']).orderBy('id').first();
-    await testDb('proposal').where({ id: open.id }).update({ decision_due: testDb.raw("current_date - interval '3 days'") });
+    const open = await testDb('proposal')
+      .whereIn('state', ['submitted', 'in-assessment', 'assessed', 'on-agenda'])
+      .orderBy('id')
+      .first();
+    await testDb('proposal')
+      .where({ id: open.id })
+      .update({ decision_due: testDb.raw("current_date - interval '3 days'") });
     try {
       const d = (await api('GET', '/api/dashboard', { session: s.planner })).body;
-      expect(d.overdueProposals.find((p: { id: number }) => p.id === Number(open.id))).toMatchObject({ reference: open.reference, daysOverdue: 3 });
-      const late = (await testDb.raw(`select count(*)::int as n from proposal where state in ('submitted', 'in-assessment', 'assessed', 'on-agenda') and decision_due < current_date`)).rows[0].n;
+      expect(d.overdueProposals.find((p: { id: number }) => p.id === Number(open.id))).toMatchObject({
+        reference: open.reference,
+        daysOverdue: 3,
+      });
+      const late = (
+        await testDb.raw(
+          `select count(*)::int as n from proposal where state in ('submitted', 'in-assessment', 'assessed', 'on-agenda') and decision_due < current_date`,
+        )
+      ).rows[0].n;
       expect(d.overdueProposals).toHaveLength(late);
     } finally {
       await testDb('proposal').where({ id: open.id }).update({ decision_due: open.decision_due });

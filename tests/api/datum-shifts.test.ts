@@ -28,7 +28,8 @@ afterAll(() => testDb.destroy());
 
 const WGS84 = '+proj=longlat +datum=WGS84 +no_defs';
 /** Ground distance between two lon/lat points, m (equirectangular; fine at these distances, common practice). */
-const metres = (a: Position, b: Position) => Math.hypot((a[0]! - b[0]!) * 111_320 * Math.cos((a[1]! * Math.PI) / 180), (a[1]! - b[1]!) * 110_540);
+const metres = (a: Position, b: Position) =>
+  Math.hypot((a[0]! - b[0]!) * 111_320 * Math.cos((a[1]! * Math.PI) / 180), (a[1]! - b[1]!) * 110_540);
 
 const ESRI = {
   rd: 'PROJCS["RD_New",GEOGCS["GCS_Amersfoort",DATUM["D_Amersfoort",SPHEROID["Bessel_1841",6377397.155,299.1528128]],PRIMEM["Greenwich",0.0],UNIT["Degree",0.0174532925199433]],PROJECTION["Double_Stereographic"],PARAMETER["False_Easting",155000.0],PARAMETER["False_Northing",463000.0],PARAMETER["Central_Meridian",5.38763888888889],PARAMETER["Scale_Factor",0.9999079],PARAMETER["Latitude_Of_Origin",52.15616055555555],UNIT["Meter",1.0]]',
@@ -56,7 +57,10 @@ const GRIDS = [
     point: [150000, 170000],
     // EPSG transformation 15929 "BD72 to WGS 84 (3)", coordinate frame: tx -106.8686, ty 52.2978, tz -103.7239 m,
     // rx -0.3366, ry 0.457, rz -1.8422", ds -1.2747 ppm (from memory); rotations negated for proj4.
-    expected: viaHelmert('+proj=lcc +lat_0=90 +lon_0=4.36748666666667 +lat_1=51.1666672333333 +lat_2=49.8333339 +x_0=150000.013 +y_0=5400088.438 +ellps=intl +towgs84=-106.8686,52.2978,-103.7239,0.3366,-0.457,1.8422,-1.2747 +units=m', [150000, 170000]),
+    expected: viaHelmert(
+      '+proj=lcc +lat_0=90 +lon_0=4.36748666666667 +lat_1=51.1666672333333 +lat_2=49.8333339 +x_0=150000.013 +y_0=5400088.438 +ellps=intl +towgs84=-106.8686,52.2978,-103.7239,0.3366,-0.457,1.8422,-1.2747 +units=m',
+      [150000, 170000],
+    ),
   },
   {
     label: 'DHDN / Gauss-Krüger zone 3 (Germany)',
@@ -65,7 +69,10 @@ const GRIDS = [
     point: [3500000, 5500000],
     // EPSG transformation 1777 "DHDN to WGS 84 (2)", position vector: 598.1, 73.7, 418.2 m, 0.202, 0.045, -2.455", 6.7 ppm
     // (from memory; stated accuracy 3 m, PROJ may use the finer BETA2007 grid instead).
-    expected: viaHelmert('+proj=tmerc +lat_0=0 +lon_0=9 +k=1 +x_0=3500000 +y_0=0 +ellps=bessel +towgs84=598.1,73.7,418.2,0.202,0.045,-2.455,6.7 +units=m', [3500000, 5500000]),
+    expected: viaHelmert(
+      '+proj=tmerc +lat_0=0 +lon_0=9 +k=1 +x_0=3500000 +y_0=0 +ellps=bessel +towgs84=598.1,73.7,418.2,0.202,0.045,-2.455,6.7 +units=m',
+      [3500000, 5500000],
+    ),
   },
   {
     label: 'TM75 / Irish Grid',
@@ -73,7 +80,10 @@ const GRIDS = [
     epsg: 29903,
     point: [200000, 250000],
     // EPSG transformation 1954 "TM75 to WGS 84 (2)", position vector: 482.5, -130.6, 564.6 m, -1.042, -0.214, -0.631", 8.15 ppm (from memory).
-    expected: viaHelmert('+proj=tmerc +lat_0=53.5 +lon_0=-8 +k=1.000035 +x_0=200000 +y_0=250000 +a=6377340.189 +rf=299.3249646 +towgs84=482.5,-130.6,564.6,-1.042,-0.214,-0.631,8.15 +units=m', [200000, 250000]),
+    expected: viaHelmert(
+      '+proj=tmerc +lat_0=53.5 +lon_0=-8 +k=1.000035 +x_0=200000 +y_0=250000 +a=6377340.189 +rf=299.3249646 +towgs84=482.5,-130.6,564.6,-1.042,-0.214,-0.631,8.15 +units=m',
+      [200000, 250000],
+    ),
   },
 ];
 
@@ -82,7 +92,10 @@ describe('national grids as ESRI WKT without an EPSG code', () => {
     it(`${g.label}: identified as EPSG:${g.epsg}, control point within 1 m`, async () => {
       const crs = await crsFromPrj(g.prj);
       expect(crs.epsg).toBe(g.epsg);
-      const square = { type: 'Polygon' as const, coordinates: [[g.point, [g.point[0]! + 100, g.point[1]!], [g.point[0]! + 100, g.point[1]! + 100], g.point]] };
+      const square = {
+        type: 'Polygon' as const,
+        coordinates: [[g.point, [g.point[0]! + 100, g.point[1]!], [g.point[0]! + 100, g.point[1]! + 100], g.point]],
+      };
       const [f] = await reprojectLayer(testDb, [{ geometry: square, properties: {} }], crs, 'control');
       const got = (f!.geometry as { coordinates: Position[][] }).coordinates[0]![0]!;
       expect(metres(got, g.expected)).toBeLessThan(1);
@@ -92,28 +105,81 @@ describe('national grids as ESRI WKT without an EPSG code', () => {
   it('a whole upload: an RD New shapefile whose .prj has no EPSG code lands in the right place', async () => {
     const x = 155000;
     const y = 463000;
-    const files = writePolygonShapefile([{ geometry: { type: 'Polygon', coordinates: [[[x, y], [x + 100, y], [x + 100, y + 100], [x, y + 100], [x, y]]] }, properties: { field_ref: 'RD-1', name: 'Amersfoort', stated_ha: null, last_till: null } }], { fields: FIELDS, prjWkt: ESRI.rd });
+    const files = writePolygonShapefile(
+      [
+        {
+          geometry: {
+            type: 'Polygon',
+            coordinates: [
+              [
+                [x, y],
+                [x + 100, y],
+                [x + 100, y + 100],
+                [x, y + 100],
+                [x, y],
+              ],
+            ],
+          },
+          properties: { field_ref: 'RD-1', name: 'Amersfoort', stated_ha: null, last_till: null },
+        },
+      ],
+      { fields: FIELDS, prjWkt: ESRI.rd },
+    );
     const staged = await uploadFile(planner, 'rd-new.zip', zipOf(layerEntries('rd', files)));
     expect(staged.body.layers[0].crs).toMatchObject({ epsg: 28992, source: 'prj' });
     await withSetting('territory', null, async () => {
-      const report = await api('POST', `/api/uploads/${staged.body.id}/validation`, { session: planner, body: { layer: 'rd', mapping: { reference: 'field_ref' } } });
+      const report = await api('POST', `/api/uploads/${staged.body.id}/validation`, {
+        session: planner,
+        body: { layer: 'rd', mapping: { reference: 'field_ref' } },
+      });
       expect(report.body.summary).toMatchObject({ total: 1, rejected: 0 });
     });
-    const row = await testDb.raw('select st_x(st_startpoint(st_exteriorring(st_geometryn(geom, 1)))) x, st_y(st_startpoint(st_exteriorring(st_geometryn(geom, 1)))) y from upload_staging_feature where staging_id = ?', [staged.body.id]);
+    const row = await testDb.raw(
+      'select st_x(st_startpoint(st_exteriorring(st_geometryn(geom, 1)))) x, st_y(st_startpoint(st_exteriorring(st_geometryn(geom, 1)))) y from upload_staging_feature where staging_id = ?',
+      [staged.body.id],
+    );
     expect(metres([row.rows[0].x, row.rows[0].y], GRIDS[0]!.expected)).toBeLessThan(1);
     await api('DELETE', `/api/uploads/${staged.body.id}`, { session: planner });
   });
 
   it('refuses a .prj on a datum with no known transformation to WGS 84, and asks for a code', async () => {
-    const invented = ESRI.ie.replace('TM75_Irish_Grid', 'Tarrow_Estate_Grid').replace('GCS_TM75', 'GCS_Tarrow_1911').replace('D_TM75', 'D_Tarrow_1911').replace('"Airy_Modified",6377340.189,299.3249646', '"Clarke_1880",6378249.145,293.465').replace('-8.0', '-7.25');
+    const invented = ESRI.ie
+      .replace('TM75_Irish_Grid', 'Tarrow_Estate_Grid')
+      .replace('GCS_TM75', 'GCS_Tarrow_1911')
+      .replace('D_TM75', 'D_Tarrow_1911')
+      .replace('"Airy_Modified",6377340.189,299.3249646', '"Clarke_1880",6378249.145,293.465')
+      .replace('-8.0', '-7.25');
     await expect(crsFromPrj(invented)).rejects.toThrow(
       'The .prj "Tarrow_Estate_Grid" is on a datum for which no transformation to WGS 84 is known, so its coordinates cannot be placed to the metre. Choose the coordinate reference system by EPSG code (one with a known transformation), or add TOWGS84 parameters to the .prj.',
     );
-    const files = writePolygonShapefile([{ geometry: { type: 'Polygon', coordinates: [[[200000, 250000], [200100, 250000], [200100, 250100], [200000, 250000]]] }, properties: { field_ref: 'TE-1', name: 'x', stated_ha: null, last_till: null } }], { fields: FIELDS, prjWkt: invented });
+    const files = writePolygonShapefile(
+      [
+        {
+          geometry: {
+            type: 'Polygon',
+            coordinates: [
+              [
+                [200000, 250000],
+                [200100, 250000],
+                [200100, 250100],
+                [200000, 250000],
+              ],
+            ],
+          },
+          properties: { field_ref: 'TE-1', name: 'x', stated_ha: null, last_till: null },
+        },
+      ],
+      { fields: FIELDS, prjWkt: invented },
+    );
     const staged = await uploadFile(planner, 'estate.zip', zipOf(layerEntries('estate', files)));
     expect(staged.body.layers[0].crs).toBeNull();
-    expect(staged.body.layers[0].crsNote).toMatch(/no transformation to WGS 84 is known.*Choose the coordinate reference system by EPSG code/);
-    const report = await api('POST', `/api/uploads/${staged.body.id}/validation`, { session: planner, body: { layer: 'estate', mapping: { reference: 'field_ref' } } });
+    expect(staged.body.layers[0].crsNote).toMatch(
+      /no transformation to WGS 84 is known.*Choose the coordinate reference system by EPSG code/,
+    );
+    const report = await api('POST', `/api/uploads/${staged.body.id}/validation`, {
+      session: planner,
+      body: { layer: 'estate', mapping: { reference: 'field_ref' } },
+    });
     expect(report.status).toBe(422);
     expect(report.body.error.message).toMatch(/no transformation to WGS 84 is known/);
     await api('DELETE', `/api/uploads/${staged.body.id}`, { session: planner });

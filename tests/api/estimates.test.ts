@@ -69,9 +69,23 @@ describe('POST /api/estimates refuses bad input with 422 naming the field', () =
   const cases: [string, unknown, (string | number)[]][] = [
     ['an unknown climate region', { ...base, climate: 'sub-arctic-damp' }, ['climate']],
     ['an unknown soil class', { ...base, soils: [{ type: 'loam', fraction: 1 }] }, ['soils', 0, 'type']],
-    ['fractions that do not sum to 1', { ...base, soils: [{ type: 'hac', fraction: 0.5 }, { type: 'sandy', fraction: 0.4 }] }, ['soils']],
+    [
+      'fractions that do not sum to 1',
+      {
+        ...base,
+        soils: [
+          { type: 'hac', fraction: 0.5 },
+          { type: 'sandy', fraction: 0.4 },
+        ],
+      },
+      ['soils'],
+    ],
     ['a negative area', { ...base, areaHa: -3 }, ['areaHa']],
-    ['high input on nominal grassland', { ...base, before: { landUse: 'grassland', management: 'nominal', input: 'high' } }, ['before', 'input']],
+    [
+      'high input on nominal grassland',
+      { ...base, before: { landUse: 'grassland', management: 'nominal', input: 'high' } },
+      ['before', 'input'],
+    ],
     ['an unknown factor set', { ...base, factorSet: 'no-such-set' }, ['factorSet']],
   ];
   for (const [what, body, path] of cases) {
@@ -85,7 +99,10 @@ describe('POST /api/estimates refuses bad input with 422 naming the field', () =
 
   it('a soil class with no reference stock in the region (not applicable in Table 2.3)', async () => {
     // IPCC 2006 Vol 4 Ch 2 Table 2.3 gives no spodic reference stock for tropical regions.
-    const res = await api('POST', '/api/estimates', { session, body: { ...base, climate: 'tropical-moist', soils: [{ type: 'spodic', fraction: 1 }] } });
+    const res = await api('POST', '/api/estimates', {
+      session,
+      body: { ...base, climate: 'tropical-moist', soils: [{ type: 'spodic', fraction: 1 }] },
+    });
     expect(res.status).toBe(422);
     expect(JSON.stringify(res.body.error.issues)).toMatch(/soils/);
   });

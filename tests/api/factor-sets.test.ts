@@ -42,7 +42,16 @@ describe('shipped sets', () => {
 
 describe('a country-specific set', () => {
   it('is cloned by an admin as a draft, and cannot be used until published', async () => {
-    const res = await api('POST', '/api/factor-sets', { session: admin, body: { from: { id: 'ipcc-2006' }, id, title: 'Upper Tarrow Tier 2', description: 'Regional soil survey stocks', reason: 'Regional soil survey of 2025 gives local reference stocks.' } });
+    const res = await api('POST', '/api/factor-sets', {
+      session: admin,
+      body: {
+        from: { id: 'ipcc-2006' },
+        id,
+        title: 'Upper Tarrow Tier 2',
+        description: 'Regional soil survey stocks',
+        reason: 'Regional soil survey of 2025 gives local reference stocks.',
+      },
+    });
     expect(res.status).toBe(201);
     expect(res.body).toEqual({ id, version: 1 });
     const est = await api('POST', '/api/estimates', { session: assessor, body: { ...we1, factorSet: id } });
@@ -51,18 +60,35 @@ describe('a country-specific set', () => {
   });
 
   it('refuses an edit without a reason, and one of a not-applicable cell', async () => {
-    const noReason = await api('PATCH', `/api/factor-sets/${id}/draft`, { session: admin, body: { tableKey: 'soc-ref', entryKey: 'warm-temperate-moist/hac', value: 92, reason: '' } });
+    const noReason = await api('PATCH', `/api/factor-sets/${id}/draft`, {
+      session: admin,
+      body: { tableKey: 'soc-ref', entryKey: 'warm-temperate-moist/hac', value: 92, reason: '' },
+    });
     expect(noReason.status).toBe(422);
     expect(noReason.body.error.issues[0].path).toEqual(['reason']);
-    const na = await api('PATCH', `/api/factor-sets/${id}/draft`, { session: admin, body: { tableKey: 'soc-ref', entryKey: 'polar/hac', value: 10, reason: 'Trying a cell with no value' } });
+    const na = await api('PATCH', `/api/factor-sets/${id}/draft`, {
+      session: admin,
+      body: { tableKey: 'soc-ref', entryKey: 'polar/hac', value: 10, reason: 'Trying a cell with no value' },
+    });
     expect(na.status).toBe(422);
     expect(na.body.error.message).toMatch(/not applicable/);
   });
 
   it('records an edit with its reason, publishes, and computes with the new value', async () => {
-    const edit = await api('PATCH', `/api/factor-sets/${id}/draft`, { session: admin, body: { tableKey: 'soc-ref', entryKey: 'warm-temperate-moist/hac', value: 100, reason: 'Tarrow soil survey 2025, 212 cores, mean 0-30 cm stock' } });
+    const edit = await api('PATCH', `/api/factor-sets/${id}/draft`, {
+      session: admin,
+      body: {
+        tableKey: 'soc-ref',
+        entryKey: 'warm-temperate-moist/hac',
+        value: 100,
+        reason: 'Tarrow soil survey 2025, 212 cores, mean 0-30 cm stock',
+      },
+    });
     expect(edit.status).toBe(204);
-    const pub = await api('POST', `/api/factor-sets/${id}/publish`, { session: admin, body: { note: 'Local HAC reference stock' } });
+    const pub = await api('POST', `/api/factor-sets/${id}/publish`, {
+      session: admin,
+      body: { note: 'Local HAC reference stock' },
+    });
     expect(pub.body).toEqual({ version: 1 });
     const est = await api('POST', '/api/estimates', { session: assessor, body: { ...we1, factorSet: id } });
     expect(est.status).toBe(200);
@@ -71,13 +97,27 @@ describe('a country-specific set', () => {
     expect(est.body.socAfterPerHa).toBeCloseTo(69, 6);
     expect(est.body.factorSet).toEqual({ id, version: 1 });
     const view = await api('GET', `/api/factor-sets/${id}`, { session: assessor });
-    expect(view.body.edits[0]).toMatchObject({ table: 'soc-ref', entry: 'warm-temperate-moist/hac', reason: expect.stringMatching(/soil survey/) });
-    const audit = await testDb('audit_event').where({ action: 'factor-set.edit', entity_id: `${id}@1` }).first();
+    expect(view.body.edits[0]).toMatchObject({
+      table: 'soc-ref',
+      entry: 'warm-temperate-moist/hac',
+      reason: expect.stringMatching(/soil survey/),
+    });
+    const audit = await testDb('audit_event')
+      .where({ action: 'factor-set.edit', entity_id: `${id}@1` })
+      .first();
     expect(audit.details.reason).toMatch(/soil survey/);
   });
 
   it('a published version is immutable: edits need a new draft', async () => {
-    const res = await api('PATCH', `/api/factor-sets/${id}/draft`, { session: admin, body: { tableKey: 'soc-ref', entryKey: 'warm-temperate-moist/hac', value: 101, reason: 'A second look at the survey' } });
+    const res = await api('PATCH', `/api/factor-sets/${id}/draft`, {
+      session: admin,
+      body: {
+        tableKey: 'soc-ref',
+        entryKey: 'warm-temperate-moist/hac',
+        value: 101,
+        reason: 'A second look at the survey',
+      },
+    });
     expect(res.status).toBe(409);
     const draft = await api('POST', `/api/factor-sets/${id}/draft`, { session: admin });
     expect(draft.body).toEqual({ version: 2 });
@@ -88,14 +128,22 @@ describe('a country-specific set', () => {
     expect(res.status).toBe(200);
     const valueChanges = res.body.items.filter((d: { changed: string[] }) => d.changed.includes('value'));
     expect(valueChanges).toHaveLength(1);
-    expect(valueChanges[0]).toMatchObject({ table: 'soc-ref', entry: 'warm-temperate-moist/hac', a: { value: 88 }, b: { value: 100 } });
+    expect(valueChanges[0]).toMatchObject({
+      table: 'soc-ref',
+      entry: 'warm-temperate-moist/hac',
+      a: { value: 88 },
+      b: { value: 100 },
+    });
   });
 
   it('confirming every table the estimate uses makes it ready for sign-off; confirmation is audited', async () => {
     const first = await api('POST', '/api/estimates', { session: assessor, body: { ...we1, factorSet: id } });
     expect(first.body.signOffReady).toBe(false);
     for (const tableKey of first.body.unconfirmedTablesUsed) {
-      const res = await api('POST', `/api/factor-sets/${id}/versions/1/confirmations`, { session: admin, body: { tableKey, document: 'Tarrow soil survey report 2025 and IPCC 2006 Vol 4', page: '12' } });
+      const res = await api('POST', `/api/factor-sets/${id}/versions/1/confirmations`, {
+        session: admin,
+        body: { tableKey, document: 'Tarrow soil survey report 2025 and IPCC 2006 Vol 4', page: '12' },
+      });
       expect(res.status).toBe(204);
     }
     const again = await api('POST', '/api/estimates', { session: assessor, body: { ...we1, factorSet: id } });
@@ -106,7 +154,10 @@ describe('a country-specific set', () => {
   });
 
   it('an assessor cannot change factor sets', async () => {
-    const res = await api('POST', `/api/factor-sets/${id}/publish`, { session: assessor, body: { note: 'sneaky publish' } });
+    const res = await api('POST', `/api/factor-sets/${id}/publish`, {
+      session: assessor,
+      body: { note: 'sneaky publish' },
+    });
     expect(res.status).toBe(403);
   });
 });

@@ -26,9 +26,20 @@ describe('a huge validation does not block other requests', () => {
     const n = 100_000;
     const ring: Position[] = [];
     // A circle of 300 m radius west of the demo fields (x -600 m, y 2500 m from the grid origin).
-    for (let i = 0; i < n; i++) ring.push(toWgs84([x0! - 600 + 300 * Math.cos((2 * Math.PI * i) / n), y0! + 2500 + 300 * Math.sin((2 * Math.PI * i) / n)], utm));
+    for (let i = 0; i < n; i++)
+      ring.push(
+        toWgs84(
+          [x0! - 600 + 300 * Math.cos((2 * Math.PI * i) / n), y0! + 2500 + 300 * Math.sin((2 * Math.PI * i) / n)],
+          utm,
+        ),
+      );
     ring.push(ring[0]!);
-    const file = JSON.stringify({ type: 'FeatureCollection', features: [{ type: 'Feature', properties: { ref: 'HUGE-1' }, geometry: { type: 'Polygon', coordinates: [ring] } }] });
+    const file = JSON.stringify({
+      type: 'FeatureCollection',
+      features: [
+        { type: 'Feature', properties: { ref: 'HUGE-1' }, geometry: { type: 'Polygon', coordinates: [ring] } },
+      ],
+    });
 
     const answers: { status: number; during: boolean }[] = [];
     let validating = false;
@@ -45,7 +56,10 @@ describe('a huge validation does not block other requests', () => {
     const staged = await uploadFile(planner, 'huge.geojson', file);
     expect(staged.status).toBe(201);
     validating = true;
-    const report = await api('POST', `/api/uploads/${staged.body.id}/validation`, { session: planner, body: { layer: staged.body.layers[0].name, mapping: { reference: 'ref' } } });
+    const report = await api('POST', `/api/uploads/${staged.body.id}/validation`, {
+      session: planner,
+      body: { layer: staged.body.layers[0].name, mapping: { reference: 'ref' } },
+    });
     validating = false;
     running = false;
     await poll;

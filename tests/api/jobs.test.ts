@@ -12,7 +12,9 @@ import { api, DEMO, signIn, type Session } from '../support/http';
 
 let planner: Session, assessor: Session, board: Session, chair: Session, admin: Session;
 beforeAll(async () => {
-  [planner, assessor, board, chair, admin] = await Promise.all([DEMO.planner, DEMO.assessor, DEMO.board, DEMO.chair, DEMO.admin].map((e) => signIn(e)));
+  [planner, assessor, board, chair, admin] = await Promise.all(
+    [DEMO.planner, DEMO.assessor, DEMO.board, DEMO.chair, DEMO.admin].map((e) => signIn(e)),
+  );
 });
 afterAll(async () => {
   await testDb.destroy();
@@ -38,19 +40,24 @@ describe('the job queue', () => {
       rows = await testDb.withSchema('pgboss').table('schedule').select('name', 'cron').orderBy('name');
       await new Promise((r) => setTimeout(r, 200));
     }
-    expect(rows).toEqual(JOB_NAMES.map((n) => ({ name: n, cron: JOB_INFO[n].cron })).sort((a, b) => a.name.localeCompare(b.name)));
+    expect(rows).toEqual(
+      JOB_NAMES.map((n) => ({ name: n, cron: JOB_INFO[n].cron })).sort((a, b) => a.name.localeCompare(b.name)),
+    );
   });
 
   it('only an admin may queue a run; unknown jobs are refused', async () => {
     expect((await api('POST', '/api/jobs/follow-up-overdue/run')).status).toBe(401);
-    for (const s of [planner, assessor, board, chair]) expect((await api('POST', '/api/jobs/follow-up-overdue/run', { session: s })).status).toBe(403);
+    for (const s of [planner, assessor, board, chair])
+      expect((await api('POST', '/api/jobs/follow-up-overdue/run', { session: s })).status).toBe(403);
     expect((await api('POST', '/api/jobs/no-such-job/run', { session: admin })).status).toBe(422);
   });
 
   it('a queued run really happens through pg-boss: the overdue task is mailed and the run completes with what it did', async () => {
     const d = await decidedProposal({ planner, assessor, board, chair }, 'approved-with-conditions');
     const task = await testDb('follow_up_task').where({ proposal_id: d.proposal.id, kind: 'condition' }).first();
-    await testDb('follow_up_task').where({ id: task.id }).update({ due_date: addDays(today(), -10) });
+    await testDb('follow_up_task')
+      .where({ id: task.id })
+      .update({ due_date: addDays(today(), -10) });
     const since = await lastMailId();
     const queued = await api('POST', '/api/jobs/follow-up-overdue/run', { session: admin });
     expect(queued.status).toBe(202);
@@ -61,16 +68,26 @@ describe('the job queue', () => {
     await waitForMail(DEMO.assessor, new RegExp(`Follow-up overdue on ${d.proposal.reference}`), since);
     expect(await testDb('notice_sent').where({ subject_type: 'follow_up_task', subject_id: task.id })).toHaveLength(1);
     // A second run finds nothing new to send.
-    const second = await finished('follow-up-overdue', (await api('POST', '/api/jobs/follow-up-overdue/run', { session: admin })).body.jobId);
+    const second = await finished(
+      'follow-up-overdue',
+      (await api('POST', '/api/jobs/follow-up-overdue/run', { session: admin })).body.jobId,
+    );
     expect(second.output.overdue).toBe(0);
-    expect(Number((await testDb('audit_event').where({ action: 'job.run-now' }).count('* as n').first())?.n)).toBeGreaterThanOrEqual(2);
+    expect(
+      Number((await testDb('audit_event').where({ action: 'job.run-now' }).count('* as n').first())?.n),
+    ).toBeGreaterThanOrEqual(2);
   }, 120_000);
 
   it('the deadline reminder job runs the same way', async () => {
     const queued = await api('POST', '/api/jobs/deadline-reminders/run', { session: admin });
     expect(queued.status).toBe(202);
     const run = await finished('deadline-reminders', queued.body.jobId);
-    expect(run).toMatchObject({ state: 'completed', output: { reminders: expect.any(Number), overdue: expect.any(Number) } });
-    expect((await api('GET', `/api/jobs/deadline-reminders/runs/${crypto.randomUUID()}`, { session: admin })).status).toBe(404);
+    expect(run).toMatchObject({
+      state: 'completed',
+      output: { reminders: expect.any(Number), overdue: expect.any(Number) },
+    });
+    expect(
+      (await api('GET', `/api/jobs/deadline-reminders/runs/${crypto.randomUUID()}`, { session: admin })).status,
+    ).toBe(404);
   });
 });

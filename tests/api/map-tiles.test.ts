@@ -23,7 +23,10 @@ const SECOND = `http://127.0.0.1:${SECOND_APP_PORT}`;
 const tileOf = (lon: number, lat: number, z: number) => {
   const n = 2 ** z;
   const r = (lat * Math.PI) / 180;
-  return [Math.floor(((lon + 180) / 360) * n), Math.floor(((1 - Math.log(Math.tan(r) + 1 / Math.cos(r)) / Math.PI) / 2) * n)] as const;
+  return [
+    Math.floor(((lon + 180) / 360) * n),
+    Math.floor(((1 - Math.log(Math.tan(r) + 1 / Math.cos(r)) / Math.PI) / 2) * n),
+  ] as const;
 };
 const [X, Y] = tileOf(-16.0, 52.39, 14);
 const ALLOWED = ['id', 'reference', 'land_use', 'area_ha', 'screening_level'];
@@ -32,7 +35,10 @@ let planner: Session;
 let second: ChildProcess;
 beforeAll(async () => {
   planner = await signIn(DEMO.planner);
-  second = await startAppInstance({ ...appEnv(SECOND_APP_PORT), MAIL_WORKER: 'off', JOB_QUEUE: 'off' }, SECOND_APP_PORT);
+  second = await startAppInstance(
+    { ...appEnv(SECOND_APP_PORT), MAIL_WORKER: 'off', JOB_QUEUE: 'off' },
+    SECOND_APP_PORT,
+  );
 });
 afterAll(async () => {
   await stopProcess(second);
@@ -46,8 +52,16 @@ async function config(base = BASE_URL) {
 }
 
 /** A tile fetched with the token only (no cookie). */
-async function tile(base: string, c: { dataVersion: number; tileToken: string }, headers: Record<string, string> = {}, [x, y]: readonly [number, number] = [X, Y]) {
-  const res = await fetch(`${base}/api/tiles/14/${x}/${y}.mvt?v=${c.dataVersion}&t=${encodeURIComponent(c.tileToken)}`, { headers });
+async function tile(
+  base: string,
+  c: { dataVersion: number; tileToken: string },
+  headers: Record<string, string> = {},
+  [x, y]: readonly [number, number] = [X, Y],
+) {
+  const res = await fetch(
+    `${base}/api/tiles/14/${x}/${y}.mvt?v=${c.dataVersion}&t=${encodeURIComponent(c.tileToken)}`,
+    { headers },
+  );
   const bytes = new Uint8Array(await res.arrayBuffer());
   return { res, bytes };
 }
@@ -68,7 +82,8 @@ describe('tile tokens', () => {
       expect(res.headers.get('cache-control')).toMatch(/private, max-age=86400, immutable/);
       const layer = new VectorTile(new PbfReader(bytes)).layers.parcels!;
       expect(layer.length).toBeGreaterThan(0);
-      for (let i = 0; i < layer.length; i++) for (const k of Object.keys(layer.feature(i).properties)) expect(ALLOWED).toContain(k);
+      for (let i = 0; i < layer.length; i++)
+        for (const k of Object.keys(layer.feature(i).properties)) expect(ALLOWED).toContain(k);
       const text = Buffer.from(bytes).toString('latin1');
       for (const secret of await personalSecrets()) expect(text).not.toContain(secret);
     }
@@ -96,12 +111,26 @@ describe('tiles kept by data version across instances', () => {
     // A free spot west of the demo grid (UTM 28N metres from its origin, as gis/lib/demo-parcels.ts lays it out) and its tile.
     const utm = await crsFromEpsg(32628);
     const o = fromWgs84(CORROWMERE.originLonLat, utm).map((n) => Math.round(n));
-    const ring = [[-650, 520], [-560, 520], [-560, 600], [-650, 600], [-650, 520]].map(([dx, dy]) => toWgs84([o[0]! + dx!, o[1]! + dy!], utm));
+    const ring = [
+      [-650, 520],
+      [-560, 520],
+      [-560, 600],
+      [-650, 600],
+      [-650, 520],
+    ].map(([dx, dy]) => toWgs84([o[0]! + dx!, o[1]! + dy!], utm));
     const at = tileOf(ring[0]![0]!, ring[0]![1]!, 14);
     const before = await config();
     const old = { A: await tile(BASE_URL, before, {}, at), B: await tile(SECOND, before, {}, at) };
     // A parcel drawn through instance B bumps the map version.
-    const made = await api('POST', '/api/parcels', { session: planner, base: SECOND, body: { reference: 'TEST-TILEV-1', geometry: { type: 'Polygon', coordinates: [ring] }, evidence: 'tile version test' } });
+    const made = await api('POST', '/api/parcels', {
+      session: planner,
+      base: SECOND,
+      body: {
+        reference: 'TEST-TILEV-1',
+        geometry: { type: 'Polygon', coordinates: [ring] },
+        evidence: 'tile version test',
+      },
+    });
     expect(made.status).toBeLessThan(300);
     const after = await config(BASE_URL);
     expect(after.dataVersion).toBeGreaterThan(before.dataVersion);
@@ -110,10 +139,15 @@ describe('tiles kept by data version across instances', () => {
       expect(fresh.res.headers.get('etag')).toBe(`"m${after.dataVersion}"`);
       expect(parcelRefs(fresh.bytes)).toContain('TEST-TILEV-1');
       // Unversioned (session) request: the current data too.
-      const current = await fetch(`${base}/api/tiles/14/${at[0]}/${at[1]}.mvt`, { headers: { cookie: planner.cookie } });
+      const current = await fetch(`${base}/api/tiles/14/${at[0]}/${at[1]}.mvt`, {
+        headers: { cookie: planner.cookie },
+      });
       expect(parcelRefs(new Uint8Array(await current.arrayBuffer()))).toContain('TEST-TILEV-1');
     }
-    for (const [base, was] of [[BASE_URL, old.A], [SECOND, old.B]] as const) {
+    for (const [base, was] of [
+      [BASE_URL, old.A],
+      [SECOND, old.B],
+    ] as const) {
       const stale = await tile(base, before, {}, at);
       expect(stale.res.headers.get('etag')).toBe(`"m${before.dataVersion}"`);
       expect(Buffer.from(stale.bytes).equals(Buffer.from(was.bytes))).toBe(true);

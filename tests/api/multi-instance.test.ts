@@ -14,7 +14,10 @@ let second: ChildProcess;
 
 beforeAll(async () => {
   // The second instance applies a strict sign-in limit; counters are shared through the database.
-  second = await startAppInstance({ ...appEnv(SECOND_PORT), AUTH_SIGNIN_MAX: '3', AUTH_SIGNIN_WINDOW_S: '60', MAIL_WORKER: 'off' }, SECOND_PORT);
+  second = await startAppInstance(
+    { ...appEnv(SECOND_PORT), AUTH_SIGNIN_MAX: '3', AUTH_SIGNIN_WINDOW_S: '60', MAIL_WORKER: 'off' },
+    SECOND_PORT,
+  );
 });
 afterAll(() => stopProcess(second));
 
@@ -29,12 +32,18 @@ describe('several stateless instances', () => {
   it('repeated failed sign-ins are rate-limited, and the limit also stops the right password', async () => {
     let limited = false;
     for (let i = 0; i < 8 && !limited; i++) {
-      const res = await api('POST', '/api/auth/sign-in/email', { base: SECOND, body: { email: DEMO.board, password: `guess-${i}-wrong` } });
+      const res = await api('POST', '/api/auth/sign-in/email', {
+        base: SECOND,
+        body: { email: DEMO.board, password: `guess-${i}-wrong` },
+      });
       expect([401, 429]).toContain(res.status);
       limited = res.status === 429;
     }
     expect(limited).toBe(true);
-    const right = await api('POST', '/api/auth/sign-in/email', { base: SECOND, body: { email: DEMO.board, password: 'meadow-lark-2026' } });
+    const right = await api('POST', '/api/auth/sign-in/email', {
+      base: SECOND,
+      body: { email: DEMO.board, password: 'meadow-lark-2026' },
+    });
     expect(right.status).toBe(429);
   });
 });

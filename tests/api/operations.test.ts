@@ -33,7 +33,9 @@ async function requestLine(file: string, reqId: string): Promise<LogLine> {
 }
 
 const APP_LOG = `.data/test-app-${APP_PORT}.log`;
-const MIGRATIONS = readdirSync('migrations').filter((f) => f.endsWith('.ts')).sort();
+const MIGRATIONS = readdirSync('migrations')
+  .filter((f) => f.endsWith('.ts'))
+  .sort();
 const extra: ChildProcess[] = [];
 afterAll(async () => {
   for (const child of extra) await stopProcess(child);
@@ -43,16 +45,35 @@ describe('request ids and request logs', () => {
   it('echoes a well-formed X-Request-Id and logs one JSON line with route, status and duration', async () => {
     const id = `ops-test-${Date.now()}`;
     // A query string that carries personal data must never reach the log.
-    const res = await fetch(`${BASE_URL}/api/register?q=${encodeURIComponent('someone.private@mail.example')}&page=1`, { headers: { 'x-request-id': id } });
+    const res = await fetch(`${BASE_URL}/api/register?q=${encodeURIComponent('someone.private@mail.example')}&page=1`, {
+      headers: { 'x-request-id': id },
+    });
     expect(res.status).toBe(200);
     expect(res.headers.get('x-request-id')).toBe(id);
     const line = await requestLine(APP_LOG, id);
-    expect(line).toMatchObject({ level: 'info', service: 'swardkeep', msg: 'request', method: 'GET', route: '/api/register', status: 200 });
+    expect(line).toMatchObject({
+      level: 'info',
+      service: 'swardkeep',
+      msg: 'request',
+      method: 'GET',
+      route: '/api/register',
+      status: 200,
+    });
     expect(typeof line.durationMs).toBe('number');
     expect(line.durationMs as number).toBeGreaterThanOrEqual(0);
     expect(new Date(String(line.time)).toString()).not.toBe('Invalid Date');
     // Only these fields: no URL, query, client address, user or headers.
-    expect(Object.keys(line).sort()).toEqual(['durationMs', 'level', 'method', 'msg', 'reqId', 'route', 'service', 'status', 'time']);
+    expect(Object.keys(line).sort()).toEqual([
+      'durationMs',
+      'level',
+      'method',
+      'msg',
+      'reqId',
+      'route',
+      'service',
+      'status',
+      'time',
+    ]);
     expect(readFileSync(APP_LOG, 'utf8')).not.toContain('someone.private');
   });
 
@@ -106,10 +127,16 @@ describe('readiness', () => {
     await client.connect();
     try {
       // A database migrated by this checkout, whose bookkeeping then forgets the last migration.
-      execFileSync(process.execPath, ['--import', 'tsx', 'scripts/migrate.ts', 'latest'], { env: { ...appEnv(), DATABASE_URL: url.toString() }, stdio: 'ignore' });
+      execFileSync(process.execPath, ['--import', 'tsx', 'scripts/migrate.ts', 'latest'], {
+        env: { ...appEnv(), DATABASE_URL: url.toString() },
+        stdio: 'ignore',
+      });
       await client.query('delete from knex_migrations where name = $1', [MIGRATIONS.at(-1)]);
       const port = await freePort();
-      const child = await startAppInstance({ ...appEnv(port), DATABASE_URL: url.toString(), MAIL_WORKER: 'off', JOB_QUEUE: 'off' }, port);
+      const child = await startAppInstance(
+        { ...appEnv(port), DATABASE_URL: url.toString(), MAIL_WORKER: 'off', JOB_QUEUE: 'off' },
+        port,
+      );
       extra.push(child);
       const base = `http://127.0.0.1:${port}`;
       const pending = await api('GET', '/api/ready', { base });
@@ -121,7 +148,9 @@ describe('readiness', () => {
       expect((await api('GET', '/api/health', { base })).status).toBe(200);
 
       await client.query('update knex_migrations_lock set is_locked = 1');
-      await client.query('insert into knex_migrations (name, batch, migration_time) values ($1, 2, now())', [MIGRATIONS.at(-1)]);
+      await client.query('insert into knex_migrations (name, batch, migration_time) values ($1, 2, now())', [
+        MIGRATIONS.at(-1),
+      ]);
       const running = await api('GET', '/api/ready', { base });
       expect(running.status).toBe(503);
       expect(running.body.error.message).toContain('a migration is running');
@@ -154,18 +183,28 @@ describe('graceful shutdown', () => {
     // A slow client: a sign-in whose body arrives in two parts, with the signal in between.
     const body = JSON.stringify({ email: DEMO.assessor, password: DEMO_PASSWORD });
     const answer = new Promise<{ status: number; text: string }>((resolve, reject) => {
-      const req = http.request({ host: '127.0.0.1', port, method: 'POST', path: '/api/auth/sign-in/email', headers: { origin: base, 'content-type': 'application/json', 'content-length': Buffer.byteLength(body) } }, (res) => {
-        let text = '';
-        res.setEncoding('utf8');
-        res.on('data', (c) => (text += c));
-        res.on('end', () => resolve({ status: res.statusCode ?? 0, text }));
-      });
+      const req = http.request(
+        {
+          host: '127.0.0.1',
+          port,
+          method: 'POST',
+          path: '/api/auth/sign-in/email',
+          headers: { origin: base, 'content-type': 'application/json', 'content-length': Buffer.byteLength(body) },
+        },
+        (res) => {
+          let text = '';
+          res.setEncoding('utf8');
+          res.on('data', (c) => (text += c));
+          res.on('end', () => resolve({ status: res.statusCode ?? 0, text }));
+        },
+      );
       req.on('error', reject);
       req.write(body.slice(0, 10));
       setTimeout(async () => {
         child.kill('SIGTERM');
         // Once the server says it is shutting down, a new connection is refused while the old request is still open.
-        for (let i = 0; i < 200 && !logLines(logFile).some((l) => String(l.msg).startsWith('shutting down')); i++) await new Promise((r) => setTimeout(r, 50));
+        for (let i = 0; i < 200 && !logLines(logFile).some((l) => String(l.msg).startsWith('shutting down')); i++)
+          await new Promise((r) => setTimeout(r, 50));
         const probe = net.connect(port, '127.0.0.1');
         probe.on('connect', () => {
           refused = false;

@@ -13,12 +13,23 @@ import { APPLICANT, CROPLAND, drawParcel, fileProposal, freeBox, rect } from '..
 let planner: Session, assessor: Session, board: Session, chair: Session, admin: Session;
 let parcelId: number;
 beforeAll(async () => {
-  [planner, assessor, board, chair, admin] = await Promise.all([DEMO.planner, DEMO.assessor, DEMO.board, DEMO.chair, DEMO.admin].map((e) => signIn(e)));
+  [planner, assessor, board, chair, admin] = await Promise.all(
+    [DEMO.planner, DEMO.assessor, DEMO.board, DEMO.chair, DEMO.admin].map((e) => signIn(e)),
+  );
   parcelId = await drawParcel(planner);
 });
 afterAll(() => testDb.destroy());
 
-const STATES = ['draft', 'submitted', 'returned', 'in-assessment', 'assessed', 'on-agenda', 'decided', 'withdrawn'] as const;
+const STATES = [
+  'draft',
+  'submitted',
+  'returned',
+  'in-assessment',
+  'assessed',
+  'on-agenda',
+  'decided',
+  'withdrawn',
+] as const;
 type State = (typeof STATES)[number];
 
 /**
@@ -27,16 +38,39 @@ type State = (typeof STATES)[number];
  * return (asking for more information) and reopen; "assessed" comes only from signing off.
  */
 const ALLOWED: Record<string, 'planner' | 'assessor'> = {
-  'draft>submitted': 'planner', 'returned>submitted': 'planner',
-  'submitted>in-assessment': 'assessor', 'submitted>returned': 'assessor', 'in-assessment>returned': 'assessor', 'assessed>in-assessment': 'assessor',
-  'draft>withdrawn': 'planner', 'submitted>withdrawn': 'planner', 'returned>withdrawn': 'planner', 'in-assessment>withdrawn': 'planner', 'assessed>withdrawn': 'planner', 'on-agenda>withdrawn': 'planner',
+  'draft>submitted': 'planner',
+  'returned>submitted': 'planner',
+  'submitted>in-assessment': 'assessor',
+  'submitted>returned': 'assessor',
+  'in-assessment>returned': 'assessor',
+  'assessed>in-assessment': 'assessor',
+  'draft>withdrawn': 'planner',
+  'submitted>withdrawn': 'planner',
+  'returned>withdrawn': 'planner',
+  'in-assessment>withdrawn': 'planner',
+  'assessed>withdrawn': 'planner',
+  'on-agenda>withdrawn': 'planner',
 };
 /** Moves the state machine knows but only another action makes (signing off; the board's agenda and decision): asked for directly, 409 for its role. */
-const VIA_ACTION: Record<string, 'assessor' | 'chair'> = { 'in-assessment>assessed': 'assessor', 'assessed>on-agenda': 'chair', 'on-agenda>decided': 'chair' };
+const VIA_ACTION: Record<string, 'assessor' | 'chair'> = {
+  'in-assessment>assessed': 'assessor',
+  'assessed>on-agenda': 'chair',
+  'on-agenda>decided': 'chair',
+};
 
 describe('filing a proposal', () => {
   it('a planner files a draft; the applicant stays private', async () => {
-    const res = await api('POST', '/api/proposals', { session: planner, body: { title: 'Plough the north field', description: 'Spring barley after grass.', startYear: 2027, parcels: [{ parcelId }], proposed: CROPLAND, applicant: APPLICANT } });
+    const res = await api('POST', '/api/proposals', {
+      session: planner,
+      body: {
+        title: 'Plough the north field',
+        description: 'Spring barley after grass.',
+        startYear: 2027,
+        parcels: [{ parcelId }],
+        proposed: CROPLAND,
+        applicant: APPLICANT,
+      },
+    });
     expect(res.status).toBe(201);
     expect(res.body).toMatchObject({ state: 'draft', version: 1, reference: expect.stringMatching(/^P-\d{4}-\d{4}$/) });
     const asPlanner = (await api('GET', `/api/proposals/${res.body.id}`, { session: planner })).body;
@@ -45,7 +79,11 @@ describe('filing a proposal', () => {
     const asBoard = (await api('GET', `/api/proposals/${res.body.id}`, { session: board })).body;
     expect(asBoard.applicant).toBeNull();
     expect(JSON.stringify(asBoard)).not.toContain(APPLICANT.contact);
-    const list = await api('GET', `/api/proposals?state=draft&q=${encodeURIComponent('north field')}&sort=title&dir=asc&pageSize=5`, { session: board });
+    const list = await api(
+      'GET',
+      `/api/proposals?state=draft&q=${encodeURIComponent('north field')}&sort=title&dir=asc&pageSize=5`,
+      { session: board },
+    );
     expect(list.status).toBe(200);
     expect(list.body.items.map((i: { id: number }) => i.id)).toContain(res.body.id);
     expect(list.body.pageSize).toBe(5);
@@ -63,7 +101,18 @@ describe('filing a proposal', () => {
       [{ parcels: [{ parcelId, part: rect([0, 0, 50, 50]) }] }, /outside the parcel/],
     ];
     for (const [change, message] of cases) {
-      const res = await api('POST', '/api/proposals', { session: planner, body: { title: 'Bad', description: 'A proposal with a mistake in it.', startYear: 2027, parcels: [{ parcelId }], proposed: CROPLAND, applicant: APPLICANT, ...change } });
+      const res = await api('POST', '/api/proposals', {
+        session: planner,
+        body: {
+          title: 'Bad',
+          description: 'A proposal with a mistake in it.',
+          startYear: 2027,
+          parcels: [{ parcelId }],
+          proposed: CROPLAND,
+          applicant: APPLICANT,
+          ...change,
+        },
+      });
       expect(res.status, JSON.stringify(change)).toBe(422);
       expect(JSON.stringify(res.body.error), JSON.stringify(change)).toMatch(message);
     }
@@ -86,7 +135,10 @@ describe('filing a proposal', () => {
 describe('the state machine, for every role', () => {
   const sessions = () => ({ planner, assessor, board, chair, admin });
   async function setState(id: number, state: State): Promise<number> {
-    const [row] = await testDb('proposal').where({ id }).update({ state, version: testDb.raw('version + 1') }).returning('version');
+    const [row] = await testDb('proposal')
+      .where({ id })
+      .update({ state, version: testDb.raw('version + 1') })
+      .returning('version');
     return row.version;
   }
 
@@ -97,11 +149,15 @@ describe('the state machine, for every role', () => {
       for (const to of STATES) {
         for (const [role, session] of Object.entries(sessions())) {
           const version = await setState(id, from);
-          const res = await api('POST', `/api/proposals/${id}/transitions`, { session, body: { to, version, reason: 'Checked in the state-machine test.' } });
+          const res = await api('POST', `/api/proposals/${id}/transitions`, {
+            session,
+            body: { to, version, reason: 'Checked in the state-machine test.' },
+          });
           const key = `${from}>${to}`;
           const staff = role === 'planner' || role === 'assessor';
           let expected: number;
-          if (!staff) expected = 403; // board, chair and admin never move proposals here
+          if (!staff)
+            expected = 403; // board, chair and admin never move proposals here
           else if (ALLOWED[key]) expected = ALLOWED[key] === role ? 200 : 403;
           else if (VIA_ACTION[key]) expected = VIA_ACTION[key] === role ? 409 : 403;
           else expected = 409;
@@ -117,33 +173,53 @@ describe('the state machine, for every role', () => {
 
   it('a stale version gets 409 and changes nothing; a return or a withdrawal needs a reason', async () => {
     const p = await fileProposal(planner, [{ parcelId }]);
-    const ok = await api('PATCH', `/api/proposals/${p.id}`, { session: planner, body: { title: 'Plough the north field, amended', version: p.version } });
+    const ok = await api('PATCH', `/api/proposals/${p.id}`, {
+      session: planner,
+      body: { title: 'Plough the north field, amended', version: p.version },
+    });
     expect(ok.status).toBe(200);
     expect(ok.body.version).toBe(p.version + 1);
-    const stale = await api('PATCH', `/api/proposals/${p.id}`, { session: planner, body: { title: 'Overwrite', version: p.version } });
+    const stale = await api('PATCH', `/api/proposals/${p.id}`, {
+      session: planner,
+      body: { title: 'Overwrite', version: p.version },
+    });
     expect(stale.status).toBe(409);
     expect(stale.body.error.message).toMatch(/Someone else changed/);
-    const staleMove = await api('POST', `/api/proposals/${p.id}/transitions`, { session: planner, body: { to: 'submitted', version: p.version } });
+    const staleMove = await api('POST', `/api/proposals/${p.id}/transitions`, {
+      session: planner,
+      body: { to: 'submitted', version: p.version },
+    });
     expect(staleMove.status).toBe(409);
     const row = await testDb('proposal').where({ id: p.id }).first();
     expect(row).toMatchObject({ title: 'Plough the north field, amended', state: 'draft', version: p.version + 1 });
-    const noReason = await api('POST', `/api/proposals/${p.id}/transitions`, { session: planner, body: { to: 'withdrawn', version: row.version } });
+    const noReason = await api('POST', `/api/proposals/${p.id}/transitions`, {
+      session: planner,
+      body: { to: 'withdrawn', version: row.version },
+    });
     expect(noReason.status).toBe(422);
     expect(noReason.body.error.issues[0].path).toEqual(['reason']);
   });
 
   it('submission starts the statutory clock (35 days by default) and a submitted proposal can no longer be edited', async () => {
     const p = await fileProposal(planner, [{ parcelId }]);
-    const res = await api('POST', `/api/proposals/${p.id}/transitions`, { session: planner, body: { to: 'submitted', version: p.version } });
+    const res = await api('POST', `/api/proposals/${p.id}/transitions`, {
+      session: planner,
+      body: { to: 'submitted', version: p.version },
+    });
     expect(res.status).toBe(200);
     const detail = (await api('GET', `/api/proposals/${p.id}`, { session: assessor })).body;
     // England EIA (Agriculture) (No.2) Regulations 2006 reg. 8(5): screening decision within 35 days.
     const due = new Date(Date.now() + 35 * 86_400_000).toISOString().slice(0, 10);
     expect(detail.decisionDue).toBe(due);
     expect(detail.daysLeft).toBe(35);
-    const edit = await api('PATCH', `/api/proposals/${p.id}`, { session: planner, body: { title: 'Too late', version: detail.version } });
+    const edit = await api('PATCH', `/api/proposals/${p.id}`, {
+      session: planner,
+      body: { title: 'Too late', version: detail.version },
+    });
     expect(edit.status).toBe(409);
-    const audit = await testDb('audit_event').where({ action: 'proposal.submitted', entity_id: String(p.id) }).first();
+    const audit = await testDb('audit_event')
+      .where({ action: 'proposal.submitted', entity_id: String(p.id) })
+      .first();
     expect(audit).toBeTruthy();
   });
 });
@@ -154,19 +230,29 @@ describe('mail through the outbox', () => {
     const p = await fileProposal(planner, [{ parcelId }], { title: `Outbox check ${Date.now()}` });
     // Let the outbox drain first (the seed's and earlier tests' mail), so that ours is the one the worker tries.
     for (let i = 0; i < 120; i++) {
-      const due = await testDb('mail_outbox').whereNull('sent_at').where('next_attempt_at', '<=', testDb.fn.now()).count('* as n').first();
+      const due = await testDb('mail_outbox')
+        .whereNull('sent_at')
+        .where('next_attempt_at', '<=', testDb.fn.now())
+        .count('* as n')
+        .first();
       if (Number(due?.n) === 0) break;
       await new Promise((r) => setTimeout(r, 500));
     }
     process.kill(pid, 'SIGSTOP');
     let row: { id: number; attempts: number; sent_at: Date | null } | undefined;
     try {
-      const res = await api('POST', `/api/proposals/${p.id}/transitions`, { session: planner, body: { to: 'submitted', version: p.version } });
+      const res = await api('POST', `/api/proposals/${p.id}/transitions`, {
+        session: planner,
+        body: { to: 'submitted', version: p.version },
+      });
       expect(res.status).toBe(200);
       const deadline = Date.now() + 60_000;
       do {
         await new Promise((r) => setTimeout(r, 500));
-        row = await testDb('mail_outbox').where('subject', 'like', `%${p.reference}%`).where({ recipient: DEMO.assessor }).first();
+        row = await testDb('mail_outbox')
+          .where('subject', 'like', `%${p.reference}%`)
+          .where({ recipient: DEMO.assessor })
+          .first();
       } while ((!row || row.attempts === 0) && Date.now() < deadline);
       expect(row?.attempts).toBeGreaterThan(0);
       expect(row?.sent_at).toBeNull();
@@ -180,13 +266,22 @@ describe('mail through the outbox', () => {
 });
 
 describe('attachments', () => {
-  const pdf = new TextEncoder().encode('%PDF-1.4\n1 0 obj << /Type /Catalog >> endobj\ntrailer << /Root 1 0 R >>\n%%EOF\n');
+  const pdf = new TextEncoder().encode(
+    '%PDF-1.4\n1 0 obj << /Type /Catalog >> endobj\ntrailer << /Root 1 0 R >>\n%%EOF\n',
+  );
   // PNG (ISO/IEC 15948): signature, then an IHDR chunk of 1 x 1 pixels.
-  const png = Uint8Array.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13, 0x49, 0x48, 0x44, 0x52, 0, 0, 0, 1, 0, 0, 0, 1, 8, 2, 0, 0, 0, 0x90, 0x77, 0x53, 0xde, 0, 0, 0, 0]);
+  const png = Uint8Array.from([
+    0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13, 0x49, 0x48, 0x44, 0x52, 0, 0, 0, 1, 0, 0, 0, 1, 8, 2,
+    0, 0, 0, 0x90, 0x77, 0x53, 0xde, 0, 0, 0, 0,
+  ]);
   async function attach(id: number, name: string, bytes: Uint8Array, session = planner) {
     const form = new FormData();
     form.set('file', new Blob([bytes as BlobPart]), name);
-    const res = await fetch(`http://127.0.0.1:${process.env.TEST_APP_PORT ?? 4391}/api/proposals/${id}/attachments`, { method: 'POST', headers: { cookie: session.cookie, origin: `http://127.0.0.1:${process.env.TEST_APP_PORT ?? 4391}` }, body: form });
+    const res = await fetch(`http://127.0.0.1:${process.env.TEST_APP_PORT ?? 4391}/api/proposals/${id}/attachments`, {
+      method: 'POST',
+      headers: { cookie: session.cookie, origin: `http://127.0.0.1:${process.env.TEST_APP_PORT ?? 4391}` },
+      body: form,
+    });
     return { status: res.status, body: await res.json() };
   }
 
@@ -196,14 +291,23 @@ describe('attachments', () => {
     expect(a.status).toBe(201);
     expect(a.body).toMatchObject({ mediaType: 'application/pdf', sizeBytes: pdf.length });
     expect((await attach(p.id, 'photo.png', png)).body.mediaType).toBe('image/png');
-    const res = await fetch(`http://127.0.0.1:${process.env.TEST_APP_PORT ?? 4391}/api/proposals/${p.id}/attachments/${a.body.id}`, { headers: { cookie: board.cookie } });
+    const res = await fetch(
+      `http://127.0.0.1:${process.env.TEST_APP_PORT ?? 4391}/api/proposals/${p.id}/attachments/${a.body.id}`,
+      { headers: { cookie: board.cookie } },
+    );
     expect(res.headers.get('content-disposition')).toMatch(/^attachment/);
     expect(new Uint8Array(await res.arrayBuffer())).toEqual(pdf);
   });
 
   it('refuses hostile files with a clear message and stores nothing', async () => {
     const p = await fileProposal(planner, [{ parcelId }]);
-    const zipBomb = Uint8Array.from([0x50, 0x4b, 0x03, 0x04, ...deflateRawSync(Buffer.alloc(5_000_000)).subarray(0, 200)]);
+    const zipBomb = Uint8Array.from([
+      0x50,
+      0x4b,
+      0x03,
+      0x04,
+      ...deflateRawSync(Buffer.alloc(5_000_000)).subarray(0, 200),
+    ]);
     const hugePng = png.slice();
     new DataView(hugePng.buffer).setUint32(16, 100_000);
     new DataView(hugePng.buffer).setUint32(20, 100_000);
@@ -219,7 +323,10 @@ describe('attachments', () => {
       expect(res.status, name).toBe(status);
       expect(res.body.error.message, name).toMatch(message);
     }
-    await testDb('app_setting').insert({ key: 'proposal.attachment-max-bytes', value: JSON.stringify(1000) }).onConflict('key').merge();
+    await testDb('app_setting')
+      .insert({ key: 'proposal.attachment-max-bytes', value: JSON.stringify(1000) })
+      .onConflict('key')
+      .merge();
     try {
       const big = new Uint8Array(5000);
       big.set(pdf);

@@ -29,10 +29,20 @@ describe('the demo districts', () => {
       const expected = r[k].agriculturalHa > 0 ? r[k].permanentGrasslandHa / r[k].agriculturalHa : null;
       expect(r[k].ratio === null ? null : r[k].ratio.toFixed(12)).toBe(expected === null ? null : expected.toFixed(12));
       // The invented history starts after 2018, so the reference comes from the entered census figure.
-      expect(r[k].reference).toMatchObject({ origin: 'entered', referenceYear: 2018, source: expect.stringMatching(/census/) });
+      expect(r[k].reference).toMatchObject({
+        origin: 'entered',
+        referenceYear: 2018,
+        source: expect.stringMatching(/census/),
+      });
     }
     expect(r.fenbrook.reference.ratio).toBe(0.72);
-    const parcels = Number((await testDb('parcel').where('reference', 'like', 'CM-%').orWhere('reference', 'like', 'VM-%').count('* as n').first())!.n);
+    const parcels = Number(
+      (await testDb('parcel')
+        .where('reference', 'like', 'CM-%')
+        .orWhere('reference', 'like', 'VM-%')
+        .count('* as n')
+        .first())!.n,
+    );
     expect(r.fenbrook.parcels + r.skarrow.parcels + r.tembiri.parcels).toBeGreaterThanOrEqual(parcels);
   });
 
@@ -46,15 +56,26 @@ describe('the demo districts', () => {
 describe('the region kind of reference layer', () => {
   it('uploads, validates, saves and publishes like any layer; figures stay the same for the same districts', async () => {
     const before = byKey((await api('GET', '/api/regions?asOf=2026-06-30', { session: assessor })).body.items);
-    const staged = await uploadFile(admin, 'districts.geojson', readFileSync('gis/demo/districts.geojson'), 'reference');
+    const staged = await uploadFile(
+      admin,
+      'districts.geojson',
+      readFileSync('gis/demo/districts.geojson'),
+      'reference',
+    );
     expect(staged.status).toBe(201);
     const layer = staged.body.layers[0].name;
-    const report = await api('POST', `/api/uploads/${staged.body.id}/validation`, { session: admin, body: { layer, mapping: { kind: 'region', classAttribute: 'class', labelAttribute: 'name' } } });
+    const report = await api('POST', `/api/uploads/${staged.body.id}/validation`, {
+      session: admin,
+      body: { layer, mapping: { kind: 'region', classAttribute: 'class', labelAttribute: 'name' } },
+    });
     expect(report.status).toBe(200);
     const saved = await api('POST', `/api/uploads/${staged.body.id}/save`, { session: admin });
     expect(saved.status).toBe(201);
     expect(saved.body.referenceVersion).toMatchObject({ kind: 'region', version: 2 });
-    const pub = await api('POST', `/api/reference-layers/${saved.body.referenceVersion.id}/publish`, { session: admin, body: { note: 'Same districts, re-issued' } });
+    const pub = await api('POST', `/api/reference-layers/${saved.body.referenceVersion.id}/publish`, {
+      session: admin,
+      body: { note: 'Same districts, re-issued' },
+    });
     expect(pub.status).toBe(200);
     const after = await api('GET', '/api/regions?asOf=2026-06-30', { session: assessor });
     expect(after.body.layerVersion).toBe(2);
@@ -71,18 +92,34 @@ describe('entering a reference ratio', () => {
   it('is for admins, names its source, and the newest entry counts (history kept, audited)', async () => {
     const body = { referenceYear: 2018, ratio: 0.78, source: 'Upper Tarrow farm census 2018, table 3, re-checked' };
     expect((await api('POST', '/api/regions/tembiri/reference-ratio', { session: assessor, body })).status).toBe(403);
-    expect((await api('POST', '/api/regions/no-such-district/reference-ratio', { session: admin, body })).status).toBe(404);
-    const over = await api('POST', '/api/regions/tembiri/reference-ratio', { session: admin, body: { ...body, ratio: 1.2 } });
+    expect((await api('POST', '/api/regions/no-such-district/reference-ratio', { session: admin, body })).status).toBe(
+      404,
+    );
+    const over = await api('POST', '/api/regions/tembiri/reference-ratio', {
+      session: admin,
+      body: { ...body, ratio: 1.2 },
+    });
     expect(over.status).toBe(422);
     expect(over.body.error.issues[0].path).toEqual(['ratio']);
-    const noSource = await api('POST', '/api/regions/tembiri/reference-ratio', { session: admin, body: { ...body, source: '' } });
+    const noSource = await api('POST', '/api/regions/tembiri/reference-ratio', {
+      session: admin,
+      body: { ...body, source: '' },
+    });
     expect(noSource.status).toBe(422);
     const ok = await api('POST', '/api/regions/tembiri/reference-ratio', { session: admin, body });
     expect(ok.status).toBe(201);
     const t = byKey((await api('GET', '/api/regions', { session: assessor })).body.items).tembiri;
-    expect(t.reference).toMatchObject({ origin: 'entered', ratio: 0.78, source: body.source, enteredBy: expect.any(String) });
+    expect(t.reference).toMatchObject({
+      origin: 'entered',
+      ratio: 0.78,
+      source: body.source,
+      enteredBy: expect.any(String),
+    });
     expect(t.entered).toHaveLength(2);
-    const audit = await testDb('audit_event').where({ action: 'region.reference-ratio', entity_id: 'tembiri' }).orderBy('id', 'desc').first();
+    const audit = await testDb('audit_event')
+      .where({ action: 'region.reference-ratio', entity_id: 'tembiri' })
+      .orderBy('id', 'desc')
+      .first();
     expect(audit.details.source).toBe(body.source);
   });
 });

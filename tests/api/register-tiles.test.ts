@@ -17,13 +17,18 @@ import { personalSecrets } from '../support/personal-data';
 const tileOf = (lon: number, lat: number, z: number) => {
   const n = 2 ** z;
   const r = (lat * Math.PI) / 180;
-  return [Math.floor(((lon + 180) / 360) * n), Math.floor(((1 - Math.log(Math.tan(r) + 1 / Math.cos(r)) / Math.PI) / 2) * n)] as const;
+  return [
+    Math.floor(((lon + 180) / 360) * n),
+    Math.floor(((1 - Math.log(Math.tan(r) + 1 / Math.cos(r)) / Math.PI) / 2) * n),
+  ] as const;
 };
 const ALLOWED = ['seq', 'outcome', 'year', 'risk_level', 'area_ha'];
 
 let s: { planner: Session; assessor: Session; board: Session; chair: Session };
 beforeAll(async () => {
-  const [planner, assessor, board, chair] = await Promise.all([DEMO.planner, DEMO.assessor, DEMO.board, DEMO.chair].map((e) => signIn(e)));
+  const [planner, assessor, board, chair] = await Promise.all(
+    [DEMO.planner, DEMO.assessor, DEMO.board, DEMO.chair].map((e) => signIn(e)),
+  );
   s = { planner, assessor, board, chair };
   await testDb('app_setting').where({ key: 'board.quorum' }).delete();
 });
@@ -35,12 +40,27 @@ async function tileAround(seq: number, z = 14) {
   const [x, y] = tileOf(lon, lat, z);
   const res = await fetch(`${BASE_URL}/api/register/tiles/${z}/${x}/${y}.mvt`);
   const bytes = new Uint8Array(await res.arrayBuffer());
-  return { res, bytes, tile: new VectorTile(new PbfReader(bytes)), point: [lon, lat] as [number, number], x, y, z, content: c };
+  return {
+    res,
+    bytes,
+    tile: new VectorTile(new PbfReader(bytes)),
+    point: [lon, lat] as [number, number],
+    x,
+    y,
+    z,
+    content: c,
+  };
 }
 
 describe('GET /api/register/tiles/{z}/{x}/{y}.mvt', () => {
   it('is public; the "register" layer holds the entry’s parcel with only seq, outcome, year, risk level and area', async () => {
-    const seq = Number((await testDb.raw('select max(seq) as m from register_entry e where not exists (select 1 from register_entry s where s.supersedes_seq = e.seq)')).rows[0].m);
+    const seq = Number(
+      (
+        await testDb.raw(
+          'select max(seq) as m from register_entry e where not exists (select 1 from register_entry s where s.supersedes_seq = e.seq)',
+        )
+      ).rows[0].m,
+    );
     const t = await tileAround(seq);
     expect(t.res.status).toBe(200);
     expect(t.res.headers.get('content-type')).toBe('application/vnd.mapbox-vector-tile');
@@ -50,13 +70,20 @@ describe('GET /api/register/tiles/{z}/{x}/{y}.mvt', () => {
     for (const f of features) expect(Object.keys(f.properties).every((k) => ALLOWED.includes(k))).toBe(true);
     const mine = features.filter((f) => f.properties.seq === seq);
     expect(mine.length).toBeGreaterThan(0);
-    expect(mine[0]!.properties).toMatchObject({ outcome: t.content.outcome, year: Number(t.content.decidedOn.slice(0, 4)), risk_level: t.content.risk.level, area_ha: t.content.areaHa });
+    expect(mine[0]!.properties).toMatchObject({
+      outcome: t.content.outcome,
+      year: Number(t.content.decidedOn.slice(0, 4)),
+      risk_level: t.content.risk.level,
+      area_ha: t.content.areaHa,
+    });
     // The decoded polygon (back to lon/lat) holds the point we asked around.
     expect(mine.some((f) => turf.booleanPointInPolygon(t.point, f.toGeoJSON(t.x, t.y, t.z) as never))).toBe(true);
   });
 
   it('superseded entries are left out (their replacement carries the parcels)', async () => {
-    const old = await testDb.raw('select e.supersedes_seq as old, e.seq from register_entry e where e.supersedes_seq is not null order by e.seq limit 1');
+    const old = await testDb.raw(
+      'select e.supersedes_seq as old, e.seq from register_entry e where e.supersedes_seq is not null order by e.seq limit 1',
+    );
     const { old: oldSeq, seq: newSeq } = old.rows[0];
     const t = await tileAround(Number(newSeq));
     const layer = t.tile.layers.register!;
@@ -72,7 +99,9 @@ describe('GET /api/register/tiles/{z}/{x}/{y}.mvt', () => {
       const t = await tileAround(seq, 13);
       const text = new TextDecoder().decode(t.bytes);
       const layer = t.tile.layers.register!;
-      const values = Array.from({ length: layer.length }, (_, i) => Object.values(layer.feature(i).properties).join(' ')).join(' ');
+      const values = Array.from({ length: layer.length }, (_, i) =>
+        Object.values(layer.feature(i).properties).join(' '),
+      ).join(' ');
       for (const secret of secrets) {
         expect(text.includes(secret), `tile around entry ${seq} contains "${secret}"`).toBe(false);
         expect(values.includes(secret)).toBe(false);

@@ -21,30 +21,45 @@ let s: { planner: Session; assessor: Session; board: Session; chair: Session; ad
 const VOTE_COMMENT = 'Private remark of a member, never public 8841';
 let decided: Awaited<ReturnType<typeof decidedProposal>>[] = [];
 beforeAll(async () => {
-  const [planner, assessor, board, chair, admin] = await Promise.all([DEMO.planner, DEMO.assessor, DEMO.board, DEMO.chair, DEMO.admin].map((e) => signIn(e)));
+  const [planner, assessor, board, chair, admin] = await Promise.all(
+    [DEMO.planner, DEMO.assessor, DEMO.board, DEMO.chair, DEMO.admin].map((e) => signIn(e)),
+  );
   s = { planner, assessor, board, chair, admin };
   await testDb('app_setting').where({ key: 'board.quorum' }).delete();
-  decided = [await decidedProposal(s, 'approved', VOTE_COMMENT), await decidedProposal(s, 'refused', VOTE_COMMENT), await decidedProposal(s, 'approved-with-conditions', VOTE_COMMENT)];
+  decided = [
+    await decidedProposal(s, 'approved', VOTE_COMMENT),
+    await decidedProposal(s, 'refused', VOTE_COMMENT),
+    await decidedProposal(s, 'approved-with-conditions', VOTE_COMMENT),
+  ];
 }, 180_000);
 afterAll(() => testDb.destroy());
 
 /** The hash rule written out from the issue, with the `canonicalize` package and node:crypto directly (not the code under test). */
-const hashOf = (seq: number, prevHash: string, content: unknown) => createHash('sha256').update(canonicalize({ content, prevHash, seq })!, 'utf8').digest('hex');
+const hashOf = (seq: number, prevHash: string, content: unknown) =>
+  createHash('sha256').update(canonicalize({ content, prevHash, seq })!, 'utf8').digest('hex');
 
 describe('append-only in the database', () => {
   it('refuses UPDATE, DELETE and TRUNCATE by the owner (trigger) and UPDATE and DELETE by the writer role (privileges)', async () => {
     const seq = decided[0]!.seq;
-    await expect(testDb.raw(`update register_entry set content = jsonb_set(content, '{outcome}', '"refused"') where seq = ?`, [seq])).rejects.toThrow(/append-only: UPDATE/);
+    await expect(
+      testDb.raw(`update register_entry set content = jsonb_set(content, '{outcome}', '"refused"') where seq = ?`, [
+        seq,
+      ]),
+    ).rejects.toThrow(/append-only: UPDATE/);
     await expect(testDb.raw('delete from register_entry where seq = ?', [seq])).rejects.toThrow(/append-only: DELETE/);
     await expect(testDb.raw('truncate register_entry cascade')).rejects.toThrow(/append-only: TRUNCATE/);
-    await expect(testDb.transaction(async (trx) => {
-      await trx.raw('set local role swardkeep_register_writer');
-      await trx.raw(`update register_entry set content = '{}' where seq = ${seq}`);
-    })).rejects.toThrow(/permission denied for table register_entry/);
-    await expect(testDb.transaction(async (trx) => {
-      await trx.raw('set local role swardkeep_register_writer');
-      await trx.raw(`delete from register_entry where seq = ${seq}`);
-    })).rejects.toThrow(/permission denied for table register_entry/);
+    await expect(
+      testDb.transaction(async (trx) => {
+        await trx.raw('set local role swardkeep_register_writer');
+        await trx.raw(`update register_entry set content = '{}' where seq = ${seq}`);
+      }),
+    ).rejects.toThrow(/permission denied for table register_entry/);
+    await expect(
+      testDb.transaction(async (trx) => {
+        await trx.raw('set local role swardkeep_register_writer');
+        await trx.raw(`delete from register_entry where seq = ${seq}`);
+      }),
+    ).rejects.toThrow(/permission denied for table register_entry/);
     // The writer may read and append (the app's path).
     await testDb.transaction(async (trx) => {
       await trx.raw('set local role swardkeep_register_writer');
@@ -71,13 +86,17 @@ describe('the hash chain', () => {
 
   it('content edited by hand (trigger disabled by the owner) makes verify name exactly that entry', async () => {
     const target = decided[1]!.seq;
-    const original = (await testDb.raw('select content::text as c from register_entry where seq = ?', [target])).rows[0].c;
-    const edit = async (sql: string, args: unknown[]) => testDb.transaction(async (trx) => {
-      await trx.raw('alter table register_entry disable trigger register_entry_no_update');
-      await trx.raw(sql, args as never[]);
-      await trx.raw('alter table register_entry enable trigger register_entry_no_update');
-    });
-    await edit(`update register_entry set content = jsonb_set(content, '{outcome}', '"approved"') where seq = ?`, [target]);
+    const original = (await testDb.raw('select content::text as c from register_entry where seq = ?', [target])).rows[0]
+      .c;
+    const edit = async (sql: string, args: unknown[]) =>
+      testDb.transaction(async (trx) => {
+        await trx.raw('alter table register_entry disable trigger register_entry_no_update');
+        await trx.raw(sql, args as never[]);
+        await trx.raw('alter table register_entry enable trigger register_entry_no_update');
+      });
+    await edit(`update register_entry set content = jsonb_set(content, '{outcome}', '"approved"') where seq = ?`, [
+      target,
+    ]);
     try {
       const v = (await api('GET', '/api/register/verify')).body;
       expect(v).toMatchObject({ ok: false, firstBrokenEntry: target });
@@ -91,12 +110,21 @@ describe('the hash chain', () => {
   it('concurrent appends queue behind the lock: no fork, no gap', async () => {
     const before = (await api('GET', '/api/register/verify')).body.entries;
     const extra = [await decidedProposal(s, 'approved'), await decidedProposal(s, 'approved')];
-    const res = await Promise.all([...decided, ...extra].map((d, i) =>
-      api('POST', `/api/register/${d.seq}/corrections`, { session: i % 2 ? s.admin : s.chair, body: { kind: 'correction', note: `Parcel reference spelt out in full (${i}).` } })));
+    const res = await Promise.all(
+      [...decided, ...extra].map((d, i) =>
+        api('POST', `/api/register/${d.seq}/corrections`, {
+          session: i % 2 ? s.admin : s.chair,
+          body: { kind: 'correction', note: `Parcel reference spelt out in full (${i}).` },
+        }),
+      ),
+    );
     expect(res.map((r) => r.status)).toEqual(res.map(() => 201));
     const seqs = res.map((r) => r.body.seq).sort((a, b) => a - b);
     expect(seqs).toEqual(seqs.map((_, i) => before + 2 + 1 + i));
-    expect((await api('GET', '/api/register/verify')).body).toMatchObject({ ok: true, entries: before + 2 + res.length });
+    expect((await api('GET', '/api/register/verify')).body).toMatchObject({
+      ok: true,
+      entries: before + 2 + res.length,
+    });
     decided = [...decided, ...extra].map((d, i) => ({ ...d, seq: res[i]!.body.seq }));
   });
 });
@@ -104,15 +132,38 @@ describe('the hash chain', () => {
 describe('corrections and appeal outcomes', () => {
   it('a new entry names the one it supersedes; the old one stays, marked; it cannot be superseded twice', async () => {
     const d = decided[1]!; // refused, corrected once above
-    const appeal = await api('POST', `/api/register/${d.seq}/corrections`, { session: s.chair, body: { kind: 'appeal-outcome', note: 'The appeal was allowed: the board approves with a condition.', outcome: 'approved-with-conditions', conditions: [{ text: 'Sow a grass margin of 6 m.', dueDate: '2028-04-30', checkedBy: 'Field officer' }] } });
+    const appeal = await api('POST', `/api/register/${d.seq}/corrections`, {
+      session: s.chair,
+      body: {
+        kind: 'appeal-outcome',
+        note: 'The appeal was allowed: the board approves with a condition.',
+        outcome: 'approved-with-conditions',
+        conditions: [{ text: 'Sow a grass margin of 6 m.', dueDate: '2028-04-30', checkedBy: 'Field officer' }],
+      },
+    });
     expect(appeal.status).toBe(201);
     const entry = (await api('GET', `/api/register/${appeal.body.seq}`)).body;
-    expect(entry.content).toMatchObject({ kind: 'appeal-outcome', supersedes: d.seq, outcome: 'approved-with-conditions', proposal: { reference: d.proposal.reference } });
+    expect(entry.content).toMatchObject({
+      kind: 'appeal-outcome',
+      supersedes: d.seq,
+      outcome: 'approved-with-conditions',
+      proposal: { reference: d.proposal.reference },
+    });
     expect(entry.supersedesSeq).toBe(d.seq);
     expect((await api('GET', `/api/register/${d.seq}`)).body.supersededBy).toBe(appeal.body.seq);
-    const twice = await api('POST', `/api/register/${d.seq}/corrections`, { session: s.chair, body: { kind: 'correction', note: 'Trying to correct an old entry again.' } });
+    const twice = await api('POST', `/api/register/${d.seq}/corrections`, {
+      session: s.chair,
+      body: { kind: 'correction', note: 'Trying to correct an old entry again.' },
+    });
     expect(twice.status).toBe(409);
-    expect((await api('POST', `/api/register/${appeal.body.seq}/corrections`, { session: s.board, body: { kind: 'correction', note: 'A member may not correct the register.' } })).status).toBe(403);
+    expect(
+      (
+        await api('POST', `/api/register/${appeal.body.seq}/corrections`, {
+          session: s.board,
+          body: { kind: 'correction', note: 'A member may not correct the register.' },
+        })
+      ).status,
+    ).toBe(403);
     const current = (await api('GET', `/api/register?current=true&q=${d.proposal.reference}`)).body;
     expect(current.items.map((i: { seq: number }) => i.seq)).toEqual([appeal.body.seq]);
     decided[1] = { ...d, seq: appeal.body.seq };
@@ -124,23 +175,41 @@ describe('listing', () => {
     const all = await testDb('register_entry').orderBy('seq');
     const head = all[all.length - 1]!;
     const page = (await api('GET', '/api/register?pageSize=2&page=1&sort=seq&dir=asc')).body;
-    expect(page).toMatchObject({ total: all.length, page: 1, pageSize: 2, headSeq: Number(head.seq), headHash: head.hash });
+    expect(page).toMatchObject({
+      total: all.length,
+      page: 1,
+      pageSize: 2,
+      headSeq: Number(head.seq),
+      headHash: head.hash,
+    });
     expect(page.items.map((i: { seq: number }) => i.seq)).toEqual([1, 2]);
     const refused = (await api('GET', '/api/register?outcome=refused&pageSize=200')).body;
     expect(refused.total).toBe(all.filter((r) => r.content.outcome === 'refused').length);
     expect(refused.items.every((i: { outcome: string }) => i.outcome === 'refused')).toBe(true);
     // The demo history (2021-2026) and the entries made here span several years.
     const yearOf = (r: { content: { decidedOn: string } }) => Number(r.content.decidedOn.slice(0, 4));
-    for (const year of new Set(all.map(yearOf))) expect((await api('GET', `/api/register?year=${year}`)).body.total).toBe(all.filter((r) => yearOf(r) === year).length);
+    for (const year of new Set(all.map(yearOf)))
+      expect((await api('GET', `/api/register?year=${year}`)).body.total).toBe(
+        all.filter((r) => yearOf(r) === year).length,
+      );
     expect((await api('GET', `/api/register?year=${Math.min(...all.map(yearOf)) - 1}`)).body.total).toBe(0);
     const level = all[0]!.content.risk.level;
-    expect((await api('GET', `/api/register?risk=${level}`)).body.total).toBe(all.filter((r) => r.content.risk.level === level).length);
+    expect((await api('GET', `/api/register?risk=${level}`)).body.total).toBe(
+      all.filter((r) => r.content.risk.level === level).length,
+    );
     const area = all[0]!.content.areaHa;
-    expect((await api('GET', `/api/register?areaMin=${area - 0.0001}&areaMax=${area + 0.0001}`)).body.total).toBe(all.filter((r) => Math.abs(r.content.areaHa - area) <= 0.0001).length);
+    expect((await api('GET', `/api/register?areaMin=${area - 0.0001}&areaMax=${area + 0.0001}`)).body.total).toBe(
+      all.filter((r) => Math.abs(r.content.areaHa - area) <= 0.0001).length,
+    );
     expect((await api('GET', `/api/register?areaMin=${area + 1000}`)).body.total).toBe(0);
     const region = all[0]!.content.region;
-    if (region) expect((await api('GET', `/api/register?region=${encodeURIComponent(region)}`)).body.total).toBe(all.filter((r) => r.content.region === region).length);
-    const byCo2e = (await api('GET', '/api/register?sort=co2e&dir=desc&pageSize=200')).body.items.map((i: { co2eTotal: number }) => i.co2eTotal);
+    if (region)
+      expect((await api('GET', `/api/register?region=${encodeURIComponent(region)}`)).body.total).toBe(
+        all.filter((r) => r.content.region === region).length,
+      );
+    const byCo2e = (await api('GET', '/api/register?sort=co2e&dir=desc&pageSize=200')).body.items.map(
+      (i: { co2eTotal: number }) => i.co2eTotal,
+    );
     expect(byCo2e).toEqual([...byCo2e].sort((a, b) => b - a));
     const bad = await api('GET', '/api/register?risk=9');
     expect(bad.status).toBe(422);
@@ -180,7 +249,9 @@ describe('exports', () => {
       expect(Number(r.co2e_t)).toBe(db.content.figures.co2eTotal);
       expect(r.reasons).toBe(db.content.reasons);
     });
-    const refused = parseCsv(await (await fetch(`${BASE_URL}/api/register.csv?outcome=refused`)).text(), { columns: true });
+    const refused = parseCsv(await (await fetch(`${BASE_URL}/api/register.csv?outcome=refused`)).text(), {
+      columns: true,
+    });
     expect(refused).toHaveLength(rows.filter((r) => r.content.outcome === 'refused').length);
   });
 
@@ -209,8 +280,15 @@ describe('no personal data in public answers', () => {
     const secrets = await personalSecrets([VOTE_COMMENT]);
     expect(secrets).toContain('HLD-TEST-77');
     const seqs = (await testDb('register_entry').select('seq')).map((r) => Number(r.seq));
-    const paths = ['/api/register?pageSize=200', '/api/register/verify', '/api/register.csv', '/api/register.geojson', ...seqs.map((q) => `/api/register/${q}`),
-      '/register', ...seqs.map((q) => `/register/${q}`)];
+    const paths = [
+      '/api/register?pageSize=200',
+      '/api/register/verify',
+      '/api/register.csv',
+      '/api/register.geojson',
+      ...seqs.map((q) => `/api/register/${q}`),
+      '/register',
+      ...seqs.map((q) => `/register/${q}`),
+    ];
     for (const p of paths) {
       const res = await fetch(`${BASE_URL}${p}`);
       expect(res.status, p).toBe(200);
@@ -222,14 +300,20 @@ describe('no personal data in public answers', () => {
 
 describe('filter by region name', () => {
   it('takes the region’s key, its name in any case, or the unique start of its name', async () => {
-    const names = (await api('GET', '/api/regions', { session: s.admin })).body.items as { key: string; label: string }[];
+    const names = (await api('GET', '/api/regions', { session: s.admin })).body.items as {
+      key: string;
+      label: string;
+    }[];
     const all = await testDb('register_entry');
     for (const r of names) {
       const n = all.filter((e) => e.content.region === r.key).length;
       for (const v of [r.key, r.label, r.label.toUpperCase(), r.label.split(' ')[0]!.toLowerCase()]) {
         expect((await api('GET', `/api/register?region=${encodeURIComponent(v)}&pageSize=200`)).body.total, v).toBe(n);
       }
-      const csv = parseCsv(await (await fetch(`${BASE_URL}/api/register.csv?region=${encodeURIComponent(r.label)}`)).text(), { columns: true });
+      const csv = parseCsv(
+        await (await fetch(`${BASE_URL}/api/register.csv?region=${encodeURIComponent(r.label)}`)).text(),
+        { columns: true },
+      );
       expect(csv).toHaveLength(n);
     }
     expect(names.some((r) => all.some((e) => e.content.region === r.key))).toBe(true);
@@ -245,7 +329,10 @@ describe('setting register.votes-public', () => {
     expect(off.body.memberVotes).toBeNull();
     const offPage = await (await fetch(`${BASE_URL}/register/${seq}`)).text();
     for (const n of names) expect(offPage).not.toContain(n);
-    await testDb('app_setting').insert({ key: 'register.votes-public', value: JSON.stringify(true) }).onConflict('key').merge();
+    await testDb('app_setting')
+      .insert({ key: 'register.votes-public', value: JSON.stringify(true) })
+      .onConflict('key')
+      .merge();
     try {
       const on = await api('GET', `/api/register/${seq}`);
       expect(on.body.memberVotes).toEqual(names.sort().map((name) => ({ name, choice: 'approve' })));

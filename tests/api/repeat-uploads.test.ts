@@ -27,7 +27,11 @@ function gridFile(prefix: string, rows: number, cols: number, x0: number, y0: nu
   for (let r = 0; r < rows; r++) {
     for (let c = 0; c < cols; c++) {
       const [x, y] = [x0 + c * 30, y0 + r * 30];
-      features.push({ type: 'Feature', properties: { ref: `${prefix}-${r}-${c}`, use: 'grassland', till: '2001-04-01' }, geometry: rect([x, y, x + 25, y + 25]) });
+      features.push({
+        type: 'Feature',
+        properties: { ref: `${prefix}-${r}-${c}`, use: 'grassland', till: '2001-04-01' },
+        geometry: rect([x, y, x + 25, y + 25]),
+      });
     }
   }
   return JSON.stringify({ type: 'FeatureCollection', features });
@@ -42,7 +46,10 @@ async function uploadAndSave(name: string, body: string): Promise<{ saved: numbe
   const staged = await uploadFile(planner, name, body);
   expect(staged.status, JSON.stringify(staged.body)).toBe(201);
   const mapping = { reference: 'ref', landUse: 'use', lastTillage: 'till' };
-  const report = await api('POST', `/api/uploads/${staged.body.id}/validation`, { session: planner, body: { layer: staged.body.layers[0].name, mapping } });
+  const report = await api('POST', `/api/uploads/${staged.body.id}/validation`, {
+    session: planner,
+    body: { layer: staged.body.layers[0].name, mapping },
+  });
   expect(report.status, JSON.stringify(report.body).slice(0, 400)).toBe(200);
   // The validation's own transaction refreshed the staging statistics (pg_class.reltuples is what the planner reads).
   const stagedEstimate = await reltuples('upload_staging_feature');
@@ -69,7 +76,11 @@ describe('uploading again after earlier uploads', () => {
     expect(Number((await testDb('parcel').count('* as n').first())?.n)).toBe(parcelsBefore + 1000);
     // Each new parcel got its current land use and its dated ploughing.
     expect(Number((await testDb('land_use_event').count('* as n').first())?.n)).toBe(eventsBefore + 2000);
-    const overlaid = await testDb('parcel as p').join('parcel_overlay_run as r', 'r.parcel_id', 'p.id').where('p.reference', 'like', 'RPB-%').countDistinct('p.id as n').first();
+    const overlaid = await testDb('parcel as p')
+      .join('parcel_overlay_run as r', 'r.parcel_id', 'p.id')
+      .where('p.reference', 'like', 'RPB-%')
+      .countDistinct('p.id as n')
+      .first();
     expect(Number(overlaid?.n)).toBe(1000);
   }, 120_000);
 });

@@ -20,7 +20,10 @@ beforeAll(async () => {
 });
 afterAll(() => testDb.destroy());
 
-function expected(access: (typeof allSpecs)[number]['access'], caller: Role | 'anonymous'): 'denied-401' | 'denied-403' | 'allowed' {
+function expected(
+  access: (typeof allSpecs)[number]['access'],
+  caller: Role | 'anonymous',
+): 'denied-401' | 'denied-403' | 'allowed' {
   if (access === 'public') return 'allowed';
   if (caller === 'anonymous') return 'denied-401';
   if (access === 'signed-in') return 'allowed';
@@ -38,7 +41,10 @@ describe('role matrix', () => {
       const want = expected(spec.access, caller);
       it(`${spec.method} ${spec.path} as ${caller} → ${want}`, async () => {
         const body = spec.method === 'GET' || spec.method === 'DELETE' ? undefined : {};
-        const res = await api(spec.method, concrete(spec.path), { session: caller === 'anonymous' ? undefined : sessions[caller], body });
+        const res = await api(spec.method, concrete(spec.path), {
+          session: caller === 'anonymous' ? undefined : sessions[caller],
+          body,
+        });
         if (want === 'denied-401') expect(res.status).toBe(401);
         else if (want === 'denied-403') expect(res.status).toBe(403);
         else expect([401, 403]).not.toContain(res.status);
@@ -59,7 +65,10 @@ function routeFiles(dir: string): string[] {
 }
 
 function routeOf(file: string): string {
-  const rel = path.relative('src/pages', file).replace(/\.ts$/, '').replace(/\/index$/, '');
+  const rel = path
+    .relative('src/pages', file)
+    .replace(/\.ts$/, '')
+    .replace(/\/index$/, '');
   return '/' + rel.replace(/\[\.\.\.[^\]]+\]/g, '*').replace(/\[([^\]]+)\]/g, '{$1}');
 }
 
@@ -70,7 +79,8 @@ describe('route contracts', () => {
     for (const file of routeFiles('src/pages/api')) {
       const route = routeOf(file);
       if (route === '/api/auth/*') continue; // better-auth's own endpoints
-      for (const m of readFileSync(file, 'utf8').matchAll(/export const (GET|POST|PUT|PATCH|DELETE)\b/g)) found.add(`${m[1]} ${route}`);
+      for (const m of readFileSync(file, 'utf8').matchAll(/export const (GET|POST|PUT|PATCH|DELETE)\b/g))
+        found.add(`${m[1]} ${route}`);
     }
     expect([...found].filter((r) => !declared.has(r))).toEqual([]);
     // better-auth's endpoints are served by the catch-all route file.

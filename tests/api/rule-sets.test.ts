@@ -13,7 +13,12 @@ const id = `tarrow-strict-${Date.now().toString(36)}`;
 let revision = 0;
 
 beforeAll(async () => {
-  [admin, assessor, board, planner] = await Promise.all([signIn(DEMO.admin), signIn(DEMO.assessor), signIn(DEMO.board), signIn(DEMO.planner)]);
+  [admin, assessor, board, planner] = await Promise.all([
+    signIn(DEMO.admin),
+    signIn(DEMO.assessor),
+    signIn(DEMO.board),
+    signIn(DEMO.planner),
+  ]);
 });
 afterAll(async () => {
   await testDb('app_setting').where({ key: 'default-rule-set' }).delete();
@@ -30,7 +35,11 @@ describe('the shipped set', () => {
     const res = await api('GET', '/api/rule-sets', { session: board });
     expect(res.status).toBe(200);
     const s = res.body.items.find((x: { id: string }) => x.id === 'tarrow-screening');
-    expect(s).toMatchObject({ origin: 'shipped', isDefault: true, versions: [{ version: 1, status: 'published', ruleCount: 11 }] });
+    expect(s).toMatchObject({
+      origin: 'shipped',
+      isDefault: true,
+      versions: [{ version: 1, status: 'published', ruleCount: 11 }],
+    });
     expect((await api('GET', '/api/rule-sets/tarrow-screening', { session: assessor })).status).toBe(200);
     expect((await api('GET', '/api/rule-sets', { session: planner })).status).toBe(403);
     expect((await api('GET', '/api/rule-sets')).status).toBe(401);
@@ -40,7 +49,12 @@ describe('the shipped set', () => {
     const res = await api('GET', '/api/rule-sets/tarrow-screening', { session: assessor });
     const gate = res.body.document.rules.find((r: { id: string }) => r.id === 'sensitive-grassland');
     // Reg. (EU) 2021/2115 Annex III GAEC 9 (per the issue text, recalled from memory).
-    expect(gate).toMatchObject({ gate: true, level: 4, params: { aboveShare: 0 }, citation: { source: 'Regulation (EU) 2021/2115' } });
+    expect(gate).toMatchObject({
+      gate: true,
+      level: 4,
+      params: { aboveShare: 0 },
+      citation: { source: 'Regulation (EU) 2021/2115' },
+    });
     expect(gate.citation.article).toMatch(/GAEC 9/);
   });
 
@@ -51,7 +65,13 @@ describe('the shipped set', () => {
 
 describe('a copy edited, published and diffed', () => {
   it('only admins copy a set', async () => {
-    const body = { from: { id: 'tarrow-screening' }, id, title: 'Upper Tarrow stricter rules', description: 'A 7-year window for adding conversions up', reason: 'Board asked for a longer look-back on holdings.' };
+    const body = {
+      from: { id: 'tarrow-screening' },
+      id,
+      title: 'Upper Tarrow stricter rules',
+      description: 'A 7-year window for adding conversions up',
+      reason: 'Board asked for a longer look-back on holdings.',
+    };
     expect((await api('POST', '/api/rule-sets', { session: assessor, body })).status).toBe(403);
     const res = await api('POST', '/api/rule-sets', { session: admin, body });
     expect(res.status).toBe(201);
@@ -61,7 +81,10 @@ describe('a copy edited, published and diffed', () => {
 
   it('refuses an edit without a reason, and leaves the draft as it was', async () => {
     const rule = { ...(await holdingRule(`${id}?version=draft`)), params: { atLeastHa: 2, windowYears: 7 } };
-    const res = await api('PATCH', `/api/rule-sets/${id}/draft`, { session: admin, body: { action: 'put', ruleId: rule.id, rule, reason: '', revision } });
+    const res = await api('PATCH', `/api/rule-sets/${id}/draft`, {
+      session: admin,
+      body: { action: 'put', ruleId: rule.id, rule, reason: '', revision },
+    });
     expect(res.status).toBe(422);
     expect(res.body.error.issues[0].path).toEqual(['reason']);
     const view = await api('GET', `/api/rule-sets/${id}?version=draft`, { session: admin });
@@ -71,17 +94,32 @@ describe('a copy edited, published and diffed', () => {
 
   it('refuses an invalid rule (a gate below level 4) with the field named', async () => {
     const rule = { ...(await holdingRule(`${id}?version=draft`)), gate: true };
-    const res = await api('PATCH', `/api/rule-sets/${id}/draft`, { session: admin, body: { action: 'put', ruleId: rule.id, rule, reason: 'Trying to make it a gate', revision } });
+    const res = await api('PATCH', `/api/rule-sets/${id}/draft`, {
+      session: admin,
+      body: { action: 'put', ruleId: rule.id, rule, reason: 'Trying to make it a gate', revision },
+    });
     expect(res.status).toBe(422);
     expect(res.body.error.issues.map((i: { path: string[] }) => i.path.join('.'))).toContain('rule.level');
   });
 
   it('records an edit with its reason; a stale revision gets 409 and changes nothing', async () => {
     const rule = { ...(await holdingRule(`${id}?version=draft`)), params: { atLeastHa: 2, windowYears: 7 } };
-    const ok = await api('PATCH', `/api/rule-sets/${id}/draft`, { session: admin, body: { action: 'put', ruleId: rule.id, rule, reason: 'Board minute 2026/14: seven-year look-back', revision } });
+    const ok = await api('PATCH', `/api/rule-sets/${id}/draft`, {
+      session: admin,
+      body: { action: 'put', ruleId: rule.id, rule, reason: 'Board minute 2026/14: seven-year look-back', revision },
+    });
     expect(ok.status).toBe(200);
     expect(ok.body).toEqual({ version: 1, revision: 2 });
-    const stale = await api('PATCH', `/api/rule-sets/${id}/draft`, { session: admin, body: { action: 'put', ruleId: rule.id, rule: { ...rule, params: { atLeastHa: 1, windowYears: 7 } }, reason: 'An edit made on an old copy', revision } });
+    const stale = await api('PATCH', `/api/rule-sets/${id}/draft`, {
+      session: admin,
+      body: {
+        action: 'put',
+        ruleId: rule.id,
+        rule: { ...rule, params: { atLeastHa: 1, windowYears: 7 } },
+        reason: 'An edit made on an old copy',
+        revision,
+      },
+    });
     expect(stale.status).toBe(409);
     expect(stale.body.error.message).toMatch(/Someone else changed/);
     revision = 2;
@@ -90,28 +128,68 @@ describe('a copy edited, published and diffed', () => {
     expect(audit).toHaveLength(1);
     expect(audit[0].details.reason).toMatch(/seven-year/);
     const view = await api('GET', `/api/rule-sets/${id}?version=draft`, { session: admin });
-    expect(view.body.edits[0]).toMatchObject({ rule: 'holding-cumulative-2ha', action: 'put', reason: expect.stringMatching(/seven-year/) });
+    expect(view.body.edits[0]).toMatchObject({
+      rule: 'holding-cumulative-2ha',
+      action: 'put',
+      reason: expect.stringMatching(/seven-year/),
+    });
   });
 
   it('only admins edit and publish', async () => {
-    expect((await api('POST', `/api/rule-sets/${id}/publish`, { session: assessor, body: { note: 'Seven-year window', revision } })).status).toBe(403);
-    expect((await api('PATCH', `/api/rule-sets/${id}/draft`, { session: board, body: { action: 'remove', ruleId: 'co2e-500', reason: 'Not allowed for board', revision } })).status).toBe(403);
+    expect(
+      (
+        await api('POST', `/api/rule-sets/${id}/publish`, {
+          session: assessor,
+          body: { note: 'Seven-year window', revision },
+        })
+      ).status,
+    ).toBe(403);
+    expect(
+      (
+        await api('PATCH', `/api/rule-sets/${id}/draft`, {
+          session: board,
+          body: { action: 'remove', ruleId: 'co2e-500', reason: 'Not allowed for board', revision },
+        })
+      ).status,
+    ).toBe(403);
   });
 
   it('publishes with the revision read; then the version is immutable', async () => {
-    expect((await api('POST', `/api/rule-sets/${id}/publish`, { session: admin, body: { note: 'Seven-year window', revision: 1 } })).status).toBe(409);
-    const pub = await api('POST', `/api/rule-sets/${id}/publish`, { session: admin, body: { note: 'Seven-year window', revision } });
+    expect(
+      (
+        await api('POST', `/api/rule-sets/${id}/publish`, {
+          session: admin,
+          body: { note: 'Seven-year window', revision: 1 },
+        })
+      ).status,
+    ).toBe(409);
+    const pub = await api('POST', `/api/rule-sets/${id}/publish`, {
+      session: admin,
+      body: { note: 'Seven-year window', revision },
+    });
     expect(pub.status).toBe(200);
     expect(pub.body).toEqual({ version: 1 });
-    const edit = await api('PATCH', `/api/rule-sets/${id}/draft`, { session: admin, body: { action: 'remove', ruleId: 'co2e-500', reason: 'Try to change a published version', revision } });
+    const edit = await api('PATCH', `/api/rule-sets/${id}/draft`, {
+      session: admin,
+      body: { action: 'remove', ruleId: 'co2e-500', reason: 'Try to change a published version', revision },
+    });
     expect(edit.status).toBe(409);
     expect(edit.body.error.message).toMatch(/no draft/);
   });
 
   it('the database itself refuses to change or delete a published version', async () => {
-    await expect(testDb.raw(`update rule_set_version set document = jsonb_set(document, '{title}', '"Changed behind the app"') where set_id = ? and version = 1`, [id])).rejects.toThrow(/published and cannot be changed/);
-    await expect(testDb.raw(`update rule_set_version set status = 'draft' where set_id = ? and version = 1`, [id])).rejects.toThrow(/published and cannot be changed/);
-    await expect(testDb.raw('delete from rule_set_version where set_id = ? and version = 1', [id])).rejects.toThrow(/cannot be deleted/);
+    await expect(
+      testDb.raw(
+        `update rule_set_version set document = jsonb_set(document, '{title}', '"Changed behind the app"') where set_id = ? and version = 1`,
+        [id],
+      ),
+    ).rejects.toThrow(/published and cannot be changed/);
+    await expect(
+      testDb.raw(`update rule_set_version set status = 'draft' where set_id = ? and version = 1`, [id]),
+    ).rejects.toThrow(/published and cannot be changed/);
+    await expect(testDb.raw('delete from rule_set_version where set_id = ? and version = 1', [id])).rejects.toThrow(
+      /cannot be deleted/,
+    );
     expect((await holdingRule(id)).params.windowYears).toBe(7);
   });
 
@@ -119,36 +197,53 @@ describe('a copy edited, published and diffed', () => {
     const res = await api('GET', `/api/rule-sets/diff?a=tarrow-screening@1&b=${id}@1`, { session: board });
     expect(res.status).toBe(200);
     expect(res.body.items).toHaveLength(1);
-    expect(res.body.items[0]).toMatchObject({ rule: 'holding-cumulative-2ha', presence: 'both', changed: ['params'], a: { params: { windowYears: 5 } }, b: { params: { windowYears: 7 } } });
+    expect(res.body.items[0]).toMatchObject({
+      rule: 'holding-cumulative-2ha',
+      presence: 'both',
+      changed: ['params'],
+      a: { params: { windowYears: 5 } },
+      b: { params: { windowYears: 7 } },
+    });
   });
 
   it('a new draft removes a rule; the diff of draft against published shows it', async () => {
     const draft = await api('POST', `/api/rule-sets/${id}/draft`, { session: admin });
     expect(draft.body).toEqual({ version: 2, revision: 1 });
-    const rm = await api('PATCH', `/api/rule-sets/${id}/draft`, { session: admin, body: { action: 'remove', ruleId: 'co2e-500', reason: 'Covered by the budget-share rules now', revision: 1 } });
+    const rm = await api('PATCH', `/api/rule-sets/${id}/draft`, {
+      session: admin,
+      body: { action: 'remove', ruleId: 'co2e-500', reason: 'Covered by the budget-share rules now', revision: 1 },
+    });
     expect(rm.status).toBe(200);
     const diff = await api('GET', `/api/rule-sets/diff?a=${id}@1&b=${id}@draft`, { session: admin });
-    expect(diff.body.items.map((i: { rule: string; presence: string }) => [i.rule, i.presence])).toEqual([['co2e-500', 'only-a']]);
+    expect(diff.body.items.map((i: { rule: string; presence: string }) => [i.rule, i.presence])).toEqual([
+      ['co2e-500', 'only-a'],
+    ]);
   });
 
   it('the default is chosen by an admin, only among published sets', async () => {
     expect((await api('PUT', '/api/settings/default-rule-set', { session: assessor, body: { id } })).status).toBe(403);
-    expect((await api('PUT', '/api/settings/default-rule-set', { session: admin, body: { id: 'no-such-set' } })).status).toBe(422);
+    expect(
+      (await api('PUT', '/api/settings/default-rule-set', { session: admin, body: { id: 'no-such-set' } })).status,
+    ).toBe(422);
     expect((await api('PUT', '/api/settings/default-rule-set', { session: admin, body: { id } })).status).toBe(204);
     const list = await api('GET', '/api/rule-sets', { session: admin });
     expect(list.body.items.find((s: { id: string }) => s.id === id).isDefault).toBe(true);
-    expect((await api('PUT', '/api/settings/default-rule-set', { session: admin, body: { id: 'tarrow-screening' } })).status).toBe(204);
+    expect(
+      (await api('PUT', '/api/settings/default-rule-set', { session: admin, body: { id: 'tarrow-screening' } })).status,
+    ).toBe(204);
   });
 });
 
 describe('syncing the shipped set (what npm run migrate does after the migrations)', () => {
   it('twice in a row changes nothing: stored jsonb and shipped file are compared in canonical JSON', async () => {
-    const stored = (await testDb('rule_set_version').where({ set_id: 'tarrow-screening', version: 1 }).first()).document;
+    const stored = (await testDb('rule_set_version').where({ set_id: 'tarrow-screening', version: 1 }).first())
+      .document;
     // jsonb gives keys back in its own order, so a plain JSON.stringify comparison would see a change.
     expect(JSON.stringify(stored)).not.toBe(JSON.stringify(TARROW_SCREENING));
     expect(await syncShippedRuleSets(testDb)).toEqual([]);
     expect(await syncShippedRuleSets(testDb)).toEqual([]);
-    const count = async (q: ReturnType<typeof testDb>) => Number(((await q.count('* as n').first()) as unknown as { n: number | string }).n);
+    const count = async (q: ReturnType<typeof testDb>) =>
+      Number(((await q.count('* as n').first()) as unknown as { n: number | string }).n);
     expect(await count(testDb('rule_set_version').where({ set_id: 'tarrow-screening' }))).toBe(1);
     expect(await count(testDb('audit_event').where({ action: 'rule-set.ship' }))).toBe(1);
   });
@@ -158,7 +253,9 @@ describe('syncing the shipped set (what npm run migrate does after the migration
     let outcome: unknown;
     try {
       await trx.raw('alter table rule_set_version disable trigger rule_set_version_immutable');
-      await trx('rule_set_version').where({ set_id: 'tarrow-screening', version: 1 }).update({ document: JSON.stringify({ ...TARROW_SCREENING, title: 'Edited in place' }) });
+      await trx('rule_set_version')
+        .where({ set_id: 'tarrow-screening', version: 1 })
+        .update({ document: JSON.stringify({ ...TARROW_SCREENING, title: 'Edited in place' }) });
       outcome = await syncShippedRuleSets(trx).catch((err: Error) => err);
     } finally {
       await trx.rollback();
@@ -175,7 +272,9 @@ describe('loadRuleSet (what assessments grade with)', () => {
     expect(def.ref).toEqual({ id: 'tarrow-screening', version: 1 });
     expect(def.document.rules).toHaveLength(11);
     expect((await loadRuleSet(testDb, id)).ref).toEqual({ id, version: 1 });
-    expect((await loadRuleSet(testDb, id, 1)).document.rules.find((r) => r.id === 'holding-cumulative-2ha')!.params).toEqual({ atLeastHa: 2, windowYears: 7 });
+    expect(
+      (await loadRuleSet(testDb, id, 1)).document.rules.find((r) => r.id === 'holding-cumulative-2ha')!.params,
+    ).toEqual({ atLeastHa: 2, windowYears: 7 });
     await expect(loadRuleSet(testDb, id, 2)).rejects.toMatchObject({ status: 422 });
     await expect(loadRuleSet(testDb, 'no-such-set')).rejects.toThrow(/no published rule set "no-such-set"/);
   });

@@ -13,7 +13,10 @@ import { allPages, BUDGET_KB, type Viewer } from '../support/pages';
 const kB = (n: number) => (n / 1000).toFixed(1);
 
 async function fetchPage(path: string, session: Session | null): Promise<{ status: number; html: string }> {
-  const res = await fetch(`${BASE_URL}${path}`, { headers: session ? { cookie: session.cookie } : {}, redirect: 'manual' });
+  const res = await fetch(`${BASE_URL}${path}`, {
+    headers: session ? { cookie: session.cookie } : {},
+    redirect: 'manual',
+  });
   return { status: res.status, html: await res.text() };
 }
 
@@ -42,9 +45,14 @@ describe('script budgets', () => {
         }
         const s = await pageScript(html);
         const budget = BUDGET_KB[p.budget] * 1000;
-        lines.push(`${p.path} (${v}): ${kB(s.totalBytes)} kB of ${BUDGET_KB[p.budget]} kB; later ${s.deferred.length} modules`);
+        lines.push(
+          `${p.path} (${v}): ${kB(s.totalBytes)} kB of ${BUDGET_KB[p.budget]} kB; later ${s.deferred.length} modules`,
+        );
         if (s.totalBytes > budget) {
-          const biggest = s.modules.slice(0, 4).map((m) => `${m.url.replace('/_astro/', '')} ${kB(m.bytes)} kB`).join(', ');
+          const biggest = s.modules
+            .slice(0, 4)
+            .map((m) => `${m.url.replace('/_astro/', '')} ${kB(m.bytes)} kB`)
+            .join(', ');
           over.push(`${p.path} as ${v}: ${kB(s.totalBytes)} kB > ${BUDGET_KB[p.budget]} kB (biggest: ${biggest})`);
         }
       }

@@ -16,10 +16,17 @@ const SECOND = `http://127.0.0.1:${SECOND_APP_PORT}`;
 const stamp = Date.now();
 const nobody = (tag: string) => `${tag}.${stamp}@nowhere.example`;
 const guess = (email: string, xff?: string, base?: string) =>
-  api('POST', '/api/auth/sign-in/email', { base, body: { email, password: 'not-the-right-one' }, headers: xff ? { 'x-forwarded-for': xff } : {} });
+  api('POST', '/api/auth/sign-in/email', {
+    base,
+    body: { email, password: 'not-the-right-one' },
+    headers: xff ? { 'x-forwarded-for': xff } : {},
+  });
 
 async function setSetting(key: string, value: unknown): Promise<void> {
-  await testDb('app_setting').insert({ key, value: JSON.stringify(value) }).onConflict('key').merge();
+  await testDb('app_setting')
+    .insert({ key, value: JSON.stringify(value) })
+    .onConflict('key')
+    .merge();
 }
 async function clearSettings(): Promise<void> {
   await testDb('app_setting').where('key', 'like', 'auth.%').del();
@@ -47,9 +54,15 @@ describe('client address and throttling (item 1)', () => {
   });
 
   it('the audit log records the real client address, not a forged X-Forwarded-For', async () => {
-    const res = await api('POST', '/api/auth/sign-in/email', { body: { email: DEMO.chair, password: 'meadow-lark-2026' }, headers: { 'x-forwarded-for': '198.51.100.23' } });
+    const res = await api('POST', '/api/auth/sign-in/email', {
+      body: { email: DEMO.chair, password: 'meadow-lark-2026' },
+      headers: { 'x-forwarded-for': '198.51.100.23' },
+    });
     expect(res.status).toBe(200);
-    const row = await testDb('audit_event').where({ action: 'user.sign-in', entity_id: res.body.user.id }).orderBy('id', 'desc').first();
+    const row = await testDb('audit_event')
+      .where({ action: 'user.sign-in', entity_id: res.body.user.id })
+      .orderBy('id', 'desc')
+      .first();
     expect(row.details.ip).toBe('127.0.0.1');
   });
 
@@ -61,7 +74,9 @@ describe('client address and throttling (item 1)', () => {
     const firstWait = Number(first.headers.get('retry-after'));
     expect(firstWait).toBeGreaterThan(15);
     expect(firstWait).toBeLessThanOrEqual(30);
-    expect((await api('POST', '/api/auth/sign-in/email', { body: { email, password: 'meadow-lark-2026' } })).status).toBe(429);
+    expect(
+      (await api('POST', '/api/auth/sign-in/email', { body: { email, password: 'meadow-lark-2026' } })).status,
+    ).toBe(429);
     // Let the first wait pass (move the recorded failures back in time), fail once more: the next wait doubles.
     await testDb('auth_attempt').update({ at: testDb.raw(`at - interval '31 seconds'`) });
     expect((await guess(email)).status).toBe(401);
@@ -71,15 +86,24 @@ describe('client address and throttling (item 1)', () => {
     expect(Number(second.headers.get('retry-after'))).toBeLessThanOrEqual(60);
     // After the wait, the right password works and clears the account's count.
     await testDb('auth_attempt').update({ at: testDb.raw(`at - interval '61 seconds'`) });
-    expect((await api('POST', '/api/auth/sign-in/email', { body: { email, password: 'meadow-lark-2026' } })).status).toBe(200);
-    expect(await testDb('auth_attempt').where({ key: `sign-in:account:${email}` }).first()).toBeUndefined();
+    expect(
+      (await api('POST', '/api/auth/sign-in/email', { body: { email, password: 'meadow-lark-2026' } })).status,
+    ).toBe(200);
+    expect(
+      await testDb('auth_attempt')
+        .where({ key: `sign-in:account:${email}` })
+        .first(),
+    ).toBeUndefined();
   });
 
   it('a busy office behind one address is not locked out by its typos (default: 30 per address, 5 per account)', async () => {
     // Twenty people each mistype once within a minute; each one's next try is judged on its own.
     for (let i = 0; i < 20; i++) expect((await guess(nobody(`office${i}`))).status).toBe(401);
     for (let i = 0; i < 4; i++) expect((await guess(nobody('office0'))).status).toBe(401);
-    expect((await api('POST', '/api/auth/sign-in/email', { body: { email: DEMO.board, password: 'meadow-lark-2026' } })).status).toBe(200);
+    expect(
+      (await api('POST', '/api/auth/sign-in/email', { body: { email: DEMO.board, password: 'meadow-lark-2026' } }))
+        .status,
+    ).toBe(200);
   });
 
   it('many accounts guessed from one address are throttled by address (setting at another value: 3)', async () => {
@@ -102,10 +126,16 @@ describe('client address and throttling (item 1)', () => {
   it('reset mails to one address are limited per account, whatever X-Forwarded-For says', async () => {
     const email = nobody('reset');
     for (let i = 0; i < 3; i++) {
-      const res = await api('POST', '/api/auth/request-password-reset', { body: { email, redirectTo: '/reset-password' }, headers: { 'x-forwarded-for': `192.0.2.${i}` } });
+      const res = await api('POST', '/api/auth/request-password-reset', {
+        body: { email, redirectTo: '/reset-password' },
+        headers: { 'x-forwarded-for': `192.0.2.${i}` },
+      });
       expect(res.status).toBe(200);
     }
-    const fourth = await api('POST', '/api/auth/request-password-reset', { body: { email, redirectTo: '/reset-password' }, headers: { 'x-forwarded-for': '192.0.2.99' } });
+    const fourth = await api('POST', '/api/auth/request-password-reset', {
+      body: { email, redirectTo: '/reset-password' },
+      headers: { 'x-forwarded-for': '192.0.2.99' },
+    });
     expect(fourth.status).toBe(429);
   });
 });
@@ -118,14 +148,24 @@ describe('trusted proxies (item 1, the setting at another value)', () => {
   });
 
   async function startWith(trusted: string): Promise<void> {
-    second = await startAppInstance({ ...appEnv(SECOND_APP_PORT), TRUSTED_PROXIES: trusted, MAIL_WORKER: 'off' }, SECOND_APP_PORT);
+    second = await startAppInstance(
+      { ...appEnv(SECOND_APP_PORT), TRUSTED_PROXIES: trusted, MAIL_WORKER: 'off' },
+      SECOND_APP_PORT,
+    );
   }
 
   it('behind a trusted proxy (TRUSTED_PROXIES=loopback) the forwarded address is the client, for the audit and the throttle', async () => {
     await startWith('loopback');
-    const res = await api('POST', '/api/auth/sign-in/email', { base: SECOND, body: { email: DEMO.chair, password: 'meadow-lark-2026' }, headers: { 'x-forwarded-for': '198.51.100.7' } });
+    const res = await api('POST', '/api/auth/sign-in/email', {
+      base: SECOND,
+      body: { email: DEMO.chair, password: 'meadow-lark-2026' },
+      headers: { 'x-forwarded-for': '198.51.100.7' },
+    });
     expect(res.status).toBe(200);
-    const row = await testDb('audit_event').where({ action: 'user.sign-in', entity_id: res.body.user.id }).orderBy('id', 'desc').first();
+    const row = await testDb('audit_event')
+      .where({ action: 'user.sign-in', entity_id: res.body.user.id })
+      .orderBy('id', 'desc')
+      .first();
     expect(row.details.ip).toBe('198.51.100.7');
     // A rotating client address still meets the per-account throttle.
     const email = nobody('rotating');
@@ -137,9 +177,16 @@ describe('trusted proxies (item 1, the setting at another value)', () => {
 
   it('a hop count (TRUSTED_PROXIES=1) takes the address the nearest proxy saw, not one the client wrote', async () => {
     await startWith('1');
-    const res = await api('POST', '/api/auth/sign-in/email', { base: SECOND, body: { email: DEMO.chair, password: 'meadow-lark-2026' }, headers: { 'x-forwarded-for': '203.0.113.5, 198.51.100.8' } });
+    const res = await api('POST', '/api/auth/sign-in/email', {
+      base: SECOND,
+      body: { email: DEMO.chair, password: 'meadow-lark-2026' },
+      headers: { 'x-forwarded-for': '203.0.113.5, 198.51.100.8' },
+    });
     expect(res.status).toBe(200);
-    const row = await testDb('audit_event').where({ action: 'user.sign-in', entity_id: res.body.user.id }).orderBy('id', 'desc').first();
+    const row = await testDb('audit_event')
+      .where({ action: 'user.sign-in', entity_id: res.body.user.id })
+      .orderBy('id', 'desc')
+      .first();
     expect(row.details.ip).toBe('198.51.100.8');
   });
 });
@@ -160,19 +207,28 @@ describe('one password policy (item 4)', () => {
     expect(common.body.error.message).toMatch(/too common/);
     const own = await api('POST', '/api/invitations/accept', { body: { token: invite, password: 'policyperson1' } });
     expect(own.status).toBe(422);
-    expect((await api('POST', '/api/invitations/accept', { body: { token: invite, password: 'lark over the wet meadow' } })).status).toBe(200);
+    expect(
+      (await api('POST', '/api/invitations/accept', { body: { token: invite, password: 'lark over the wet meadow' } }))
+        .status,
+    ).toBe(200);
 
     const before = await lastMailId();
     await api('POST', '/api/auth/request-password-reset', { body: { email, redirectTo: '/reset-password' } });
     const link = linkIn((await waitForMail(email, /Reset your Swardkeep password/, before)).body_text);
-    const token = new URL((await fetch(link, { redirect: 'manual' })).headers.get('location')!, SECOND).searchParams.get('token')!;
+    const token = new URL(
+      (await fetch(link, { redirect: 'manual' })).headers.get('location')!,
+      SECOND,
+    ).searchParams.get('token')!;
     for (const weak of ['aaaaaaaaaa', 'Password1!', '1234567890']) {
       const res = await api('POST', '/api/auth/reset-password', { body: { token, newPassword: weak } });
       expect(res.status, weak).toBe(400);
       expect(res.body.code).toBe('PASSWORD_TOO_WEAK');
       expect(res.body.message).toMatch(/too common|too easy to guess/);
     }
-    expect((await api('POST', '/api/auth/reset-password', { body: { token, newPassword: 'swallows nest under eaves' } })).status).toBe(200);
+    expect(
+      (await api('POST', '/api/auth/reset-password', { body: { token, newPassword: 'swallows nest under eaves' } }))
+        .status,
+    ).toBe(200);
     await signIn(email, 'swallows nest under eaves');
   });
 });
@@ -203,10 +259,17 @@ describe('auth endpoints (item 5)', () => {
     const me = await api('GET', '/api/me', { session });
     const out = await api('POST', '/api/auth/sign-out', { session, body: {} });
     expect(out.status).toBe(200);
-    const signOut = await testDb('audit_event').where({ action: 'user.sign-out', actor_id: me.body.id }).orderBy('id', 'desc').first();
+    const signOut = await testDb('audit_event')
+      .where({ action: 'user.sign-out', actor_id: me.body.id })
+      .orderBy('id', 'desc')
+      .first();
     expect(signOut).toBeTruthy();
-    await api('POST', '/api/auth/request-password-reset', { body: { email: DEMO.board, redirectTo: '/reset-password' } });
-    const asked = await testDb('audit_event').where({ action: 'user.password-reset-request', entity_id: me.body.id }).first();
+    await api('POST', '/api/auth/request-password-reset', {
+      body: { email: DEMO.board, redirectTo: '/reset-password' },
+    });
+    const asked = await testDb('audit_event')
+      .where({ action: 'user.password-reset-request', entity_id: me.body.id })
+      .first();
     expect(asked.details.ip).toBe('127.0.0.1');
     const signInRow = await testDb('audit_event').where({ action: 'user.sign-in', actor_id: me.body.id }).first();
     expect(signInRow).toBeTruthy();
@@ -215,8 +278,12 @@ describe('auth endpoints (item 5)', () => {
 
 describe('session idle timeout (item 9)', () => {
   async function idleFor(session: Session, minutes: number): Promise<void> {
-    const token = decodeURIComponent(session.cookie.split('better-auth.session_token=')[1]!.split(';')[0]!).split('.')[0]!;
-    await testDb('session').where({ token }).update({ updatedAt: testDb.raw(`now() - make_interval(mins => ?)`, [minutes]) });
+    const token = decodeURIComponent(session.cookie.split('better-auth.session_token=')[1]!.split(';')[0]!).split(
+      '.',
+    )[0]!;
+    await testDb('session')
+      .where({ token })
+      .update({ updatedAt: testDb.raw(`now() - make_interval(mins => ?)`, [minutes]) });
   }
 
   it('by default a session survives a working day of idleness (8 hours) but not more', async () => {

@@ -19,7 +19,15 @@ beforeAll(async () => {
 afterAll(() => testDb.destroy());
 
 describe('open redirect (item 2)', () => {
-  const hostile = ['/%09/evil.example', '/%0A/evil.example', '//evil.example', '/%5Cevil.example', '/..//evil.example', 'https://evil.example/', '/a%0D%0ASet-Cookie:%20x=1'];
+  const hostile = [
+    '/%09/evil.example',
+    '/%0A/evil.example',
+    '//evil.example',
+    '/%5Cevil.example',
+    '/..//evil.example',
+    'https://evil.example/',
+    '/a%0D%0ASet-Cookie:%20x=1',
+  ];
 
   it('a signed-in visit to /sign-in never redirects to another host, whatever next says', async () => {
     for (const next of hostile) {
@@ -34,7 +42,10 @@ describe('open redirect (item 2)', () => {
   it('the plain sign-in form post sends the browser to the same site only, and a newline in next is no 500', async () => {
     const headers = { 'content-type': 'application/x-www-form-urlencoded' };
     for (const next of ['/%09/evil.example', '/a%0Ab']) {
-      const res = await api('POST', `/sign-in?next=${next}`, { body: new URLSearchParams({ email: DEMO.planner, password: 'meadow-lark-2026' }).toString(), headers });
+      const res = await api('POST', `/sign-in?next=${next}`, {
+        body: new URLSearchParams({ email: DEMO.planner, password: 'meadow-lark-2026' }).toString(),
+        headers,
+      });
       expect(res.status, next).toBe(303);
       expect(res.headers.get('location'), next).toBe('/work');
     }
@@ -49,20 +60,42 @@ describe('bounded bodies (item 3)', () => {
       { path: '/api/users', headers: { ...json, cookie: admin.cookie }, bytes: 1_100_000 },
       { path: '/api/auth/sign-in/email', headers: json, bytes: 20_000 },
       { path: '/api/auth/request-password-reset', headers: json, bytes: 20_000 },
-      { path: '/sign-in', headers: { 'content-type': 'application/x-www-form-urlencoded', origin: BASE_URL }, bytes: 20_000 },
+      {
+        path: '/sign-in',
+        headers: { 'content-type': 'application/x-www-form-urlencoded', origin: BASE_URL },
+        bytes: 20_000,
+      },
     ];
     for (const t of targets) {
       // The request is never finished: only a server that stops reading at its cap can answer.
-      const res = await rawRequest({ method: 'POST', path: t.path, headers: t.headers, totalBytes: t.bytes, holdOpen: true });
+      const res = await rawRequest({
+        method: 'POST',
+        path: t.path,
+        headers: t.headers,
+        totalBytes: t.bytes,
+        holdOpen: true,
+      });
       expect(res.status, t.path).toBe(413);
     }
   });
 
   it('a declared Content-Length over the limit is refused with 413 before any of the body is sent', async () => {
-    const res = await rawRequest({ method: 'POST', path: '/api/estimates', headers: { ...json, cookie: planner.cookie }, declaredLength: 2_000_000, holdOpen: true });
+    const res = await rawRequest({
+      method: 'POST',
+      path: '/api/estimates',
+      headers: { ...json, cookie: planner.cookie },
+      declaredLength: 2_000_000,
+      holdOpen: true,
+    });
     expect(res.status).toBe(413);
     expect(JSON.parse(res.body).error.code).toBe('PAYLOAD_TOO_LARGE');
-    const auth = await rawRequest({ method: 'POST', path: '/api/auth/sign-in/email', headers: json, declaredLength: 100_000, holdOpen: true });
+    const auth = await rawRequest({
+      method: 'POST',
+      path: '/api/auth/sign-in/email',
+      headers: json,
+      declaredLength: 100_000,
+      holdOpen: true,
+    });
     expect(auth.status).toBe(413);
   });
 });
@@ -76,7 +109,13 @@ describe('framing and scripts (item 6)', () => {
       expect(csp, path).toMatch(/frame-ancestors 'none'/);
       expect(csp, path).toMatch(/script-src 'self' 'sha256-[A-Za-z0-9+/=]+'/);
       // No inline or eval allowance for scripts or style elements; only style attributes (set by React islands and the maps) may be inline.
-      const directives = Object.fromEntries(csp.split(';').map((d) => d.trim()).filter(Boolean).map((d) => [d.split(/\s+/)[0], d]));
+      const directives = Object.fromEntries(
+        csp
+          .split(';')
+          .map((d) => d.trim())
+          .filter(Boolean)
+          .map((d) => [d.split(/\s+/)[0], d]),
+      );
       for (const [name, value] of Object.entries(directives)) {
         if (name !== 'style-src-attr') expect(value, `${path} ${name}`).not.toMatch(/unsafe-inline|unsafe-eval/);
       }
@@ -87,9 +126,15 @@ describe('framing and scripts (item 6)', () => {
   });
 
   it('the map page admits a configured basemap host for images and nothing more', async () => {
-    const cspOfMap = async () => (await fetch(`${BASE_URL}/map`, { headers: { cookie: planner.cookie } })).headers.get('content-security-policy') ?? '';
+    const cspOfMap = async () =>
+      (await fetch(`${BASE_URL}/map`, { headers: { cookie: planner.cookie } })).headers.get(
+        'content-security-policy',
+      ) ?? '';
     expect(await cspOfMap()).toMatch(/img-src 'self' data: blob:;/);
-    await testDb('app_setting').insert({ key: 'map.basemap-url', value: JSON.stringify('https://tiles.example/{z}/{x}/{y}.png') }).onConflict('key').merge();
+    await testDb('app_setting')
+      .insert({ key: 'map.basemap-url', value: JSON.stringify('https://tiles.example/{z}/{x}/{y}.png') })
+      .onConflict('key')
+      .merge();
     try {
       const csp = await cspOfMap();
       expect(csp).toMatch(/img-src 'self' data: blob: https:\/\/tiles\.example;/);
@@ -123,33 +168,65 @@ describe('cross-origin writes (item 7)', () => {
       expect(res.status, origin).toBe(403);
       expect(res.body.error.code).toBe('FORBIDDEN');
     }
-    const none = await rawRequest({ method: 'POST', path: '/api/users', headers: { cookie: admin.cookie, 'content-type': 'application/json' } });
+    const none = await rawRequest({
+      method: 'POST',
+      path: '/api/users',
+      headers: { cookie: admin.cookie, 'content-type': 'application/json' },
+    });
     expect(none.status).toBe(403);
-    const crossSite = await rawRequest({ method: 'POST', path: '/api/users', headers: { cookie: admin.cookie, 'content-type': 'application/json', 'sec-fetch-site': 'same-site' } });
+    const crossSite = await rawRequest({
+      method: 'POST',
+      path: '/api/users',
+      headers: { cookie: admin.cookie, 'content-type': 'application/json', 'sec-fetch-site': 'same-site' },
+    });
     expect(crossSite.status).toBe(403);
     expect(await testDb('user').where({ email: body.email }).first()).toBeUndefined();
     // Without Origin, the browser's own Sec-Fetch-Site: same-origin is enough (then the empty object is a 422).
-    const same = await rawRequest({ method: 'POST', path: '/api/users', headers: { cookie: admin.cookie, 'content-type': 'application/json', 'sec-fetch-site': 'same-origin' }, body: '{}' });
+    const same = await rawRequest({
+      method: 'POST',
+      path: '/api/users',
+      headers: { cookie: admin.cookie, 'content-type': 'application/json', 'sec-fetch-site': 'same-origin' },
+      body: '{}',
+    });
     expect(same.status).toBe(422);
   });
 
   it('the media type is parsed exactly: only application/json (UTF-8) is JSON', async () => {
-    for (const type of ['text/plain; charset=application/json', 'application/jsonx', 'application/json; charset=latin1', 'application/json;;']) {
-      const res = await api('POST', '/api/users', { session: admin, body: JSON.stringify(body), headers: { 'content-type': type } });
+    for (const type of [
+      'text/plain; charset=application/json',
+      'application/jsonx',
+      'application/json; charset=latin1',
+      'application/json;;',
+    ]) {
+      const res = await api('POST', '/api/users', {
+        session: admin,
+        body: JSON.stringify(body),
+        headers: { 'content-type': type },
+      });
       expect(res.status, type).toBe(415);
     }
-    const ok = await api('POST', '/api/users', { session: admin, body: JSON.stringify({}), headers: { 'content-type': 'Application/JSON; charset="UTF-8"' } });
+    const ok = await api('POST', '/api/users', {
+      session: admin,
+      body: JSON.stringify({}),
+      headers: { 'content-type': 'Application/JSON; charset="UTF-8"' },
+    });
     expect(ok.status).toBe(422);
   });
 });
 
 describe('odd input is a 4xx, never a 500 (item 8)', () => {
   it('a NUL character in a text field, a query or a sign-in is refused with 400', async () => {
-    const res = await api('POST', '/api/users', { session: admin, body: { name: 'Nul\u0000Person', email: `nul.${Date.now()}@tarrow.example`, roles: ['planner'] } });
+    const res = await api('POST', '/api/users', {
+      session: admin,
+      body: { name: 'Nul\u0000Person', email: `nul.${Date.now()}@tarrow.example`, roles: ['planner'] },
+    });
     expect(res.status).toBe(400);
     expect(res.body.error.message).toMatch(/NUL/);
     expect((await api('GET', '/api/parcels/search?q=a%00b', { session: planner })).status).toBe(400);
-    expect((await api('POST', '/api/auth/sign-in/email', { body: { email: 'a\u0000@tarrow.example', password: 'x' } })).status).toBe(400);
+    expect(
+      (await api('POST', '/api/auth/sign-in/email', { body: { email: 'a\u0000@tarrow.example', password: 'x' } }))
+        .status,
+    ).toBe(400);
   });
 
   it('an integer beyond PostgreSQL integer range is a 422', async () => {

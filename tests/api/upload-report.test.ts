@@ -17,7 +17,10 @@ describe('upload report as CSV', () => {
     const square = rect([0, -5000, 100, -4900]);
     const c = (x: number, y: number) => rect([x, y, x, y]).coordinates[0]![0]!;
     // A bow-tie: its boundary crosses itself (rejected, or repaired into two parts).
-    const bowTie = { type: 'Polygon', coordinates: [[c(200, -5000), c(300, -4900), c(300, -5000), c(200, -4900), c(200, -5000)]] };
+    const bowTie = {
+      type: 'Polygon',
+      coordinates: [[c(200, -5000), c(300, -4900), c(300, -5000), c(200, -4900), c(200, -5000)]],
+    };
     const file = JSON.stringify({
       type: 'FeatureCollection',
       features: [
@@ -30,7 +33,10 @@ describe('upload report as CSV', () => {
     expect(staged.status).toBe(201);
     const early = await api('GET', `/api/uploads/${staged.body.id}/report.csv`, { session: planner });
     expect(early.status).toBe(409);
-    const report = await api('POST', `/api/uploads/${staged.body.id}/validation`, { session: planner, body: { layer: staged.body.layers[0].name, mapping: { reference: 'ref', statedArea: 'area' } } });
+    const report = await api('POST', `/api/uploads/${staged.body.id}/validation`, {
+      session: planner,
+      body: { layer: staged.body.layers[0].name, mapping: { reference: 'ref', statedArea: 'area' } },
+    });
     expect(report.status).toBe(200);
 
     const csv = await api('GET', `/api/uploads/${staged.body.id}/report.csv`, { session: planner });
@@ -48,7 +54,9 @@ describe('upload report as CSV', () => {
     expect(rows[2]!.found).toContain('reference repeated in the file');
     for (const r of rows) expect(r.found).not.toMatch(/[a-z]+-[a-z]+-[a-z]+/);
     // The counts in words on the report page come from the same list.
-    expect(Object.keys(report.body.summary.byCode)).toEqual(expect.arrayContaining(['self-intersection', 'duplicate-reference']));
+    expect(Object.keys(report.body.summary.byCode)).toEqual(
+      expect.arrayContaining(['self-intersection', 'duplicate-reference']),
+    );
 
     const assessor = await signIn(DEMO.assessor);
     expect((await api('GET', `/api/uploads/${staged.body.id}/report.csv`, { session: assessor })).status).toBe(403);

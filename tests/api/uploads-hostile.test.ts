@@ -35,7 +35,12 @@ describe('hostile or broken uploads are refused with a clear message and leave n
   const files = sampleFiles();
 
   it('wrong magic bytes: a .zip that is not a zip', async () => {
-    await refused('parcels.zip', new TextEncoder().encode('this is plain text, not a zip archive at all'), 422, /not a zip archive \(wrong magic bytes/);
+    await refused(
+      'parcels.zip',
+      new TextEncoder().encode('this is plain text, not a zip archive at all'),
+      422,
+      /not a zip archive \(wrong magic bytes/,
+    );
   });
 
   it('a zip entry with a path-traversal name', async () => {
@@ -47,30 +52,62 @@ describe('hostile or broken uploads are refused with a clear message and leave n
     const big = new Uint8Array(3_000_000); // zeros: deflates to a few kB
     const zip = zipOf([...layerEntries('p', files, { dbf: null }), { name: 'p.dbf', data: big }]);
     expect(zip.length).toBeLessThan(50_000);
-    await withSetting('upload.max-uncompressed-bytes', 1_000_000, () => refused('bomb.zip', zip, 413, /expands to more than the allowed 1000000 bytes.*zip bomb/));
+    await withSetting('upload.max-uncompressed-bytes', 1_000_000, () =>
+      refused('bomb.zip', zip, 413, /expands to more than the allowed 1000000 bytes.*zip bomb/),
+    );
   });
 
   it('a file over the upload size limit (a setting)', async () => {
     const zip = zipOf(layerEntries('p', files), false);
-    await withSetting('upload.max-bytes', 500, () => refused('big.zip', zip, 413, /at most 500 (bytes )?are allowed|larger than the allowed 500 bytes/));
+    await withSetting('upload.max-bytes', 500, () =>
+      refused('big.zip', zip, 413, /at most 500 (bytes )?are allowed|larger than the allowed 500 bytes/),
+    );
   });
 
   it('a truncated .shp', async () => {
-    await refused('truncated.zip', zipOf(layerEntries('p', files, { shp: files.shp.slice(0, files.shp.length - 40) })), 422, /p\.shp is truncated/);
+    await refused(
+      'truncated.zip',
+      zipOf(layerEntries('p', files, { shp: files.shp.slice(0, files.shp.length - 40) })),
+      422,
+      /p\.shp is truncated/,
+    );
   });
 
   it('a .shp with wrong magic bytes', async () => {
-    await refused('magic.zip', zipOf(layerEntries('p', files, { shp: edit(files.shp, (v) => v.setInt32(0, 1234, false)) })), 422, /p\.shp is not a shapefile component \(wrong magic bytes/);
+    await refused(
+      'magic.zip',
+      zipOf(layerEntries('p', files, { shp: edit(files.shp, (v) => v.setInt32(0, 1234, false)) })),
+      422,
+      /p\.shp is not a shapefile component \(wrong magic bytes/,
+    );
   });
 
   it('a .dbf whose header claims 2^31 records (would exhaust memory in a naive reader)', async () => {
     const dbf = edit(files.dbf, (v) => v.setUint32(4, 2 ** 31, true));
-    await refused('dbf-header.zip', zipOf(layerEntries('p', files, { dbf })), 422, /p\.dbf is truncated or its header is corrupt: it declares 2147483648 records/);
+    await refused(
+      'dbf-header.zip',
+      zipOf(layerEntries('p', files, { dbf })),
+      422,
+      /p\.dbf is truncated or its header is corrupt: it declares 2147483648 records/,
+    );
   });
 
   it('inconsistent parts: the .dbf has fewer rows than the .shp has shapes', async () => {
-    const one = writePolygonShapefile([{ geometry: squareM(430000, 5805000), properties: { field_ref: 'X', name: 'x', stated_ha: 1, last_till: null } }], { fields: FIELDS, prjWkt: null });
-    await refused('mismatch.zip', zipOf(layerEntries('p', files, { dbf: one.dbf })), 422, /p\.shp holds 2 shapes but p\.dbf holds 1 rows/);
+    const one = writePolygonShapefile(
+      [
+        {
+          geometry: squareM(430000, 5805000),
+          properties: { field_ref: 'X', name: 'x', stated_ha: 1, last_till: null },
+        },
+      ],
+      { fields: FIELDS, prjWkt: null },
+    );
+    await refused(
+      'mismatch.zip',
+      zipOf(layerEntries('p', files, { dbf: one.dbf })),
+      422,
+      /p\.shp holds 2 shapes but p\.dbf holds 1 rows/,
+    );
   });
 
   it('a missing .shx', async () => {
@@ -78,16 +115,31 @@ describe('hostile or broken uploads are refused with a clear message and leave n
   });
 
   it('a zip without any .shp', async () => {
-    await refused('noshp.zip', zipOf([{ name: 'readme.txt', data: new TextEncoder().encode('hello') }]), 422, /contains no \.shp file/);
+    await refused(
+      'noshp.zip',
+      zipOf([{ name: 'readme.txt', data: new TextEncoder().encode('hello') }]),
+      422,
+      /contains no \.shp file/,
+    );
   });
 
   it('an unreadable encoding: the .cpg says UTF-8 but the .dbf is not', async () => {
     const latin = sampleFiles({ encoding: 'windows-1252', names: ['Müller Acre', 'Émbrenlea'] });
-    await refused('encoding.zip', zipOf(layerEntries('p', latin, { cpg: new TextEncoder().encode('UTF-8') })), 422, /declared UTF-8 by its \.cpg but contains bytes that are not valid UTF-8/);
+    await refused(
+      'encoding.zip',
+      zipOf(layerEntries('p', latin, { cpg: new TextEncoder().encode('UTF-8') })),
+      422,
+      /declared UTF-8 by its \.cpg but contains bytes that are not valid UTF-8/,
+    );
   });
 
   it('an unknown encoding named by the .cpg', async () => {
-    await refused('cpg.zip', zipOf(layerEntries('p', files, { cpg: new TextEncoder().encode('KLINGON-42') })), 422, /names the encoding "KLINGON-42", which cannot be read/);
+    await refused(
+      'cpg.zip',
+      zipOf(layerEntries('p', files, { cpg: new TextEncoder().encode('KLINGON-42') })),
+      422,
+      /names the encoding "KLINGON-42", which cannot be read/,
+    );
   });
 
   it('GeoJSON that is not JSON, not GeoJSON, or not UTF-8', async () => {
@@ -97,7 +149,12 @@ describe('hostile or broken uploads are refused with a clear message and leave n
   });
 
   it('a file that is neither a zip nor GeoJSON', async () => {
-    await refused('report.pdf', new TextEncoder().encode('%PDF-1.7 not a map'), 415, /neither a zipped shapefile \(\.zip\) nor a GeoJSON file/);
+    await refused(
+      'report.pdf',
+      new TextEncoder().encode('%PDF-1.7 not a map'),
+      415,
+      /neither a zipped shapefile \(\.zip\) nor a GeoJSON file/,
+    );
   });
 
   it('an empty file, and a form without a file', async () => {
@@ -105,7 +162,11 @@ describe('hostile or broken uploads are refused with a clear message and leave n
     const before = await uploadRowCounts();
     const form = new FormData();
     form.set('purpose', 'parcels');
-    const res = await fetch(`${BASE_URL}/api/uploads`, { method: 'POST', headers: { cookie: planner.cookie, origin: BASE_URL }, body: form });
+    const res = await fetch(`${BASE_URL}/api/uploads`, {
+      method: 'POST',
+      headers: { cookie: planner.cookie, origin: BASE_URL },
+      body: form,
+    });
     expect(res.status).toBe(422);
     expect((await res.json()).error.message).toMatch(/Attach the file in the "file" field/);
     expect(await uploadRowCounts()).toEqual(before);
@@ -123,8 +184,10 @@ describe('hostile or broken uploads are refused with a clear message and leave n
     const ok = await uploadFile(planner, 'fine.zip', zipOf(layerEntries('p', files)));
     expect(ok.status).toBe(201);
     expect(ok.body.layers[0].featureCount).toBe(2);
-    const gone = await fetch(`${BASE_URL}/api/uploads/${ok.body.id}`, { method: 'DELETE', headers: { cookie: planner.cookie, origin: BASE_URL } });
+    const gone = await fetch(`${BASE_URL}/api/uploads/${ok.body.id}`, {
+      method: 'DELETE',
+      headers: { cookie: planner.cookie, origin: BASE_URL },
+    });
     expect(gone.status).toBe(204);
   });
 });
-

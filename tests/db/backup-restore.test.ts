@@ -22,7 +22,10 @@ const dir = mkdtempSync(path.join(os.tmpdir(), 'swardkeep-backup-'));
 const file = path.join(dir, 'demo.dump');
 
 function db(args: string[], databaseUrl: string) {
-  return spawnSync(process.execPath, ['--import', 'tsx', 'scripts/db.ts', ...args], { encoding: 'utf8', env: { ...process.env, DATABASE_URL: databaseUrl, SWARDKEEP_LOCAL_DB: '' } });
+  return spawnSync(process.execPath, ['--import', 'tsx', 'scripts/db.ts', ...args], {
+    encoding: 'utf8',
+    env: { ...process.env, DATABASE_URL: databaseUrl, SWARDKEEP_LOCAL_DB: '' },
+  });
 }
 
 /** Row count and an order-independent hash of every row, per table of the public and pgboss schemas. */
@@ -35,7 +38,9 @@ async function fingerprint(url: string): Promise<Record<string, string>> {
     );
     const out: Record<string, string> = {};
     for (const { s, t } of tables.rows) {
-      const r = await client.query(`select count(*)::int as n, coalesce(md5(string_agg(md5(x::text), '' order by md5(x::text))), '') as h from "${s}"."${t}" x`);
+      const r = await client.query(
+        `select count(*)::int as n, coalesce(md5(string_agg(md5(x::text), '' order by md5(x::text))), '') as h from "${s}"."${t}" x`,
+      );
       out[`${s}.${t}`] = `${r.rows[0].n}:${r.rows[0].h}`;
     }
     return out;
@@ -86,7 +91,17 @@ describe('db backup and restore', () => {
     expect(r.status, r.stderr).toBe(0);
     const restored = await fingerprint(scratchUrl);
     // Tables the app wrote while the backup ran (sessions, queue polling) may differ; the domain must not.
-    for (const key of ['public.parcel', 'public.proposal', 'public.assessment', 'public.register_entry', 'public.audit_event', 'public.land_use_event', 'public.board_decision', 'public.knex_migrations', 'public.user']) {
+    for (const key of [
+      'public.parcel',
+      'public.proposal',
+      'public.assessment',
+      'public.register_entry',
+      'public.audit_event',
+      'public.land_use_event',
+      'public.board_decision',
+      'public.knex_migrations',
+      'public.user',
+    ]) {
       expect(restored[key], key).toBe(source[key]);
     }
     expect(Object.keys(restored).sort()).toEqual(Object.keys(source).sort());
@@ -94,7 +109,11 @@ describe('db backup and restore', () => {
   });
 
   it('keeps the register hash chain intact and the geometries exact', async () => {
-    const chain = await withClient(scratchUrl, (c) => c.query<{ seq: number; prev_hash: string; hash: string; content: unknown }>('select seq::int, prev_hash, hash, content from register_entry order by seq'));
+    const chain = await withClient(scratchUrl, (c) =>
+      c.query<{ seq: number; prev_hash: string; hash: string; content: unknown }>(
+        'select seq::int, prev_hash, hash, content from register_entry order by seq',
+      ),
+    );
     let prev = '0'.repeat(64);
     for (const row of chain.rows) {
       expect(row.prev_hash, `entry ${row.seq}`).toBe(prev);
@@ -103,10 +122,17 @@ describe('db backup and restore', () => {
     }
     // The register stays insert-only for its writer role (grants are restored).
     const grants = await withClient(scratchUrl, (c) =>
-      c.query("select has_table_privilege('swardkeep_register_writer', 'register_entry', 'INSERT') as ins, has_table_privilege('swardkeep_register_writer', 'register_entry', 'UPDATE') as upd"),
+      c.query(
+        "select has_table_privilege('swardkeep_register_writer', 'register_entry', 'INSERT') as ins, has_table_privilege('swardkeep_register_writer', 'register_entry', 'UPDATE') as upd",
+      ),
     );
     expect(grants.rows[0]).toEqual({ ins: true, upd: false });
-    const geomHash = (url: string) => withClient(url, (c) => c.query("select md5(string_agg(id::text || encode(st_asewkb(geom), 'hex'), ',' order by id)) as h from parcel").then((r) => r.rows[0].h));
+    const geomHash = (url: string) =>
+      withClient(url, (c) =>
+        c
+          .query("select md5(string_agg(id::text || encode(st_asewkb(geom), 'hex'), ',' order by id)) as h from parcel")
+          .then((r) => r.rows[0].h),
+      );
     expect(await geomHash(scratchUrl)).toBe(await geomHash(TEST_DATABASE_URL));
   });
 
@@ -114,11 +140,14 @@ describe('db backup and restore', () => {
     const refused = db(['restore', file], scratchUrl);
     expect(refused.status).toBe(1);
     expect(refused.stderr).toContain('pass --clean');
-    await withClient(scratchUrl, (c) => c.query('drop table register_entry cascade; drop table audit_event cascade; delete from proposal_parcel'));
+    await withClient(scratchUrl, (c) =>
+      c.query('drop table register_entry cascade; drop table audit_event cascade; delete from proposal_parcel'),
+    );
     const r = db(['restore', file, '--clean'], scratchUrl);
     expect(r.status, r.stderr).toBe(0);
     const restored = await fingerprint(scratchUrl);
-    for (const key of ['public.register_entry', 'public.audit_event', 'public.proposal_parcel', 'public.parcel']) expect(restored[key], key).toBe(source[key]);
+    for (const key of ['public.register_entry', 'public.audit_event', 'public.proposal_parcel', 'public.parcel'])
+      expect(restored[key], key).toBe(source[key]);
   });
 
   it('leaves the database as it was when the backup file is damaged', async () => {

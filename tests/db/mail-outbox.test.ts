@@ -14,7 +14,9 @@ describe('mail outbox', () => {
   it('a failed delivery keeps the message, counts the attempt and schedules a retry', async () => {
     const to = `outbox.${Date.now()}@tarrow.example`;
     // Other rows may be due from the running server; claim only what this test wrote.
-    await db('mail_outbox').whereNull('sent_at').update({ next_attempt_at: db.raw("now() + interval '1 hour'") });
+    await db('mail_outbox')
+      .whereNull('sent_at')
+      .update({ next_attempt_at: db.raw("now() + interval '1 hour'") });
     await enqueueMail(db, { to, subject: 'Test', text: 'Body', html: '<p>Body</p>' });
     const sent = await deliverDueMail();
     expect(sent).toBe(0);

@@ -14,14 +14,34 @@ import { testDb } from '../support/db';
 afterAll(() => testDb.destroy());
 
 // Two regions side by side over open ocean (lon -30.00..-29.98, lat -40.00..-39.99).
-const env = (x0: number, x1: number, y0 = -39.999, y1 = -39.998) => testDb.raw('st_multi(st_makeenvelope(?, ?, ?, ?, 4326))', [x0, y0, x1, y1]);
+const env = (x0: number, x1: number, y0 = -39.999, y1 = -39.998) =>
+  testDb.raw('st_multi(st_makeenvelope(?, ?, ?, ?, 4326))', [x0, y0, x1, y1]);
 
 async function build(trx: Knex.Transaction) {
-  for (const [key, value] of [['land-use.permanent-grassland-years', 5], ['land-use.uncultivated-years', 15], ['land-use.tillage-ends-grassland', false], ['region.reference-year', 2018]] as const) {
-    await trx('app_setting').insert({ key, value: JSON.stringify(value) }).onConflict('key').merge();
+  for (const [key, value] of [
+    ['land-use.permanent-grassland-years', 5],
+    ['land-use.uncultivated-years', 15],
+    ['land-use.tillage-ends-grassland', false],
+    ['region.reference-year', 2018],
+  ] as const) {
+    await trx('app_setting')
+      .insert({ key, value: JSON.stringify(value) })
+      .onConflict('key')
+      .merge();
   }
-  const next = Number((await trx('reference_layer_version').where({ kind: 'region' }).max('version as m').first())?.m ?? 0) + 1;
-  const [v] = await trx('reference_layer_version').insert({ kind: 'region', version: next, status: 'published', class_attribute: 'class', label_attribute: 'name', classes: ['test-a', 'test-b'], feature_count: 2 }).returning('id');
+  const next =
+    Number((await trx('reference_layer_version').where({ kind: 'region' }).max('version as m').first())?.m ?? 0) + 1;
+  const [v] = await trx('reference_layer_version')
+    .insert({
+      kind: 'region',
+      version: next,
+      status: 'published',
+      class_attribute: 'class',
+      label_attribute: 'name',
+      classes: ['test-a', 'test-b'],
+      feature_count: 2,
+    })
+    .returning('id');
   await trx('reference_feature').insert([
     { version_id: v.id, class: 'test-a', label: 'Test district A', geom: env(-30.0, -29.99, -40.0, -39.99) },
     { version_id: v.id, class: 'test-b', label: 'Test district B', geom: env(-29.99, -29.98, -40.0, -39.99) },
@@ -37,11 +57,19 @@ async function build(trx: Knex.Transaction) {
   ];
   const ids: Record<string, number> = {};
   for (const [reference, areaHa, [x0, x1]] of parcels) {
-    const [row] = await trx('parcel').insert({ reference, reference_key: referenceKey(reference), area_ha: areaHa, geom: env(x0, x1) }).returning('id');
+    const [row] = await trx('parcel')
+      .insert({ reference, reference_key: referenceKey(reference), area_ha: areaHa, geom: env(x0, x1) })
+      .returning('id');
     ids[reference] = Number(row.id);
   }
   await computeOverlay(trx, { parcelIds: Object.values(ids) }, [Number(v.id)]);
-  const ev = (ref: string, date: string, kind: string, value: string) => ({ parcel_id: ids[ref], event_date: date, kind, value, evidence: 'region test' });
+  const ev = (ref: string, date: string, kind: string, value: string) => ({
+    parcel_id: ids[ref],
+    event_date: date,
+    kind,
+    value,
+    evidence: 'region test',
+  });
   await trx('land_use_event').insert([
     ev('RT-A1', '2010-04-01', 'land-use', 'grassland'), // permanent from 2015 on
     ev('RT-A2', '2015-03-01', 'land-use', 'arable'),
@@ -65,7 +93,20 @@ async function inRollback<T>(fn: (trx: Knex.Transaction) => Promise<T>): Promise
   }
 }
 
-const pick = (rows: Awaited<ReturnType<typeof regionStats>>) => Object.fromEntries(rows.map((r) => [r.key, { agri: r.agriculturalHa, pg: r.permanentGrasslandHa, undecided: r.undecidedHa, unknown: r.unknownUseHa, n: r.parcels, label: r.label }]));
+const pick = (rows: Awaited<ReturnType<typeof regionStats>>) =>
+  Object.fromEntries(
+    rows.map((r) => [
+      r.key,
+      {
+        agri: r.agriculturalHa,
+        pg: r.permanentGrasslandHa,
+        undecided: r.undecidedHa,
+        unknown: r.unknownUseHa,
+        n: r.parcels,
+        label: r.label,
+      },
+    ]),
+  );
 
 describe('regionStats', () => {
   it('as of 2026-06-30: hand-computed agricultural area and permanent grassland per region', async () => {
@@ -98,8 +139,18 @@ describe('referenceRatio', () => {
     const [a, bNone, b] = await inRollback(async (trx) => {
       const ra = await referenceRatio(trx, 'test-a');
       const none = await referenceRatio(trx, 'test-b');
-      await trx('region_reference_ratio').insert({ region_key: 'test-b', reference_year: 2018, ratio: 0.5, source: 'Older census, superseded' });
-      await trx('region_reference_ratio').insert({ region_key: 'test-b', reference_year: 2018, ratio: 0.55, source: 'District farm census 2018, table 4' });
+      await trx('region_reference_ratio').insert({
+        region_key: 'test-b',
+        reference_year: 2018,
+        ratio: 0.5,
+        source: 'Older census, superseded',
+      });
+      await trx('region_reference_ratio').insert({
+        region_key: 'test-b',
+        reference_year: 2018,
+        ratio: 0.55,
+        source: 'District farm census 2018, table 4',
+      });
       return [ra, none, await referenceRatio(trx, 'test-b')];
     });
     // A on 2018-12-31: A1 and A4 permanent (14 ha) of 34 ha agricultural; every parcel decided.
@@ -107,6 +158,11 @@ describe('referenceRatio', () => {
     expect(a!.ratio).toBeCloseTo(14 / 34, 12);
     // B on 2018-12-31: B3 has no recorded use, so the history does not cover it.
     expect(bNone).toBeNull();
-    expect(b).toMatchObject({ origin: 'entered', ratio: 0.55, referenceYear: 2018, source: 'District farm census 2018, table 4' });
+    expect(b).toMatchObject({
+      origin: 'entered',
+      ratio: 0.55,
+      referenceYear: 2018,
+      source: 'District farm census 2018, table 4',
+    });
   });
 });

@@ -15,25 +15,65 @@ import { testDb } from '../support/db';
 const today = new Date().toISOString().slice(0, 10);
 /** A square of 1.5 ha at 39.9° S: 122.47 m a side; a degree of latitude is about 111.32 km and of longitude that times cos(latitude) (common practice). */
 const square = (i: number) => {
-  const [x0, y0, dx, dy] = [-29.9 + i * 0.01, -39.9, 122.47 / (111_320 * Math.cos((39.9 * Math.PI) / 180)), 122.47 / 111_320];
-  return [[[[x0, y0], [x0 + dx, y0], [x0 + dx, y0 + dy], [x0, y0 + dy], [x0, y0]].map((p) => p.map((c) => Math.round(c * 1e7) / 1e7))]];
+  const [x0, y0, dx, dy] = [
+    -29.9 + i * 0.01,
+    -39.9,
+    122.47 / (111_320 * Math.cos((39.9 * Math.PI) / 180)),
+    122.47 / 111_320,
+  ];
+  return [
+    [
+      [
+        [x0, y0],
+        [x0 + dx, y0],
+        [x0 + dx, y0 + dy],
+        [x0, y0 + dy],
+        [x0, y0],
+      ].map((p) => p.map((c) => Math.round(c * 1e7) / 1e7)),
+    ],
+  ];
 };
 const content = (i: number): RegisterContent => ({
   kind: 'decision',
-  proposal: { reference: `PR-VB${i}`, title: `Verified block test ${i}`, proposedUse: 'cropland, long-term-cultivated, full, medium', startYear: 2031 },
-  parcels: [{ reference: `VB-${i}`, areaHa: 1.5, part: false, geometry: { type: 'MultiPolygon', coordinates: square(i) } }],
-  areaHa: 1.5, region: null, outcome: 'refused', reasons: 'Test entry for verified blocks.', conditions: [],
+  proposal: {
+    reference: `PR-VB${i}`,
+    title: `Verified block test ${i}`,
+    proposedUse: 'cropland, long-term-cultivated, full, medium',
+    startYear: 2031,
+  },
+  parcels: [
+    { reference: `VB-${i}`, areaHa: 1.5, part: false, geometry: { type: 'MultiPolygon', coordinates: square(i) } },
+  ],
+  areaHa: 1.5,
+  region: null,
+  outcome: 'refused',
+  reasons: 'Test entry for verified blocks.',
+  conditions: [],
   figures: { co2eTotal: 12.5, co2eLow: 8, co2eHigh: 19, socChangeTotal: -3.4, runs: 1000, gwp: 'AR5', unit: 't CO2e' },
-  risk: { level: 2, label: 'Closer look' }, factorSet: { id: 'ipcc-2006', version: 1 }, ruleSet: null, assessment: { number: 1 },
-  meeting: null, votes: null, appealUntil: null, effectiveDate: today, decidedOn: today, recordedAt: `${today}T10:00:00.000Z`, supersedes: null, note: null,
+  risk: { level: 2, label: 'Closer look' },
+  factorSet: { id: 'ipcc-2006', version: 1 },
+  ruleSet: null,
+  assessment: { number: 1 },
+  meeting: null,
+  votes: null,
+  appealUntil: null,
+  effectiveDate: today,
+  decidedOn: today,
+  recordedAt: `${today}T10:00:00.000Z`,
+  supersedes: null,
+  note: null,
 });
 
-const blockOf = (first: number) => testDb('register_verified_block').where({ first_seq: first, last_seq: first + 1 }).first();
-const edit = (sql: string, args: unknown[]) => testDb.transaction(async (trx) => {
-  await trx.raw('alter table register_entry disable trigger register_entry_no_update');
-  await trx.raw(sql, args as never[]);
-  await trx.raw('alter table register_entry enable trigger register_entry_no_update');
-});
+const blockOf = (first: number) =>
+  testDb('register_verified_block')
+    .where({ first_seq: first, last_seq: first + 1 })
+    .first();
+const edit = (sql: string, args: unknown[]) =>
+  testDb.transaction(async (trx) => {
+    await trx.raw('alter table register_entry disable trigger register_entry_no_update');
+    await trx.raw(sql, args as never[]);
+    await trx.raw('alter table register_entry enable trigger register_entry_no_update');
+  });
 
 beforeAll(async () => {
   await db.transaction(async (trx) => {
@@ -49,7 +89,13 @@ describe('verify with recorded blocks', () => {
   it('records every complete block, then takes unchanged blocks as checked', async () => {
     const first = await verifyRegister(2);
     expect(first).toMatchObject({ ok: true, firstBrokenEntry: null });
-    const n = Number((await testDb.raw('select count(*)::int as n from register_verified_block where last_seq - first_seq = 1 and (first_seq - 1) % 2 = 0')).rows[0].n);
+    const n = Number(
+      (
+        await testDb.raw(
+          'select count(*)::int as n from register_verified_block where last_seq - first_seq = 1 and (first_seq - 1) % 2 = 0',
+        )
+      ).rows[0].n,
+    );
     expect(n).toBe(Math.floor(first.entries / 2));
     const before = await blockOf(1);
     const again = await verifyRegister(2);
@@ -61,7 +107,10 @@ describe('verify with recorded blocks', () => {
   it('hashes a block again when its rows changed, naming exactly the edited entry', async () => {
     const original = (await testDb.raw('select content::text as c from register_entry where seq = 1')).rows[0].c;
     const before = await blockOf(1);
-    await edit(`update register_entry set content = jsonb_set(content, '{reasons}', '"Changed by hand"') where seq = 1`, []);
+    await edit(
+      `update register_entry set content = jsonb_set(content, '{reasons}', '"Changed by hand"') where seq = 1`,
+      [],
+    );
     try {
       const v = await verifyRegister(2);
       expect(v).toMatchObject({ ok: false, firstBrokenEntry: 1 });

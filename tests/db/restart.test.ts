@@ -78,7 +78,13 @@ describe('restart on the same database', () => {
     const port = APP_PORT + 50;
     for (const attempt of [1, 2]) {
       const child = spawn('bash', ['scripts/start.sh'], {
-        env: { ...env, PORT: String(port), SMTP_PORT: String(port + 1), SMTP_HOST: '', BETTER_AUTH_URL: `http://127.0.0.1:${port}` },
+        env: {
+          ...env,
+          PORT: String(port),
+          SMTP_PORT: String(port + 1),
+          SMTP_HOST: '',
+          BETTER_AUTH_URL: `http://127.0.0.1:${port}`,
+        },
         stdio: ['ignore', 'pipe', 'pipe'],
       });
       let output = '';
@@ -87,7 +93,8 @@ describe('restart on the same database', () => {
       const exited = new Promise<number | null>((r) => child.once('exit', (code) => r(code)));
       const deadline = Date.now() + 180_000;
       while (!output.includes('Press Ctrl-C to stop')) {
-        if (child.exitCode !== null || Date.now() > deadline) throw new Error(`start ${attempt} did not come up:\n${output}`);
+        if (child.exitCode !== null || Date.now() > deadline)
+          throw new Error(`start ${attempt} did not come up:\n${output}`);
         await new Promise((r) => setTimeout(r, 200));
       }
       const health = await fetch(`http://127.0.0.1:${port}/api/health`);

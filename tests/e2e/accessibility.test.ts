@@ -32,9 +32,28 @@ async function axeProblems(page: Page): Promise<Found[]> {
   // Injected through the DevTools protocol, which the page's Content-Security-Policy does not govern.
   await page.evaluate(AXE_SOURCE);
   const violations = await page.evaluate(async () => {
-    const axe = (window as unknown as { axe: { run: (ctx: Document, o: object) => Promise<{ violations: { id: string; impact: string | null; help: string; nodes: { target: unknown[] }[] }[] }> } }).axe;
-    const r = await axe.run(document, { runOnly: { type: 'tag', values: ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'best-practice'] }, resultTypes: ['violations'] });
-    return r.violations.map((v) => ({ id: v.id, impact: v.impact ?? 'minor', help: v.help, nodes: v.nodes.slice(0, 4).map((n) => JSON.stringify(n.target)) }));
+    const axe = (
+      window as unknown as {
+        axe: {
+          run: (
+            ctx: Document,
+            o: object,
+          ) => Promise<{
+            violations: { id: string; impact: string | null; help: string; nodes: { target: unknown[] }[] }[];
+          }>;
+        };
+      }
+    ).axe;
+    const r = await axe.run(document, {
+      runOnly: { type: 'tag', values: ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'best-practice'] },
+      resultTypes: ['violations'],
+    });
+    return r.violations.map((v) => ({
+      id: v.id,
+      impact: v.impact ?? 'minor',
+      help: v.help,
+      nodes: v.nodes.slice(0, 4).map((n) => JSON.stringify(n.target)),
+    }));
   });
   return violations.filter((v) => v.impact === 'serious' || v.impact === 'critical');
 }
@@ -53,16 +72,24 @@ async function sweep(context: BrowserContext, viewer: Viewer): Promise<string[]>
       }
       // Islands hydrated when visible: bring each into view, so the sweep checks them hydrated too.
       // (one inside a closed <details> cannot come into view and stays as the server drew it).
-      for (const island of await page.locator('astro-island[client="visible"]').all()) await island.scrollIntoViewIfNeeded({ timeout: 2_000 }).catch(() => undefined);
-      await page.waitForFunction(() => document.querySelectorAll('astro-island[ssr]:not([client="visible"])').length === 0);
+      for (const island of await page.locator('astro-island[client="visible"]').all())
+        await island.scrollIntoViewIfNeeded({ timeout: 2_000 }).catch(() => undefined);
+      await page.waitForFunction(
+        () => document.querySelectorAll('astro-island[ssr]:not([client="visible"])').length === 0,
+      );
       await page.waitForTimeout(200);
       await page.evaluate(() => window.scrollTo(0, 0));
       await page.waitForLoadState('networkidle', { timeout: 10_000 }).catch(() => undefined);
       const where = `${p.path} as ${viewer} at ${label} (${width} px)`;
-      if (viewer === p.viewers[0]) await page.screenshot({ path: `screenshots/page${p.path.replace(/[^a-z0-9]+/gi, '-').replace(/-$/, '')}-${label}.png`, fullPage: true });
+      if (viewer === p.viewers[0])
+        await page.screenshot({
+          path: `screenshots/page${p.path.replace(/[^a-z0-9]+/gi, '-').replace(/-$/, '')}-${label}.png`,
+          fullPage: true,
+        });
       const scrollWidth = await page.evaluate(() => document.documentElement.scrollWidth);
       if (scrollWidth > width) problems.push(`${where}: the page is ${scrollWidth} px wide`);
-      for (const v of await axeProblems(page)) problems.push(`${where}: ${v.impact} ${v.id} (${v.help}) at ${v.nodes.join(' ')}`);
+      for (const v of await axeProblems(page))
+        problems.push(`${where}: ${v.impact} ${v.id} (${v.help}) at ${v.nodes.join(' ')}`);
     }
   }
   await page.close();

@@ -15,14 +15,20 @@ afterAll(async () => {
   await testDb.destroy();
 });
 
-const rolesOf = async (id: string) => (await api('GET', '/api/users', { session: await signIn(DEMO.admin) })).body.items.find((u: { id: string }) => u.id === id);
+const rolesOf = async (id: string) =>
+  (await api('GET', '/api/users', { session: await signIn(DEMO.admin) })).body.items.find(
+    (u: { id: string }) => u.id === id,
+  );
 
 describe('users page', () => {
   it('a role change is pending until saved, can be cancelled and undone, and a stale one is refused', async () => {
     const name = 'Yarrow Pell';
     const email = `yarrow.${Date.now()}@tarrow.example`;
     const before = await lastMailId();
-    const created = await api('POST', '/api/users', { session: await signIn(DEMO.admin), body: { name, email, roles: ['planner'] } });
+    const created = await api('POST', '/api/users', {
+      session: await signIn(DEMO.admin),
+      body: { name, email, roles: ['planner'] },
+    });
     await waitForMail(email, /account/, before);
     const id = created.body.id as string;
 
@@ -35,7 +41,9 @@ describe('users page', () => {
     const group = page.getByRole('group', { name: `Roles of ${name}` });
     await expect(group.getByRole('checkbox', { name: 'Planner' }).isDisabled()).resolves.toBe(true);
     const why = await group.getByRole('checkbox', { name: 'Planner' }).getAttribute('aria-describedby');
-    await expect(page.locator(`[id="${why}"]`).textContent()).resolves.toMatch('Planner cannot be unticked: it is the only role, and everyone needs one.');
+    await expect(page.locator(`[id="${why}"]`).textContent()).resolves.toMatch(
+      'Planner cannot be unticked: it is the only role, and everyone needs one.',
+    );
 
     await group.getByRole('checkbox', { name: 'Board member' }).check();
     await page.getByText(`Not saved yet: ${name} would have Planner and Board member (now Planner).`).waitFor();
@@ -55,10 +63,15 @@ describe('users page', () => {
 
     // Someone else changes the person meanwhile: the page says so instead of overwriting.
     const now = await rolesOf(id);
-    await api('PATCH', `/api/users/${id}`, { session: await signIn(DEMO.admin), body: { version: now.version, roles: ['board'] } });
+    await api('PATCH', `/api/users/${id}`, {
+      session: await signIn(DEMO.admin),
+      body: { version: now.version, roles: ['board'] },
+    });
     await group.getByRole('checkbox', { name: 'Board member' }).check();
     await page.getByRole('button', { name: `Save roles of ${name}` }).click();
-    await expect(page.getByRole('alert').first().textContent()).resolves.toMatch(`${name} was changed by someone else meanwhile`);
+    await expect(page.getByRole('alert').first().textContent()).resolves.toMatch(
+      `${name} was changed by someone else meanwhile`,
+    );
     expect((await rolesOf(id)).roles).toEqual(['board']);
     expect(seen.errors.filter((e) => !/409/.test(e))).toEqual([]);
 

@@ -29,7 +29,9 @@ afterAll(async () => {
   await testDb.destroy();
 });
 
-async function as(email: string): Promise<{ page: Page; seen: ReturnType<typeof watchPage>; close: () => Promise<void> }> {
+async function as(
+  email: string,
+): Promise<{ page: Page; seen: ReturnType<typeof watchPage>; close: () => Promise<void> }> {
   const context = await browser.newContext();
   const page = await context.newPage();
   const seen = watchPage(page);
@@ -67,7 +69,10 @@ describe('the board pages', () => {
     await reload(page);
     const meetingId = Number(new URL(page.url()).pathname.split('/').pop());
     // Deferred items left by other tests are carried in first; ours keep the order chosen.
-    const ours = async () => (await page.locator('article h2').allTextContents()).map((t) => t.replace(/^\d+\. /, '').slice(0, a.reference.length)).filter((r) => [a.reference, b.reference].includes(r));
+    const ours = async () =>
+      (await page.locator('article h2').allTextContents())
+        .map((t) => t.replace(/^\d+\. /, '').slice(0, a.reference.length))
+        .filter((r) => [a.reference, b.reference].includes(r));
     expect(await ours()).toEqual([b.reference, a.reference]);
 
     // Order it again: a second page of the chair, still at the old version, gets the 409 in words.
@@ -89,7 +94,9 @@ describe('the board pages', () => {
     await expect(article.getByText(/Statutory clock: /).count()).resolves.toBe(1);
     await expect(article.getByRole('img', { name: /Risk level [1-4] of 4/ }).count()).resolves.toBeGreaterThan(0);
     await expect(article.getByTestId(`impact-${itemA}`).textContent()).resolves.toMatch(/budget/);
-    await expect(article.getByTestId(`quorum-${itemA}`).textContent()).resolves.toMatch(/No quorum yet: 0 eligible votes/);
+    await expect(article.getByTestId(`quorum-${itemA}`).textContent()).resolves.toMatch(
+      /No quorum yet: 0 eligible votes/,
+    );
     await screenshotBoth(page, 'board-meeting');
     await fitsPhone(page);
     await page.goto(`${BASE_URL}/board`);
@@ -114,7 +121,9 @@ describe('the board pages', () => {
     await article.getByRole('button', { name: 'Record my vote' }).click();
     await page.getByTestId(`tally-${itemA}`).filter({ hasText: '2 approve with conditions' }).waitFor();
     await reload(page);
-    await expect(article.getByTestId(`quorum-${itemA}`).textContent()).resolves.toMatch(/Quorum reached: 2 eligible votes, 2 needed/);
+    await expect(article.getByTestId(`quorum-${itemA}`).textContent()).resolves.toMatch(
+      /Quorum reached: 2 eligible votes, 2 needed/,
+    );
 
     // The chair records the decision.
     await article.getByLabel('Outcome').selectOption('approved-with-conditions');
@@ -136,11 +145,20 @@ describe('the board pages', () => {
     const reader = await pub.newPage();
     await reader.goto(`${BASE_URL}/register/${seq}`);
     await reader.getByText('Keep a 6 m grass margin along the brook.').waitFor();
-    await expect(reader.getByRole('link', { name: 'Decision notice (PDF)' }).getAttribute('href')).resolves.toBe(`/api/register/${seq}/notice.pdf`);
+    await expect(reader.getByRole('link', { name: 'Decision notice (PDF)' }).getAttribute('href')).resolves.toBe(
+      `/api/register/${seq}/notice.pdf`,
+    );
     await screenshotBoth(reader, 'board-register-entry');
     await fitsPhone(reader);
     const html = await reader.content();
-    for (const secret of [APPLICANT.name, APPLICANT.contact, OWNER, 'Margin along the brook is essential.', 'Rennick Hale']) expect(html).not.toContain(secret);
+    for (const secret of [
+      APPLICANT.name,
+      APPLICANT.contact,
+      OWNER,
+      'Margin along the brook is essential.',
+      'Rennick Hale',
+    ])
+      expect(html).not.toContain(secret);
     await reader.goto(`${BASE_URL}/register`);
     await hydrated(reader);
     await reader.getByText('Chain intact.').waitFor();

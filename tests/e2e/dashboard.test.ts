@@ -32,7 +32,12 @@ describe('/dashboard', () => {
     await page.getByText('The same figures as a table').first().click();
     await expect(page.locator('details[open] table tbody tr').count()).resolves.toBeGreaterThan(3); // the demo history: 2021-2026
     await expect(page.getByRole('heading', { name: 'Conditions of approvals' }).count()).resolves.toBe(1);
-    await expect(page.locator('td', { hasText: /Overdue \d+ d/ }).first().isVisible()).resolves.toBe(true);
+    await expect(
+      page
+        .locator('td', { hasText: /Overdue \d+ d/ })
+        .first()
+        .isVisible(),
+    ).resolves.toBe(true);
     await page.evaluate(() => window.scrollTo(0, 0));
     await screenshotBoth(page, 'dashboard');
     expect(seen.errors).toEqual([]);

@@ -11,16 +11,26 @@ import { DEMO, DEMO_PASSWORD, signIn } from '../support/http';
 let browser: Browser;
 let reference: string, overdueId: number;
 // PNG (ISO/IEC 15948): signature, then an IHDR chunk of 1 x 1 pixels.
-const png = Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13, 0x49, 0x48, 0x44, 0x52, 0, 0, 0, 1, 0, 0, 0, 1, 8, 2, 0, 0, 0, 0x90, 0x77, 0x53, 0xde, 0, 0, 0, 0]);
+const png = Buffer.from([
+  0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13, 0x49, 0x48, 0x44, 0x52, 0, 0, 0, 1, 0, 0, 0, 1, 8, 2, 0,
+  0, 0, 0x90, 0x77, 0x53, 0xde, 0, 0, 0, 0,
+]);
 
 beforeAll(async () => {
   browser = await launchBrowser();
-  const [planner, assessor, board, chair] = await Promise.all([DEMO.planner, DEMO.assessor, DEMO.board, DEMO.chair].map((e) => signIn(e)));
-  const d = await decidedProposal({ planner: planner!, assessor: assessor!, board: board!, chair: chair! }, 'approved-with-conditions');
+  const [planner, assessor, board, chair] = await Promise.all(
+    [DEMO.planner, DEMO.assessor, DEMO.board, DEMO.chair].map((e) => signIn(e)),
+  );
+  const d = await decidedProposal(
+    { planner: planner!, assessor: assessor!, board: board!, chair: chair! },
+    'approved-with-conditions',
+  );
   reference = d.proposal.reference;
   const t = await testDb('follow_up_task').where({ proposal_id: d.proposal.id, kind: 'condition' }).first();
   overdueId = Number(t.id);
-  await testDb('follow_up_task').where({ id: overdueId }).update({ due_date: addDays(today(), -12) });
+  await testDb('follow_up_task')
+    .where({ id: overdueId })
+    .update({ due_date: addDays(today(), -12) });
 }, 120_000);
 afterAll(async () => {
   await browser?.close();
@@ -46,12 +56,20 @@ describe('follow-ups page', () => {
     await expect(card.getByText('⚠ Overdue by 12 days', { exact: false }).count()).resolves.toBe(1);
     await card.getByText('Record the outcome or add evidence').click();
     // Someone else records an outcome meanwhile: this form's version is now stale.
-    await testDb('follow_up_task').where({ id: overdueId }).update({ version: testDb.raw('version + 1') });
+    await testDb('follow_up_task')
+      .where({ id: overdueId })
+      .update({ version: testDb.raw('version + 1') });
     await card.getByLabel('Not done').check();
     await card.getByLabel(/What was found/).fill('No margin along the watercourse at the visit.');
     await card.getByRole('button', { name: 'Save outcome' }).click();
     await page.waitForLoadState('load');
-    await expect(page.locator(`#task-${overdueId}`).getByRole('alert').getByText(/Someone else recorded an outcome/).count()).resolves.toBe(1);
+    await expect(
+      page
+        .locator(`#task-${overdueId}`)
+        .getByRole('alert')
+        .getByText(/Someone else recorded an outcome/)
+        .count(),
+    ).resolves.toBe(1);
 
     await page.goto(`${BASE_URL}/follow-ups?reference=${reference}`);
     await hydrated(page);
@@ -66,10 +84,14 @@ describe('follow-ups page', () => {
     expect((await testDb('follow_up_task').where({ id: overdueId }).first()).status).toBe('not-done');
 
     await saved.getByText('Change the outcome or add evidence').click();
-    await saved.getByLabel(/Add evidence/).setInputFiles({ name: 'watercourse.png', mimeType: 'image/png', buffer: png });
+    await saved
+      .getByLabel(/Add evidence/)
+      .setInputFiles({ name: 'watercourse.png', mimeType: 'image/png', buffer: png });
     await saved.getByRole('button', { name: 'Add evidence', exact: true }).click();
     await page.waitForURL(/added=/);
-    await expect(page.locator(`#task-${overdueId}`).getByRole('link', { name: 'watercourse.png' }).count()).resolves.toBe(1);
+    await expect(
+      page.locator(`#task-${overdueId}`).getByRole('link', { name: 'watercourse.png' }).count(),
+    ).resolves.toBe(1);
     await page.locator(`#task-${overdueId}`).getByText('Change the outcome or add evidence').click();
     await screenshotBoth(page, 'follow-ups-task');
     // The stale save answers 409 on purpose (the browser logs that status); nothing else may fail.
@@ -80,7 +102,10 @@ describe('follow-ups page', () => {
   }, 120_000);
 
   it('the public register shows the demo reversed compensation with the entry it takes back', async () => {
-    const reversal = await testDb('register_entry').whereRaw("content->>'kind' = 'compensation-reversed'").orderBy('seq').first();
+    const reversal = await testDb('register_entry')
+      .whereRaw("content->>'kind' = 'compensation-reversed'")
+      .orderBy('seq')
+      .first();
     expect(reversal).toBeDefined();
     const context = await browser.newContext();
     const page = await context.newPage();
@@ -88,7 +113,9 @@ describe('follow-ups page', () => {
     await hydrated(page);
     const credited = reversal.content.reverses.seq;
     await expect(page.getByText(`takes back the compensation credited in`, { exact: false }).count()).resolves.toBe(1);
-    await expect(page.getByRole('link', { name: `entry ${credited}`, exact: true }).count()).resolves.toBeGreaterThan(0);
+    await expect(page.getByRole('link', { name: `entry ${credited}`, exact: true }).count()).resolves.toBeGreaterThan(
+      0,
+    );
     await screenshotBoth(page, 'register-compensation-reversed');
     await page.goto(`${BASE_URL}/register/${credited}`);
     await expect(page.getByText(/t CO2e credited against this approval/).count()).resolves.toBe(1);

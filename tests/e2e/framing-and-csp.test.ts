@@ -19,7 +19,9 @@ beforeAll(async () => {
   browser = await launchBrowser();
   framer = http.createServer((_req, res) => {
     res.writeHead(200, { 'content-type': 'text/html' });
-    res.end(`<!doctype html><title>framer</title><iframe id="f" src="${BASE_URL}/admin/users" width="800" height="600"></iframe>`);
+    res.end(
+      `<!doctype html><title>framer</title><iframe id="f" src="${BASE_URL}/admin/users" width="800" height="600"></iframe>`,
+    );
   });
   await new Promise<void>((r) => framer.listen(0, '127.0.0.1', () => r()));
   framerUrl = `http://127.0.0.1:${(framer.address() as AddressInfo).port}/`;
@@ -36,7 +38,13 @@ describe('framing and CSP in the browser', () => {
     const seen = watchPage(page);
     const violations: string[] = [];
     await page.exposeFunction('reportViolation', (v: string) => violations.push(v));
-    await page.addInitScript(() => document.addEventListener('securitypolicyviolation', (e) => (window as unknown as { reportViolation: (v: string) => void }).reportViolation(`${e.violatedDirective} ${e.blockedURI}`)));
+    await page.addInitScript(() =>
+      document.addEventListener('securitypolicyviolation', (e) =>
+        (window as unknown as { reportViolation: (v: string) => void }).reportViolation(
+          `${e.violatedDirective} ${e.blockedURI}`,
+        ),
+      ),
+    );
     await signInThroughForm(page, DEMO.admin, DEMO_PASSWORD);
     for (const path of ['/admin/users', '/calculator', '/admin/factor-sets', '/map']) {
       const res = await page.goto(`${BASE_URL}${path}`);

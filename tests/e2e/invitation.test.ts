@@ -82,11 +82,19 @@ describe('invitation through the pages', () => {
   it('a reset link ends in a confirmation and a sign-in form with the address filled in', async () => {
     const who = `sedge.${Date.now()}@tarrow.example`;
     let before = await lastMailId();
-    await api('POST', '/api/users', { session: await signIn(DEMO.admin), body: { name: 'Sedge Marlow', email: who, roles: ['planner'] } });
+    await api('POST', '/api/users', {
+      session: await signIn(DEMO.admin),
+      body: { name: 'Sedge Marlow', email: who, roles: ['planner'] },
+    });
     const invite = new URL(linkIn((await waitForMail(who, /account/, before)).body_text)).searchParams.get('token');
-    expect((await api('POST', '/api/invitations/accept', { body: { token: invite, password: 'first reed bed walk' } })).status).toBe(200);
+    expect(
+      (await api('POST', '/api/invitations/accept', { body: { token: invite, password: 'first reed bed walk' } }))
+        .status,
+    ).toBe(200);
     before = await lastMailId();
-    const asked = await api('POST', '/api/auth/request-password-reset', { body: { email: who, redirectTo: '/reset-password' } });
+    const asked = await api('POST', '/api/auth/request-password-reset', {
+      body: { email: who, redirectTo: '/reset-password' },
+    });
     expect(asked.status).toBe(200);
     const link = linkIn((await waitForMail(who, /Reset your Swardkeep password/, before)).body_text);
     const context = await browser.newContext();

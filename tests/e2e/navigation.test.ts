@@ -23,7 +23,8 @@ describe('navigation', () => {
     await hydrated(page);
     const labels = NAV.filter((i) => i.roles === 'all' || i.roles.includes('admin')).map((i) => i.label);
     const main = page.getByRole('navigation', { name: 'Main', exact: true });
-    for (const label of labels) await expect(main.getByRole('link', { name: label, exact: true }).isVisible()).resolves.toBe(true);
+    for (const label of labels)
+      await expect(main.getByRole('link', { name: label, exact: true }).isVisible()).resolves.toBe(true);
     expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(1280);
     await page.screenshot({ path: 'screenshots/navigation-desktop.png' });
 
@@ -38,7 +39,9 @@ describe('navigation', () => {
       expect(box.x + box.width).toBeLessThanOrEqual(390);
     }
     await expect(phone.getByText('Signed in as').isVisible()).resolves.toBe(true);
-    await expect(phone.getByRole('link', { name: 'Users', exact: true }).getAttribute('aria-current')).resolves.toBe('page');
+    await expect(phone.getByRole('link', { name: 'Users', exact: true }).getAttribute('aria-current')).resolves.toBe(
+      'page',
+    );
     expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
     await page.screenshot({ path: 'screenshots/navigation-phone.png', fullPage: true });
     expect(seen.errors).toEqual([]);

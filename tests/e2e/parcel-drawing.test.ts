@@ -46,7 +46,9 @@ async function startDrawing(page: Page): Promise<void> {
 /** At 1280 px the panel scrolls on its own (a full-page shot shows only its top): shoot it scrolled to the history. */
 async function panelShot(page: Page, name: string): Promise<void> {
   await page.locator('#history-heading').scrollIntoViewIfNeeded();
-  await page.locator('aside', { has: page.locator('#history-heading') }).screenshot({ path: `screenshots/${name}-panel-desktop.png` });
+  await page
+    .locator('aside', { has: page.locator('#history-heading') })
+    .screenshot({ path: `screenshots/${name}-panel-desktop.png` });
 }
 
 const apiGet = (page: Page, path: string) => page.evaluate(async (p) => (await fetch(p)).json(), path);
@@ -73,11 +75,18 @@ describe('drawing and editing parcels on the map', () => {
 
     // A bow-tie: the second and third corners are swapped, so two edges cross.
     await startDrawing(page);
-    await drawRing(page, [[-60, -60], [60, 60], [60, -60], [-60, 60]]);
+    await drawRing(page, [
+      [-60, -60],
+      [60, 60],
+      [60, -60],
+      [-60, 60],
+    ]);
     await page.getByLabel('Parcel reference (required)').fill('DRAWN-BOWTIE');
     await expect.poll(() => page.getByRole('button', { name: 'Save parcel' }).isEnabled()).toBe(true);
     await page.getByRole('button', { name: 'Save parcel' }).click();
-    await expect.poll(() => note(page, 'alert').textContent()).toMatch(/The boundary is not valid: The boundary crosses or touches itself near/);
+    await expect
+      .poll(() => note(page, 'alert').textContent())
+      .toMatch(/The boundary is not valid: The boundary crosses or touches itself near/);
     await screenshotBoth(page, 'draw-1-refused');
     expect(await apiGet(page, '/api/parcels/search?q=DRAWN-BOWTIE')).toEqual({ items: [] });
     await page.getByRole('button', { name: 'Cancel', exact: true }).click();
@@ -85,12 +94,19 @@ describe('drawing and editing parcels on the map', () => {
     // A 120 px square (about 87 m a side at zoom 17 here).
     const reference = `DRAWN-${Date.now().toString(36).toUpperCase()}`;
     await startDrawing(page);
-    await drawRing(page, [[-60, -60], [60, -60], [60, 60], [-60, 60]]);
+    await drawRing(page, [
+      [-60, -60],
+      [60, -60],
+      [60, 60],
+      [-60, 60],
+    ]);
     await page.getByLabel('Parcel reference (required)').fill(reference);
     await page.getByLabel('Evidence').fill('Drawn on the map from the 2025 field survey sketch');
     await screenshotBoth(page, 'draw-2-sketch');
     await page.getByRole('button', { name: 'Save parcel' }).click();
-    await expect.poll(() => page.locator('#parcel-heading').textContent(), { timeout: 15_000 }).toBe(`Parcel ${reference}`);
+    await expect
+      .poll(() => page.locator('#parcel-heading').textContent(), { timeout: 15_000 })
+      .toBe(`Parcel ${reference}`);
     await expect.poll(() => note(page, 'status').textContent()).toContain(`Parcel ${reference} saved.`);
     const found = (await apiGet(page, `/api/parcels/search?q=${reference}`)).items;
     expect(found).toHaveLength(1);
@@ -103,7 +119,10 @@ describe('drawing and editing parcels on the map', () => {
     // Drag the north-east corner 50 px further out: the area must grow.
     await page.getByRole('button', { name: 'Edit boundary' }).click();
     await page.getByRole('heading', { name: `Edit boundary of ${reference}` }).waitFor();
-    const [[fromX, fromY], [toX, toY]] = await fromCentre(page, [[60, -60], [110, -110]]);
+    const [[fromX, fromY], [toX, toY]] = await fromCentre(page, [
+      [60, -60],
+      [110, -110],
+    ]);
     await page.mouse.move(fromX, fromY, { steps: 5 });
     await page.waitForTimeout(100);
     await page.mouse.down();
@@ -112,12 +131,15 @@ describe('drawing and editing parcels on the map', () => {
     await page.getByLabel('Why does the boundary change? (required)').fill('Hedge line checked on site');
     await screenshotBoth(page, 'draw-4-edit');
     await page.getByRole('button', { name: 'Save boundary' }).click();
-    await expect.poll(() => note(page, 'status').textContent(), { timeout: 15_000 }).toMatch(new RegExp(`Boundary of ${reference} saved; area now \\d+\\.\\d\\d ha\\.`));
+    await expect
+      .poll(() => note(page, 'status').textContent(), { timeout: 15_000 })
+      .toMatch(new RegExp(`Boundary of ${reference} saved; area now \\d+\\.\\d\\d ha\\.`));
     const edited: number = (await apiGet(page, `/api/parcels/search?q=${reference}`)).items[0].areaHa;
     expect(edited).toBeGreaterThan(drawnHa * 1.1);
 
     // Record a tillage with the keyboard-usable form: an empty form is refused in place, then the flags change.
-    const neverTilled = () => page.locator('dt', { hasText: 'Never tilled (history)' }).locator('xpath=following-sibling::dd[1]').textContent();
+    const neverTilled = () =>
+      page.locator('dt', { hasText: 'Never tilled (history)' }).locator('xpath=following-sibling::dd[1]').textContent();
     expect(await neverTilled()).toMatch(/^✓ Yes\./);
     await page.locator('summary', { hasText: 'Record a land-use event' }).focus();
     await page.keyboard.press('Enter');
@@ -132,11 +154,17 @@ describe('drawing and editing parcels on the map', () => {
     await page.getByLabel('Method (optional)').selectOption('ploughing');
     await page.getByLabel('Evidence (required)').fill('Aerial image two springs ago');
     await page.getByLabel('Evidence (required)').press('Enter');
-    await expect.poll(() => page.locator('form[aria-label="Record a land-use event"] [role=status]').textContent()).toContain(`Recorded tillage (Ploughing) on ${formatDate(tilledOn)}.`);
+    await expect
+      .poll(() => page.locator('form[aria-label="Record a land-use event"] [role=status]').textContent())
+      .toContain(`Recorded tillage (Ploughing) on ${formatDate(tilledOn)}.`);
     await expect.poll(neverTilled).toMatch(new RegExp(`^✕ No\\. Tilled on ${formatDate(tilledOn)} \\(ploughing\\)\\.`));
     const history = page.getByRole('list', { name: 'Events, newest first' }).locator('li');
     await expect(history.first().textContent()).resolves.toMatch(/Land use: Grassland/);
-    await expect(history.last().textContent()).resolves.toMatch(new RegExp(`${formatDate(tilledOn)} Tillage: Ploughing.*Aerial image two springs ago · recorded .* by Tomas Brevin`));
+    await expect(history.last().textContent()).resolves.toMatch(
+      new RegExp(
+        `${formatDate(tilledOn)} Tillage: Ploughing.*Aerial image two springs ago · recorded .* by Tomas Brevin`,
+      ),
+    );
     await screenshotBoth(page, 'draw-6-event-recorded');
     await panelShot(page, 'draw-6-event-recorded');
 

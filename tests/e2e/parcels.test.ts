@@ -20,7 +20,9 @@ beforeAll(async () => {
      where batch_id in (select id from upload_batch where file_name like 'corrowmere-parcels-%')`,
   );
   // Their overlay no longer holds where they now lie: drop it (region figures then leave them out, as after any republication).
-  await testDb.raw(`delete from parcel_overlay_run where parcel_id in (select id from parcel where reference like 'moved-%')`);
+  await testDb.raw(
+    `delete from parcel_overlay_run where parcel_id in (select id from parcel where reference like 'moved-%')`,
+  );
 });
 afterAll(async () => {
   await browser?.close();
@@ -76,17 +78,31 @@ describe('parcel upload and map', () => {
     const list = page.getByRole('region', { name: 'Saved by this upload' });
     await list.getByText(/Corrowmere parcels noprj, uploaded \d{1,2} [A-Z][a-z]{2,3} \d{4}/).waitFor();
     await expect(list.textContent()).resolves.toMatch(/: 285 parcels, outlined/);
-    await list.getByRole('button', { name: /^CM-\d{4}$/ }).first().waitFor();
+    await list
+      .getByRole('button', { name: /^CM-\d{4}$/ })
+      .first()
+      .waitFor();
     const legend = page.getByRole('region', { name: 'Layers' });
     await legend.getByText('Small square inside a parcel: a hole in its boundary').waitFor();
     await legend.getByText('Saved by the upload listed above').waitFor();
-    expect((await page.locator('#map-area option').allTextContents()).filter((t) => /\.(zip|geojson)/.test(t))).toEqual([]);
+    expect((await page.locator('#map-area option').allTextContents()).filter((t) => /\.(zip|geojson)/.test(t))).toEqual(
+      [],
+    );
     await expect.poll(() => tiles.filter((s) => s === 200).length, { timeout: 15_000 }).toBeGreaterThan(0);
     await page.waitForTimeout(800);
     await screenshotBoth(page, 'map-1-parcels');
     const box = (await page.getByRole('region', { name: 'Map of parcels and reference layers' }).boundingBox())!;
     await page.mouse.click(box.x + box.width / 2, box.y + box.height / 2);
-    await expect.poll(() => page.locator('#parcel-heading').textContent().catch(() => ''), { timeout: 10_000 }).toMatch(/^Parcel CM-\d{4}$/);
+    await expect
+      .poll(
+        () =>
+          page
+            .locator('#parcel-heading')
+            .textContent()
+            .catch(() => ''),
+        { timeout: 10_000 },
+      )
+      .toMatch(/^Parcel CM-\d{4}$/);
     await expect(page.getByText('Soil classes (area fractions)').count()).resolves.toBe(1);
     await screenshotBoth(page, 'map-2-parcel');
     await page.locator('#parcel-search').fill('CM-0150');

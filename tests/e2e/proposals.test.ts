@@ -61,7 +61,9 @@ describe('proposals in the browser', () => {
     await expect(page.getByText('Give the proposal a title (at least 3 characters).').count()).resolves.toBe(1);
     await expect(page.getByText('Name at least one parcel.').count()).resolves.toBe(1);
     await page.getByLabel('Title').fill('Plough the lower pasture for spring barley');
-    await page.getByLabel('Description of the proposed change').fill('Convert the permanent pasture to an arable rotation with spring barley.');
+    await page
+      .getByLabel('Description of the proposed change')
+      .fill('Convert the permanent pasture to an arable rotation with spring barley.');
     await page.getByLabel('Start year').fill('2027');
     await page.getByLabel('Land use').selectOption('cropland');
     await page.getByLabel('Tillage (IPCC F_MG)').selectOption('full');
@@ -131,8 +133,11 @@ describe('proposals in the browser', () => {
     await page.waitForURL(/\/assessments\/\d+$/);
     await hydrated(page);
     // Alternatives side by side, each with its figure and its difference from the proposal.
-    const alternatives = page.locator('section', { has: page.getByRole('heading', { name: 'Alternatives side by side' }) });
-    for (const name of ['Keep as it is', 'No tillage', 'Reduced tillage']) await expect(alternatives.getByText(name, { exact: false }).count()).resolves.toBeGreaterThan(0);
+    const alternatives = page.locator('section', {
+      has: page.getByRole('heading', { name: 'Alternatives side by side' }),
+    });
+    for (const name of ['Keep as it is', 'No tillage', 'Reduced tillage'])
+      await expect(alternatives.getByText(name, { exact: false }).count()).resolves.toBeGreaterThan(0);
     await expect(alternatives.textContent()).resolves.toMatch(/−[\d,.]+ t CO2e/);
     // The grade, by shape and words, with its reasons and their citations.
     const reasons = page.getByRole('list', { name: 'Reasons for the grade' });
@@ -143,7 +148,9 @@ describe('proposals in the browser', () => {
     await expect(page.getByText('licensed professionals', { exact: false }).count()).resolves.toBeGreaterThan(0);
     await screenshotBoth(page, 'assessment-draft');
     await fitsPhone(page);
-    await page.getByLabel('Findings (what the board reads with the figures)').fill('Tier 1 figures checked against the soil map; the grade stands. Recommend the no-tillage alternative.');
+    await page
+      .getByLabel('Findings (what the board reads with the figures)')
+      .fill('Tier 1 figures checked against the soil map; the grade stands. Recommend the no-tillage alternative.');
     await page.getByRole('button', { name: 'Save findings' }).click();
     await page.getByText('Findings saved.').waitFor();
     await page.getByRole('button', { name: 'Sign off assessment' }).click();
@@ -167,7 +174,9 @@ describe('proposals in the browser', () => {
     await expect(page.locator('h1').textContent()).resolves.toMatch(/^Assessment 2 /);
     await page.getByRole('link', { name: 'compare with assessment 1' }).click();
     await page.getByRole('heading', { name: /^Compare assessments/ }).waitFor();
-    await expect(page.locator('main').textContent()).resolves.toMatch(/Assessment 1 \(signed .*Assessment 2 \(draft\)/s);
+    await expect(page.locator('main').textContent()).resolves.toMatch(
+      /Assessment 1 \(signed .*Assessment 2 \(draft\)/s,
+    );
     await screenshotBoth(page, 'assessment-compare');
     await fitsPhone(page);
     expect(seen.errors).toEqual([]);

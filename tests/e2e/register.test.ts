@@ -12,9 +12,14 @@ let browser: Browser;
 let seq: number, reference: string;
 beforeAll(async () => {
   browser = await launchBrowser();
-  const [planner, assessor, board, chair] = await Promise.all([DEMO.planner, DEMO.assessor, DEMO.board, DEMO.chair].map((e) => signIn(e)));
+  const [planner, assessor, board, chair] = await Promise.all(
+    [DEMO.planner, DEMO.assessor, DEMO.board, DEMO.chair].map((e) => signIn(e)),
+  );
   await testDb('app_setting').where({ key: 'board.quorum' }).delete();
-  const d = await decidedProposal({ planner: planner!, assessor: assessor!, board: board!, chair: chair! }, 'approved-with-conditions');
+  const d = await decidedProposal(
+    { planner: planner!, assessor: assessor!, board: board!, chair: chair! },
+    'approved-with-conditions',
+  );
   [seq, reference] = [d.seq, d.proposal.reference];
 }, 120_000);
 afterAll(async () => {
@@ -47,7 +52,8 @@ describe('public register pages', () => {
     await expect(page.locator('aside[aria-labelledby="head-hash"]').getByText(head.hash).count()).resolves.toBe(1);
     await screenshotBoth(page, 'register-entry');
     const html = await page.content();
-    for (const secret of [APPLICANT.name, APPLICANT.contact, 'HLD-TEST-77', 'Rennick Hale', 'Oona Vetch']) expect(html).not.toContain(secret);
+    for (const secret of [APPLICANT.name, APPLICANT.contact, 'HLD-TEST-77', 'Rennick Hale', 'Oona Vetch'])
+      expect(html).not.toContain(secret);
     expect(seen.errors).toEqual([]);
     expect(seen.foreign).toEqual([]);
     const missing = await page.goto(`${BASE_URL}/register/999999`);

@@ -23,14 +23,18 @@ describe('rule-set pages', () => {
     await signInThroughForm(page, DEMO.admin, DEMO_PASSWORD);
     await page.goto(`${BASE_URL}/admin/rule-sets`);
     await hydrated(page);
-    await expect(page.getByRole('img', { name: 'Risk level 4 of 4: Barred unless cleared' }).first().isVisible()).resolves.toBe(true);
+    await expect(
+      page.getByRole('img', { name: 'Risk level 4 of 4: Barred unless cleared' }).first().isVisible(),
+    ).resolves.toBe(true);
     await expect(page.getByText('Skarrow district').first().isVisible()).resolves.toBe(true);
     await screenshotBoth(page, 'rule-sets-list');
 
     await page.getByLabel('New rule-set id (lower-case, hyphens)').fill(id);
     await page.getByLabel('Title', { exact: true }).fill('Upper Tarrow rules, browser copy');
     await page.getByLabel('Description', { exact: true }).fill('Copy made in the browser test');
-    await page.getByLabel('Why a new rule set is needed (recorded in the audit log)').fill('Testing the copy, edit and publish pages.');
+    await page
+      .getByLabel('Why a new rule set is needed (recorded in the audit log)')
+      .fill('Testing the copy, edit and publish pages.');
     await page.getByRole('button', { name: 'Copy into a new rule set' }).click();
     await page.waitForURL((u) => u.pathname === `/admin/rule-sets/${id}`);
     await hydrated(page);
@@ -38,7 +42,9 @@ describe('rule-set pages', () => {
     const rule = page.locator('section#soc-loss-10');
     await rule.getByText('Change this rule').click();
     await rule.getByLabel('aboveTonnesCPerHa').fill('12');
-    await rule.getByLabel('Reason for the change and its source (recorded with the edit)').fill('Board minute 2026/15: 12 t C/ha');
+    await rule
+      .getByLabel('Reason for the change and its source (recorded with the edit)')
+      .fill('Board minute 2026/15: 12 t C/ha');
     await rule.getByRole('button', { name: 'Save the change to the draft' }).click();
     await page.locator('section#soc-loss-10').getByText('above 12 t C/ha').waitFor({ timeout: 15_000 });
     await screenshotBoth(page, 'rule-set-draft');
@@ -61,7 +67,9 @@ describe('rule-set pages', () => {
     const page = await browser.newPage();
     await signInThroughForm(page, DEMO.assessor, DEMO_PASSWORD);
     await page.goto(`${BASE_URL}/admin/rule-sets/tarrow-screening`);
-    await expect(page.getByText('Regulation (EU) 2021/2115, Annex III, GAEC 9', { exact: false }).first().isVisible()).resolves.toBe(true);
+    await expect(
+      page.getByText('Regulation (EU) 2021/2115, Annex III, GAEC 9', { exact: false }).first().isVisible(),
+    ).resolves.toBe(true);
     await expect(page.getByText('Change this rule').count()).resolves.toBe(0);
     await screenshotBoth(page, 'rule-set-shipped');
     await page.close();

@@ -20,7 +20,9 @@ afterAll(async () => {
 });
 
 const levelsShown = (page: import('playwright-core').Page) =>
-  page.locator('tbody tr td:nth-child(3) [role="img"]').evaluateAll((els) => els.map((e) => Number(/level (\d)/.exec(e.getAttribute('aria-label') ?? '')?.[1])));
+  page
+    .locator('tbody tr td:nth-child(3) [role="img"]')
+    .evaluateAll((els) => els.map((e) => Number(/level (\d)/.exec(e.getAttribute('aria-label') ?? '')?.[1])));
 
 describe('screening page', () => {
   it('lists screened parcels by level, filters by level, draws the map and recomputes on request', async () => {
@@ -54,7 +56,11 @@ describe('screening page', () => {
     await page.getByRole('button', { name: 'Recompute now' }).click();
     await page.waitForLoadState('load');
     await hydrated(page);
-    await expect.poll(async () => Number((await testDb('screening_run').max<{ max: number }[]>('id as max'))[0]!.max), { timeout: 60_000 }).toBeGreaterThan(Number(before[0]!.max));
+    await expect
+      .poll(async () => Number((await testDb('screening_run').max<{ max: number }[]>('id as max'))[0]!.max), {
+        timeout: 60_000,
+      })
+      .toBeGreaterThan(Number(before[0]!.max));
     await page.getByText('recomputed on request').first().waitFor({ timeout: 60_000 });
     const width = await page.evaluate(() => document.documentElement.scrollWidth);
     expect(width).toBeLessThanOrEqual(1280);

@@ -27,11 +27,24 @@ describe('territory admin page', () => {
     await signInThroughForm(page, DEMO.admin, DEMO_PASSWORD);
     await page.goto(`${BASE_URL}/admin/territory`);
     await hydrated(page);
-    await expect.poll(() => page.getByTestId('territory-source').textContent(), { timeout: 20_000 }).toMatch(/^Not set, so the default applies: the area of the current reference layers widened by 0\.05°/);
+    await expect
+      .poll(() => page.getByTestId('territory-source').textContent(), { timeout: 20_000 })
+      .toMatch(/^Not set, so the default applies: the area of the current reference layers widened by 0\.05°/);
     await page.locator('.ol-viewport canvas').first().waitFor();
     await page.waitForTimeout(800);
     await screenshotBoth(page, 'territory-1-default');
-    const box = { type: 'Polygon', coordinates: [[[-16.2, 52.3], [-15.9, 52.3], [-15.9, 52.45], [-16.2, 52.45], [-16.2, 52.3]]] };
+    const box = {
+      type: 'Polygon',
+      coordinates: [
+        [
+          [-16.2, 52.3],
+          [-15.9, 52.3],
+          [-15.9, 52.45],
+          [-16.2, 52.45],
+          [-16.2, 52.3],
+        ],
+      ],
+    };
     await page.getByLabel(/New territory/).fill(JSON.stringify(box));
     await page.getByRole('button', { name: 'Save territory' }).click();
     await expect.poll(() => page.getByRole('status').textContent(), { timeout: 15_000 }).toBe('Territory saved.');
@@ -42,7 +55,9 @@ describe('territory admin page', () => {
     await page.getByRole('button', { name: 'Save territory' }).click();
     await expect.poll(() => page.getByRole('alert').textContent()).toMatch(/^This is not JSON/);
     await page.getByRole('button', { name: 'Switch the check off' }).click();
-    await expect.poll(() => page.getByTestId('territory-source').textContent(), { timeout: 15_000 }).toMatch(/^Switched off/);
+    await expect
+      .poll(() => page.getByTestId('territory-source').textContent(), { timeout: 15_000 })
+      .toMatch(/^Switched off/);
     expect(seen.errors).toEqual([]);
   });
 });

@@ -9,7 +9,16 @@ export async function launchBrowser(): Promise<Browser> {
   return chromium.launch({
     executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
     headless: true,
-    args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--disable-dev-shm-usage'],
+    args: [
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-quic',
+      '--no-first-run',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+      '--disable-dev-shm-usage',
+    ],
   });
 }
 
@@ -43,6 +52,9 @@ export function watchPage(page: Page): { errors: string[]; foreign: string[] } {
   const seen = { errors: [] as string[], foreign: [] as string[] };
   page.on('console', (m) => m.type() === 'error' && seen.errors.push(m.text()));
   page.on('pageerror', (e) => seen.errors.push(e.message));
-  page.on('request', (r) => !r.url().startsWith(BASE_URL) && !r.url().startsWith('data:') && seen.foreign.push(r.url()));
+  page.on(
+    'request',
+    (r) => !r.url().startsWith(BASE_URL) && !r.url().startsWith('data:') && seen.foreign.push(r.url()),
+  );
   return seen;
 }

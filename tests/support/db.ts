@@ -5,10 +5,18 @@ import { TEST_DATABASE_URL } from './env';
 export const testDb = knexFactory({ client: 'pg', connection: TEST_DATABASE_URL, pool: { min: 0, max: 3 } });
 
 /** Waits for the SMTP fake to have stored a mail to `to` whose subject matches, newer than `afterId`. */
-export async function waitForMail(to: string, subject: RegExp, afterId = 0, timeoutMs = 15_000): Promise<{ id: number; subject: string; body_text: string }> {
+export async function waitForMail(
+  to: string,
+  subject: RegExp,
+  afterId = 0,
+  timeoutMs = 15_000,
+): Promise<{ id: number; subject: string; body_text: string }> {
   const deadline = Date.now() + timeoutMs;
   while (Date.now() < deadline) {
-    const rows = await testDb('mail_capture').where('id', '>', afterId).whereRaw('? = any(rcpt_to)', [to.toLowerCase()]).orderBy('id', 'desc');
+    const rows = await testDb('mail_capture')
+      .where('id', '>', afterId)
+      .whereRaw('? = any(rcpt_to)', [to.toLowerCase()])
+      .orderBy('id', 'desc');
     const hit = rows.find((r) => subject.test(r.subject));
     if (hit) return hit;
     await new Promise((r) => setTimeout(r, 200));

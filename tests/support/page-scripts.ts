@@ -51,7 +51,8 @@ export function scriptsInHtml(html: string): { eager: string[]; deferred: string
     if (src) eager.push(src);
     else if (m[2].trim() && !/type="application\/(ld\+)?json"/.test(m[1])) inline.push(m[2]);
   }
-  for (const m of html.matchAll(/<link\b[^>]*>/g)) if (attr(m[0], 'rel') === 'modulepreload') eager.push(attr(m[0], 'href')!);
+  for (const m of html.matchAll(/<link\b[^>]*>/g))
+    if (attr(m[0], 'rel') === 'modulepreload') eager.push(attr(m[0], 'href')!);
   for (const m of html.matchAll(/<astro-island\b[^>]*>/g)) {
     const urls = [attr(m[0], 'component-url'), attr(m[0], 'renderer-url')].filter((u): u is string => !!u);
     if (attr(m[0], 'client') === 'visible') deferred.push(...urls);

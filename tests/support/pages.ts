@@ -10,7 +10,12 @@ export type Viewer = Role | 'public';
 export type BudgetKind = 'entry' | 'plain' | 'calculator' | 'map';
 export const BUDGET_KB: Record<BudgetKind, number> = { entry: 25, plain: 80, calculator: 150, map: 200 };
 
-export type PageCase = { path: string; viewers: Viewer[]; budget: BudgetKind; /** a 404/403 page is expected */ status?: number };
+export type PageCase = {
+  path: string;
+  viewers: Viewer[];
+  budget: BudgetKind;
+  /** a 404/403 page is expected */ status?: number;
+};
 
 const STAFF: Role[] = ['planner', 'assessor', 'board', 'chair', 'admin'];
 const ALL: Viewer[] = ['public', ...STAFF];
@@ -23,13 +28,23 @@ async function first<T>(sql: string): Promise<T> {
 }
 
 export async function allPages(): Promise<PageCase[]> {
-  const proposal = await first<{ id: string }>(`select p.id from proposal p where exists (select 1 from assessment a where a.proposal_id = p.id and a.status = 'signed') order by p.id limit 1`);
-  const draft = await first<{ id: string }>(`select p.id from proposal p join "user" u on u.id = p.created_by where p.state = 'draft' and u.email = 'planner@tarrow.example' order by p.id limit 1`);
-  const pair = await first<{ a: string; b: string }>(`select min(id) as a, max(id) as b from assessment having count(*) > 1`);
+  const proposal = await first<{ id: string }>(
+    `select p.id from proposal p where exists (select 1 from assessment a where a.proposal_id = p.id and a.status = 'signed') order by p.id limit 1`,
+  );
+  const draft = await first<{ id: string }>(
+    `select p.id from proposal p join "user" u on u.id = p.created_by where p.state = 'draft' and u.email = 'planner@tarrow.example' order by p.id limit 1`,
+  );
+  const pair = await first<{ a: string; b: string }>(
+    `select min(id) as a, max(id) as b from assessment having count(*) > 1`,
+  );
   const meeting = await first<{ id: string }>(`select id from meeting order by meeting_date desc, id desc limit 1`);
   const entry = await first<{ seq: string }>(`select seq from register_entry order by seq limit 1`);
-  const factorSet = await first<{ id: string; v: number }>(`select set_id as id, max(version) as v from factor_set_version where status = 'published' group by set_id order by set_id limit 1`);
-  const ruleSet = await first<{ id: string; v: number }>(`select set_id as id, max(version) as v from rule_set_version where status = 'published' group by set_id order by set_id limit 1`);
+  const factorSet = await first<{ id: string; v: number }>(
+    `select set_id as id, max(version) as v from factor_set_version where status = 'published' group by set_id order by set_id limit 1`,
+  );
+  const ruleSet = await first<{ id: string; v: number }>(
+    `select set_id as id, max(version) as v from rule_set_version where status = 'published' group by set_id order by set_id limit 1`,
+  );
   return [
     { path: '/', viewers: ALL, budget: 'plain' },
     { path: '/sign-in', viewers: ['public'], budget: 'entry' },
@@ -57,10 +72,18 @@ export async function allPages(): Promise<PageCase[]> {
     { path: '/calculator', viewers: STAFF, budget: 'calculator' },
     { path: '/admin/factor-sets', viewers: ['admin', 'assessor'], budget: 'plain' },
     { path: `/admin/factor-sets/${factorSet.id}`, viewers: ['admin', 'assessor'], budget: 'plain' },
-    { path: `/admin/factor-sets/diff?a=${factorSet.id}@1&b=${factorSet.id}@${factorSet.v}`, viewers: ['admin'], budget: 'plain' },
+    {
+      path: `/admin/factor-sets/diff?a=${factorSet.id}@1&b=${factorSet.id}@${factorSet.v}`,
+      viewers: ['admin'],
+      budget: 'plain',
+    },
     { path: '/admin/rule-sets', viewers: RULE_READERS, budget: 'plain' },
     { path: `/admin/rule-sets/${ruleSet.id}`, viewers: RULE_READERS, budget: 'plain' },
-    { path: `/admin/rule-sets/diff?a=${ruleSet.id}@1&b=${ruleSet.id}@${ruleSet.v}`, viewers: ['chair'], budget: 'plain' },
+    {
+      path: `/admin/rule-sets/diff?a=${ruleSet.id}@1&b=${ruleSet.id}@${ruleSet.v}`,
+      viewers: ['chair'],
+      budget: 'plain',
+    },
     { path: '/admin/reference-layers', viewers: ['admin'], budget: 'plain' },
     { path: '/admin/reference-layers/upload', viewers: ['admin'], budget: 'plain' },
     { path: '/admin/territory', viewers: ['admin'], budget: 'map' },

@@ -6,5 +6,6 @@ import type parsePdf from 'pdf-parse';
 import parse from 'pdf-parse/lib/pdf-parse.js';
 
 export async function pdfText(bytes: ArrayBuffer | Uint8Array): Promise<string> {
-  return (await (parse as typeof parsePdf)(Buffer.from(bytes instanceof Uint8Array ? bytes : new Uint8Array(bytes)))).text;
+  return (await (parse as typeof parsePdf)(Buffer.from(bytes instanceof Uint8Array ? bytes : new Uint8Array(bytes))))
+    .text;
 }

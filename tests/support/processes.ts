@@ -7,7 +7,8 @@ import { DIST } from './env';
 export async function waitForHttp(url: string, child: ChildProcess, timeoutMs = 30_000): Promise<void> {
   const deadline = Date.now() + timeoutMs;
   while (Date.now() < deadline) {
-    if (child.exitCode !== null) throw new Error(`${url}: the process exited with code ${child.exitCode} before answering`);
+    if (child.exitCode !== null)
+      throw new Error(`${url}: the process exited with code ${child.exitCode} before answering`);
     try {
       if ((await fetch(url)).ok) return;
     } catch {

@@ -9,11 +9,26 @@ export type RawResponse = { status: number; headers: http.IncomingHttpHeaders; b
  * given). With `holdOpen` the request is never finished: an answer then proves the server
  * decided before the body ended (it stopped reading at its cap, or never started).
  */
-export function rawRequest(opts: { method: string; path: string; headers?: Record<string, string>; body?: string; totalBytes?: number; declaredLength?: number; holdOpen?: boolean; port?: number }): Promise<RawResponse> {
+export function rawRequest(opts: {
+  method: string;
+  path: string;
+  headers?: Record<string, string>;
+  body?: string;
+  totalBytes?: number;
+  declaredLength?: number;
+  holdOpen?: boolean;
+  port?: number;
+}): Promise<RawResponse> {
   return new Promise((resolve, reject) => {
     const headers: Record<string, string> = { ...(opts.headers ?? {}) };
     if (opts.declaredLength !== undefined) headers['content-length'] = String(opts.declaredLength);
-    const req = http.request({ host: '127.0.0.1', port: opts.port ?? APP_PORT, method: opts.method, path: opts.path, headers });
+    const req = http.request({
+      host: '127.0.0.1',
+      port: opts.port ?? APP_PORT,
+      method: opts.method,
+      path: opts.path,
+      headers,
+    });
     const timer = setTimeout(() => {
       req.destroy();
       reject(new Error(`${opts.method} ${opts.path}: no answer within 20 s`));
@@ -32,7 +47,8 @@ export function rawRequest(opts: { method: string; path: string; headers?: Recor
       clearTimeout(timer);
       reject(err);
     });
-    if (opts.totalBytes) req.write(Buffer.alloc(opts.totalBytes, 0x20)); // spaces: valid JSON whitespace, so only the size can be refused
+    if (opts.totalBytes)
+      req.write(Buffer.alloc(opts.totalBytes, 0x20)); // spaces: valid JSON whitespace, so only the size can be refused
     else if (opts.body !== undefined) req.write(opts.body);
     if (opts.holdOpen) req.flushHeaders();
     else req.end();

@@ -18,7 +18,11 @@ export function InviteUserForm({ onInvited }: { onInvited: () => void }) {
     event.preventDefault();
     const form = event.currentTarget;
     const data = new FormData(form);
-    const body = { name: String(data.get('name') ?? '').trim(), email: String(data.get('email') ?? '').trim(), roles: data.getAll('roles').map(String) };
+    const body = {
+      name: String(data.get('name') ?? '').trim(),
+      email: String(data.get('email') ?? '').trim(),
+      roles: data.getAll('roles').map(String),
+    };
     setErrors({});
     setMessage(null);
     setBusy(true);
@@ -30,7 +34,9 @@ export function InviteUserForm({ onInvited }: { onInvited: () => void }) {
     } catch (e) {
       if (e instanceof ApiError && e.issues.length) {
         const byField: FieldErrors = {};
-        for (const i of e.issues) if (['name', 'email', 'roles'].includes(String(i.path[0]))) byField[i.path[0] as keyof FieldErrors] ??= i.message;
+        for (const i of e.issues)
+          if (['name', 'email', 'roles'].includes(String(i.path[0])))
+            byField[i.path[0] as keyof FieldErrors] ??= i.message;
         setErrors(byField);
       }
       setMessage({ ok: false, text: e instanceof ApiError ? e.message : 'The invitation could not be sent.' });

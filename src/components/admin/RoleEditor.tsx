@@ -3,12 +3,21 @@ import { ROLES, ROLE_LABELS, type Role } from '~/lib/auth/roles';
 import { lockedReason, rolesText, type AdminUser } from './role-words';
 
 /** A person's roles as a pending change: ticks change nothing until Save; Cancel puts them back. */
-export function RoleEditor({ user, isSelf, onSave }: { user: AdminUser; isSelf: boolean; onSave: (roles: Role[]) => Promise<boolean> }) {
+export function RoleEditor({
+  user,
+  isSelf,
+  onSave,
+}: {
+  user: AdminUser;
+  isSelf: boolean;
+  onSave: (roles: Role[]) => Promise<boolean>;
+}) {
   const [pending, setPending] = useState<Role[]>(user.roles);
   const [busy, setBusy] = useState(false);
   const base = useId();
   const changed = ROLES.some((r) => pending.includes(r) !== user.roles.includes(r));
-  const toggle = (r: Role) => setPending((p) => (p.includes(r) ? p.filter((x) => x !== r) : ROLES.filter((x) => x === r || p.includes(x))));
+  const toggle = (r: Role) =>
+    setPending((p) => (p.includes(r) ? p.filter((x) => x !== r) : ROLES.filter((x) => x === r || p.includes(x))));
   async function save() {
     setBusy(true);
     const ok = await onSave(pending);
@@ -22,7 +31,13 @@ export function RoleEditor({ user, isSelf, onSave }: { user: AdminUser; isSelf: 
           const reason = pending.includes(r) ? lockedReason(r, pending, isSelf) : null;
           return (
             <label key={r} className="flex items-center gap-1 text-sm">
-              <input type="checkbox" checked={pending.includes(r)} disabled={reason !== null || busy} aria-describedby={reason ? `${base}-${r}` : undefined} onChange={() => toggle(r)} />
+              <input
+                type="checkbox"
+                checked={pending.includes(r)}
+                disabled={reason !== null || busy}
+                aria-describedby={reason ? `${base}-${r}` : undefined}
+                onChange={() => toggle(r)}
+              />
               {ROLE_LABELS[r]}
             </label>
           );
@@ -34,7 +49,11 @@ export function RoleEditor({ user, isSelf, onSave }: { user: AdminUser; isSelf: 
         </p>
       ))}
       {changed && (
-        <div className="mt-1 flex flex-wrap items-center gap-2 text-sm" role="group" aria-label={`Unsaved role change for ${user.name}`}>
+        <div
+          className="mt-1 flex flex-wrap items-center gap-2 text-sm"
+          role="group"
+          aria-label={`Unsaved role change for ${user.name}`}
+        >
           <span>
             Not saved yet: {user.name} would have {rolesText(pending)} (now {rolesText(user.roles)}).
           </span>

@@ -13,13 +13,24 @@ import { createMap, type MapHandles } from '../map/map-setup';
 import type { MapConfig } from '../map/types';
 import { apiFetch, ApiError } from '../ui/api-client';
 
-type Answer = { territory: GeoJSON.MultiPolygon | null; source: 'setting' | 'reference-layers' | 'none'; defaultMarginDeg: number };
+type Answer = {
+  territory: GeoJSON.MultiPolygon | null;
+  source: 'setting' | 'reference-layers' | 'none';
+  defaultMarginDeg: number;
+};
 const geojson = new GeoJSON({ dataProjection: 'EPSG:4326', featureProjection: 'EPSG:3857' });
-const OUTLINE = [new Style({ stroke: new Stroke({ color: '#ffffff', width: 6 }) }), new Style({ stroke: new Stroke({ color: '#1f5a85', width: 3, lineDash: [10, 6] }), fill: new Fill({ color: 'rgba(31,90,133,0.06)' }) })];
+const OUTLINE = [
+  new Style({ stroke: new Stroke({ color: '#ffffff', width: 6 }) }),
+  new Style({
+    stroke: new Stroke({ color: '#1f5a85', width: 3, lineDash: [10, 6] }),
+    fill: new Fill({ color: 'rgba(31,90,133,0.06)' }),
+  }),
+];
 
 const SOURCE_TEXT: Record<Answer['source'], (m: number) => string> = {
   setting: () => 'Set by an administrator.',
-  'reference-layers': (m) => `Not set, so the default applies: the area of the current reference layers widened by ${m}° on every side.`,
+  'reference-layers': (m) =>
+    `Not set, so the default applies: the area of the current reference layers widened by ${m}° on every side.`,
   none: () => 'Switched off: uploads and drawn parcels are not checked against a territory.',
 };
 
@@ -74,7 +85,10 @@ export function TerritoryAdmin() {
     try {
       parsed = JSON.parse(text);
     } catch {
-      setNote({ ok: false, text: 'This is not JSON. Paste a GeoJSON Polygon or MultiPolygon in longitude/latitude (WGS 84).' });
+      setNote({
+        ok: false,
+        text: 'This is not JSON. Paste a GeoJSON Polygon or MultiPolygon in longitude/latitude (WGS 84).',
+      });
       return;
     }
     void save(parsed && parsed.type === 'Feature' ? parsed.geometry : parsed);
@@ -83,22 +97,50 @@ export function TerritoryAdmin() {
   return (
     <div className="grid gap-5 lg:grid-cols-[minmax(0,2fr)_minmax(0,1fr)]">
       <div>
-        <div ref={target} className="h-[420px] w-full rounded border border-[#8d978f]" role="region" aria-label="Map of the territory" tabIndex={0} />
-        <p className="mt-2 text-xs text-muted">The territory is drawn as a dashed blue outline over the parcels and reference layers.</p>
+        <div
+          ref={target}
+          className="h-[420px] w-full rounded border border-[#8d978f]"
+          role="region"
+          aria-label="Map of the territory"
+          tabIndex={0}
+        />
+        <p className="mt-2 text-xs text-muted">
+          The territory is drawn as a dashed blue outline over the parcels and reference layers.
+        </p>
       </div>
       <section aria-labelledby="territory-form" className="flex flex-col gap-3">
         <h2 id="territory-form">Where parcels may lie</h2>
-        <p className="text-sm" data-testid="territory-source">{answer ? SOURCE_TEXT[answer.source](answer.defaultMarginDeg) : 'Loading…'}</p>
-        <p className="text-sm text-muted">Every upload and every drawn or edited boundary is checked against it. A parcel outside is refused; when swapping longitude and latitude would put it inside, the message says the axes look swapped.</p>
+        <p className="text-sm" data-testid="territory-source">
+          {answer ? SOURCE_TEXT[answer.source](answer.defaultMarginDeg) : 'Loading…'}
+        </p>
+        <p className="text-sm text-muted">
+          Every upload and every drawn or edited boundary is checked against it. A parcel outside is refused; when
+          swapping longitude and latitude would put it inside, the message says the axes look swapped.
+        </p>
         <form onSubmit={submit} className="flex flex-col gap-2">
-          <label htmlFor="territory-geojson" className="text-sm font-medium text-muted">New territory: GeoJSON Polygon or MultiPolygon in WGS 84 (longitude, latitude)</label>
-          <textarea id="territory-geojson" className="input min-h-32 font-mono text-xs" value={text} onChange={(e) => setText(e.target.value)} />
+          <label htmlFor="territory-geojson" className="text-sm font-medium text-muted">
+            New territory: GeoJSON Polygon or MultiPolygon in WGS 84 (longitude, latitude)
+          </label>
+          <textarea
+            id="territory-geojson"
+            className="input min-h-32 font-mono text-xs"
+            value={text}
+            onChange={(e) => setText(e.target.value)}
+          />
           <div className="flex flex-wrap gap-2">
-            <button type="submit" className="btn" disabled={text.trim() === ''}>Save territory</button>
-            <button type="button" className="btn btn-quiet" onClick={() => void save(null)}>Switch the check off</button>
+            <button type="submit" className="btn" disabled={text.trim() === ''}>
+              Save territory
+            </button>
+            <button type="button" className="btn btn-quiet" onClick={() => void save(null)}>
+              Switch the check off
+            </button>
           </div>
         </form>
-        {note && <p role={note.ok ? 'status' : 'alert'} className={note.ok ? 'text-sm' : 'error-text'}>{note.text}</p>}
+        {note && (
+          <p role={note.ok ? 'status' : 'alert'} className={note.ok ? 'text-sm' : 'error-text'}>
+            {note.text}
+          </p>
+        )}
       </section>
     </div>
   );

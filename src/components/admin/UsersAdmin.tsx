@@ -28,10 +28,14 @@ export function UsersAdmin({ selfId }: { selfId: string }) {
       return false;
     }
   }
-  const patch = (u: User, body: Record<string, unknown>) => apiFetch<User>(`/api/users/${u.id}`, { method: 'PATCH', body: { version: u.version, ...body } });
+  const patch = (u: User, body: Record<string, unknown>) =>
+    apiFetch<User>(`/api/users/${u.id}`, { method: 'PATCH', body: { version: u.version, ...body } });
 
   const saveRoles = (u: User, roles: Role[]) =>
-    act(`Roles of ${u.name} changed from ${rolesText(u.roles)} to ${rolesText(roles)}.`, () => patch(u, { roles }), { user: u, roles: u.roles });
+    act(`Roles of ${u.name} changed from ${rolesText(u.roles)} to ${rolesText(roles)}.`, () => patch(u, { roles }), {
+      user: u,
+      roles: u.roles,
+    });
   async function undo(n: NonNullable<Note['undo']>) {
     const now = users.find((x) => x.id === n.user.id);
     if (!now) return;
@@ -41,7 +45,14 @@ export function UsersAdmin({ selfId }: { selfId: string }) {
   const actions = (u: User) => (
     <>
       {u.status === 'invited' && (
-        <button className="btn btn-quiet" onClick={() => void act(`New invitation sent to ${u.email}.`, () => apiFetch(`/api/users/${u.id}/invitation`, { method: 'POST' }))}>
+        <button
+          className="btn btn-quiet"
+          onClick={() =>
+            void act(`New invitation sent to ${u.email}.`, () =>
+              apiFetch(`/api/users/${u.id}/invitation`, { method: 'POST' }),
+            )
+          }
+        >
           Resend invitation
         </button>
       )}
@@ -50,7 +61,11 @@ export function UsersAdmin({ selfId }: { selfId: string }) {
           className="btn btn-quiet"
           onClick={() => {
             const off = u.status !== 'deactivated';
-            if (off && !window.confirm(`Deactivate ${u.name}? They are signed out at once and cannot sign in until reactivated.`)) return;
+            if (
+              off &&
+              !window.confirm(`Deactivate ${u.name}? They are signed out at once and cannot sign in until reactivated.`)
+            )
+              return;
             void act(`${u.name} ${off ? 'deactivated' : 'reactivated'}.`, () => patch(u, { active: !off }));
           }}
         >
@@ -59,7 +74,14 @@ export function UsersAdmin({ selfId }: { selfId: string }) {
       )}
     </>
   );
-  const editor = (u: User) => <RoleEditor key={`${u.id}:${u.version}`} user={u} isSelf={u.id === selfId} onSave={(roles) => saveRoles(u, roles)} />;
+  const editor = (u: User) => (
+    <RoleEditor
+      key={`${u.id}:${u.version}`}
+      user={u}
+      isSelf={u.id === selfId}
+      onSave={(roles) => saveRoles(u, roles)}
+    />
+  );
 
   return (
     <div className="flex flex-col gap-5">
@@ -69,7 +91,10 @@ export function UsersAdmin({ selfId }: { selfId: string }) {
       </section>
       <section className="panel">
         <h2 className="mb-2">People with access</h2>
-        <p className="mb-2 text-sm text-muted">Tick or untick roles, then save; nothing changes until you do. Roles: {ROLES.length} kinds, at least one per person.</p>
+        <p className="mb-2 text-sm text-muted">
+          Tick or untick roles, then save; nothing changes until you do. Roles: {ROLES.length} kinds, at least one per
+          person.
+        </p>
         {note && (
           <p role={note.ok ? 'status' : 'alert'} className={`mb-2 ${note.ok ? 'text-sward-700' : 'error-text'}`}>
             {note.text}{' '}

@@ -7,7 +7,13 @@ import { Field } from '../ui/Field';
 import { downloadEstimate } from './download';
 import { inputRows } from './EstimateInputs';
 import { EstimateResults, type Estimate } from './EstimateResults';
-import { calculatorFormSchema, DEFAULT_FORM, toRequestBody, type CalculatorForm, type CalculatorValues } from './form-model';
+import {
+  calculatorFormSchema,
+  DEFAULT_FORM,
+  toRequestBody,
+  type CalculatorForm,
+  type CalculatorValues,
+} from './form-model';
 import { CLIMATE_LABELS, GWP_LABELS } from './labels';
 import { LandUseFields } from './LandUseFields';
 import { SoilFields } from './SoilFields';
@@ -42,12 +48,18 @@ export function Calculator({ sets }: { sets: SetOption[] }) {
 
   return (
     <div className="grid gap-5 lg:grid-cols-[minmax(300px,380px)_1fr] print:block">
-      <form onSubmit={onSubmit} noValidate className="no-print panel flex min-w-0 flex-col gap-3 self-start" aria-label="Estimate inputs">
+      <form
+        onSubmit={onSubmit}
+        noValidate
+        className="no-print panel flex min-w-0 flex-col gap-3 self-start"
+        aria-label="Estimate inputs"
+      >
         <Field label="Factor set" htmlFor="factorSet">
           <select id="factorSet" className="input" {...register('factorSet')}>
             {sets.map((s) => (
               <option key={s.id} value={s.id}>
-                {s.title} (v{s.version}{s.unconfirmed ? `, ${s.unconfirmed} tables not yet checked` : ''})
+                {s.title} (v{s.version}
+                {s.unconfirmed ? `, ${s.unconfirmed} tables not yet checked` : ''})
               </option>
             ))}
           </select>
@@ -63,7 +75,15 @@ export function Calculator({ sets }: { sets: SetOption[] }) {
         </Field>
         <SoilFields control={control} register={register} errors={errors} />
         <Field label="Area, ha" htmlFor="areaHa" error={errors.areaHa?.message}>
-          <input id="areaHa" type="number" step="any" min="0" className="input" aria-invalid={!!errors.areaHa} {...register('areaHa')} />
+          <input
+            id="areaHa"
+            type="number"
+            step="any"
+            min="0"
+            className="input"
+            aria-invalid={!!errors.areaHa}
+            {...register('areaHa')}
+          />
         </Field>
         <LandUseFields side="before" legend="Now" register={register} watch={watch} errors={errors} />
         <LandUseFields side="after" legend="Proposed" register={register} watch={watch} errors={errors} />
@@ -71,7 +91,14 @@ export function Calculator({ sets }: { sets: SetOption[] }) {
           <summary className="cursor-pointer text-sm font-semibold">Method options</summary>
           <div className="mt-2 flex flex-col gap-2">
             <Field label="Transition period D, years" htmlFor="transitionYears" error={errors.transitionYears?.message}>
-              <input id="transitionYears" type="number" min="1" max="100" className="input" {...register('transitionYears')} />
+              <input
+                id="transitionYears"
+                type="number"
+                min="1"
+                max="100"
+                className="input"
+                {...register('transitionYears')}
+              />
             </Field>
             <Field label="Global warming potentials" htmlFor="gwp">
               <select id="gwp" className="input" {...register('gwp')}>
@@ -121,12 +148,24 @@ export function Calculator({ sets }: { sets: SetOption[] }) {
             result={result.estimate}
             transitionYears={result.years}
             inputs={inputRows(result.values, setTitle(result.values.factorSet))}
-            onDownload={() => downloadEstimate(inputRows(result.values, setTitle(result.values.factorSet)), toRequestBody(result.values), result.estimate)}
+            onDownload={() =>
+              downloadEstimate(
+                inputRows(result.values, setTitle(result.values.factorSet)),
+                toRequestBody(result.values),
+                result.estimate,
+              )
+            }
           />
         ) : (
           <div className="no-print panel text-sm text-muted">
-            <p>Choose the region, soils and the change, then press <strong>Estimate</strong>.</p>
-            <p className="mt-2">The estimate follows the IPCC Tier 1 stock-change method (2006 Guidelines, Vol 4, Eq 2.25): reference stock × land-use, management and input factors, changing linearly over the transition period. It adds biomass lost at conversion and N2O from mineralised nitrogen, in CO2-equivalent.</p>
+            <p>
+              Choose the region, soils and the change, then press <strong>Estimate</strong>.
+            </p>
+            <p className="mt-2">
+              The estimate follows the IPCC Tier 1 stock-change method (2006 Guidelines, Vol 4, Eq 2.25): reference
+              stock × land-use, management and input factors, changing linearly over the transition period. It adds
+              biomass lost at conversion and N2O from mineralised nitrogen, in CO2-equivalent.
+            </p>
           </div>
         )}
       </div>

@@ -1,5 +1,14 @@
 import type { CalculatorValues } from './form-model';
-import { CLIMATE_LABELS, CROP_INPUT_LABELS, GRASS_INPUT_LABELS, GWP_LABELS, MANAGEMENT_LABELS, SOIL_LABELS, SYSTEM_LABELS, TILLAGE_LABELS } from './labels';
+import {
+  CLIMATE_LABELS,
+  CROP_INPUT_LABELS,
+  GRASS_INPUT_LABELS,
+  GWP_LABELS,
+  MANAGEMENT_LABELS,
+  SOIL_LABELS,
+  SYSTEM_LABELS,
+  TILLAGE_LABELS,
+} from './labels';
 import { formatNumber } from './labels';
 
 type Side = CalculatorValues['before'];
@@ -21,7 +30,12 @@ export function inputRows(v: CalculatorValues, setTitle: string): [string, strin
     ['Proposed', landUseText(v.after)],
     ['Transition period D', `${v.transitionYears} years`],
     ['Global warming potentials', GWP_LABELS[v.gwp]],
-    ['Counted', [v.biomass && 'biomass at conversion', v.n2o && 'N2O from mineralised nitrogen', 'soil carbon'].filter(Boolean).join(', ')],
+    [
+      'Counted',
+      [v.biomass && 'biomass at conversion', v.n2o && 'N2O from mineralised nitrogen', 'soil carbon']
+        .filter(Boolean)
+        .join(', '),
+    ],
     ['Uncertainty', v.withUncertainty ? `95% range from ${v.runs} Monte Carlo runs, seed ${v.seed}` : 'not computed'],
   ];
 }

@@ -39,29 +39,57 @@ export function EstimateResults({ result, transitionYears, inputs, onDownload }:
   const signedAt = (x: number, at: number) => sign(roundTo(x, at)) + formatRounded(Math.abs(x), at);
   const signedT = (x: number) => signedAt(x, step);
   const tC = (x: number) => signedAt(x, roundingStep(x));
-  const lossShare = result.socBeforePerHa > 0 ? (result.socAfterPerHa - result.socBeforePerHa) / result.socBeforePerHa : 0;
+  const lossShare =
+    result.socBeforePerHa > 0 ? (result.socAfterPerHa - result.socBeforePerHa) / result.socBeforePerHa : 0;
   const emission = result.co2eTotal >= 0;
   return (
     <div className="flex flex-col gap-4">
       <section className="panel" aria-labelledby="result-heading">
         <div className="flex flex-wrap items-start justify-between gap-2">
-          <h2 id="result-heading" ref={heading} tabIndex={-1} className="mb-1">Result over {transitionYears} years</h2>
+          <h2 id="result-heading" ref={heading} tabIndex={-1} className="mb-1">
+            Result over {transitionYears} years
+          </h2>
           <div className="no-print flex gap-2">
-            <button type="button" className="btn btn-quiet" onClick={onDownload}>Download (JSON)</button>
-            <button type="button" className="btn btn-quiet" onClick={() => window.print()}>Print</button>
+            <button type="button" className="btn btn-quiet" onClick={onDownload}>
+              Download (JSON)
+            </button>
+            <button type="button" className="btn btn-quiet" onClick={() => window.print()}>
+              Print
+            </button>
           </div>
         </div>
         <p className="mb-3 text-sm" aria-live="polite">
           <strong>{emission ? 'Net emission' : 'Net removal'}</strong> of about {t(Math.abs(result.co2eTotal))} t CO2e
-          {u ? <> (95% range {t(u.co2eLow)} to {t(u.co2eHigh)} t CO2e, {u.runs} Monte Carlo runs, seed {u.seed})</> : <> (no range computed: rounded to two significant figures)</>}
+          {u ? (
+            <>
+              {' '}
+              (95% range {t(u.co2eLow)} to {t(u.co2eHigh)} t CO2e, {u.runs} Monte Carlo runs, seed {u.seed})
+            </>
+          ) : (
+            <> (no range computed: rounded to two significant figures)</>
+          )}
           . Factor set <code>{result.factorSet.id}</code> version {result.factorSet.version}.
         </p>
         <dl className="grid grid-cols-2 gap-2 lg:grid-cols-4">
           <Figure label="Soil carbon before" value={formatNumber(result.socBeforePerHa, 1)} unit="t C/ha" />
-          <Figure label="Soil carbon after" value={formatNumber(result.socAfterPerHa, 1)} unit="t C/ha" note={`${sign(lossShare)}${formatNumber(Math.abs(lossShare * 100), 0)}% of the stock`} />
-          <Figure label="Soil carbon change" value={tC(result.socChangeTotal)} unit="t C" note={`${tC(result.annualSocChange)} t C per year`} />
+          <Figure
+            label="Soil carbon after"
+            value={formatNumber(result.socAfterPerHa, 1)}
+            unit="t C/ha"
+            note={`${sign(lossShare)}${formatNumber(Math.abs(lossShare * 100), 0)}% of the stock`}
+          />
+          <Figure
+            label="Soil carbon change"
+            value={tC(result.socChangeTotal)}
+            unit="t C"
+            note={`${tC(result.annualSocChange)} t C per year`}
+          />
           <Figure label="Biomass change" value={tC(result.biomassChangeTotal)} unit="t C" />
-          <Figure label="N2O from mineralisation" value={formatRounded(result.n2oTotal * 1000, roundingStep(result.n2oTotal * 1000))} unit="kg N2O" />
+          <Figure
+            label="N2O from mineralisation"
+            value={formatRounded(result.n2oTotal * 1000, roundingStep(result.n2oTotal * 1000))}
+            unit="kg N2O"
+          />
           <Figure label="CO2e: soil" value={signedT(result.co2eParts.soil)} unit="t" />
           <Figure label="CO2e: biomass" value={signedT(result.co2eParts.biomass)} unit="t" />
           <Figure label="CO2e: N2O" value={signedT(result.co2eParts.n2o)} unit="t" />
@@ -71,12 +99,21 @@ export function EstimateResults({ result, transitionYears, inputs, onDownload }:
         </p>
         {!result.signOffReady && (
           <p className="notice notice-warn mt-3 text-sm" role="note">
-            <strong>Exploration only.</strong> Values this authority has not yet checked against the published document: {[...new Set(result.factors.filter((f) => f.status === 'unconfirmed').map((f) => `${f.role} (${f.source.table})`))].join('; ')} (marked “! not yet checked” below). An assessment built on them cannot be signed off until an administrator records the check.
+            <strong>Exploration only.</strong> Values this authority has not yet checked against the published document:{' '}
+            {[
+              ...new Set(
+                result.factors.filter((f) => f.status === 'unconfirmed').map((f) => `${f.role} (${f.source.table})`),
+              ),
+            ].join('; ')}{' '}
+            (marked “! not yet checked” below). An assessment built on them cannot be signed off until an administrator
+            records the check.
           </p>
         )}
       </section>
       <section className="panel" aria-labelledby="inputs-heading">
-        <h2 id="inputs-heading" className="mb-2">What was estimated</h2>
+        <h2 id="inputs-heading" className="mb-2">
+          What was estimated
+        </h2>
         <EstimateInputs rows={inputs} />
       </section>
       <section className="panel">

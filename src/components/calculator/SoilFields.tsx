@@ -3,7 +3,11 @@ import { SOIL_TYPES } from '~/lib/carbon';
 import { SOIL_LABELS } from './labels';
 import type { CalculatorForm } from './form-model';
 
-type Props = { control: Control<CalculatorForm>; register: UseFormRegister<CalculatorForm>; errors: FieldErrors<CalculatorForm> };
+type Props = {
+  control: Control<CalculatorForm>;
+  register: UseFormRegister<CalculatorForm>;
+  errors: FieldErrors<CalculatorForm>;
+};
 
 /** Soil classes under the area and their shares, in percent. */
 export function SoilFields({ control, register, errors }: Props) {
@@ -29,10 +33,24 @@ export function SoilFields({ control, register, errors }: Props) {
             <label htmlFor={`soil-pct-${i}`} className="text-sm font-medium text-muted">
               Share %
             </label>
-            <input id={`soil-pct-${i}`} type="number" step="any" min="0" max="100" className="input w-full" aria-invalid={!!errors.soils?.[i]?.percent} {...register(`soils.${i}.percent`)} />
+            <input
+              id={`soil-pct-${i}`}
+              type="number"
+              step="any"
+              min="0"
+              max="100"
+              className="input w-full"
+              aria-invalid={!!errors.soils?.[i]?.percent}
+              {...register(`soils.${i}.percent`)}
+            />
           </div>
           {fields.length > 1 && (
-            <button type="button" className="btn btn-quiet col-span-2 justify-self-end px-2 py-1 text-sm" aria-label={`Remove soil class ${i + 1}`} onClick={() => remove(i)}>
+            <button
+              type="button"
+              className="btn btn-quiet col-span-2 justify-self-end px-2 py-1 text-sm"
+              aria-label={`Remove soil class ${i + 1}`}
+              onClick={() => remove(i)}
+            >
               Remove
             </button>
           )}
@@ -41,7 +59,11 @@ export function SoilFields({ control, register, errors }: Props) {
       {errors.soils?.root?.message && <p className="error-text">{errors.soils.root.message}</p>}
       {errors.soils?.message && <p className="error-text">{errors.soils.message}</p>}
       {fields.length < SOIL_TYPES.length && (
-        <button type="button" className="btn btn-quiet self-start" onClick={() => append({ type: 'sandy', percent: 0 })}>
+        <button
+          type="button"
+          className="btn btn-quiet self-start"
+          onClick={() => append({ type: 'sandy', percent: 0 })}
+        >
           Add a soil class
         </button>
       )}

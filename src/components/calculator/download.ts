@@ -9,7 +9,8 @@ export function estimateDocument(inputs: [string, string][], request: unknown, r
     inputs: Object.fromEntries(inputs),
     request,
     result,
-    caution: 'Tier 1 estimates use international default values and are uncertain by tens of percent. They support, and never replace, site survey, soil sampling, local law and the judgement of licensed professionals.',
+    caution:
+      'Tier 1 estimates use international default values and are uncertain by tens of percent. They support, and never replace, site survey, soil sampling, local law and the judgement of licensed professionals.',
   };
 }
 

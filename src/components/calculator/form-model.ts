@@ -3,7 +3,16 @@
  * and its conversion to the API body. The server validates the body again.
  */
 import { z } from 'zod';
-import { CLIMATE_REGIONS, CROPLAND_INPUT, CROPLAND_SYSTEMS, GRASSLAND_INPUT, GRASSLAND_MANAGEMENT, GWP_SETS, SOIL_TYPES, TILLAGE } from '~/lib/carbon';
+import {
+  CLIMATE_REGIONS,
+  CROPLAND_INPUT,
+  CROPLAND_SYSTEMS,
+  GRASSLAND_INPUT,
+  GRASSLAND_MANAGEMENT,
+  GWP_SETS,
+  SOIL_TYPES,
+  TILLAGE,
+} from '~/lib/carbon';
 
 const landUse = z.object({
   landUse: z.enum(['grassland', 'cropland']),
@@ -18,7 +27,14 @@ export const calculatorFormSchema = z
   .object({
     factorSet: z.string().min(1),
     climate: z.enum(CLIMATE_REGIONS),
-    soils: z.array(z.object({ type: z.enum(SOIL_TYPES), percent: z.coerce.number<number>().gt(0, 'More than 0%.').lte(100, 'At most 100%.') })).min(1),
+    soils: z
+      .array(
+        z.object({
+          type: z.enum(SOIL_TYPES),
+          percent: z.coerce.number<number>().gt(0, 'More than 0%.').lte(100, 'At most 100%.'),
+        }),
+      )
+      .min(1),
     areaHa: z.coerce.number<number>().positive('Give an area above 0 ha.').max(1_000_000),
     before: landUse,
     after: landUse,
@@ -28,15 +44,24 @@ export const calculatorFormSchema = z
     n2o: z.boolean(),
     withUncertainty: z.boolean(),
     runs: z.coerce.number<number>().int().min(100).max(20000),
-    seed: z.coerce.number<number>().int().min(0).max(2 ** 31 - 1),
+    seed: z.coerce
+      .number<number>()
+      .int()
+      .min(0)
+      .max(2 ** 31 - 1),
   })
   .superRefine((v, ctx) => {
     const sum = v.soils.reduce((s, x) => s + x.percent, 0);
-    if (Math.abs(sum - 100) > 1e-4) ctx.addIssue({ code: 'custom', path: ['soils'], message: `Soil shares must add up to 100% (now ${sum}%).` });
+    if (Math.abs(sum - 100) > 1e-4)
+      ctx.addIssue({ code: 'custom', path: ['soils'], message: `Soil shares must add up to 100% (now ${sum}%).` });
     for (const side of ['before', 'after'] as const) {
       const s = v[side];
       if (s.landUse === 'grassland' && s.grassInput === 'high' && s.management !== 'improved')
-        ctx.addIssue({ code: 'custom', path: [side, 'grassInput'], message: 'High input applies only to improved grassland.' });
+        ctx.addIssue({
+          code: 'custom',
+          path: [side, 'grassInput'],
+          message: 'High input applies only to improved grassland.',
+        });
     }
   });
 
@@ -48,8 +73,22 @@ export const DEFAULT_FORM: CalculatorForm = {
   climate: 'cool-temperate-moist',
   soils: [{ type: 'hac', percent: 100 }],
   areaHa: 10,
-  before: { landUse: 'grassland', management: 'nominal', grassInput: 'medium', system: 'long-term-cultivated', tillage: 'full', cropInput: 'medium' },
-  after: { landUse: 'cropland', management: 'nominal', grassInput: 'medium', system: 'long-term-cultivated', tillage: 'full', cropInput: 'medium' },
+  before: {
+    landUse: 'grassland',
+    management: 'nominal',
+    grassInput: 'medium',
+    system: 'long-term-cultivated',
+    tillage: 'full',
+    cropInput: 'medium',
+  },
+  after: {
+    landUse: 'cropland',
+    management: 'nominal',
+    grassInput: 'medium',
+    system: 'long-term-cultivated',
+    tillage: 'full',
+    cropInput: 'medium',
+  },
   transitionYears: 20,
   gwp: 'ar5',
   biomass: true,

@@ -1,5 +1,14 @@
 /** Plain-words names of the IPCC classes used on screens (the keys stay the API's). */
-import type { ClimateRegion, CroplandInput, CroplandSystem, GrasslandInput, GrasslandManagement, GwpSet, SoilType, Tillage } from '~/lib/carbon';
+import type {
+  ClimateRegion,
+  CroplandInput,
+  CroplandSystem,
+  GrasslandInput,
+  GrasslandManagement,
+  GwpSet,
+  SoilType,
+  Tillage,
+} from '~/lib/carbon';
 
 export const CLIMATE_LABELS: Record<ClimateRegion, string> = {
   'tropical-montane': 'Tropical montane',
@@ -42,7 +51,11 @@ export const SYSTEM_LABELS: Record<CroplandSystem, string> = {
   'set-aside': 'Set-aside (< 20 years)',
 };
 
-export const TILLAGE_LABELS: Record<Tillage, string> = { full: 'Full tillage', reduced: 'Reduced tillage', none: 'No tillage' };
+export const TILLAGE_LABELS: Record<Tillage, string> = {
+  full: 'Full tillage',
+  reduced: 'Reduced tillage',
+  none: 'No tillage',
+};
 
 export const CROP_INPUT_LABELS: Record<CroplandInput, string> = {
   low: 'Low',
@@ -51,7 +64,11 @@ export const CROP_INPUT_LABELS: Record<CroplandInput, string> = {
   'high-with-manure': 'High, with manure',
 };
 
-export const GWP_LABELS: Record<GwpSet, string> = { ar4: 'AR4 (100-year)', ar5: 'AR5 (100-year)', ar6: 'AR6 (100-year)' };
+export const GWP_LABELS: Record<GwpSet, string> = {
+  ar4: 'AR4 (100-year)',
+  ar5: 'AR5 (100-year)',
+  ar6: 'AR6 (100-year)',
+};
 
 export function formatNumber(x: number, digits = 1): string {
   return x.toLocaleString('en-GB', { maximumFractionDigits: digits, minimumFractionDigits: digits });

@@ -1,4 +1,14 @@
-import { Bar, CartesianGrid, ComposedChart, Legend, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
+import {
+  Bar,
+  CartesianGrid,
+  ComposedChart,
+  Legend,
+  ReferenceLine,
+  ResponsiveContainer,
+  Tooltip,
+  XAxis,
+  YAxis,
+} from 'recharts';
 import { fmt, inkLegend, niceTicks, pct } from './format';
 
 type Row = { year: number; committedT: number; leftT: number | null; usedShare: number | null };
@@ -16,25 +26,69 @@ export function BudgetChart({ rows, budgetT }: { rows: Row[]; budgetT: number | 
             <ComposedChart accessibilityLayer={false} data={rows} margin={{ top: 16, right: 8, bottom: 4, left: 8 }}>
               <CartesianGrid stroke="#d5d8d0" strokeDasharray="3 3" />
               <XAxis dataKey="year" tick={{ fontSize: 12 }} />
-              <YAxis tick={{ fontSize: 12 }} width={56} domain={[low, ticks[ticks.length - 1]!]} ticks={ticks} tickFormatter={(v) => fmt(Number(v))} />
+              <YAxis
+                tick={{ fontSize: 12 }}
+                width={56}
+                domain={[low, ticks[ticks.length - 1]!]}
+                ticks={ticks}
+                tickFormatter={(v) => fmt(Number(v))}
+              />
               <Tooltip formatter={(v) => `${fmt(Number(v))} t CO2e`} />
               <Legend wrapperStyle={{ fontSize: 12 }} formatter={inkLegend} />
               <Bar dataKey="committedT" name="Committed, t CO2e" fill="#6b4a2b" isAnimationActive={false} />
-              {budgetT !== null && <ReferenceLine y={budgetT} stroke="#1d2320" strokeWidth={2} strokeDasharray="8 4" label={{ value: `Budget ${fmt(budgetT)} t`, position: 'insideTopRight', fontSize: 12 }} />}
+              {budgetT !== null && (
+                <ReferenceLine
+                  y={budgetT}
+                  stroke="#1d2320"
+                  strokeWidth={2}
+                  strokeDasharray="8 4"
+                  label={{ value: `Budget ${fmt(budgetT)} t`, position: 'insideTopRight', fontSize: 12 }}
+                />
+              )}
             </ComposedChart>
           </ResponsiveContainer>
         </div>
       )}
       <figcaption className="text-xs text-muted">
-        Central estimates of the approvals still in force, by the year the change starts (the budget year). {budgetT === null ? 'No yearly budget is set.' : `Dashed line: the yearly budget of ${fmt(budgetT)} t CO2e set by the authority.`} Restorations count as negative emissions.
+        Central estimates of the approvals still in force, by the year the change starts (the budget year).{' '}
+        {budgetT === null
+          ? 'No yearly budget is set.'
+          : `Dashed line: the yearly budget of ${fmt(budgetT)} t CO2e set by the authority.`}{' '}
+        Restorations count as negative emissions.
       </figcaption>
       <details className="mt-2 text-sm" open={rows.length === 0 ? true : undefined}>
         <summary className="cursor-pointer">The same figures as a table</summary>
         <table className="data-table mt-2">
-          <thead><tr><th scope="col">Budget year</th><th scope="col" className="text-right">Committed, t CO2e</th><th scope="col" className="text-right">Left, t CO2e</th><th scope="col" className="text-right">Budget used</th></tr></thead>
+          <thead>
+            <tr>
+              <th scope="col">Budget year</th>
+              <th scope="col" className="text-right">
+                Committed, t CO2e
+              </th>
+              <th scope="col" className="text-right">
+                Left, t CO2e
+              </th>
+              <th scope="col" className="text-right">
+                Budget used
+              </th>
+            </tr>
+          </thead>
           <tbody>
-            {rows.map((r) => <tr key={r.year}><td>{r.year}</td><td className="text-right">{fmt(r.committedT)}</td><td className="text-right">{fmt(r.leftT)}</td><td className="text-right">{pct(r.usedShare)}</td></tr>)}
-            {rows.length === 0 && <tr><td colSpan={4} className="text-muted">No approval in the register yet.</td></tr>}
+            {rows.map((r) => (
+              <tr key={r.year}>
+                <td>{r.year}</td>
+                <td className="text-right">{fmt(r.committedT)}</td>
+                <td className="text-right">{fmt(r.leftT)}</td>
+                <td className="text-right">{pct(r.usedShare)}</td>
+              </tr>
+            ))}
+            {rows.length === 0 && (
+              <tr>
+                <td colSpan={4} className="text-muted">
+                  No approval in the register yet.
+                </td>
+              </tr>
+            )}
           </tbody>
         </table>
       </details>

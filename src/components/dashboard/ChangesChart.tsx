@@ -13,23 +13,64 @@ export function ChangesChart({ rows }: { rows: Row[] }) {
             <BarChart accessibilityLayer={false} data={rows} margin={{ top: 8, right: 8, bottom: 4, left: 0 }}>
               <CartesianGrid stroke="#d5d8d0" strokeDasharray="3 3" />
               <XAxis dataKey="year" tick={{ fontSize: 12 }} />
-              <YAxis tick={{ fontSize: 12 }} width={44} label={{ value: 'ha', angle: -90, position: 'insideLeft', fontSize: 12 }} />
+              <YAxis
+                tick={{ fontSize: 12 }}
+                width={44}
+                label={{ value: 'ha', angle: -90, position: 'insideLeft', fontSize: 12 }}
+              />
               <Tooltip formatter={(v) => `${fmt(Number(v), 2)} ha`} />
               <Legend wrapperStyle={{ fontSize: 12 }} formatter={inkLegend} />
-              <Bar dataKey="convertedHa" name="Converted (grass to tilled use)" fill="#9a3b17" isAnimationActive={false} />
-              <Bar dataKey="restoredHa" name="Restored (tilled land to grass)" fill="#245a41" stroke="#15382a" strokeDasharray="4 2" isAnimationActive={false} />
+              <Bar
+                dataKey="convertedHa"
+                name="Converted (grass to tilled use)"
+                fill="#9a3b17"
+                isAnimationActive={false}
+              />
+              <Bar
+                dataKey="restoredHa"
+                name="Restored (tilled land to grass)"
+                fill="#245a41"
+                stroke="#15382a"
+                strokeDasharray="4 2"
+                isAnimationActive={false}
+              />
             </BarChart>
           </ResponsiveContainer>
         </div>
       )}
-      <figcaption className="text-xs text-muted">From the register: approvals still in force, by the year the board decided; area of the parcels (or parts) in each decision.</figcaption>
+      <figcaption className="text-xs text-muted">
+        From the register: approvals still in force, by the year the board decided; area of the parcels (or parts) in
+        each decision.
+      </figcaption>
       <details className="mt-2 text-sm" open={rows.length === 0 ? true : undefined}>
         <summary className="cursor-pointer">The same figures as a table</summary>
         <table className="data-table mt-2">
-          <thead><tr><th scope="col">Year</th><th scope="col" className="text-right">Converted, ha</th><th scope="col" className="text-right">Restored, ha</th></tr></thead>
+          <thead>
+            <tr>
+              <th scope="col">Year</th>
+              <th scope="col" className="text-right">
+                Converted, ha
+              </th>
+              <th scope="col" className="text-right">
+                Restored, ha
+              </th>
+            </tr>
+          </thead>
           <tbody>
-            {rows.map((r) => <tr key={r.year}><td>{r.year}</td><td className="text-right">{fmt(r.convertedHa, 2)}</td><td className="text-right">{fmt(r.restoredHa, 2)}</td></tr>)}
-            {rows.length === 0 && <tr><td colSpan={3} className="text-muted">No approval in the register yet.</td></tr>}
+            {rows.map((r) => (
+              <tr key={r.year}>
+                <td>{r.year}</td>
+                <td className="text-right">{fmt(r.convertedHa, 2)}</td>
+                <td className="text-right">{fmt(r.restoredHa, 2)}</td>
+              </tr>
+            ))}
+            {rows.length === 0 && (
+              <tr>
+                <td colSpan={3} className="text-muted">
+                  No approval in the register yet.
+                </td>
+              </tr>
+            )}
           </tbody>
         </table>
       </details>

@@ -1,11 +1,26 @@
 import { Bar, CartesianGrid, ComposedChart, Legend, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
 import { inkLegend, pct } from './format';
 
-type Row = { key: string; label: string; referenceRatio: number | null; referenceYear: number | null; referenceSource: string | null; ratioNow: number | null; ratioAfterPending: number | null; limitRatio: number | null };
+type Row = {
+  key: string;
+  label: string;
+  referenceRatio: number | null;
+  referenceYear: number | null;
+  referenceSource: string | null;
+  ratioNow: number | null;
+  ratioAfterPending: number | null;
+  limitRatio: number | null;
+};
 
 /** Each region's permanent-grassland ratio now and after approved conversions, against its reference ratio and the limit. */
 export function RatioChart({ rows, maxRelativeFall }: { rows: Row[]; maxRelativeFall: number | null }) {
-  const data = rows.map((r) => ({ ...r, now: r.ratioNow, after: r.ratioAfterPending, reference: r.referenceRatio, limit: r.limitRatio }));
+  const data = rows.map((r) => ({
+    ...r,
+    now: r.ratioNow,
+    after: r.ratioAfterPending,
+    reference: r.referenceRatio,
+    limit: r.limitRatio,
+  }));
   return (
     <figure>
       {rows.length > 0 && (
@@ -14,36 +29,102 @@ export function RatioChart({ rows, maxRelativeFall }: { rows: Row[]; maxRelative
             <ComposedChart accessibilityLayer={false} data={data} margin={{ top: 8, right: 8, bottom: 4, left: 0 }}>
               <CartesianGrid stroke="#d5d8d0" strokeDasharray="3 3" />
               <XAxis dataKey="label" tick={{ fontSize: 12 }} />
-              <YAxis tick={{ fontSize: 12 }} width={44} domain={[0, 1]} tickFormatter={(v) => `${Math.round(Number(v) * 100)} %`} />
+              <YAxis
+                tick={{ fontSize: 12 }}
+                width={44}
+                domain={[0, 1]}
+                tickFormatter={(v) => `${Math.round(Number(v) * 100)} %`}
+              />
               <Tooltip formatter={(v) => pct(Number(v))} />
               <Legend wrapperStyle={{ fontSize: 12 }} formatter={inkLegend} />
-              <Bar dataKey="reference" name="Reference year" fill="#d6e8dc" stroke="#245a41" isAnimationActive={false} />
+              <Bar
+                dataKey="reference"
+                name="Reference year"
+                fill="#d6e8dc"
+                stroke="#245a41"
+                isAnimationActive={false}
+              />
               <Bar dataKey="now" name="Now (land-use record)" fill="#2f6b4f" isAnimationActive={false} />
               <Bar dataKey="after" name="After approved conversions" fill="#6b4a2b" isAnimationActive={false} />
               {/* The limit as a dashed mark across the region's group: a bar drawn as its top edge only. */}
-              <Bar dataKey="limit" name="Limit" fill="#9a3b17" legendType="plainline" isAnimationActive={false}
-                shape={(p: { x?: number | null; y?: number | null; background?: { x?: number | null; width?: number | null } }) => {
+              <Bar
+                dataKey="limit"
+                name="Limit"
+                fill="#9a3b17"
+                legendType="plainline"
+                isAnimationActive={false}
+                shape={(p: {
+                  x?: number | null;
+                  y?: number | null;
+                  background?: { x?: number | null; width?: number | null };
+                }) => {
                   const x = p.background?.x ?? p.x ?? 0;
-                  return <line x1={x} x2={x + (p.background?.width ?? 0)} y1={p.y ?? 0} y2={p.y ?? 0} stroke="#9a3b17" strokeWidth={3} strokeDasharray="6 3" />;
+                  return (
+                    <line
+                      x1={x}
+                      x2={x + (p.background?.width ?? 0)}
+                      y1={p.y ?? 0}
+                      y2={p.y ?? 0}
+                      stroke="#9a3b17"
+                      strokeWidth={3}
+                      strokeDasharray="6 3"
+                    />
+                  );
                 }}
-                />
+              />
             </ComposedChart>
           </ResponsiveContainer>
         </div>
       )}
       <figcaption className="text-xs text-muted">
-        Ratio = permanent grassland ÷ agricultural area. {maxRelativeFall === null ? 'The default rule set has no ratio rule, so no limit is drawn.' : `Dashed red mark: the limit, ${pct(maxRelativeFall, 0)} below the reference ratio (the default rule set’s ratio rule).`}
+        Ratio = permanent grassland ÷ agricultural area.{' '}
+        {maxRelativeFall === null
+          ? 'The default rule set has no ratio rule, so no limit is drawn.'
+          : `Dashed red mark: the limit, ${pct(maxRelativeFall, 0)} below the reference ratio (the default rule set’s ratio rule).`}
       </figcaption>
       <details className="mt-2 text-sm" open={rows.length === 0 ? true : undefined}>
         <summary className="cursor-pointer">The same figures as a table</summary>
         <div className="overflow-x-auto">
           <table className="data-table mt-2">
-            <thead><tr><th scope="col">Region</th><th scope="col" className="text-right">Reference</th><th scope="col" className="text-right">Limit</th><th scope="col" className="text-right">Now</th><th scope="col" className="text-right">After approvals</th><th scope="col">Reference figure from</th></tr></thead>
+            <thead>
+              <tr>
+                <th scope="col">Region</th>
+                <th scope="col" className="text-right">
+                  Reference
+                </th>
+                <th scope="col" className="text-right">
+                  Limit
+                </th>
+                <th scope="col" className="text-right">
+                  Now
+                </th>
+                <th scope="col" className="text-right">
+                  After approvals
+                </th>
+                <th scope="col">Reference figure from</th>
+              </tr>
+            </thead>
             <tbody>
               {rows.map((r) => (
-                <tr key={r.key}><td>{r.label}</td><td className="text-right">{pct(r.referenceRatio)}{r.referenceYear ? ` (${r.referenceYear})` : ''}</td><td className="text-right">{pct(r.limitRatio)}</td><td className="text-right">{pct(r.ratioNow)}</td><td className="text-right">{pct(r.ratioAfterPending)}</td><td>{r.referenceSource ?? 'No reference ratio yet'}</td></tr>
+                <tr key={r.key}>
+                  <td>{r.label}</td>
+                  <td className="text-right">
+                    {pct(r.referenceRatio)}
+                    {r.referenceYear ? ` (${r.referenceYear})` : ''}
+                  </td>
+                  <td className="text-right">{pct(r.limitRatio)}</td>
+                  <td className="text-right">{pct(r.ratioNow)}</td>
+                  <td className="text-right">{pct(r.ratioAfterPending)}</td>
+                  <td>{r.referenceSource ?? 'No reference ratio yet'}</td>
+                </tr>
               ))}
-              {rows.length === 0 && <tr><td colSpan={6} className="text-muted">No accounting-region layer is published.</td></tr>}
+              {rows.length === 0 && (
+                <tr>
+                  <td colSpan={6} className="text-muted">
+                    No accounting-region layer is published.
+                  </td>
+                </tr>
+              )}
             </tbody>
           </table>
         </div>

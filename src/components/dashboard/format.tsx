@@ -1,6 +1,10 @@
 /** Number words for the dashboard (pure). */
-export const fmt = (x: number | null | undefined, dp = 0) => (x === null || x === undefined ? '—' : x.toLocaleString('en', { minimumFractionDigits: dp, maximumFractionDigits: dp }));
-export const pct = (x: number | null | undefined, dp = 1) => (x === null || x === undefined ? '—' : `${fmt(x * 100, dp)} %`);
+export const fmt = (x: number | null | undefined, dp = 0) =>
+  x === null || x === undefined
+    ? '—'
+    : x.toLocaleString('en', { minimumFractionDigits: dp, maximumFractionDigits: dp });
+export const pct = (x: number | null | undefined, dp = 1) =>
+  x === null || x === undefined ? '—' : `${fmt(x * 100, dp)} %`;
 
 /** Round axis ticks from `low` to `high` (about five steps of 1, 2 or 5 times a power of ten; common practice). */
 export function niceTicks(low: number, high: number): number[] {

@@ -17,7 +17,12 @@ export function EvidenceUpload({ taskId }: { taskId: number }) {
     setBusy(true);
     setProblem(null);
     try {
-      await uploadWithProgress(`/api/follow-ups/${taskId}/evidence`, form, () => undefined, () => undefined);
+      await uploadWithProgress(
+        `/api/follow-ups/${taskId}/evidence`,
+        form,
+        () => undefined,
+        () => undefined,
+      );
       const back = new URLSearchParams(window.location.search);
       back.delete('saved');
       back.set('added', String(taskId));
@@ -31,10 +36,22 @@ export function EvidenceUpload({ taskId }: { taskId: number }) {
     <form className="flex flex-col gap-2" onSubmit={(e) => void send(e)}>
       <label className="field" htmlFor={id}>
         <span>Add evidence (PDF, PNG or JPEG: a photo of the site, an inspection report)</span>
-        <input id={id} type="file" className="input" accept="application/pdf,image/png,image/jpeg" onChange={(e) => setFile(e.target.files?.[0] ?? null)} />
+        <input
+          id={id}
+          type="file"
+          className="input"
+          accept="application/pdf,image/png,image/jpeg"
+          onChange={(e) => setFile(e.target.files?.[0] ?? null)}
+        />
       </label>
-      <button className="btn btn-quiet self-start" type="submit" disabled={busy || !file}>{busy ? 'Adding…' : 'Add evidence'}</button>
-      {problem && <p className="notice notice-warn" role="alert">⚠ {problem}</p>}
+      <button className="btn btn-quiet self-start" type="submit" disabled={busy || !file}>
+        {busy ? 'Adding…' : 'Add evidence'}
+      </button>
+      {problem && (
+        <p className="notice notice-warn" role="alert">
+          ⚠ {problem}
+        </p>
+      )}
     </form>
   );
 }

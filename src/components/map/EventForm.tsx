@@ -3,7 +3,14 @@ import { formatDate } from '~/lib/format/dates';
 import { useState } from 'react';
 import { useForm, type FieldErrors, type Resolver } from 'react-hook-form';
 import type { LandUseEventKind } from '~/lib/gis/land-use-history';
-import { checkLandUseEvent, EARLIEST_EVENT_DATE, EVENT_KIND_LABELS, EVENT_KINDS, EVENT_VALUES, VALUE_OPTIONAL } from '~/lib/gis/land-use-events';
+import {
+  checkLandUseEvent,
+  EARLIEST_EVENT_DATE,
+  EVENT_KIND_LABELS,
+  EVENT_KINDS,
+  EVENT_VALUES,
+  VALUE_OPTIONAL,
+} from '~/lib/gis/land-use-events';
 import { apiFetch, ApiError } from '../ui/api-client';
 import { Field } from '../ui/Field';
 
@@ -29,7 +36,10 @@ const EMPTY: EventFormValues = { date: '', kind: 'land-use', value: '', evidence
 export function EventForm({ parcelId, onRecorded }: { parcelId: number; onRecorded: () => Promise<void> }) {
   const [done, setDone] = useState<string | null>(null);
   const [failure, setFailure] = useState<string | null>(null);
-  const { register, handleSubmit, watch, setValue, setError, reset, formState } = useForm<EventFormValues>({ resolver: eventResolver, defaultValues: EMPTY });
+  const { register, handleSubmit, watch, setValue, setError, reset, formState } = useForm<EventFormValues>({
+    resolver: eventResolver,
+    defaultValues: EMPTY,
+  });
   const errors = formState.errors;
   const kind = watch('kind');
   const kindWord = EVENT_KIND_LABELS[kind].toLowerCase();
@@ -38,9 +48,13 @@ export function EventForm({ parcelId, onRecorded }: { parcelId: number; onRecord
     setDone(null);
     setFailure(null);
     try {
-      await apiFetch<{ id: number }>(`/api/parcels/${parcelId}/events`, { body: { date: v.date, kind: v.kind, value: v.value || undefined, evidence: v.evidence } });
+      await apiFetch<{ id: number }>(`/api/parcels/${parcelId}/events`, {
+        body: { date: v.date, kind: v.kind, value: v.value || undefined, evidence: v.evidence },
+      });
       reset(EMPTY);
-      setDone(`Recorded ${kindWord}${v.value ? ` (${EVENT_VALUES[v.kind][v.value]})` : ''} on ${formatDate(v.date)}. The status above is updated.`);
+      setDone(
+        `Recorded ${kindWord}${v.value ? ` (${EVENT_VALUES[v.kind][v.value]})` : ''} on ${formatDate(v.date)}. The status above is updated.`,
+      );
       await onRecorded();
     } catch (e) {
       if (!(e instanceof ApiError)) return setFailure('The event could not be recorded.');
@@ -50,33 +64,76 @@ export function EventForm({ parcelId, onRecorded }: { parcelId: number; onRecord
     }
   });
 
-  const invalid = (k: keyof EventFormValues) => ({ 'aria-invalid': !!errors[k], 'aria-describedby': errors[k] ? `event-${k}-error` : undefined });
+  const invalid = (k: keyof EventFormValues) => ({
+    'aria-invalid': !!errors[k],
+    'aria-describedby': errors[k] ? `event-${k}-error` : undefined,
+  });
   return (
     <details className="rounded border border-line p-2">
       <summary className="cursor-pointer text-sm font-semibold">Record a land-use event</summary>
       <form onSubmit={onSubmit} noValidate className="mt-2 flex flex-col gap-2" aria-label="Record a land-use event">
         <div className="grid grid-cols-2 gap-2">
           <Field label="Date" htmlFor="event-date" error={errors.date?.message}>
-            <input id="event-date" type="date" className="input" min={EARLIEST_EVENT_DATE} max={todayUtc()} {...invalid('date')} {...register('date')} />
+            <input
+              id="event-date"
+              type="date"
+              className="input"
+              min={EARLIEST_EVENT_DATE}
+              max={todayUtc()}
+              {...invalid('date')}
+              {...register('date')}
+            />
           </Field>
           <Field label="Kind" htmlFor="event-kind" error={errors.kind?.message}>
-            <select id="event-kind" className="input" {...invalid('kind')} {...register('kind', { onChange: () => setValue('value', '') })}>
-              {EVENT_KINDS.map((k) => (<option key={k} value={k}>{EVENT_KIND_LABELS[k]}</option>))}
+            <select
+              id="event-kind"
+              className="input"
+              {...invalid('kind')}
+              {...register('kind', { onChange: () => setValue('value', '') })}
+            >
+              {EVENT_KINDS.map((k) => (
+                <option key={k} value={k}>
+                  {EVENT_KIND_LABELS[k]}
+                </option>
+              ))}
             </select>
           </Field>
         </div>
-        <Field label={VALUE_OPTIONAL.includes(kind) ? 'Method (optional)' : EVENT_KIND_LABELS[kind]} htmlFor="event-value" error={errors.value?.message}>
+        <Field
+          label={VALUE_OPTIONAL.includes(kind) ? 'Method (optional)' : EVENT_KIND_LABELS[kind]}
+          htmlFor="event-value"
+          error={errors.value?.message}
+        >
           <select id="event-value" className="input" {...invalid('value')} {...register('value')}>
             <option value="">{VALUE_OPTIONAL.includes(kind) ? 'Not recorded' : 'Choose…'}</option>
-            {Object.entries(EVENT_VALUES[kind]).map(([value, label]) => (<option key={value} value={value}>{label}</option>))}
+            {Object.entries(EVENT_VALUES[kind]).map(([value, label]) => (
+              <option key={value} value={value}>
+                {label}
+              </option>
+            ))}
           </select>
         </Field>
-        <Field label="Evidence (required)" htmlFor="event-evidence" error={errors.evidence?.message} hint="Where this comes from: survey, declaration, aerial image …">
+        <Field
+          label="Evidence (required)"
+          htmlFor="event-evidence"
+          error={errors.evidence?.message}
+          hint="Where this comes from: survey, declaration, aerial image …"
+        >
           <input id="event-evidence" className="input" {...invalid('evidence')} {...register('evidence')} />
         </Field>
-        <button className="btn self-start" type="submit" disabled={formState.isSubmitting}>{formState.isSubmitting ? 'Recording…' : 'Record event'}</button>
-        {done && <p role="status" className="notice text-sm">✓ {done}</p>}
-        {failure && <p role="alert" className="notice notice-warn text-sm">⚠ {failure}</p>}
+        <button className="btn self-start" type="submit" disabled={formState.isSubmitting}>
+          {formState.isSubmitting ? 'Recording…' : 'Record event'}
+        </button>
+        {done && (
+          <p role="status" className="notice text-sm">
+            ✓ {done}
+          </p>
+        )}
+        {failure && (
+          <p role="alert" className="notice notice-warn text-sm">
+            ⚠ {failure}
+          </p>
+        )}
       </form>
     </details>
   );

@@ -2,7 +2,17 @@
 import type { Pattern } from '~/lib/gis/reference-kinds';
 import { hexToRgba } from './patterns';
 
-export function Swatch({ colour, pattern, id, dashed = false }: { colour: string; pattern: Pattern | 'outline'; id: string; dashed?: boolean }) {
+export function Swatch({
+  colour,
+  pattern,
+  id,
+  dashed = false,
+}: {
+  colour: string;
+  pattern: Pattern | 'outline';
+  id: string;
+  dashed?: boolean;
+}) {
   const stroke = hexToRgba(colour, 0.9);
   const marks: Record<Pattern, React.ReactNode> = {
     hatch: <path d="M0 10 L10 0" stroke={stroke} strokeWidth="1.4" />,
@@ -31,7 +41,16 @@ export function Swatch({ colour, pattern, id, dashed = false }: { colour: string
           {marks[pattern]}
         </pattern>
       </defs>
-      <rect x="1" y="1" width="20" height="14" fill={`url(#${id})`} stroke={stroke} strokeWidth={dashed ? 2 : 1.2} strokeDasharray={dashed ? '4 2' : undefined} />
+      <rect
+        x="1"
+        y="1"
+        width="20"
+        height="14"
+        fill={`url(#${id})`}
+        stroke={stroke}
+        strokeWidth={dashed ? 2 : 1.2}
+        strokeDasharray={dashed ? '4 2' : undefined}
+      />
     </svg>
   );
 }

@@ -35,10 +35,18 @@ export function startDrawing(map: OlMap, edit: VectorSource, snap: VectorSource,
   return () => [...added, modify].forEach((i) => map.removeInteraction(i));
 }
 
-export function startEditing(map: OlMap, edit: VectorSource, snap: VectorSource, geometry: GeoJSON.MultiPolygon): () => void {
+export function startEditing(
+  map: OlMap,
+  edit: VectorSource,
+  snap: VectorSource,
+  geometry: GeoJSON.MultiPolygon,
+): () => void {
   edit.clear();
   edit.addFeatures(geojson.readFeatures({ type: 'Feature', properties: {}, geometry }));
-  snap.getFeatures().filter((f) => JSON.stringify(geojson.writeGeometryObject(f.getGeometry()!)) === JSON.stringify(geometry)).forEach((f) => snap.removeFeature(f));
+  snap
+    .getFeatures()
+    .filter((f) => JSON.stringify(geojson.writeGeometryObject(f.getGeometry()!)) === JSON.stringify(geometry))
+    .forEach((f) => snap.removeFeature(f));
   const added: Interaction[] = [new Modify({ source: edit }), new Snap({ source: snap }), new Snap({ source: edit })];
   added.forEach((i) => map.addInteraction(i));
   return () => added.forEach((i) => map.removeInteraction(i));

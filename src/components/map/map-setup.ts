@@ -17,7 +17,8 @@ import { fillFor } from './patterns';
 import type { MapConfig } from './types';
 
 /** Tile URLs name the data version (immutable per version) and carry the short-lived tile token instead of a session look-up. */
-export const tileUrl = (c: Pick<MapConfig, 'dataVersion' | 'tileToken'>) => `/api/tiles/{z}/{x}/{y}.mvt?v=${c.dataVersion}&t=${encodeURIComponent(c.tileToken)}`;
+export const tileUrl = (c: Pick<MapConfig, 'dataVersion' | 'tileToken'>) =>
+  `/api/tiles/{z}/{x}/{y}.mvt?v=${c.dataVersion}&t=${encodeURIComponent(c.tileToken)}`;
 
 /** Well inside a token's life (10 to 20 minutes, lib/auth/tile-token.ts). */
 const TOKEN_REFRESH_MS = 4 * 60_000;
@@ -47,18 +48,42 @@ function keepTileUrlFresh(map: OlMap, tiles: VectorTileSource): void {
   });
 }
 
-const PARCEL = new Style({ stroke: new Stroke({ color: '#1d2320', width: 1 }), fill: new Fill({ color: 'rgba(255,255,255,0.01)' }) });
-const PARCEL_ARABLE = new Style({ stroke: new Stroke({ color: '#1d2320', width: 1, lineDash: [4, 3] }), fill: new Fill({ color: 'rgba(255,255,255,0.01)' }) });
+const PARCEL = new Style({
+  stroke: new Stroke({ color: '#1d2320', width: 1 }),
+  fill: new Fill({ color: 'rgba(255,255,255,0.01)' }),
+});
+const PARCEL_ARABLE = new Style({
+  stroke: new Stroke({ color: '#1d2320', width: 1, lineDash: [4, 3] }),
+  fill: new Fill({ color: 'rgba(255,255,255,0.01)' }),
+});
 /** Parcels saved by the upload named in `/map?upload=<id>`: a vermilion outline on a white halo (legend: Legend.tsx). */
-export const UPLOADED = [new Style({ stroke: new Stroke({ color: '#ffffff', width: 5 }) }), new Style({ stroke: new Stroke({ color: '#D55E00', width: 2.5, lineDash: [10, 4] }) })];
-export const HIGHLIGHT = [new Style({ stroke: new Stroke({ color: '#ffffff', width: 6 }) }), new Style({ stroke: new Stroke({ color: '#1f5a85', width: 3 }) })];
+export const UPLOADED = [
+  new Style({ stroke: new Stroke({ color: '#ffffff', width: 5 }) }),
+  new Style({ stroke: new Stroke({ color: '#D55E00', width: 2.5, lineDash: [10, 4] }) }),
+];
+export const HIGHLIGHT = [
+  new Style({ stroke: new Stroke({ color: '#ffffff', width: 6 }) }),
+  new Style({ stroke: new Stroke({ color: '#1f5a85', width: 3 }) }),
+];
 export const EDIT = new Style({
   stroke: new Stroke({ color: '#9a3b17', width: 2.5 }),
   fill: new Fill({ color: 'rgba(154,59,23,0.12)' }),
-  image: new CircleStyle({ radius: 5, fill: new Fill({ color: '#9a3b17' }), stroke: new Stroke({ color: '#fff', width: 1.5 }) }),
+  image: new CircleStyle({
+    radius: 5,
+    fill: new Fill({ color: '#9a3b17' }),
+    stroke: new Stroke({ color: '#fff', width: 1.5 }),
+  }),
 });
 
-export type MapHandles = { map: OlMap; tiles: VectorTileSource; tileLayer: VectorTileLayer; highlight: VectorSource; upload: VectorSource; edit: VectorSource; snap: VectorSource };
+export type MapHandles = {
+  map: OlMap;
+  tiles: VectorTileSource;
+  tileLayer: VectorTileLayer;
+  highlight: VectorSource;
+  upload: VectorSource;
+  edit: VectorSource;
+  snap: VectorSource;
+};
 
 /** Style by MVT layer: parcels always (arable dashed), reference features only when their kind is switched on. */
 export function styleFor(config: MapConfig, visible: () => Set<string>) {
@@ -75,7 +100,10 @@ export function styleFor(config: MapConfig, visible: () => Set<string>) {
       const colour = e?.colour ?? '#55605a';
       // Designations are outlined heavier and dashed so they stand out over soil or slope patterns.
       const designation = kind === 'sensitive' || kind === 'never-tilled';
-      style = new Style({ fill: new Fill({ color: fillFor(colour, e?.pattern ?? 'solid') }), stroke: new Stroke({ color: colour, width: designation ? 3 : 1.5, lineDash: designation ? [8, 4] : undefined }) });
+      style = new Style({
+        fill: new Fill({ color: fillFor(colour, e?.pattern ?? 'solid') }),
+        stroke: new Stroke({ color: colour, width: designation ? 3 : 1.5, lineDash: designation ? [8, 4] : undefined }),
+      });
       cache.set(key, style);
     }
     return style;
@@ -90,17 +118,24 @@ export function createMap(target: HTMLElement, config: MapConfig, visible: () =>
   const edit = new VectorSource();
   const snap = new VectorSource();
   const layers = [
-    ...(config.basemapUrl ? [new TileLayer({ source: new XYZ({ url: config.basemapUrl, crossOrigin: 'anonymous' }) })] : []),
+    ...(config.basemapUrl
+      ? [new TileLayer({ source: new XYZ({ url: config.basemapUrl, crossOrigin: 'anonymous' }) })]
+      : []),
     tileLayer,
     new VectorLayer({ source: upload, style: UPLOADED }),
     new VectorLayer({ source: highlight, style: HIGHLIGHT }),
-    new VectorLayer({ source: snap, style: new Style({ stroke: new Stroke({ color: 'rgba(31,90,133,0.5)', width: 1 }) }) }),
+    new VectorLayer({
+      source: snap,
+      style: new Style({ stroke: new Stroke({ color: 'rgba(31,90,133,0.5)', width: 1 }) }),
+    }),
     new VectorLayer({ source: edit, style: EDIT }),
   ];
   const map = new OlMap({
     target,
     layers,
-    controls: defaultControls({ attribution: false }).extend([new ScaleLine({ units: 'metric', bar: true, steps: 4, text: true, minWidth: 110 })]),
+    controls: defaultControls({ attribution: false }).extend([
+      new ScaleLine({ units: 'metric', bar: true, steps: 4, text: true, minWidth: 110 }),
+    ]),
     view: new View({ center: [0, 0], zoom: 2, maxZoom: 20 }),
   });
   if (config.areas[0]) fitLonLat(map, config.areas[0].extent);
@@ -109,5 +144,7 @@ export function createMap(target: HTMLElement, config: MapConfig, visible: () =>
 }
 
 export function fitLonLat(map: OlMap, extent: [number, number, number, number], maxZoom = 15): void {
-  map.getView().fit(transformExtent(extent, 'EPSG:4326', 'EPSG:3857'), { padding: [30, 30, 30, 30], maxZoom, duration: 0 });
+  map
+    .getView()
+    .fit(transformExtent(extent, 'EPSG:4326', 'EPSG:3857'), { padding: [30, 30, 30, 30], maxZoom, duration: 0 });
 }

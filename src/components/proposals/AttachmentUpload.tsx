@@ -16,7 +16,12 @@ export function AttachmentUpload({ proposalId }: { proposalId: number }) {
     setBusy(true);
     setNote(null);
     try {
-      await uploadWithProgress(`/api/proposals/${proposalId}/attachments`, form, () => undefined, () => undefined);
+      await uploadWithProgress(
+        `/api/proposals/${proposalId}/attachments`,
+        form,
+        () => undefined,
+        () => undefined,
+      );
       window.location.reload();
     } catch (err) {
       setNote({ ok: false, text: err instanceof ApiError ? err.message : 'The file could not be attached.' });
@@ -27,10 +32,23 @@ export function AttachmentUpload({ proposalId }: { proposalId: number }) {
     <form className="mt-3 flex flex-col gap-2" onSubmit={(e) => void send(e)}>
       <label className="field" htmlFor="attachment-file">
         <span>Attach a document (PDF, PNG or JPEG)</span>
-        <input id="attachment-file" type="file" className="input" accept="application/pdf,image/png,image/jpeg" onChange={(e) => setFile(e.target.files?.[0] ?? null)} />
+        <input
+          id="attachment-file"
+          type="file"
+          className="input"
+          accept="application/pdf,image/png,image/jpeg"
+          onChange={(e) => setFile(e.target.files?.[0] ?? null)}
+        />
       </label>
-      <button className="btn btn-quiet self-start" type="submit" disabled={busy || !file}>{busy ? 'Attaching…' : 'Attach'}</button>
-      {note && <p className={note.ok ? 'notice' : 'notice notice-warn'} role="alert">{note.ok ? '✓ ' : '⚠ '}{note.text}</p>}
+      <button className="btn btn-quiet self-start" type="submit" disabled={busy || !file}>
+        {busy ? 'Attaching…' : 'Attach'}
+      </button>
+      {note && (
+        <p className={note.ok ? 'notice' : 'notice notice-warn'} role="alert">
+          {note.ok ? '✓ ' : '⚠ '}
+          {note.text}
+        </p>
+      )}
     </form>
   );
 }

@@ -18,17 +18,37 @@ import { Fill, Stroke, Style } from 'ol/style';
 import 'ol/ol.css';
 import { fillFor } from '../map/patterns';
 
-type Props = { seq: number; headSeq: number; extent: [number, number, number, number]; basemapUrl: string | null; fallbackId: string; label: string };
+type Props = {
+  seq: number;
+  headSeq: number;
+  extent: [number, number, number, number];
+  basemapUrl: string | null;
+  fallbackId: string;
+  label: string;
+};
 
-const OTHER = new Style({ stroke: new Stroke({ color: '#55605a', width: 1, lineDash: [4, 3] }), fill: new Fill({ color: 'rgba(85,96,90,0.08)' }) });
+const OTHER = new Style({
+  stroke: new Stroke({ color: '#55605a', width: 1, lineDash: [4, 3] }),
+  fill: new Fill({ color: 'rgba(85,96,90,0.08)' }),
+});
 
 export function EntryMap({ seq, headSeq, extent, basemapUrl, fallbackId, label }: Props) {
   const target = useRef<HTMLDivElement>(null);
   useEffect(() => {
     if (!target.current) return;
-    const source = new VectorTileSource({ format: new MVT(), url: `/api/register/tiles/{z}/{x}/{y}.mvt?v=${headSeq}`, maxZoom: 16 });
+    const source = new VectorTileSource({
+      format: new MVT(),
+      url: `/api/register/tiles/{z}/{x}/{y}.mvt?v=${headSeq}`,
+      maxZoom: 16,
+    });
     // The hatch is a canvas pattern: made here, in the browser, never during server rendering.
-    const THIS = [new Style({ stroke: new Stroke({ color: '#ffffff', width: 5 }) }), new Style({ stroke: new Stroke({ color: '#15382a', width: 2.5 }), fill: new Fill({ color: fillFor('#245a41', 'hatch') }) })];
+    const THIS = [
+      new Style({ stroke: new Stroke({ color: '#ffffff', width: 5 }) }),
+      new Style({
+        stroke: new Stroke({ color: '#15382a', width: 2.5 }),
+        fill: new Fill({ color: fillFor('#245a41', 'hatch') }),
+      }),
+    ];
     const style = (f: FeatureLike) => (Number(f.get('seq')) === seq ? THIS : OTHER);
     const map = new OlMap({
       target: target.current,
@@ -47,5 +67,12 @@ export function EntryMap({ seq, headSeq, extent, basemapUrl, fallbackId, label }
     });
     return () => map.setTarget(undefined);
   }, [seq, headSeq, extent, basemapUrl, fallbackId]);
-  return <div ref={target} className="h-72 w-full rounded border border-line bg-sward-50 md:h-96" role="region" aria-label={label} />;
+  return (
+    <div
+      ref={target}
+      className="h-72 w-full rounded border border-line bg-sward-50 md:h-96"
+      role="region"
+      aria-label={label}
+    />
+  );
 }

@@ -2,7 +2,14 @@
 import { formatDateTime } from '~/lib/format/dates';
 import { useEffect, useState } from 'react';
 
-type Result = { ok: boolean; entries: number; firstBrokenEntry: number | null; problem: string | null; headHash: string | null; checkedAt: string };
+type Result = {
+  ok: boolean;
+  entries: number;
+  firstBrokenEntry: number | null;
+  problem: string | null;
+  headHash: string | null;
+  checkedAt: string;
+};
 
 export function VerifyChain() {
   const [result, setResult] = useState<Result | null>(null);
@@ -10,7 +17,9 @@ export function VerifyChain() {
   const run = () => {
     setResult(null);
     setFailed(false);
-    fetch('/api/register/verify').then((r) => (r.ok ? r.json() : Promise.reject(r.status))).then(setResult, () => setFailed(true));
+    fetch('/api/register/verify')
+      .then((r) => (r.ok ? r.json() : Promise.reject(r.status)))
+      .then(setResult, () => setFailed(true));
   };
   useEffect(run, []);
   return (
@@ -18,12 +27,20 @@ export function VerifyChain() {
       {!result && !failed && <p>Checking the chain of every entry…</p>}
       {failed && <p className="error-text">The check could not be run just now. Try again in a moment.</p>}
       {result && result.ok && (
-        <p><strong>Chain intact.</strong> All {result.entries.toLocaleString('en')} entries match their hashes and each names the one before it (checked {formatDateTime(result.checkedAt)}).</p>
+        <p>
+          <strong>Chain intact.</strong> All {result.entries.toLocaleString('en')} entries match their hashes and each
+          names the one before it (checked {formatDateTime(result.checkedAt)}).
+        </p>
       )}
       {result && !result.ok && (
-        <p className="notice notice-warn"><strong>Chain broken at entry {result.firstBrokenEntry}.</strong> {result.problem}. Entries before it still match.</p>
+        <p className="notice notice-warn">
+          <strong>Chain broken at entry {result.firstBrokenEntry}.</strong> {result.problem}. Entries before it still
+          match.
+        </p>
       )}
-      <button type="button" className="btn btn-quiet mt-2" onClick={run}>Check again</button>
+      <button type="button" className="btn btn-quiet mt-2" onClick={run}>
+        Check again
+      </button>
     </div>
   );
 }

@@ -18,8 +18,18 @@ function paramInput(name: string, value: ParamValue) {
   }
   return (
     <label key={name} className="field">
-      <span>{name}{Array.isArray(value) ? ' (comma-separated)' : ''}</span>
-      <input name={id} className="input" type={typeof value === 'number' ? 'number' : 'text'} step={typeof value === 'number' ? 'any' : undefined} defaultValue={Array.isArray(value) ? value.join(', ') : String(value)} required />
+      <span>
+        {name}
+        {Array.isArray(value) ? ' (comma-separated)' : ''}
+      </span>
+      <input
+        name={id}
+        className="input"
+        type={typeof value === 'number' ? 'number' : 'text'}
+        step={typeof value === 'number' ? 'any' : undefined}
+        defaultValue={Array.isArray(value) ? value.join(', ') : String(value)}
+        required
+      />
     </label>
   );
 }
@@ -30,7 +40,14 @@ function readParams(f: FormData, params: Record<string, ParamValue>): Record<str
       const raw = f.get(`p-${k}`);
       if (typeof v === 'boolean') return [k, raw === 'on'];
       if (typeof v === 'number') return [k, Number(raw)];
-      if (Array.isArray(v)) return [k, String(raw ?? '').split(',').map((x) => x.trim()).filter(Boolean)];
+      if (Array.isArray(v))
+        return [
+          k,
+          String(raw ?? '')
+            .split(',')
+            .map((x) => x.trim())
+            .filter(Boolean),
+        ];
       return [k, String(raw ?? '')];
     }),
   );

@@ -2,16 +2,32 @@ import { ActionForm } from '../factor-sets/ActionForm';
 
 /** One-click admin actions on a rule set (each its own island: islands cannot take functions as props). */
 export function MakeDefaultRuleSetButton({ setId }: { setId: string }) {
-  return <ActionForm quiet label="Grade new assessments with this set" method="PUT" url="/api/settings/default-rule-set" body={() => ({ id: setId })} next="reload" />;
+  return (
+    <ActionForm
+      quiet
+      label="Grade new assessments with this set"
+      method="PUT"
+      url="/api/settings/default-rule-set"
+      body={() => ({ id: setId })}
+      next="reload"
+    />
+  );
 }
 
 export function StartRuleDraftButton({ setId }: { setId: string }) {
-  return <ActionForm quiet label="Start a new draft from this version" url={`/api/rule-sets/${setId}/draft`} next="reload" />;
+  return (
+    <ActionForm quiet label="Start a new draft from this version" url={`/api/rule-sets/${setId}/draft`} next="reload" />
+  );
 }
 
 export function PublishRuleDraftForm({ setId, revision }: { setId: string; revision: number }) {
   return (
-    <ActionForm label="Publish this draft" url={`/api/rule-sets/${setId}/publish`} body={(f) => ({ note: String(f.get('note') ?? ''), revision })} next="reload">
+    <ActionForm
+      label="Publish this draft"
+      url={`/api/rule-sets/${setId}/publish`}
+      body={(f) => ({ note: String(f.get('note') ?? ''), revision })}
+      next="reload"
+    >
       <label className="field">
         <span>What this version changes (kept with the version; a published version never changes again)</span>
         <textarea name="note" className="input" rows={2} required />

@@ -18,8 +18,14 @@ export function RecomputeButton() {
   }
   return (
     <div className="flex flex-col gap-1">
-      <button type="button" className="btn self-start" onClick={run} disabled={busy} aria-busy={busy}>{busy ? 'Recomputing…' : 'Recompute now'}</button>
-      {error && <p className="notice notice-warn" role="alert">⚠ {error}</p>}
+      <button type="button" className="btn self-start" onClick={run} disabled={busy} aria-busy={busy}>
+        {busy ? 'Recomputing…' : 'Recompute now'}
+      </button>
+      {error && (
+        <p className="notice notice-warn" role="alert">
+          ⚠ {error}
+        </p>
+      )}
     </div>
   );
 }

@@ -21,7 +21,12 @@ export async function apiFetch<T>(url: string, init: { method?: string; body?: u
   const data = await res.json().catch(() => null);
   if (!res.ok) {
     const e = data?.error;
-    throw new ApiError(res.status, e?.code ?? 'ERROR', e?.message ?? data?.message ?? `The server answered ${res.status}.`, e?.issues);
+    throw new ApiError(
+      res.status,
+      e?.code ?? 'ERROR',
+      e?.message ?? data?.message ?? `The server answered ${res.status}.`,
+      e?.issues,
+    );
   }
   return data as T;
 }

@@ -26,7 +26,8 @@ export function CrsStep({ layer, epsg, onChange }: Props) {
       {detected ? (
         <p className="notice">
           <span aria-hidden="true">✓ </span>The file declares <strong>{detected.name}</strong>
-          {detected.epsg ? ` (EPSG:${detected.epsg})` : ''}, read from its {detected.source === 'prj' ? '.prj' : 'GeoJSON'}. Keep it, or choose another below if you know it is wrong.
+          {detected.epsg ? ` (EPSG:${detected.epsg})` : ''}, read from its{' '}
+          {detected.source === 'prj' ? '.prj' : 'GeoJSON'}. Keep it, or choose another below if you know it is wrong.
         </p>
       ) : (
         <p className="notice notice-warn" role="status">
@@ -49,12 +50,28 @@ export function CrsStep({ layer, epsg, onChange }: Props) {
           </label>
         )}
         <div className="field mt-1">
-          <label htmlFor="crs-search" className="text-sm font-medium text-muted">Find by EPSG code or name (e.g. 27700, “utm 28n”, “lambert 93”)</label>
-          <input id="crs-search" className="input" type="search" value={q} onChange={(e) => setQ(e.target.value)} autoComplete="off" />
+          <label htmlFor="crs-search" className="text-sm font-medium text-muted">
+            Find by EPSG code or name (e.g. 27700, “utm 28n”, “lambert 93”)
+          </label>
+          <input
+            id="crs-search"
+            className="input"
+            type="search"
+            value={q}
+            onChange={(e) => setQ(e.target.value)}
+            autoComplete="off"
+          />
         </div>
-        {error && <p className="error-text" role="alert">{error}</p>}
+        {error && (
+          <p className="error-text" role="alert">
+            {error}
+          </p>
+        )}
         {hits.length > 0 && (
-          <ul className="flex max-h-72 flex-col gap-1 overflow-y-auto rounded border border-line bg-white p-2" aria-label="Matching coordinate systems">
+          <ul
+            className="flex max-h-72 flex-col gap-1 overflow-y-auto rounded border border-line bg-white p-2"
+            aria-label="Matching coordinate systems"
+          >
             {hits.map((h) => (
               <li key={h.epsg}>
                 <label className="flex items-start gap-2 text-sm">

@@ -8,9 +8,27 @@ type Props = { purpose: 'parcels' | 'reference'; layer: StagedLayer; mapping: Ma
 
 const UNIT_LABELS: Record<string, string> = { ha: 'hectares', m2: 'square metres', acres: 'acres', decares: 'decares' };
 
-function ColumnSelect({ id, value, layer, onChange, required }: { id: string; value: string | undefined; layer: StagedLayer; onChange: (v: string | undefined) => void; required?: boolean }) {
+function ColumnSelect({
+  id,
+  value,
+  layer,
+  onChange,
+  required,
+}: {
+  id: string;
+  value: string | undefined;
+  layer: StagedLayer;
+  onChange: (v: string | undefined) => void;
+  required?: boolean;
+}) {
   return (
-    <select id={id} className="input" value={value ?? ''} onChange={(e) => onChange(e.target.value || undefined)} aria-required={required}>
+    <select
+      id={id}
+      className="input"
+      value={value ?? ''}
+      onChange={(e) => onChange(e.target.value || undefined)}
+      aria-required={required}
+    >
       <option value="">{required ? 'Choose a column…' : '(not in this file)'}</option>
       {layer.columns.map((c) => (
         <option key={c.name} value={c.name}>
@@ -31,62 +49,143 @@ export function MappingStep({ purpose, layer, mapping, onChange }: Props) {
         {purpose === 'reference' ? (
           <>
             <div className="field">
-              <label htmlFor="map-kind" className="text-sm font-medium text-muted">Kind of layer</label>
-              <select id="map-kind" className="input" value={mapping.kind ?? ''} onChange={(e) => set('kind')(e.target.value || undefined)}>
+              <label htmlFor="map-kind" className="text-sm font-medium text-muted">
+                Kind of layer
+              </label>
+              <select
+                id="map-kind"
+                className="input"
+                value={mapping.kind ?? ''}
+                onChange={(e) => set('kind')(e.target.value || undefined)}
+              >
                 <option value="">Choose…</option>
-                {REFERENCE_KINDS.map((k) => (<option key={k} value={k}>{KIND_INFO[k].label}</option>))}
+                {REFERENCE_KINDS.map((k) => (
+                  <option key={k} value={k}>
+                    {KIND_INFO[k].label}
+                  </option>
+                ))}
               </select>
               {mapping.kind && KIND_INFO[mapping.kind as keyof typeof KIND_INFO].classes && (
-                <p className="text-xs text-muted">Classes must be one of: {KIND_INFO[mapping.kind as keyof typeof KIND_INFO].classes!.join(', ')}.</p>
+                <p className="text-xs text-muted">
+                  Classes must be one of: {KIND_INFO[mapping.kind as keyof typeof KIND_INFO].classes!.join(', ')}.
+                </p>
               )}
             </div>
             <div className="field">
-              <label htmlFor="map-classAttribute" className="text-sm font-medium text-muted">Column holding the class</label>
-              <ColumnSelect id="map-classAttribute" value={mapping.classAttribute} layer={layer} onChange={set('classAttribute')} required />
+              <label htmlFor="map-classAttribute" className="text-sm font-medium text-muted">
+                Column holding the class
+              </label>
+              <ColumnSelect
+                id="map-classAttribute"
+                value={mapping.classAttribute}
+                layer={layer}
+                onChange={set('classAttribute')}
+                required
+              />
             </div>
             <div className="field">
-              <label htmlFor="map-labelAttribute" className="text-sm font-medium text-muted">Column holding a name (optional)</label>
-              <ColumnSelect id="map-labelAttribute" value={mapping.labelAttribute} layer={layer} onChange={set('labelAttribute')} />
+              <label htmlFor="map-labelAttribute" className="text-sm font-medium text-muted">
+                Column holding a name (optional)
+              </label>
+              <ColumnSelect
+                id="map-labelAttribute"
+                value={mapping.labelAttribute}
+                layer={layer}
+                onChange={set('labelAttribute')}
+              />
             </div>
           </>
         ) : (
           <>
             {Object.entries(PARCEL_FIELD_LABELS).map(([key, label]) => (
               <div className="field" key={key}>
-                <label htmlFor={`map-${key}`} className="text-sm font-medium text-muted">{label}{key === 'reference' ? ' (required)' : ''}</label>
-                <ColumnSelect id={`map-${key}`} value={mapping[key]} layer={layer} onChange={set(key)} required={key === 'reference'} />
+                <label htmlFor={`map-${key}`} className="text-sm font-medium text-muted">
+                  {label}
+                  {key === 'reference' ? ' (required)' : ''}
+                </label>
+                <ColumnSelect
+                  id={`map-${key}`}
+                  value={mapping[key]}
+                  layer={layer}
+                  onChange={set(key)}
+                  required={key === 'reference'}
+                />
               </div>
             ))}
             {(
               [
-                ['grassSinceDate', 'In grass since: one date for the whole file (optional)', 'Used where the column above is empty or not in the file; recorded as a dated "grassland" land use with this file as evidence.'],
-                ['lastTillageDate', 'Last ploughed or tilled: one date for the whole file (optional)', 'Used where the tillage column is empty or not in the file; recorded as a dated tillage.'],
+                [
+                  'grassSinceDate',
+                  'In grass since: one date for the whole file (optional)',
+                  'Used where the column above is empty or not in the file; recorded as a dated "grassland" land use with this file as evidence.',
+                ],
+                [
+                  'lastTillageDate',
+                  'Last ploughed or tilled: one date for the whole file (optional)',
+                  'Used where the tillage column is empty or not in the file; recorded as a dated tillage.',
+                ],
               ] as const
             ).map(([key, label, hint]) => (
               <div className="field" key={key}>
-                <label htmlFor={`map-${key}`} className="text-sm font-medium text-muted">{label}</label>
-                <input id={`map-${key}`} type="date" className="input" value={mapping[key] ?? ''} onChange={(e) => set(key)(e.target.value || undefined)} aria-describedby={`map-${key}-hint`} />
-                <p id={`map-${key}-hint`} className="text-xs text-muted">{hint}</p>
+                <label htmlFor={`map-${key}`} className="text-sm font-medium text-muted">
+                  {label}
+                </label>
+                <input
+                  id={`map-${key}`}
+                  type="date"
+                  className="input"
+                  value={mapping[key] ?? ''}
+                  onChange={(e) => set(key)(e.target.value || undefined)}
+                  aria-describedby={`map-${key}-hint`}
+                />
+                <p id={`map-${key}-hint`} className="text-xs text-muted">
+                  {hint}
+                </p>
               </div>
             ))}
             <div className="field">
-              <label htmlFor="map-statedAreaUnit" className="text-sm font-medium text-muted">Unit of the stated area</label>
-              <select id="map-statedAreaUnit" className="input" value={mapping.statedAreaUnit ?? 'ha'} onChange={(e) => set('statedAreaUnit')(e.target.value)}>
-                {AREA_UNITS.map((u) => (<option key={u} value={u}>{UNIT_LABELS[u]}</option>))}
+              <label htmlFor="map-statedAreaUnit" className="text-sm font-medium text-muted">
+                Unit of the stated area
+              </label>
+              <select
+                id="map-statedAreaUnit"
+                className="input"
+                value={mapping.statedAreaUnit ?? 'ha'}
+                onChange={(e) => set('statedAreaUnit')(e.target.value)}
+              >
+                {AREA_UNITS.map((u) => (
+                  <option key={u} value={u}>
+                    {UNIT_LABELS[u]}
+                  </option>
+                ))}
               </select>
             </div>
           </>
         )}
       </fieldset>
       <section aria-labelledby="columns-heading" className="min-w-0">
-        <h3 id="columns-heading" className="mb-2">Columns in the file, with samples</h3>
-        <p className="mb-2 text-xs text-muted">Shapefile column names are cut to 10 characters; the samples show what each holds.</p>
+        <h3 id="columns-heading" className="mb-2">
+          Columns in the file, with samples
+        </h3>
+        <p className="mb-2 text-xs text-muted">
+          Shapefile column names are cut to 10 characters; the samples show what each holds.
+        </p>
         <div className="overflow-x-auto">
           <table className="data-table">
-            <thead><tr><th scope="col">Column</th><th scope="col">Type</th><th scope="col">Sample values</th></tr></thead>
+            <thead>
+              <tr>
+                <th scope="col">Column</th>
+                <th scope="col">Type</th>
+                <th scope="col">Sample values</th>
+              </tr>
+            </thead>
             <tbody>
               {layer.columns.map((c) => (
-                <tr key={c.name}><td className="font-mono text-xs">{c.name}</td><td>{c.kind}</td><td className="break-words">{c.samples.join(' · ') || '(empty)'}</td></tr>
+                <tr key={c.name}>
+                  <td className="font-mono text-xs">{c.name}</td>
+                  <td>{c.kind}</td>
+                  <td className="break-words">{c.samples.join(' · ') || '(empty)'}</td>
+                </tr>
               ))}
             </tbody>
           </table>
@@ -98,9 +197,13 @@ export function MappingStep({ purpose, layer, mapping, onChange }: Props) {
 
 /** Suggests a mapping: the remembered one for this source, else obvious column names. */
 export function suggestMapping(purpose: 'parcels' | 'reference', layer: StagedLayer): Mapping {
-  if (layer.rememberedMapping) return Object.fromEntries(Object.entries(layer.rememberedMapping).map(([k, v]) => [k, typeof v === 'string' ? v : undefined]));
+  if (layer.rememberedMapping)
+    return Object.fromEntries(
+      Object.entries(layer.rememberedMapping).map(([k, v]) => [k, typeof v === 'string' ? v : undefined]),
+    );
   const find = (re: RegExp) => layer.columns.find((c) => re.test(c.name))?.name;
-  if (purpose === 'reference') return { classAttribute: find(/^(class|klasse|code|type)$/i), labelAttribute: find(/^(name|label)$/i) };
+  if (purpose === 'reference')
+    return { classAttribute: find(/^(class|klasse|code|type)$/i), labelAttribute: find(/^(name|label)$/i) };
   return {
     reference: find(/ref|parcel|^id$/i),
     name: find(/^name$/i),

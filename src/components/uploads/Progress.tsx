@@ -25,4 +25,9 @@ export function Progress({ phases }: { phases: Record<PhaseKey, PhaseState> }) {
   );
 }
 
-export const initialPhases = (): Record<PhaseKey, PhaseState> => ({ upload: { state: 'waiting' }, parse: { state: 'waiting' }, validate: { state: 'waiting' }, save: { state: 'waiting' } });
+export const initialPhases = (): Record<PhaseKey, PhaseState> => ({
+  upload: { state: 'waiting' },
+  parse: { state: 'waiting' },
+  validate: { state: 'waiting' },
+  save: { state: 'waiting' },
+});

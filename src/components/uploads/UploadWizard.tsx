@@ -73,7 +73,11 @@ export function UploadWizard({ purpose }: { purpose: 'parcels' | 'reference' }) 
         '/api/uploads',
         form,
         (f) => phase('upload', { state: 'running', detail: `${Math.round(f * 100)} %` }),
-        () => ((sentAt = performance.now()), phase('upload', { state: 'done', detail: seconds(sentAt - t0) }), phase('parse', { state: 'running' })),
+        () => (
+          (sentAt = performance.now()),
+          phase('upload', { state: 'done', detail: seconds(sentAt - t0) }),
+          phase('parse', { state: 'running' })
+        ),
       );
       phase('parse', { state: 'done', detail: seconds(performance.now() - (sentAt || t0)) });
     } catch (e) {
@@ -93,7 +97,11 @@ export function UploadWizard({ purpose }: { purpose: 'parcels' | 'reference' }) 
   async function validate() {
     if (!staged || !layer) return;
     if (!layer.crs && epsg === null) return setError('Choose the coordinate reference system first.');
-    const body = { layer: layer.name, mapping: Object.fromEntries(Object.entries(mapping).filter(([, v]) => v)), ...(epsg !== null ? { epsg } : {}) };
+    const body = {
+      layer: layer.name,
+      mapping: Object.fromEntries(Object.entries(mapping).filter(([, v]) => v)),
+      ...(epsg !== null ? { epsg } : {}),
+    };
     const r = await run('validate', () => apiFetch<Report>(`/api/uploads/${staged.id}/validation`, { body }));
     if (r) {
       setReport(r);
@@ -126,7 +134,11 @@ export function UploadWizard({ purpose }: { purpose: 'parcels' | 'reference' }) 
       <nav aria-label="Steps">
         <ol className="flex flex-wrap gap-2 text-sm">
           {STEPS.map((s, i) => (
-            <li key={s.key} aria-current={s.key === step ? 'step' : undefined} className={s.key === step ? 'rounded bg-sward-700 px-2 py-0.5 text-white' : 'px-2 py-0.5 text-muted'}>
+            <li
+              key={s.key}
+              aria-current={s.key === step ? 'step' : undefined}
+              className={s.key === step ? 'rounded bg-sward-700 px-2 py-0.5 text-white' : 'px-2 py-0.5 text-muted'}
+            >
               {i + 1}. {s.label}
             </li>
           ))}
@@ -134,33 +146,78 @@ export function UploadWizard({ purpose }: { purpose: 'parcels' | 'reference' }) 
       </nav>
       <Progress phases={phases} />
       <section className="panel flex flex-col gap-4" aria-labelledby="step-heading">
-        <h2 id="step-heading" ref={heading} tabIndex={-1}>{STEPS.find((s) => s.key === step)!.label}</h2>
-        {error && <p className="notice notice-warn" role="alert"><span aria-hidden="true">⚠ </span>{error}</p>}
+        <h2 id="step-heading" ref={heading} tabIndex={-1}>
+          {STEPS.find((s) => s.key === step)!.label}
+        </h2>
+        {error && (
+          <p className="notice notice-warn" role="alert">
+            <span aria-hidden="true">⚠ </span>
+            {error}
+          </p>
+        )}
         {step === 'file' && (
           <div className="flex flex-col gap-3">
             <div className="field">
-              <label htmlFor="upload-file" className="text-sm font-medium text-muted">Zipped shapefile (.zip with .shp, .shx, .dbf and ideally .prj, .cpg) or GeoJSON (.geojson)</label>
-              <input id="upload-file" ref={fileRef} type="file" accept=".zip,.geojson,.json,application/zip,application/geo+json" className="input" />
+              <label htmlFor="upload-file" className="text-sm font-medium text-muted">
+                Zipped shapefile (.zip with .shp, .shx, .dbf and ideally .prj, .cpg) or GeoJSON (.geojson)
+              </label>
+              <input
+                id="upload-file"
+                ref={fileRef}
+                type="file"
+                accept=".zip,.geojson,.json,application/zip,application/geo+json"
+                className="input"
+              />
             </div>
-            <button className="btn self-start" onClick={() => void upload()} disabled={busy}>{busy ? 'Reading…' : 'Upload and read'}</button>
+            <button className="btn self-start" onClick={() => void upload()} disabled={busy}>
+              {busy ? 'Reading…' : 'Upload and read'}
+            </button>
           </div>
         )}
         {step === 'mapping' && staged && layer && (
           <>
-            <p className="text-sm">“{staged.fileName}”: {staged.layers.length} layer(s), {layer.featureCount} features in “{layer.name}” ({layer.geometryType}).</p>
+            <p className="text-sm">
+              “{staged.fileName}”: {staged.layers.length} layer(s), {layer.featureCount} features in “{layer.name}” (
+              {layer.geometryType}).
+            </p>
             {staged.layers.length > 1 && (
               <div className="field max-w-md">
-                <label htmlFor="layer" className="text-sm font-medium text-muted">Layer to import</label>
-                <select id="layer" className="input" value={layerName} onChange={(e) => (setLayerName(e.target.value), setMapping(suggestMapping(purpose, staged.layers.find((l) => l.name === e.target.value)!)))}>
-                  {staged.layers.map((l) => (<option key={l.name} value={l.name}>{l.name} ({l.featureCount})</option>))}
+                <label htmlFor="layer" className="text-sm font-medium text-muted">
+                  Layer to import
+                </label>
+                <select
+                  id="layer"
+                  className="input"
+                  value={layerName}
+                  onChange={(e) => (
+                    setLayerName(e.target.value),
+                    setMapping(
+                      suggestMapping(
+                        purpose,
+                        staged.layers.find((l) => l.name === e.target.value)!,
+                      ),
+                    )
+                  )}
+                >
+                  {staged.layers.map((l) => (
+                    <option key={l.name} value={l.name}>
+                      {l.name} ({l.featureCount})
+                    </option>
+                  ))}
                 </select>
               </div>
             )}
-            {layer.rememberedMapping && <p className="notice text-sm">The columns are filled in as last time for a file with these columns.</p>}
+            {layer.rememberedMapping && (
+              <p className="notice text-sm">The columns are filled in as last time for a file with these columns.</p>
+            )}
             <MappingStep purpose={purpose} layer={layer} mapping={mapping} onChange={setMapping} />
             <div className="flex flex-wrap gap-2">
-              <button className="btn" onClick={() => go('crs')} disabled={!mappingReady}>Next: coordinates</button>
-              <button className="btn btn-quiet" onClick={() => void cancel()}>Cancel upload</button>
+              <button className="btn" onClick={() => go('crs')} disabled={!mappingReady}>
+                Next: coordinates
+              </button>
+              <button className="btn btn-quiet" onClick={() => void cancel()}>
+                Cancel upload
+              </button>
             </div>
           </>
         )}
@@ -168,9 +225,15 @@ export function UploadWizard({ purpose }: { purpose: 'parcels' | 'reference' }) 
           <>
             <CrsStep layer={layer} epsg={epsg} onChange={setEpsg} />
             <div className="flex flex-wrap gap-2">
-              <button className="btn" onClick={() => void validate()} disabled={busy || (!layer.crs && epsg === null)}>{busy ? 'Checking…' : 'Check every feature'}</button>
-              <button className="btn btn-quiet" onClick={() => go('mapping')}>Back to columns</button>
-              <button className="btn btn-quiet" onClick={() => void cancel()}>Cancel upload</button>
+              <button className="btn" onClick={() => void validate()} disabled={busy || (!layer.crs && epsg === null)}>
+                {busy ? 'Checking…' : 'Check every feature'}
+              </button>
+              <button className="btn btn-quiet" onClick={() => go('mapping')}>
+                Back to columns
+              </button>
+              <button className="btn btn-quiet" onClick={() => void cancel()}>
+                Cancel upload
+              </button>
             </div>
           </>
         )}
@@ -178,23 +241,47 @@ export function UploadWizard({ purpose }: { purpose: 'parcels' | 'reference' }) 
           <>
             <ReportStep report={report} purpose={purpose} uploadId={report.id} />
             <div className="flex flex-wrap gap-2">
-              <button className="btn" onClick={() => void save()} disabled={busy || report.summary.total === report.summary.rejected}>
-                {busy ? 'Saving…' : `Save ${countOf(report.summary.total - report.summary.rejected, `valid ${noun.replace(/s$/, '')}`, `valid ${noun}`)}`}
+              <button
+                className="btn"
+                onClick={() => void save()}
+                disabled={busy || report.summary.total === report.summary.rejected}
+              >
+                {busy
+                  ? 'Saving…'
+                  : `Save ${countOf(report.summary.total - report.summary.rejected, `valid ${noun.replace(/s$/, '')}`, `valid ${noun}`)}`}
               </button>
-              <button className="btn btn-quiet" onClick={() => go('mapping')}>Back to columns</button>
-              <button className="btn btn-quiet" onClick={() => void cancel()}>Cancel upload</button>
+              <button className="btn btn-quiet" onClick={() => go('mapping')}>
+                Back to columns
+              </button>
+              <button className="btn btn-quiet" onClick={() => void cancel()}>
+                Cancel upload
+              </button>
             </div>
           </>
         )}
         {step === 'saved' && saved && (
           <>
-            <p className="notice" role="status"><span aria-hidden="true">✓ </span>Saved {countOf(saved.saved, noun.replace(/s$/, ''), noun)}{saved.rejected ? `; ${countOf(saved.rejected, 'rejected one was', 'rejected ones were')} left out` : ''}. The original file is kept with the batch.</p>
+            <p className="notice" role="status">
+              <span aria-hidden="true">✓ </span>Saved {countOf(saved.saved, noun.replace(/s$/, ''), noun)}
+              {saved.rejected ? `; ${countOf(saved.rejected, 'rejected one was', 'rejected ones were')} left out` : ''}.
+              The original file is kept with the batch.
+            </p>
             {saved.referenceVersion ? (
-              <p>Version {saved.referenceVersion.version} of this layer is a draft. <a href="/admin/reference-layers">Publish it on the reference layers page</a>.</p>
+              <p>
+                Version {saved.referenceVersion.version} of this layer is a draft.{' '}
+                <a href="/admin/reference-layers">Publish it on the reference layers page</a>.
+              </p>
             ) : (
-              <p><a href={`/map?upload=${saved.batchId}`}>See the saved parcels on the map, outlined and listed</a></p>
+              <p>
+                <a href={`/map?upload=${saved.batchId}`}>See the saved parcels on the map, outlined and listed</a>
+              </p>
             )}
-            <button className="btn btn-quiet self-start" onClick={() => (setPhases(initialPhases()), setStaged(null), go('file'))}>Upload another file</button>
+            <button
+              className="btn btn-quiet self-start"
+              onClick={() => (setPhases(initialPhases()), setStaged(null), go('file'))}
+            >
+              Upload another file
+            </button>
           </>
         )}
       </section>

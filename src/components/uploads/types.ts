@@ -9,16 +9,39 @@ export type StagedLayer = {
   crsNote: string | null;
   rememberedMapping: Record<string, unknown> | null;
 };
-export type Staged = { id: string; purpose: 'parcels' | 'reference'; fileName: string; format: string; sizeBytes: number; sha256: string; expiresAt: string; layers: StagedLayer[]; timings: { parseMs: number } };
+export type Staged = {
+  id: string;
+  purpose: 'parcels' | 'reference';
+  fileName: string;
+  format: string;
+  sizeBytes: number;
+  sha256: string;
+  expiresAt: string;
+  layers: StagedLayer[];
+  timings: { parseMs: number };
+};
 export type Issue = { code: string; message: string; severity: string };
 export type Report = {
   id: string;
   layer: string;
   crs: { epsg: number | null; name: string; source: string };
   summary: { total: number; ok: number; repaired: number; rejected: number; byCode: Record<string, number> };
-  features: { index: number; reference: string | null; status: 'ok' | 'repaired' | 'rejected'; issues: Issue[]; areaHa: number | null }[];
+  features: {
+    index: number;
+    reference: string | null;
+    status: 'ok' | 'repaired' | 'rejected';
+    issues: Issue[];
+    areaHa: number | null;
+  }[];
   omitted: number;
   timings: { parseMs: number; validateMs: number };
 };
-export type Saved = { batchId: string; purpose: string; saved: number; rejected: number; referenceVersion: { id: number; kind: string; version: number } | null; timings: { storeMs: number; overlayMs: number } };
+export type Saved = {
+  batchId: string;
+  purpose: string;
+  saved: number;
+  rejected: number;
+  referenceVersion: { id: number; kind: string; version: number } | null;
+  timings: { storeMs: number; overlayMs: number };
+};
 export type Mapping = Record<string, string | undefined>;

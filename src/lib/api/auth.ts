@@ -15,10 +15,21 @@ export const signIn = defineSpec({
   summary: 'Sign in with e-mail and password; sets the session cookie. Rate-limited per client address.',
   access: 'public',
   body: z.object({ email: z.email(), password: z.string().min(1) }),
-  response: z.object({ redirect: z.boolean(), token: z.string(), user: z.object({ id: z.string(), name: z.string(), email: z.string() }) }),
+  response: z.object({
+    redirect: z.boolean(),
+    token: z.string(),
+    user: z.object({ id: z.string(), name: z.string(), email: z.string() }),
+  }),
 });
 
-export const signOut = defineSpec({ method: 'POST', path: '/api/auth/sign-out', tag: 'Sign-in', summary: 'End the current session', access: 'public', response: z.object({ success: z.boolean() }) });
+export const signOut = defineSpec({
+  method: 'POST',
+  path: '/api/auth/sign-out',
+  tag: 'Sign-in',
+  summary: 'End the current session',
+  access: 'public',
+  response: z.object({ success: z.boolean() }),
+});
 
 export const getSession = defineSpec({
   method: 'GET',
@@ -26,7 +37,12 @@ export const getSession = defineSpec({
   tag: 'Sign-in',
   summary: 'The current session and user, or null',
   access: 'public',
-  response: z.object({ session: z.object({ id: z.string(), expiresAt: z.string() }), user: z.object({ id: z.string(), name: z.string(), email: z.string(), role: z.string().nullable() }) }).nullable(),
+  response: z
+    .object({
+      session: z.object({ id: z.string(), expiresAt: z.string() }),
+      user: z.object({ id: z.string(), name: z.string(), email: z.string(), role: z.string().nullable() }),
+    })
+    .nullable(),
 });
 
 export const requestPasswordReset = defineSpec({

@@ -3,7 +3,11 @@ import { z } from 'zod';
 import { factorSetDocumentSchema, uncertaintySchema } from '../carbon';
 import { defineSpec } from '../http/spec';
 
-const setId = z.string().regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, 'Use lower-case letters, digits and hyphens, e.g. "national-2027".').min(3).max(60);
+const setId = z
+  .string()
+  .regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, 'Use lower-case letters, digits and hyphens, e.g. "national-2027".')
+  .min(3)
+  .max(60);
 const idParams = z.object({ id: z.string().min(1).max(60) });
 
 const versionSummary = z.object({
@@ -27,13 +31,21 @@ export const factorSetSummarySchema = z
   })
   .meta({ id: 'FactorSetSummary' });
 
-export const listFactorSets = defineSpec({ method: 'GET', path: '/api/factor-sets', tag: 'Factor sets', summary: 'List factor sets and their versions', access: 'signed-in', response: z.object({ items: z.array(factorSetSummarySchema) }) });
+export const listFactorSets = defineSpec({
+  method: 'GET',
+  path: '/api/factor-sets',
+  tag: 'Factor sets',
+  summary: 'List factor sets and their versions',
+  access: 'signed-in',
+  response: z.object({ items: z.array(factorSetSummarySchema) }),
+});
 
 export const getFactorSet = defineSpec({
   method: 'GET',
   path: '/api/factor-sets/{id}',
   tag: 'Factor sets',
-  summary: 'One version of a factor set (newest published unless ?version= or ?version=draft), with confirmations and edit history',
+  summary:
+    'One version of a factor set (newest published unless ?version= or ?version=draft), with confirmations and edit history',
   access: 'signed-in',
   params: idParams,
   query: z.object({ version: z.union([z.literal('draft'), z.coerce.number().int().positive()]).optional() }),
@@ -42,7 +54,18 @@ export const getFactorSet = defineSpec({
     version: z.number().int(),
     status: z.enum(['draft', 'published']),
     document: factorSetDocumentSchema,
-    edits: z.array(z.object({ version: z.number().int(), table: z.string(), entry: z.string(), before: z.unknown(), after: z.unknown(), reason: z.string(), by: z.string().nullable(), at: z.string() })),
+    edits: z.array(
+      z.object({
+        version: z.number().int(),
+        table: z.string(),
+        entry: z.string(),
+        before: z.unknown(),
+        after: z.unknown(),
+        reason: z.string(),
+        by: z.string().nullable(),
+        at: z.string(),
+      }),
+    ),
   }),
 });
 
@@ -57,7 +80,16 @@ export const diffFactorSets = defineSpec({
   response: z.object({
     a: z.string(),
     b: z.string(),
-    items: z.array(z.object({ table: z.string(), entry: z.string(), presence: z.enum(['both', 'only-a', 'only-b']), changed: z.array(z.string()), a: z.unknown(), b: z.unknown() })),
+    items: z.array(
+      z.object({
+        table: z.string(),
+        entry: z.string(),
+        presence: z.enum(['both', 'only-a', 'only-b']),
+        changed: z.array(z.string()),
+        a: z.unknown(),
+        b: z.unknown(),
+      }),
+    ),
   }),
 });
 
@@ -78,7 +110,16 @@ export const cloneFactorSet = defineSpec({
   status: 201,
 });
 
-export const startDraft = defineSpec({ method: 'POST', path: '/api/factor-sets/{id}/draft', tag: 'Factor sets', summary: 'Start a new draft from the newest published version', access: ['admin'], params: idParams, response: z.object({ version: z.number().int() }), status: 201 });
+export const startDraft = defineSpec({
+  method: 'POST',
+  path: '/api/factor-sets/{id}/draft',
+  tag: 'Factor sets',
+  summary: 'Start a new draft from the newest published version',
+  access: ['admin'],
+  params: idParams,
+  response: z.object({ version: z.number().int() }),
+  status: 201,
+});
 
 export const editDraft = defineSpec({
   method: 'PATCH',
@@ -92,7 +133,11 @@ export const editDraft = defineSpec({
     entryKey: z.string().min(1),
     value: z.number().nonnegative('Factor values are never negative.'),
     uncertainty: uncertaintySchema.optional(),
-    reason: z.string().trim().min(10, 'Give the reason and source of the new value (at least 10 characters).').max(2000),
+    reason: z
+      .string()
+      .trim()
+      .min(10, 'Give the reason and source of the new value (at least 10 characters).')
+      .max(2000),
   }),
   response: null,
   status: 204,
@@ -116,7 +161,11 @@ export const confirmTable = defineSpec({
   summary: 'Record that a table was checked against the published document',
   access: ['admin'],
   params: z.object({ id: z.string().min(1), version: z.coerce.number().int().positive() }),
-  body: z.object({ tableKey: z.string().min(1), document: z.string().trim().min(5).max(300), page: z.string().trim().min(1).max(40) }),
+  body: z.object({
+    tableKey: z.string().min(1),
+    document: z.string().trim().min(5).max(300),
+    page: z.string().trim().min(1).max(40),
+  }),
   response: null,
   status: 204,
 });

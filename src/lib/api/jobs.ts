@@ -23,5 +23,13 @@ export const getJobRun = defineSpec({
   summary: 'State of one queued run: created, active, completed (with what it did), retry or failed',
   access: ['admin'],
   params: nameParams.extend({ jobId: z.uuid('Job ids are UUIDs.') }),
-  response: z.object({ id: z.string(), name: z.string(), state: z.string(), createdOn: z.string(), startedOn: z.string().nullable(), completedOn: z.string().nullable(), output: z.unknown() }),
+  response: z.object({
+    id: z.string(),
+    name: z.string(),
+    state: z.string(),
+    createdOn: z.string(),
+    startedOn: z.string().nullable(),
+    completedOn: z.string().nullable(),
+    output: z.unknown(),
+  }),
 });

@@ -30,7 +30,14 @@ export const ruleSetSummarySchema = z
   })
   .meta({ id: 'RuleSetSummary' });
 
-export const listRuleSets = defineSpec({ method: 'GET', path: '/api/rule-sets', tag: 'Rule sets', summary: 'List rule sets and their versions', access: RULE_READERS, response: z.object({ items: z.array(ruleSetSummarySchema) }) });
+export const listRuleSets = defineSpec({
+  method: 'GET',
+  path: '/api/rule-sets',
+  tag: 'Rule sets',
+  summary: 'List rule sets and their versions',
+  access: RULE_READERS,
+  response: z.object({ items: z.array(ruleSetSummarySchema) }),
+});
 
 export const getRuleSet = defineSpec({
   method: 'GET',
@@ -46,11 +53,24 @@ export const getRuleSet = defineSpec({
     status: z.enum(['draft', 'published']),
     revision: z.number().int(),
     document: ruleSetDocumentSchema,
-    edits: z.array(z.object({ version: z.number().int(), rule: z.string(), action: z.enum(['put', 'remove']), before: z.unknown(), after: z.unknown(), reason: z.string(), by: z.string().nullable(), at: z.string() })),
+    edits: z.array(
+      z.object({
+        version: z.number().int(),
+        rule: z.string(),
+        action: z.enum(['put', 'remove']),
+        before: z.unknown(),
+        after: z.unknown(),
+        reason: z.string(),
+        by: z.string().nullable(),
+        at: z.string(),
+      }),
+    ),
   }),
 });
 
-const versionRef = z.string().regex(/^[a-z0-9-]+@(\d+|draft)$/, 'Write a version as id@number or id@draft, e.g. tarrow-screening@1.');
+const versionRef = z
+  .string()
+  .regex(/^[a-z0-9-]+@(\d+|draft)$/, 'Write a version as id@number or id@draft, e.g. tarrow-screening@1.');
 export const diffRuleSets = defineSpec({
   method: 'GET',
   path: '/api/rule-sets/diff',
@@ -61,7 +81,15 @@ export const diffRuleSets = defineSpec({
   response: z.object({
     a: z.string(),
     b: z.string(),
-    items: z.array(z.object({ rule: z.string(), presence: z.enum(['both', 'only-a', 'only-b']), changed: z.array(z.string()), a: z.unknown(), b: z.unknown() })),
+    items: z.array(
+      z.object({
+        rule: z.string(),
+        presence: z.enum(['both', 'only-a', 'only-b']),
+        changed: z.array(z.string()),
+        a: z.unknown(),
+        b: z.unknown(),
+      }),
+    ),
   }),
 });
 
@@ -82,9 +110,22 @@ export const cloneRuleSet = defineSpec({
   status: 201,
 });
 
-export const startRuleDraft = defineSpec({ method: 'POST', path: '/api/rule-sets/{id}/draft', tag: 'Rule sets', summary: 'Start a new draft from the newest published version', access: ['admin'], params: idParams, response: z.object({ version: z.number().int(), revision }), status: 201 });
+export const startRuleDraft = defineSpec({
+  method: 'POST',
+  path: '/api/rule-sets/{id}/draft',
+  tag: 'Rule sets',
+  summary: 'Start a new draft from the newest published version',
+  access: ['admin'],
+  params: idParams,
+  response: z.object({ version: z.number().int(), revision }),
+  status: 201,
+});
 
-const reason = z.string().trim().min(10, 'Give the reason for the change and its source (at least 10 characters).').max(2000);
+const reason = z
+  .string()
+  .trim()
+  .min(10, 'Give the reason for the change and its source (at least 10 characters).')
+  .max(2000);
 export const editRuleDraft = defineSpec({
   method: 'PATCH',
   path: '/api/rule-sets/{id}/draft',

@@ -10,8 +10,15 @@ const territoryGeometry = z.union([
 ]);
 
 const territoryAnswer = z.object({
-  territory: z.record(z.string(), z.unknown()).nullable().describe('MultiPolygon in WGS 84 (EPSG:4326), or null when nothing is checked'),
-  source: z.enum(['setting', 'reference-layers', 'none']).describe('setting: stored by an administrator; reference-layers: the default, the current reference layers widened by defaultMarginDeg; none: no check'),
+  territory: z
+    .record(z.string(), z.unknown())
+    .nullable()
+    .describe('MultiPolygon in WGS 84 (EPSG:4326), or null when nothing is checked'),
+  source: z
+    .enum(['setting', 'reference-layers', 'none'])
+    .describe(
+      'setting: stored by an administrator; reference-layers: the default, the current reference layers widened by defaultMarginDeg; none: no check',
+    ),
   defaultMarginDeg: z.number(),
 });
 
@@ -19,7 +26,8 @@ export const getTerritory = defineSpec({
   method: 'GET',
   path: '/api/settings/territory',
   tag: 'Settings',
-  summary: "The authority's territory that uploads and drawn parcels must lie in (the stored setting, else the reference layers plus a margin)",
+  summary:
+    "The authority's territory that uploads and drawn parcels must lie in (the stored setting, else the reference layers plus a margin)",
   access: 'signed-in',
   response: territoryAnswer,
 });

@@ -10,7 +10,8 @@ export const stageUpload = defineSpec({
   method: 'POST',
   path: '/api/uploads',
   tag: 'Uploads',
-  summary: 'Upload a zipped shapefile or GeoJSON (multipart: file, purpose=parcels|reference); returns its layers, columns with samples and detected CRS',
+  summary:
+    'Upload a zipped shapefile or GeoJSON (multipart: file, purpose=parcels|reference); returns its layers, columns with samples and detected CRS',
   access: ['planner', 'admin'],
   multipart: true,
   response: z.object({
@@ -44,13 +45,31 @@ export const validateUpload = defineSpec({
   summary: 'Validate a staged upload with a layer, column mapping and (when needed) an EPSG code: per-feature report',
   access: ['planner', 'admin'],
   params: idParams,
-  body: z.object({ layer: z.string().min(1).max(200), epsg: z.number().int().positive().optional(), mapping: z.record(z.string(), z.unknown()) }),
+  body: z.object({
+    layer: z.string().min(1).max(200),
+    epsg: z.number().int().positive().optional(),
+    mapping: z.record(z.string(), z.unknown()),
+  }),
   response: z.object({
     id: z.string(),
     layer: z.string(),
     crs,
-    summary: z.object({ total: z.number(), ok: z.number(), repaired: z.number(), rejected: z.number(), byCode: z.record(z.string(), z.number()) }),
-    features: z.array(z.object({ index: z.number(), reference: z.string().nullable(), status: z.string(), issues: z.array(issue), areaHa: z.number().nullable() })),
+    summary: z.object({
+      total: z.number(),
+      ok: z.number(),
+      repaired: z.number(),
+      rejected: z.number(),
+      byCode: z.record(z.string(), z.number()),
+    }),
+    features: z.array(
+      z.object({
+        index: z.number(),
+        reference: z.string().nullable(),
+        status: z.string(),
+        issues: z.array(issue),
+        areaHa: z.number().nullable(),
+      }),
+    ),
     omitted: z.number(),
     timings: z.object({ parseMs: z.number(), validateMs: z.number() }),
   }),
@@ -78,14 +97,24 @@ export const uploadReportCsv = defineSpec({
   method: 'GET',
   path: '/api/uploads/{id}/report.csv',
   tag: 'Uploads',
-  summary: 'The full validation report of a staged upload as CSV (every feature with its status, measured area and each remark in words)',
+  summary:
+    'The full validation report of a staged upload as CSV (every feature with its status, measured area and each remark in words)',
   access: ['planner', 'admin'],
   params: idParams,
   response: null,
   responseType: 'text/csv',
 });
 
-export const cancelUpload = defineSpec({ method: 'DELETE', path: '/api/uploads/{id}', tag: 'Uploads', summary: 'Cancel a staged upload (nothing is kept)', access: ['planner', 'admin'], params: idParams, response: null, status: 204 });
+export const cancelUpload = defineSpec({
+  method: 'DELETE',
+  path: '/api/uploads/{id}',
+  tag: 'Uploads',
+  summary: 'Cancel a staged upload (nothing is kept)',
+  access: ['planner', 'admin'],
+  params: idParams,
+  response: null,
+  status: 204,
+});
 
 export const searchCrs = defineSpec({
   method: 'GET',
@@ -93,6 +122,11 @@ export const searchCrs = defineSpec({
   tag: 'Uploads',
   summary: 'Search the shipped EPSG catalogue by code or words (national grids and UTM zones first)',
   access: 'signed-in',
-  query: z.object({ q: z.string().trim().min(1, 'Type a code or a name.').max(100), limit: z.coerce.number().int().min(1).max(50).default(20) }),
-  response: z.object({ items: z.array(z.object({ epsg: z.number(), name: z.string(), kind: z.string(), areaOfUse: z.string() })) }),
+  query: z.object({
+    q: z.string().trim().min(1, 'Type a code or a name.').max(100),
+    limit: z.coerce.number().int().min(1).max(50).default(20),
+  }),
+  response: z.object({
+    items: z.array(z.object({ epsg: z.number(), name: z.string(), kind: z.string(), areaOfUse: z.string() })),
+  }),
 });

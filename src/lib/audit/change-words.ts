@@ -9,7 +9,11 @@ const isObject = (v: unknown): v is Record<string, unknown> => typeof v === 'obj
 
 /** "entityId" → "Entity id", "grass_since" → "Grass since". */
 export function fieldWords(key: string): string {
-  const words = key.replace(/([a-z0-9])([A-Z])/g, '$1 $2').replace(/[_-]+/g, ' ').toLowerCase().trim();
+  const words = key
+    .replace(/([a-z0-9])([A-Z])/g, '$1 $2')
+    .replace(/[_-]+/g, ' ')
+    .toLowerCase()
+    .trim();
   return words.charAt(0).toUpperCase() + words.slice(1);
 }
 
@@ -34,10 +38,15 @@ export function changeLines(details: Record<string, unknown> | null | undefined)
   const lines: ChangeLine[] = [];
   if (isObject(before) && next) {
     for (const k of [...new Set([...Object.keys(next), ...Object.keys(before)])]) {
-      lines.push({ field: fieldWords(k), before: valueWords(before[k]), after: k in next ? valueWords(next[k]) : '(unchanged)' });
+      lines.push({
+        field: fieldWords(k),
+        before: valueWords(before[k]),
+        after: k in next ? valueWords(next[k]) : '(unchanged)',
+      });
     }
   } else {
-    for (const [k, v] of Object.entries({ before, after, patch })) if (v !== undefined) lines.push({ field: fieldWords(k), after: valueWords(v) });
+    for (const [k, v] of Object.entries({ before, after, patch }))
+      if (v !== undefined) lines.push({ field: fieldWords(k), after: valueWords(v) });
   }
   for (const [k, v] of Object.entries(rest)) lines.push({ field: fieldWords(k), after: valueWords(v) });
   return lines;

@@ -101,12 +101,27 @@ export const auth = betterAuth({
   // Sign-ins and password changes go into the audit log like every other change.
   databaseHooks: {
     session: {
-      create: { after: async (session) => recordAudit(db, { actorId: session.userId, action: 'user.sign-in', entityType: 'user', entityId: session.userId, details: { ip: session.ipAddress ?? null } }) },
+      create: {
+        after: async (session) =>
+          recordAudit(db, {
+            actorId: session.userId,
+            action: 'user.sign-in',
+            entityType: 'user',
+            entityId: session.userId,
+            details: { ip: session.ipAddress ?? null },
+          }),
+      },
     },
     account: {
       update: {
         after: async (account) => {
-          if (account.providerId === 'credential') await recordAudit(db, { actorId: account.userId, action: 'user.password-reset', entityType: 'user', entityId: account.userId });
+          if (account.providerId === 'credential')
+            await recordAudit(db, {
+              actorId: account.userId,
+              action: 'user.password-reset',
+              entityType: 'user',
+              entityId: account.userId,
+            });
         },
       },
     },

@@ -41,14 +41,16 @@ function waitWords(seconds: number): string {
 async function readAuthBody(request: Request): Promise<{ text: string; data: Record<string, unknown> }> {
   const bytes = await readBodyCapped(request, MAX_AUTH_BODY_BYTES);
   if (bytes.byteLength === 0) return { text: '', data: {} };
-  if (mediaTypeOf(request) !== 'application/json') throw new HttpError('UNSUPPORTED_MEDIA_TYPE', 'Send the request body as application/json.');
+  if (mediaTypeOf(request) !== 'application/json')
+    throw new HttpError('UNSUPPORTED_MEDIA_TYPE', 'Send the request body as application/json.');
   let data: unknown;
   try {
     data = JSON.parse(new TextDecoder('utf-8', { fatal: true }).decode(bytes));
   } catch {
     throw new HttpError('BAD_REQUEST', 'The request body is not valid JSON.');
   }
-  if (!data || typeof data !== 'object' || Array.isArray(data)) throw new HttpError('BAD_REQUEST', 'The request body must be a JSON object.');
+  if (!data || typeof data !== 'object' || Array.isArray(data))
+    throw new HttpError('BAD_REQUEST', 'The request body must be a JSON object.');
   rejectNul(data);
   return { text: JSON.stringify(data), data: data as Record<string, unknown> };
 }
@@ -61,12 +63,21 @@ function forward(request: Request, clientAddress: string, body: string | null): 
   return auth.handler(new Request(request.url, { method: request.method, headers, body }));
 }
 
-async function signIn(request: Request, clientAddress: string, body: string, data: Record<string, unknown>): Promise<Response> {
+async function signIn(
+  request: Request,
+  clientAddress: string,
+  body: string,
+  data: Record<string, unknown>,
+): Promise<Response> {
   const email = typeof data.email === 'string' ? data.email : '';
   if (!email) return forward(request, clientAddress, body); // better-auth answers the missing field
   if (Math.random() < 0.02) await pruneAttempts(db);
   const ticket = await beginSignIn(db, email, clientAddress);
-  if (ticket.wait > 0) return tooMany(ticket.wait, `Too many wrong passwords. Wait ${waitWords(ticket.wait)}, then try again, or reset your password.`);
+  if (ticket.wait > 0)
+    return tooMany(
+      ticket.wait,
+      `Too many wrong passwords. Wait ${waitWords(ticket.wait)}, then try again, or reset your password.`,
+    );
   const res = await forward(request, clientAddress, body);
   await settleSignIn(db, ticket, email, res.ok ? 'signed-in' : res.status === 401 ? 'wrong-password' : 'other');
   return res;
@@ -75,18 +86,41 @@ async function signIn(request: Request, clientAddress: string, body: string, dat
 async function signOut(request: Request, clientAddress: string, body: string | null): Promise<Response> {
   const found = await auth.api.getSession({ headers: request.headers });
   const res = await forward(request, clientAddress, body);
-  if (res.ok && found) await recordAudit(db, { actorId: found.user.id, action: 'user.sign-out', entityType: 'user', entityId: found.user.id, details: { ip: clientAddress } });
+  if (res.ok && found)
+    await recordAudit(db, {
+      actorId: found.user.id,
+      action: 'user.sign-out',
+      entityType: 'user',
+      entityId: found.user.id,
+      details: { ip: clientAddress },
+    });
   return res;
 }
 
-async function requestReset(request: Request, clientAddress: string, body: string, data: Record<string, unknown>): Promise<Response> {
+async function requestReset(
+  request: Request,
+  clientAddress: string,
+  body: string,
+  data: Record<string, unknown>,
+): Promise<Response> {
   const email = typeof data.email === 'string' ? data.email : '';
   if (!email) return forward(request, clientAddress, body);
   // Counted whether or not the address has an account, so the answer tells nothing about it.
-  if (await resetMailRefused(db, email)) return tooMany(900, 'Several reset links were sent to this address a short while ago. Use the newest one, or wait a quarter of an hour.');
+  if (await resetMailRefused(db, email))
+    return tooMany(
+      900,
+      'Several reset links were sent to this address a short while ago. Use the newest one, or wait a quarter of an hour.',
+    );
   const res = await forward(request, clientAddress, body);
   const userId = res.ok ? await findUserIdByEmail(db, email) : null;
-  if (userId) await recordAudit(db, { actorId: null, action: 'user.password-reset-request', entityType: 'user', entityId: userId, details: { ip: clientAddress } });
+  if (userId)
+    await recordAudit(db, {
+      actorId: null,
+      action: 'user.password-reset-request',
+      entityType: 'user',
+      entityId: userId,
+      details: { ip: clientAddress },
+    });
   return res;
 }
 

@@ -20,18 +20,32 @@ const SERVICE_WORDS = ['swardkeep', 'sward', 'keep', 'tarrow', 'grassland', 'aut
 
 let estimator: ZxcvbnFactory | null = null;
 function zxcvbn(): ZxcvbnFactory {
-  estimator ??= new ZxcvbnFactory({ dictionary: { ...common.dictionary, ...en.dictionary }, graphs: common.adjacencyGraphs, translations: en.translations });
+  estimator ??= new ZxcvbnFactory({
+    dictionary: { ...common.dictionary, ...en.dictionary },
+    graphs: common.adjacencyGraphs,
+    translations: en.translations,
+  });
   return estimator;
 }
 
 function contextWords(context: { email?: string; name?: string }): string[] {
   const [local = '', domain = ''] = (context.email ?? '').toLowerCase().split('@');
-  const parts = [local, ...local.split(/[._+-]/), ...domain.split('.'), ...(context.name ?? '').toLowerCase().split(/\s+/)];
+  const parts = [
+    local,
+    ...local.split(/[._+-]/),
+    ...domain.split('.'),
+    ...(context.name ?? '').toLowerCase().split(/\s+/),
+  ];
   return [...SERVICE_WORDS, ...parts.filter((w) => w.length >= 3)];
 }
 
 function isCommon(result: ZxcvbnResult): boolean {
-  return result.sequence.some((m) => m.pattern === 'dictionary' && m.dictionaryName === 'passwords-common' && m.token.length >= result.password.length - 2);
+  return result.sequence.some(
+    (m) =>
+      m.pattern === 'dictionary' &&
+      m.dictionaryName === 'passwords-common' &&
+      m.token.length >= result.password.length - 2,
+  );
 }
 
 /** Returns a plain-words reason the password is refused, or null when it is acceptable. */
@@ -40,10 +54,19 @@ export function passwordProblem(password: string, context: { email?: string; nam
   if (length) return length;
   const result = zxcvbn().check(password, contextWords(context));
   // Mostly made of the person's name, address or this service's name: guessed first, whatever the score.
-  const contextChars = result.sequence.filter((m) => m.pattern === 'dictionary' && m.dictionaryName === 'userInputs').reduce((n, m) => n + m.token.length, 0);
+  const contextChars = result.sequence
+    .filter((m) => m.pattern === 'dictionary' && m.dictionaryName === 'userInputs')
+    .reduce((n, m) => n + m.token.length, 0);
   const mostlyContext = contextChars * 2 >= password.length;
   if (result.score >= PASSWORD_MIN_SCORE && !mostlyContext) return null;
-  if (isCommon(result)) return 'This password is too common: it is on the lists of passwords attackers try first. Choose another.';
-  const why = contextChars > 0 ? 'It is made of your name, your e-mail address or the name of this service.' : (result.feedback.warning ?? '');
-  return `This password is too easy to guess. ${why} Make it longer: a short sentence of four or more ordinary words works well.`.replace(/\s+/g, ' ');
+  if (isCommon(result))
+    return 'This password is too common: it is on the lists of passwords attackers try first. Choose another.';
+  const why =
+    contextChars > 0
+      ? 'It is made of your name, your e-mail address or the name of this service.'
+      : (result.feedback.warning ?? '');
+  return `This password is too easy to guess. ${why} Make it longer: a short sentence of four or more ordinary words works well.`.replace(
+    /\s+/g,
+    ' ',
+  );
 }

@@ -12,7 +12,11 @@ export const SESSION_CACHE_TTL_MS = 5_000;
 /** Paths whose callers may be recognised from the copy. */
 export const SESSION_CACHED_PATHS = new Set(['/api/estimates']);
 
-const seen = new LRUCache<string, { user: Caller; sessionId: string }>({ max: 2_000, ttl: SESSION_CACHE_TTL_MS, ttlAutopurge: false });
+const seen = new LRUCache<string, { user: Caller; sessionId: string }>({
+  max: 2_000,
+  ttl: SESSION_CACHE_TTL_MS,
+  ttlAutopurge: false,
+});
 
 export function cachedSession(cookie: string | null) {
   return cookie ? seen.get(cookie) : undefined;

@@ -12,7 +12,12 @@ const accountKey = (email: string) => `sign-in:account:${email.trim().toLowerCas
 const addressKey = (address: string) => `sign-in:address:${address}`;
 const resetKey = (email: string) => `reset:account:${email.trim().toLowerCase()}`;
 
-async function failuresIn(db: Db, key: string, s: SecuritySettings, exceptId: number): Promise<{ count: number; newestMs: number | null }> {
+async function failuresIn(
+  db: Db,
+  key: string,
+  s: SecuritySettings,
+  exceptId: number,
+): Promise<{ count: number; newestMs: number | null }> {
   const row = await db('auth_attempt')
     .where({ key })
     .whereNot('id', exceptId)
@@ -31,7 +36,11 @@ export type SignInTicket = { wait: number; ids: number[] };
 export async function beginSignIn(db: Db, email: string, address: string, now = Date.now()): Promise<SignInTicket> {
   const s = await getSecuritySettings(db);
   const keys = [accountKey(email), addressKey(address)];
-  const ids = (await db('auth_attempt').insert(keys.map((key) => ({ key }))).returning('id')).map((r: { id: number }) => r.id);
+  const ids = (
+    await db('auth_attempt')
+      .insert(keys.map((key) => ({ key })))
+      .returning('id')
+  ).map((r: { id: number }) => r.id);
   const [account, byAddress] = [await failuresIn(db, keys[0]!, s, ids[0]!), await failuresIn(db, keys[1]!, s, ids[1]!)];
   const wait = Math.max(
     backOffSeconds(account.count, account.newestMs, now, s['auth.throttle.account-free-failures'], s),
@@ -42,7 +51,12 @@ export async function beginSignIn(db: Db, email: string, address: string, now = 
 }
 
 /** A wrong password stays counted; anything else (signed in, deactivated, refused) is not a guess. */
-export async function settleSignIn(db: Db, ticket: SignInTicket, email: string, outcome: 'signed-in' | 'wrong-password' | 'other'): Promise<void> {
+export async function settleSignIn(
+  db: Db,
+  ticket: SignInTicket,
+  email: string,
+  outcome: 'signed-in' | 'wrong-password' | 'other',
+): Promise<void> {
   if (outcome === 'wrong-password') return;
   await db('auth_attempt').whereIn('id', ticket.ids).del();
   // Signed in: the account's owner knows the password, earlier typos no longer count against it.
@@ -50,13 +64,17 @@ export async function settleSignIn(db: Db, ticket: SignInTicket, email: string, 
 }
 
 export async function clearSignInFailures(db: Db, email: string): Promise<void> {
-  await db('auth_attempt').where({ key: accountKey(email) }).del();
+  await db('auth_attempt')
+    .where({ key: accountKey(email) })
+    .del();
 }
 
 /** Counts a reset-mail request for this address; true when it is over the per-account limit. */
 export async function resetMailRefused(db: Db, email: string): Promise<boolean> {
   const s = await getSecuritySettings(db);
-  const [{ id }] = await db('auth_attempt').insert({ key: resetKey(email) }).returning('id');
+  const [{ id }] = await db('auth_attempt')
+    .insert({ key: resetKey(email) })
+    .returning('id');
   const { count } = await failuresIn(db, resetKey(email), s, id);
   if (count < s['auth.throttle.reset-mails-per-account']) return false;
   await db('auth_attempt').where({ id }).del();

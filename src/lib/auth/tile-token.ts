@@ -13,7 +13,8 @@ import { config } from '../config';
 export const TILE_TOKEN_WINDOW_MS = 10 * 60_000;
 
 let key: Buffer | null = null;
-const keyOf = () => (key ??= createHmac('sha256', config().BETTER_AUTH_SECRET).update('swardkeep tile token v1').digest());
+const keyOf = () =>
+  (key ??= createHmac('sha256', config().BETTER_AUTH_SECRET).update('swardkeep tile token v1').digest());
 
 const sign = (body: string) => createHmac('sha256', keyOf()).update(body).digest('base64url');
 

@@ -14,16 +14,25 @@ export type BoardSettings = z.output<typeof boardSettingsSchema>;
 export const BOARD_SETTING_KEYS = Object.keys(boardSettingsSchema.shape) as (keyof BoardSettings)[];
 
 export function readBoardSettings(rows: { key: string; value: unknown }[]): BoardSettings {
-  const stored = Object.fromEntries(rows.filter((r) => (BOARD_SETTING_KEYS as string[]).includes(r.key)).map((r) => [r.key, r.value]));
+  const stored = Object.fromEntries(
+    rows.filter((r) => (BOARD_SETTING_KEYS as string[]).includes(r.key)).map((r) => [r.key, r.value]),
+  );
   const parsed = boardSettingsSchema.safeParse(stored);
-  if (!parsed.success) throw new Error(`setting "${String(parsed.error.issues[0]!.path[0])}" is invalid: ${parsed.error.issues[0]!.message}`);
+  if (!parsed.success)
+    throw new Error(
+      `setting "${String(parsed.error.issues[0]!.path[0])}" is invalid: ${parsed.error.issues[0]!.message}`,
+    );
   return parsed.data;
 }
 
 export const VOTE_CHOICES = ['approve', 'approve-with-conditions', 'refuse', 'defer', 'abstain'] as const;
 export type VoteChoice = (typeof VOTE_CHOICES)[number];
 export const VOTE_LABELS: Record<VoteChoice, string> = {
-  approve: 'Approve', 'approve-with-conditions': 'Approve with conditions', refuse: 'Refuse', defer: 'Defer', abstain: 'Abstain',
+  approve: 'Approve',
+  'approve-with-conditions': 'Approve with conditions',
+  refuse: 'Refuse',
+  defer: 'Defer',
+  abstain: 'Abstain',
 };
 export const DECISION_OUTCOMES = ['approved', 'approved-with-conditions', 'refused', 'deferred'] as const;
 export type DecisionOutcome = (typeof DECISION_OUTCOMES)[number];
@@ -33,7 +42,12 @@ export function tally(votes: { userId: string; choice: VoteChoice }[], conflicte
   const eligible = votes.filter((v) => !conflicted.includes(v.userId));
   const count = (c: VoteChoice) => eligible.filter((v) => v.choice === c).length;
   return {
-    approve: count('approve'), approveWithConditions: count('approve-with-conditions'), refuse: count('refuse'), defer: count('defer'), abstain: count('abstain'),
-    declaredConflicts: conflicted.length, eligible: eligible.length,
+    approve: count('approve'),
+    approveWithConditions: count('approve-with-conditions'),
+    refuse: count('refuse'),
+    defer: count('defer'),
+    abstain: count('abstain'),
+    declaredConflicts: conflicted.length,
+    eligible: eligible.length,
   };
 }

@@ -73,8 +73,16 @@ export function computeFigures(plan: Plan, areaHa: number, years: number, v: Val
   };
   const co2eTotal = co2eParts.soil + co2eParts.biomass + co2eParts.n2o;
   return {
-    socBeforePerHa, socAfterPerHa, mineralChangeTotal, organicAnnual, socChangeTotal, annualSocChange,
-    biomassChangeTotal, n2oTotal, co2eParts, co2eTotal,
+    socBeforePerHa,
+    socAfterPerHa,
+    mineralChangeTotal,
+    organicAnnual,
+    socChangeTotal,
+    annualSocChange,
+    biomassChangeTotal,
+    n2oTotal,
+    co2eParts,
+    co2eTotal,
   };
 }
 
@@ -87,7 +95,10 @@ export const TRAJECTORY_TAIL_YEARS = 10;
  * organic soils keep emitting every year they stay drained, so the cumulative CO2e keeps
  * rising after D when organic soil is present. At year D the cumulative CO2e equals co2eTotal.
  */
-export function buildTrajectory(f: Figures, years: number): { year: number; socPerHa: number; co2eCumulative: number }[] {
+export function buildTrajectory(
+  f: Figures,
+  years: number,
+): { year: number; socPerHa: number; co2eCumulative: number }[] {
   const out: { year: number; socPerHa: number; co2eCumulative: number }[] = [];
   for (let year = 0; year <= years + TRAJECTORY_TAIL_YEARS; year++) {
     const share = Math.min(year, years) / years;

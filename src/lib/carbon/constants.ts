@@ -16,12 +16,18 @@ const stoichiometry = (table: string) => ({
 });
 
 export const C_TO_CO2_FACTOR: UsedFactor = {
-  key: 'constant/c-to-co2', value: C_TO_CO2, unit: 't CO2/t C',
-  source: stoichiometry('Ch 2: carbon stock change to CO2 (44/12)'), status: 'confirmed',
+  key: 'constant/c-to-co2',
+  value: C_TO_CO2,
+  unit: 't CO2/t C',
+  source: stoichiometry('Ch 2: carbon stock change to CO2 (44/12)'),
+  status: 'confirmed',
   role: 'Converts carbon to CO2 (exact molar-mass ratio).',
 };
 export const N2O_N_TO_N2O_FACTOR: UsedFactor = {
-  key: 'constant/n2o-n-to-n2o', value: N2O_N_TO_N2O, unit: 't N2O/t N2O-N',
-  source: stoichiometry('Ch 11 Eq 11.1: N2O-N to N2O (44/28)'), status: 'confirmed',
+  key: 'constant/n2o-n-to-n2o',
+  value: N2O_N_TO_N2O,
+  unit: 't N2O/t N2O-N',
+  source: stoichiometry('Ch 11 Eq 11.1: N2O-N to N2O (44/28)'),
+  status: 'confirmed',
   role: 'Converts N2O-N to N2O (exact molar-mass ratio).',
 };

@@ -21,7 +21,12 @@ export { EstimateInputError } from './errors';
 export function estimateLandUseChange(input: EstimateRequest, set: FactorSetDocument): EstimateResult {
   const parsed = estimateRequestSchema.safeParse(input);
   if (!parsed.success)
-    throw new EstimateInputError(parsed.error.issues.map((i) => ({ path: i.path.map((p) => (typeof p === 'symbol' ? String(p) : p)), message: i.message })));
+    throw new EstimateInputError(
+      parsed.error.issues.map((i) => ({
+        path: i.path.map((p) => (typeof p === 'symbol' ? String(p) : p)),
+        message: i.message,
+      })),
+    );
   return estimateParsed(parsed.data, set, null);
 }
 
@@ -30,13 +35,24 @@ type Shape = { plan: ReturnType<typeof buildPlan>; factors: UsedFactor[]; cautio
 
 function shapeOf(req: EstimateRequest, set: FactorSetDocument): Shape {
   const plan = buildPlan(req, set);
-  const factors: UsedFactor[] = [...plan.factors.values()].map(({ key, value, unit, source, status, role }) => ({ key, value, unit, source, status, role }));
+  const factors: UsedFactor[] = [...plan.factors.values()].map(({ key, value, unit, source, status, role }) => ({
+    key,
+    value,
+    unit,
+    source,
+    status,
+    role,
+  }));
   factors.push(C_TO_CO2_FACTOR);
   if (plan.n2o) factors.push(N2O_N_TO_N2O_FACTOR);
   return { plan, factors, cautions: cautionsFor(req, plan, factors) };
 }
 
-function estimateParsed(req: EstimateRequest, set: FactorSetDocument, shapes: Map<string, Shape> | null): EstimateResult {
+function estimateParsed(
+  req: EstimateRequest,
+  set: FactorSetDocument,
+  shapes: Map<string, Shape> | null,
+): EstimateResult {
   let shape: Shape;
   if (shapes && !req.uncertainty) {
     const { areaHa: _a, ...rest } = req;
@@ -82,7 +98,11 @@ function estimateParsed(req: EstimateRequest, set: FactorSetDocument, shapes: Ma
 function sharedShape(shape: Shape): Shape {
   assertAllFinite(shape.factors, 'result.factors');
   for (const f of shape.factors) Object.freeze(f);
-  return { ...shape, factors: Object.freeze(shape.factors) as UsedFactor[], cautions: Object.freeze(shape.cautions) as string[] };
+  return {
+    ...shape,
+    factors: Object.freeze(shape.factors) as UsedFactor[],
+    cautions: Object.freeze(shape.cautions) as string[],
+  };
 }
 
 /**
@@ -95,7 +115,12 @@ export function estimateBatch(inputs: EstimateRequest[], set: FactorSetDocument)
   return inputs.map((input) => {
     const parsed = estimateRequestSchema.safeParse(input);
     if (!parsed.success)
-      throw new EstimateInputError(parsed.error.issues.map((i) => ({ path: i.path.map((p) => (typeof p === 'symbol' ? String(p) : p)), message: i.message })));
+      throw new EstimateInputError(
+        parsed.error.issues.map((i) => ({
+          path: i.path.map((p) => (typeof p === 'symbol' ? String(p) : p)),
+          message: i.message,
+        })),
+      );
     return estimateParsed(parsed.data, set, shapes);
   });
 }

@@ -1,4 +1,10 @@
-import { entryStatus, type FactorEntry, type FactorSetDocument, type FactorTable, type Uncertainty } from './factor-set-schema';
+import {
+  entryStatus,
+  type FactorEntry,
+  type FactorSetDocument,
+  type FactorTable,
+  type Uncertainty,
+} from './factor-set-schema';
 import type { ValueStatus } from './types';
 
 export interface EntrySide {
@@ -57,11 +63,14 @@ export function diffFactorSets(a: FactorSetDocument, b: FactorSetDocument): Entr
       if (sa.status !== sb.status) changed.push('status');
       if (changed.length > 0) out.push({ table: ta.key, entry: ea.key, presence: 'both', changed, a: sa, b: sb });
     }
-    if (tb) for (const eb of entriesB.values()) out.push({ table: ta.key, entry: eb.key, presence: 'only-b', changed: [], a: null, b: side(tb, eb) });
+    if (tb)
+      for (const eb of entriesB.values())
+        out.push({ table: ta.key, entry: eb.key, presence: 'only-b', changed: [], a: null, b: side(tb, eb) });
   }
   for (const tb of b.tables) {
     if (seenTables.has(tb.key)) continue;
-    for (const eb of tb.entries) out.push({ table: tb.key, entry: eb.key, presence: 'only-b', changed: [], a: null, b: side(tb, eb) });
+    for (const eb of tb.entries)
+      out.push({ table: tb.key, entry: eb.key, presence: 'only-b', changed: [], a: null, b: side(tb, eb) });
   }
   return out;
 }

@@ -60,9 +60,21 @@ export const factorEntrySchema = z
   })
   .superRefine((e, ctx) => {
     if ((e.value === null) !== (e.status === 'not-applicable'))
-      ctx.addIssue({ code: 'custom', path: ['value'], message: `entry ${e.key}: value must be null exactly when status is "not-applicable"` });
-    if (e.uncertainty.kind === 'range' && e.value !== null && !(e.uncertainty.low <= e.value && e.value <= e.uncertainty.high))
-      ctx.addIssue({ code: 'custom', path: ['uncertainty'], message: `entry ${e.key}: range does not contain the value` });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['value'],
+        message: `entry ${e.key}: value must be null exactly when status is "not-applicable"`,
+      });
+    if (
+      e.uncertainty.kind === 'range' &&
+      e.value !== null &&
+      !(e.uncertainty.low <= e.value && e.value <= e.uncertainty.high)
+    )
+      ctx.addIssue({
+        code: 'custom',
+        path: ['uncertainty'],
+        message: `entry ${e.key}: range does not contain the value`,
+      });
   });
 
 /** An admin's confirmation of a whole table against the published document. */
@@ -87,10 +99,15 @@ export const factorTableSchema = z
   .superRefine((t, ctx) => {
     const seen = new Set<string>();
     t.entries.forEach((e, i) => {
-      if (seen.has(e.key)) ctx.addIssue({ code: 'custom', path: ['entries', i, 'key'], message: `duplicate entry key ${e.key}` });
+      if (seen.has(e.key))
+        ctx.addIssue({ code: 'custom', path: ['entries', i, 'key'], message: `duplicate entry key ${e.key}` });
       seen.add(e.key);
       if (t.status === 'confirmed' && e.status === 'unconfirmed')
-        ctx.addIssue({ code: 'custom', path: ['entries', i, 'status'], message: `table ${t.key} is confirmed but entry ${e.key} is not` });
+        ctx.addIssue({
+          code: 'custom',
+          path: ['entries', i, 'status'],
+          message: `table ${t.key} is confirmed but entry ${e.key} is not`,
+        });
     });
   });
 
@@ -105,7 +122,8 @@ export const factorSetDocumentSchema = z
   .superRefine((s, ctx) => {
     const seen = new Set<string>();
     s.tables.forEach((t, i) => {
-      if (seen.has(t.key)) ctx.addIssue({ code: 'custom', path: ['tables', i, 'key'], message: `duplicate table key ${t.key}` });
+      if (seen.has(t.key))
+        ctx.addIssue({ code: 'custom', path: ['tables', i, 'key'], message: `duplicate table key ${t.key}` });
       seen.add(t.key);
     });
   });

@@ -83,10 +83,16 @@ export function runJointMonteCarlo(items: JointItem[], years: number, runs: numb
   const cautions = [
     `Uncertainty: 95% range (2.5th to 97.5th percentile) of ${runs} Monte Carlo runs, seed ${seed}, over ${sampled.length} sampled values; it reflects the published default ranges only, not site conditions.`,
   ];
-  if (items.length > 1) cautions.push(`The range is joint: in each run every factor took one value for all ${items.length} areas, as the same default applies to all of them.`);
-  if (fixed.length > 0) cautions.push(`Held fixed in the Monte Carlo runs (no range to sample, or a metric): ${fixed.join(', ')}.`);
+  if (items.length > 1)
+    cautions.push(
+      `The range is joint: in each run every factor took one value for all ${items.length} areas, as the same default applies to all of them.`,
+    );
+  if (fixed.length > 0)
+    cautions.push(`Held fixed in the Monte Carlo runs (no range to sample, or a metric): ${fixed.join(', ')}.`);
   if (standIns.length > 0)
-    cautions.push(`Uncertainty of these values is a stand-in (this set's own range was not available; see each table's note): ${standIns.join(', ')}.`);
+    cautions.push(
+      `Uncertainty of these values is a stand-in (this set's own range was not available; see each table's note): ${standIns.join(', ')}.`,
+    );
   return { co2eLow: percentile(sorted, 0.025), co2eHigh: percentile(sorted, 0.975), runs, seed, samples, cautions };
 }
 

@@ -1,4 +1,10 @@
-import { entryStatus, type FactorEntry, type FactorSetDocument, type FactorTable, type Uncertainty } from './factor-set-schema';
+import {
+  entryStatus,
+  type FactorEntry,
+  type FactorSetDocument,
+  type FactorTable,
+  type Uncertainty,
+} from './factor-set-schema';
 import type { EstimateInputIssue } from './errors';
 import type { SourceRef, UsedFactor } from './types';
 
@@ -24,7 +30,8 @@ function indexOf(set: FactorSetDocument): Index {
 /** Drops unknown (null) fields: a result never carries null. */
 function sourceRef(s: FactorTable['source']): SourceRef {
   return {
-    document: s.document, table: s.table,
+    document: s.document,
+    table: s.table,
     ...(s.volume !== null ? { volume: s.volume } : {}),
     ...(s.chapter !== null ? { chapter: s.chapter } : {}),
     ...(s.page !== null ? { page: s.page } : {}),
@@ -55,17 +62,29 @@ export class Resolver {
     const hit = indexOf(this.set).get(tableKey);
     const entry = hit?.entries.get(entryKey);
     if (!hit || !entry) {
-      this.issues.push({ path: ['factorSet'], message: `Factor set "${this.set.id}" v${this.set.version} has no value "${entryKey}" in table "${tableKey}".` });
+      this.issues.push({
+        path: ['factorSet'],
+        message: `Factor set "${this.set.id}" v${this.set.version} has no value "${entryKey}" in table "${tableKey}".`,
+      });
       return key;
     }
     const status = entryStatus(hit.table, entry);
     if (status === 'not-applicable' || entry.value === null) {
-      this.issues.push({ path, message: `${notApplicable} (${this.set.id}, ${hit.table.source.table}: not applicable).` });
+      this.issues.push({
+        path,
+        message: `${notApplicable} (${this.set.id}, ${hit.table.source.table}: not applicable).`,
+      });
       return key;
     }
     this.factors.set(key, {
-      key, table: tableKey, value: entry.value, unit: entry.unit, source: sourceRef(entry.source ?? hit.table.source),
-      status, role, uncertainty: entry.uncertainty,
+      key,
+      table: tableKey,
+      value: entry.value,
+      unit: entry.unit,
+      source: sourceRef(entry.source ?? hit.table.source),
+      status,
+      role,
+      uncertainty: entry.uncertainty,
     });
     return key;
   }

@@ -1,6 +1,13 @@
 import { z } from 'zod';
 import {
-  CLIMATE_REGIONS, CROPLAND_INPUT, CROPLAND_SYSTEMS, GRASSLAND_INPUT, GRASSLAND_MANAGEMENT, GWP_SETS, SOIL_TYPES, TILLAGE,
+  CLIMATE_REGIONS,
+  CROPLAND_INPUT,
+  CROPLAND_SYSTEMS,
+  GRASSLAND_INPUT,
+  GRASSLAND_MANAGEMENT,
+  GWP_SETS,
+  SOIL_TYPES,
+  TILLAGE,
   type LandUseState,
 } from './types';
 
@@ -38,7 +45,12 @@ export const uncertaintyRequestSchema = z.object({
   /** Monte Carlo runs (IPCC Approach 2). */
   runs: z.number().int().min(100).max(MAX_UNCERTAINTY_RUNS).default(1000),
   /** PRNG seed: the same seed gives the same range. */
-  seed: z.number().int().min(0).max(2 ** 31 - 1).default(1),
+  seed: z
+    .number()
+    .int()
+    .min(0)
+    .max(2 ** 31 - 1)
+    .default(1),
 });
 
 /** Request of `POST /api/estimates` and input of `estimateLandUseChange` (issue 3). */
@@ -66,14 +78,19 @@ export const estimateRequestSchema = z
     const seen = new Set<string>();
     req.soils.forEach((s, i) => {
       if (seen.has(s.type))
-        ctx.addIssue({ code: 'custom', path: ['soils', i, 'type'], message: `Soil class "${s.type}" is listed twice; give it one fraction.` });
+        ctx.addIssue({
+          code: 'custom',
+          path: ['soils', i, 'type'],
+          message: `Soil class "${s.type}" is listed twice; give it one fraction.`,
+        });
       seen.add(s.type);
     });
     for (const side of ['before', 'after'] as const) {
       const st: LandUseState = req[side];
       if (st.landUse === 'grassland' && st.input === 'high' && st.management !== 'improved')
         ctx.addIssue({
-          code: 'custom', path: [side, 'input'],
+          code: 'custom',
+          path: [side, 'input'],
           message: `High input applies only to improved grassland (IPCC 2006 Vol 4 Ch 6 Table 6.2); ${side} management is "${st.management}".`,
         });
     }
@@ -89,7 +106,11 @@ export const usedFactorSchema = z.object({
   value: finite,
   unit: z.string(),
   source: z.object({
-    document: z.string(), volume: z.string().optional(), chapter: z.string().optional(), table: z.string(), page: z.string().optional(),
+    document: z.string(),
+    volume: z.string().optional(),
+    chapter: z.string().optional(),
+    table: z.string(),
+    page: z.string().optional(),
   }),
   status: z.enum(['confirmed', 'unconfirmed']),
   role: z.string(),
@@ -116,7 +137,9 @@ export const estimateResultSchema = z.object({
   trajectory: z.array(z.object({ year: z.number().int().min(0), socPerHa: finite, co2eCumulative: finite })).min(11),
   factors: z.array(usedFactorSchema),
   factorSet: z.object({ id: z.string(), version: z.number().int() }),
-  uncertainty: z.object({ co2eLow: finite, co2eHigh: finite, runs: z.number().int(), seed: z.number().int() }).optional(),
+  uncertainty: z
+    .object({ co2eLow: finite, co2eHigh: finite, runs: z.number().int(), seed: z.number().int() })
+    .optional(),
   cautions: z.array(z.string()).min(3),
 });
 

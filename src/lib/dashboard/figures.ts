@@ -30,8 +30,15 @@ export function classifyChange(priorLandUse: string | null, proposedLandUse: str
  * An approved conversion still to come off the region's figures: the land-use record shows no
  * non-grass use on the parcel since the decision (once it does, the figures already carry it).
  */
-export function conversionPending(p: { priorLandUse: string | null; proposedLandUse: string; laterLandUse: string | null }): boolean {
-  return classifyChange(p.priorLandUse, p.proposedLandUse) === 'conversion' && (p.laterLandUse === null || isGrass(p.laterLandUse));
+export function conversionPending(p: {
+  priorLandUse: string | null;
+  proposedLandUse: string;
+  laterLandUse: string | null;
+}): boolean {
+  return (
+    classifyChange(p.priorLandUse, p.proposedLandUse) === 'conversion' &&
+    (p.laterLandUse === null || isGrass(p.laterLandUse))
+  );
 }
 
 export type ApprovedParcel = { year: number; priorLandUse: string | null; proposedLandUse: string; areaHa: number };
@@ -51,7 +58,8 @@ export function changesByYear(parcels: ApprovedParcel[], lastYear: number): Year
   if (by.size === 0) return [];
   const first = Math.min(...by.keys());
   const out: YearChange[] = [];
-  for (let y = first; y <= Math.max(lastYear, ...by.keys()); y++) out.push(by.get(y) ?? { year: y, convertedHa: 0, restoredHa: 0 });
+  for (let y = first; y <= Math.max(lastYear, ...by.keys()); y++)
+    out.push(by.get(y) ?? { year: y, convertedHa: 0, restoredHa: 0 });
   return out;
 }
 

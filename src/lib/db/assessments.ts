@@ -37,8 +37,14 @@ export async function getAssessment(db: Db, id: number, opts: { lock?: boolean }
 }
 
 /** The draft of a proposal, locked; without its (large) inputs and result. */
-export async function draftOf(db: Db, proposalId: number): Promise<{ id: number; number: number; version: number } | null> {
-  const r = await db.raw(`select id::int as id, number, version from assessment where proposal_id = ? and status = 'draft' for update`, [proposalId]);
+export async function draftOf(
+  db: Db,
+  proposalId: number,
+): Promise<{ id: number; number: number; version: number } | null> {
+  const r = await db.raw(
+    `select id::int as id, number, version from assessment where proposal_id = ? and status = 'draft' for update`,
+    [proposalId],
+  );
   return r.rows[0] ?? null;
 }
 
@@ -63,38 +69,74 @@ export async function listForProposal(db: Db, proposalId: number): Promise<Omit<
 
 export type AssessmentWrite = {
   /** Written as given: the service passes the stored form (`packResult`). */
-  inputs: unknown; result: unknown; factorSet: { id: string; version: number }; ruleSet: { id: string; version: number } | null;
-  gradeLevel: number | null; gradeLabel: string | null; co2eTotal: number; by: string;
+  inputs: unknown;
+  result: unknown;
+  factorSet: { id: string; version: number };
+  ruleSet: { id: string; version: number } | null;
+  gradeLevel: number | null;
+  gradeLabel: string | null;
+  co2eTotal: number;
+  by: string;
 };
 
 function columns(w: AssessmentWrite) {
   return {
-    inputs: JSON.stringify(w.inputs), result: JSON.stringify(w.result), factor_set_id: w.factorSet.id, factor_set_version: w.factorSet.version,
-    rule_set_id: w.ruleSet?.id ?? null, rule_set_version: w.ruleSet?.version ?? null, grade_level: w.gradeLevel, grade_label: w.gradeLabel, co2e_total: w.co2eTotal, updated_by: w.by,
+    inputs: JSON.stringify(w.inputs),
+    result: JSON.stringify(w.result),
+    factor_set_id: w.factorSet.id,
+    factor_set_version: w.factorSet.version,
+    rule_set_id: w.ruleSet?.id ?? null,
+    rule_set_version: w.ruleSet?.version ?? null,
+    grade_level: w.gradeLevel,
+    grade_label: w.gradeLabel,
+    co2e_total: w.co2eTotal,
+    updated_by: w.by,
   };
 }
 
-export async function insertAssessment(db: Db, proposalId: number, w: AssessmentWrite): Promise<{ id: number; number: number }> {
-  const next = await db.raw('select coalesce(max(number), 0) + 1 as n from assessment where proposal_id = ?', [proposalId]);
+export async function insertAssessment(
+  db: Db,
+  proposalId: number,
+  w: AssessmentWrite,
+): Promise<{ id: number; number: number }> {
+  const next = await db.raw('select coalesce(max(number), 0) + 1 as n from assessment where proposal_id = ?', [
+    proposalId,
+  ]);
   const number = Number(next.rows[0].n);
-  const [row] = await db('assessment').insert({ proposal_id: proposalId, number, status: 'draft', created_by: w.by, ...columns(w) }).returning('id');
+  const [row] = await db('assessment')
+    .insert({ proposal_id: proposalId, number, status: 'draft', created_by: w.by, ...columns(w) })
+    .returning('id');
   return { id: Number(row.id), number };
 }
 
 export async function updateDraft(db: Db, id: number, w: AssessmentWrite): Promise<number> {
-  const [row] = await db('assessment').where({ id, status: 'draft' }).update({ ...columns(w), version: db.raw('version + 1'), updated_at: db.fn.now() }).returning('version');
+  const [row] = await db('assessment')
+    .where({ id, status: 'draft' })
+    .update({ ...columns(w), version: db.raw('version + 1'), updated_at: db.fn.now() })
+    .returning('version');
   return Number(row.version);
 }
 
 export async function saveFindings(db: Db, id: number, findings: string, by: string): Promise<number> {
-  const [row] = await db('assessment').where({ id, status: 'draft' }).update({ findings, updated_by: by, updated_at: db.fn.now(), version: db.raw('version + 1') }).returning('version');
+  const [row] = await db('assessment')
+    .where({ id, status: 'draft' })
+    .update({ findings, updated_by: by, updated_at: db.fn.now(), version: db.raw('version + 1') })
+    .returning('version');
   return Number(row.version);
 }
 
 export async function signOff(db: Db, id: number, findings: string, by: string): Promise<number> {
   const [row] = await db('assessment')
     .where({ id, status: 'draft' })
-    .update({ status: 'signed', findings, signed_by: by, signed_at: db.fn.now(), updated_by: by, updated_at: db.fn.now(), version: db.raw('version + 1') })
+    .update({
+      status: 'signed',
+      findings,
+      signed_by: by,
+      signed_at: db.fn.now(),
+      updated_by: by,
+      updated_at: db.fn.now(),
+      version: db.raw('version + 1'),
+    })
     .returning('version');
   return Number(row.version);
 }
@@ -128,7 +170,13 @@ export async function overlayOfProposal(db: Db, proposalId: number, extra: numbe
     [proposalId, extra],
   );
   const out: ProposalOverlay = new Map();
-  for (const row of r.rows as { parcel_id: number; kind: ReferenceKind; version: number; covered_share: number | null; classes: OverlayRow['classes'] }[]) {
+  for (const row of r.rows as {
+    parcel_id: number;
+    kind: ReferenceKind;
+    version: number;
+    covered_share: number | null;
+    classes: OverlayRow['classes'];
+  }[]) {
     const list = out.get(row.parcel_id) ?? [];
     list.push({ kind: row.kind, layerVersion: row.version, coveredShare: row.covered_share, classes: row.classes });
     out.set(row.parcel_id, list);
@@ -142,7 +190,13 @@ export async function eventsOfParcels(db: Db, ids: number[]) {
     `select parcel_id::int as parcel_id, to_char(event_date, 'YYYY-MM-DD') as date, kind, value, cultivation from land_use_event where parcel_id = any(?::bigint[]) order by parcel_id, event_date, id`,
     [ids],
   );
-  return r.rows as { parcel_id: number; date: string; kind: 'land-use' | 'management' | 'tillage' | 'reseeding'; value: string | null; cultivation: boolean }[];
+  return r.rows as {
+    parcel_id: number;
+    date: string;
+    kind: 'land-use' | 'management' | 'tillage' | 'reseeding';
+    value: string | null;
+    cultivation: boolean;
+  }[];
 }
 
 /**

@@ -22,10 +22,22 @@ export async function recordAudit(db: Db, e: AuditEntry): Promise<void> {
 
 export type AuditEvent = AuditEntry & { id: number; at: Date; actorName: string | null };
 
-export async function listAuditEvents(db: Db, opts: { limit: number; beforeId?: number; entityType?: string; entityId?: string }): Promise<AuditEvent[]> {
+export async function listAuditEvents(
+  db: Db,
+  opts: { limit: number; beforeId?: number; entityType?: string; entityId?: string },
+): Promise<AuditEvent[]> {
   const q = db('audit_event as a')
     .leftJoin('user as u', 'u.id', 'a.actor_id')
-    .select('a.id', 'a.at', 'a.actor_id', 'a.action', 'a.entity_type', 'a.entity_id', 'a.details', 'u.name as actor_name')
+    .select(
+      'a.id',
+      'a.at',
+      'a.actor_id',
+      'a.action',
+      'a.entity_type',
+      'a.entity_id',
+      'a.details',
+      'u.name as actor_name',
+    )
     .orderBy('a.id', 'desc')
     .limit(opts.limit);
   if (opts.beforeId) q.where('a.id', '<', opts.beforeId);
@@ -37,13 +49,34 @@ export async function listAuditEvents(db: Db, opts: { limit: number; beforeId?: 
 
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
 function toEvent(r: any): AuditEvent {
-  return { id: Number(r.id), at: r.at, actorId: r.actor_id, actorName: r.actor_name, action: r.action, entityType: r.entity_type, entityId: r.entity_id, details: r.details };
+  return {
+    id: Number(r.id),
+    at: r.at,
+    actorId: r.actor_id,
+    actorName: r.actor_name,
+    action: r.action,
+    entityType: r.entity_type,
+    entityId: r.entity_id,
+    details: r.details,
+  };
 }
 
-export type AuditFilter = { action?: string; actorId?: string; from?: string; to?: string; entityType?: string; entityId?: string };
+export type AuditFilter = {
+  action?: string;
+  actorId?: string;
+  from?: string;
+  to?: string;
+  entityType?: string;
+  entityId?: string;
+};
 
 /** One page of the log, newest first, with the number of entries the filter matches. `from`/`to` are UTC days, both included. */
-export async function searchAuditEvents(db: Db, f: AuditFilter, page: number, pageSize: number): Promise<{ items: AuditEvent[]; total: number }> {
+export async function searchAuditEvents(
+  db: Db,
+  f: AuditFilter,
+  page: number,
+  pageSize: number,
+): Promise<{ items: AuditEvent[]; total: number }> {
   const where = (q: Knex.QueryBuilder) => {
     if (f.action) q.where('a.action', f.action);
     if (f.actorId === 'system') q.whereNull('a.actor_id');
@@ -58,7 +91,16 @@ export async function searchAuditEvents(db: Db, f: AuditFilter, page: number, pa
   const rows = await where(
     db('audit_event as a')
       .leftJoin('user as u', 'u.id', 'a.actor_id')
-      .select('a.id', 'a.at', 'a.actor_id', 'a.action', 'a.entity_type', 'a.entity_id', 'a.details', 'u.name as actor_name'),
+      .select(
+        'a.id',
+        'a.at',
+        'a.actor_id',
+        'a.action',
+        'a.entity_type',
+        'a.entity_id',
+        'a.details',
+        'u.name as actor_name',
+      ),
   )
     .orderBy('a.id', 'desc')
     .limit(pageSize)
@@ -68,6 +110,9 @@ export async function searchAuditEvents(db: Db, f: AuditFilter, page: number, pa
 
 /** The actions and kinds of record the log holds, for the filter's choices. */
 export async function auditChoices(db: Db): Promise<{ actions: string[]; entityTypes: string[] }> {
-  const [a, t] = await Promise.all([db.raw(`select distinct action as v from audit_event order by 1`), db.raw(`select distinct entity_type as v from audit_event order by 1`)]);
+  const [a, t] = await Promise.all([
+    db.raw(`select distinct action as v from audit_event order by 1`),
+    db.raw(`select distinct entity_type as v from audit_event order by 1`),
+  ]);
   return { actions: a.rows.map((x: { v: string }) => x.v), entityTypes: t.rows.map((x: { v: string }) => x.v) };
 }

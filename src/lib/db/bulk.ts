@@ -9,7 +9,16 @@ import type { Db } from './client';
  * caller from a fixed list, in one order (upload_staging_feature, parcel, land_use_event,
  * parcel_overlay_run, parcel_overlay, reference_feature, reference_piece), so concurrent saves queue, not deadlock.
  */
-export const BULK_TABLES = ['upload_staging_feature', 'parcel', 'land_use_event', 'parcel_overlay_run', 'parcel_overlay', 'reference_feature', 'reference_piece', 'screening_result'] as const;
+export const BULK_TABLES = [
+  'upload_staging_feature',
+  'parcel',
+  'land_use_event',
+  'parcel_overlay_run',
+  'parcel_overlay',
+  'reference_feature',
+  'reference_piece',
+  'screening_result',
+] as const;
 export async function analyzeAfterBulkWrite(conn: Db, ...tables: (typeof BULK_TABLES)[number][]): Promise<void> {
   for (const t of BULK_TABLES) if (tables.includes(t)) await conn.raw(`analyze ${t}`);
 }

@@ -9,8 +9,14 @@ const CURRENT = 'not exists (select 1 from register_entry s where s.supersedes_s
 const APPROVED = "e.outcome in ('approved', 'approved-with-conditions')";
 
 export type ApprovedParcelRow = {
-  seq: number; year: number; decidedOn: string; region: string | null; reference: string; areaHa: number;
-  proposedLandUse: string; priorLandUse: string | null;
+  seq: number;
+  year: number;
+  decidedOn: string;
+  region: string | null;
+  reference: string;
+  areaHa: number;
+  proposedLandUse: string;
+  priorLandUse: string | null;
   /** The newest land use recorded for the parcel on or after the decision date (null when none is). */
   laterLandUse: string | null;
 };
@@ -38,7 +44,10 @@ export async function committedByYear(conn: Db): Promise<{ year: number; committ
     `select (e.content->'proposal'->>'startYear')::int as year, sum((e.content->'figures'->>'co2eTotal')::float8) as "committedT"
      from register_entry e where ${APPROVED} and ${CURRENT} group by 1 order by 1`,
   );
-  return r.rows.map((x: { year: number; committedT: number }) => ({ year: Number(x.year), committedT: Number(x.committedT) }));
+  return r.rows.map((x: { year: number; committedT: number }) => ({
+    year: Number(x.year),
+    committedT: Number(x.committedT),
+  }));
 }
 
 export type ConditionRow = { seq: number; reference: string; text: string; dueDate: string; checkedBy: string };
@@ -61,7 +70,10 @@ export async function conditionsWithDueDates(conn: Db): Promise<ConditionRow[]> 
 const OPEN_STATES = ['submitted', 'in-assessment', 'assessed', 'on-agenda'];
 
 /** Proposals still before the authority whose statutory decision date has passed. */
-export async function overdueProposals(conn: Db, today: string): Promise<{ id: number; reference: string; title: string; state: string; decisionDue: string }[]> {
+export async function overdueProposals(
+  conn: Db,
+  today: string,
+): Promise<{ id: number; reference: string; title: string; state: string; decisionDue: string }[]> {
   const r = await conn.raw(
     `select id::int as id, reference, title, state, to_char(decision_due, 'YYYY-MM-DD') as "decisionDue" from proposal
      where state = any(?::text[]) and decision_due < ?::date order by decision_due, id`,

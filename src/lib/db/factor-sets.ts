@@ -2,9 +2,31 @@
 import type { FactorSetDocument } from '../carbon';
 import type { Db } from './client';
 
-export type FactorSetRow = { id: string; title: string; description: string; origin: 'shipped' | 'custom'; based_on_id: string | null; based_on_version: number | null; created_at: Date };
-export type VersionRow = { set_id: string; version: number; status: 'draft' | 'published'; document: FactorSetDocument; publish_note: string | null; published_at: Date | null; published_by_name: string | null };
-export type ConfirmationRow = { table_key: string; confirmed_by_name: string | null; confirmed_at: Date; document: string; page: string };
+export type FactorSetRow = {
+  id: string;
+  title: string;
+  description: string;
+  origin: 'shipped' | 'custom';
+  based_on_id: string | null;
+  based_on_version: number | null;
+  created_at: Date;
+};
+export type VersionRow = {
+  set_id: string;
+  version: number;
+  status: 'draft' | 'published';
+  document: FactorSetDocument;
+  publish_note: string | null;
+  published_at: Date | null;
+  published_by_name: string | null;
+};
+export type ConfirmationRow = {
+  table_key: string;
+  confirmed_by_name: string | null;
+  confirmed_at: Date;
+  document: string;
+  page: string;
+};
 
 export async function listSets(db: Db): Promise<FactorSetRow[]> {
   return db('factor_set').select('*').orderByRaw("origin = 'custom', id");
@@ -17,17 +39,38 @@ export async function getSet(db: Db, id: string): Promise<FactorSetRow | null> {
 export async function listVersions(db: Db, setId?: string): Promise<VersionRow[]> {
   const q = db('factor_set_version as v')
     .leftJoin('user as u', 'u.id', 'v.published_by')
-    .select('v.set_id', 'v.version', 'v.status', 'v.document', 'v.publish_note', 'v.published_at', 'u.name as published_by_name')
+    .select(
+      'v.set_id',
+      'v.version',
+      'v.status',
+      'v.document',
+      'v.publish_note',
+      'v.published_at',
+      'u.name as published_by_name',
+    )
     .orderBy([{ column: 'v.set_id' }, { column: 'v.version', order: 'desc' }]);
   if (setId) q.where('v.set_id', setId);
   return q;
 }
 
 /** A version by number, or the newest published one (version undefined), or the draft. */
-export async function getVersion(db: Db, setId: string, which: number | 'latest' | 'draft', opts: { lock?: boolean } = {}): Promise<VersionRow | null> {
+export async function getVersion(
+  db: Db,
+  setId: string,
+  which: number | 'latest' | 'draft',
+  opts: { lock?: boolean } = {},
+): Promise<VersionRow | null> {
   const q = db('factor_set_version as v')
     .leftJoin('user as u', 'u.id', 'v.published_by')
-    .select('v.set_id', 'v.version', 'v.status', 'v.document', 'v.publish_note', 'v.published_at', 'u.name as published_by_name')
+    .select(
+      'v.set_id',
+      'v.version',
+      'v.status',
+      'v.document',
+      'v.publish_note',
+      'v.published_at',
+      'u.name as published_by_name',
+    )
     .where('v.set_id', setId);
   if (which === 'draft') q.where('v.status', 'draft');
   else if (which === 'latest') q.where('v.status', 'published').orderBy('v.version', 'desc');
@@ -43,11 +86,39 @@ export async function listConfirmations(db: Db, setId: string, version: number):
     .where({ 'c.set_id': setId, 'c.version': version });
 }
 
-export async function insertSet(db: Db, s: { id: string; title: string; description: string; origin: 'shipped' | 'custom'; basedOn?: { id: string; version: number }; createdBy: string | null }): Promise<void> {
-  await db('factor_set').insert({ id: s.id, title: s.title, description: s.description, origin: s.origin, based_on_id: s.basedOn?.id ?? null, based_on_version: s.basedOn?.version ?? null, created_by: s.createdBy });
+export async function insertSet(
+  db: Db,
+  s: {
+    id: string;
+    title: string;
+    description: string;
+    origin: 'shipped' | 'custom';
+    basedOn?: { id: string; version: number };
+    createdBy: string | null;
+  },
+): Promise<void> {
+  await db('factor_set').insert({
+    id: s.id,
+    title: s.title,
+    description: s.description,
+    origin: s.origin,
+    based_on_id: s.basedOn?.id ?? null,
+    based_on_version: s.basedOn?.version ?? null,
+    created_by: s.createdBy,
+  });
 }
 
-export async function insertVersion(db: Db, v: { setId: string; version: number; status: 'draft' | 'published'; document: FactorSetDocument; note?: string; by: string | null }): Promise<void> {
+export async function insertVersion(
+  db: Db,
+  v: {
+    setId: string;
+    version: number;
+    status: 'draft' | 'published';
+    document: FactorSetDocument;
+    note?: string;
+    by: string | null;
+  },
+): Promise<void> {
   await db('factor_set_version').insert({
     set_id: v.setId,
     version: v.version,
@@ -60,27 +131,80 @@ export async function insertVersion(db: Db, v: { setId: string; version: number;
 }
 
 export async function updateDraftDocument(db: Db, setId: string, document: FactorSetDocument): Promise<void> {
-  await db('factor_set_version').where({ set_id: setId, status: 'draft' }).update({ document: JSON.stringify(document) });
+  await db('factor_set_version')
+    .where({ set_id: setId, status: 'draft' })
+    .update({ document: JSON.stringify(document) });
 }
 
 export async function markPublished(db: Db, setId: string, version: number, by: string, note: string): Promise<void> {
-  await db('factor_set_version').where({ set_id: setId, version }).update({ status: 'published', published_by: by, published_at: db.fn.now(), publish_note: note });
+  await db('factor_set_version')
+    .where({ set_id: setId, version })
+    .update({ status: 'published', published_by: by, published_at: db.fn.now(), publish_note: note });
 }
 
-export async function insertConfirmation(db: Db, c: { setId: string; version: number; tableKey: string; by: string; document: string; page: string }): Promise<void> {
-  await db('factor_table_confirmation').insert({ set_id: c.setId, version: c.version, table_key: c.tableKey, confirmed_by: c.by, document: c.document, page: c.page });
+export async function insertConfirmation(
+  db: Db,
+  c: { setId: string; version: number; tableKey: string; by: string; document: string; page: string },
+): Promise<void> {
+  await db('factor_table_confirmation').insert({
+    set_id: c.setId,
+    version: c.version,
+    table_key: c.tableKey,
+    confirmed_by: c.by,
+    document: c.document,
+    page: c.page,
+  });
 }
 
-export async function insertEdit(db: Db, e: { setId: string; version: number; tableKey: string; entryKey: string; before: unknown; after: unknown; reason: string; by: string }): Promise<void> {
-  await db('factor_edit').insert({ set_id: e.setId, version: e.version, table_key: e.tableKey, entry_key: e.entryKey, before: JSON.stringify(e.before), after: JSON.stringify(e.after), reason: e.reason, edited_by: e.by });
+export async function insertEdit(
+  db: Db,
+  e: {
+    setId: string;
+    version: number;
+    tableKey: string;
+    entryKey: string;
+    before: unknown;
+    after: unknown;
+    reason: string;
+    by: string;
+  },
+): Promise<void> {
+  await db('factor_edit').insert({
+    set_id: e.setId,
+    version: e.version,
+    table_key: e.tableKey,
+    entry_key: e.entryKey,
+    before: JSON.stringify(e.before),
+    after: JSON.stringify(e.after),
+    reason: e.reason,
+    edited_by: e.by,
+  });
 }
 
-export type EditRow = { table_key: string; entry_key: string; before: unknown; after: unknown; reason: string; edited_by_name: string | null; edited_at: Date; version: number };
+export type EditRow = {
+  table_key: string;
+  entry_key: string;
+  before: unknown;
+  after: unknown;
+  reason: string;
+  edited_by_name: string | null;
+  edited_at: Date;
+  version: number;
+};
 
 export async function listEdits(db: Db, setId: string): Promise<EditRow[]> {
   return db('factor_edit as e')
     .leftJoin('user as u', 'u.id', 'e.edited_by')
-    .select('e.table_key', 'e.entry_key', 'e.before', 'e.after', 'e.reason', 'u.name as edited_by_name', 'e.edited_at', 'e.version')
+    .select(
+      'e.table_key',
+      'e.entry_key',
+      'e.before',
+      'e.after',
+      'e.reason',
+      'u.name as edited_by_name',
+      'e.edited_at',
+      'e.version',
+    )
     .where('e.set_id', setId)
     .orderBy('e.id', 'desc');
 }
@@ -91,7 +215,10 @@ export async function getSetting<T>(db: Db, key: string): Promise<T | null> {
 }
 
 export async function putSetting(db: Db, key: string, value: unknown, by: string | null): Promise<void> {
-  await db('app_setting').insert({ key, value: JSON.stringify(value), updated_by: by }).onConflict('key').merge({ value: JSON.stringify(value), updated_by: by, updated_at: db.fn.now() });
+  await db('app_setting')
+    .insert({ key, value: JSON.stringify(value), updated_by: by })
+    .onConflict('key')
+    .merge({ value: JSON.stringify(value), updated_by: by, updated_at: db.fn.now() });
 }
 
 /** Which published version to compute with, and its confirmations, without the (large) document. */
@@ -102,7 +229,12 @@ export type PublishedStamp = { setId: string; version: number | null; confirmati
  * newest published version (or the pinned one, when published) and that version's confirmations.
  * `version` is null when there is no such published version.
  */
-export async function publishedStamp(db: Db, setId: string | null, version: number | undefined, fallbackId: string): Promise<PublishedStamp> {
+export async function publishedStamp(
+  db: Db,
+  setId: string | null,
+  version: number | undefined,
+  fallbackId: string,
+): Promise<PublishedStamp> {
   const r = await db.raw(
     `with s as (select coalesce(?::text, (select value #>> '{}' from app_setting where key = 'default-factor-set'), ?::text) as id)
      select s.id as set_id, v.version,
@@ -111,8 +243,16 @@ export async function publishedStamp(db: Db, setId: string | null, version: numb
      from s left join lateral (select set_id, version from factor_set_version where set_id = s.id and status = 'published' and (?::int is null or version = ?::int) order by version desc limit 1) v on true`,
     [setId, fallbackId, version ?? null, version ?? null],
   );
-  const row = r.rows[0] as { set_id: string; version: number | null; confirmations: (Omit<ConfirmationRow, 'confirmed_at'> & { confirmed_at: string })[] };
-  return { setId: row.set_id, version: row.version, confirmations: row.confirmations.map((c) => ({ ...c, confirmed_at: new Date(c.confirmed_at) })) };
+  const row = r.rows[0] as {
+    set_id: string;
+    version: number | null;
+    confirmations: (Omit<ConfirmationRow, 'confirmed_at'> & { confirmed_at: string })[];
+  };
+  return {
+    setId: row.set_id,
+    version: row.version,
+    confirmations: row.confirmations.map((c) => ({ ...c, confirmed_at: new Date(c.confirmed_at) })),
+  };
 }
 
 /** The stored document of a version (published ones never change). */

@@ -4,8 +4,18 @@ import { BOARD_SETTING_KEYS, readBoardSettings, type BoardSettings, type VoteCho
 
 export type MeetingRow = { id: number; meeting_date: string; place: string; version: number; created_at: Date };
 export type ItemRow = {
-  id: number; meeting_id: number; proposal_id: number; assessment_id: number; position: number; status: 'listed' | 'decided' | 'deferred' | 'withdrawn';
-  carried_from: number | null; reference: string; title: string; proposal_state: string; meeting_date: string; place: string;
+  id: number;
+  meeting_id: number;
+  proposal_id: number;
+  assessment_id: number;
+  position: number;
+  status: 'listed' | 'decided' | 'deferred' | 'withdrawn';
+  carried_from: number | null;
+  reference: string;
+  title: string;
+  proposal_state: string;
+  meeting_date: string;
+  place: string;
 };
 
 const MEETING_COLS = `id::int as id, to_char(meeting_date, 'YYYY-MM-DD') as meeting_date, place, version, created_at`;
@@ -36,7 +46,10 @@ export async function listMeetings(db: Db) {
 
 /** The next meeting after a date (for carrying a deferred item). */
 export async function nextMeetingAfter(db: Db, date: string): Promise<MeetingRow | null> {
-  const r = await db.raw(`select ${MEETING_COLS} from meeting where meeting_date > ? order by meeting_date, id limit 1`, [date]);
+  const r = await db.raw(
+    `select ${MEETING_COLS} from meeting where meeting_date > ? order by meeting_date, id limit 1`,
+    [date],
+  );
   return r.rows[0] ?? null;
 }
 
@@ -44,8 +57,16 @@ const ITEM_SELECT = `select i.id::int as id, i.meeting_id::int as meeting_id, i.
   i.carried_from::int as carried_from, p.reference, p.title, p.state as proposal_state, to_char(m.meeting_date, 'YYYY-MM-DD') as meeting_date, m.place
   from meeting_item i join proposal p on p.id = i.proposal_id join meeting m on m.id = i.meeting_id`;
 
-export async function getItem(db: Db, meetingId: number, itemId: number, opts: { lock?: boolean } = {}): Promise<ItemRow | null> {
-  const r = await db.raw(`${ITEM_SELECT} where i.id = ? and i.meeting_id = ? ${opts.lock ? 'for update of i' : ''}`, [itemId, meetingId]);
+export async function getItem(
+  db: Db,
+  meetingId: number,
+  itemId: number,
+  opts: { lock?: boolean } = {},
+): Promise<ItemRow | null> {
+  const r = await db.raw(`${ITEM_SELECT} where i.id = ? and i.meeting_id = ? ${opts.lock ? 'for update of i' : ''}`, [
+    itemId,
+    meetingId,
+  ]);
   return r.rows[0] ?? null;
 }
 
@@ -53,7 +74,10 @@ export async function listItems(db: Db, meetingId: number): Promise<ItemRow[]> {
   return (await db.raw(`${ITEM_SELECT} where i.meeting_id = ? order by i.position, i.id`, [meetingId])).rows;
 }
 
-export async function insertItem(db: Db, it: { meetingId: number; proposalId: number; assessmentId: number; carriedFrom?: number }): Promise<number> {
+export async function insertItem(
+  db: Db,
+  it: { meetingId: number; proposalId: number; assessmentId: number; carriedFrom?: number },
+): Promise<number> {
   const r = await db.raw(
     `insert into meeting_item (meeting_id, proposal_id, assessment_id, position, carried_from)
      values (?, ?, ?, (select coalesce(max(position), 0) + 1 from meeting_item where meeting_id = ?), ?) returning id`,
@@ -80,12 +104,18 @@ export async function waitingDeferred(db: Db) {
 
 /** The latest signed assessment of a proposal. */
 export async function latestSigned(db: Db, proposalId: number): Promise<{ id: number; number: number } | null> {
-  const r = await db.raw(`select id::int as id, number from assessment where proposal_id = ? and status = 'signed' order by number desc limit 1`, [proposalId]);
+  const r = await db.raw(
+    `select id::int as id, number from assessment where proposal_id = ? and status = 'signed' order by number desc limit 1`,
+    [proposalId],
+  );
   return r.rows[0] ?? null;
 }
 
 export async function declareConflict(db: Db, itemId: number, userId: string, reason: string): Promise<void> {
-  await db('meeting_conflict').insert({ item_id: itemId, user_id: userId, reason }).onConflict(['item_id', 'user_id']).merge({ reason, declared_at: db.fn.now() });
+  await db('meeting_conflict')
+    .insert({ item_id: itemId, user_id: userId, reason })
+    .onConflict(['item_id', 'user_id'])
+    .merge({ reason, declared_at: db.fn.now() });
   await db('meeting_vote').where({ item_id: itemId, user_id: userId }).delete();
 }
 
@@ -93,8 +123,17 @@ export async function hasConflict(db: Db, itemId: number, userId: string): Promi
   return !!(await db('meeting_conflict').where({ item_id: itemId, user_id: userId }).first());
 }
 
-export async function castVote(db: Db, itemId: number, userId: string, choice: VoteChoice, comment: string | null): Promise<void> {
-  await db('meeting_vote').insert({ item_id: itemId, user_id: userId, choice, comment }).onConflict(['item_id', 'user_id']).merge({ choice, comment, voted_at: db.fn.now() });
+export async function castVote(
+  db: Db,
+  itemId: number,
+  userId: string,
+  choice: VoteChoice,
+  comment: string | null,
+): Promise<void> {
+  await db('meeting_vote')
+    .insert({ item_id: itemId, user_id: userId, choice, comment })
+    .onConflict(['item_id', 'user_id'])
+    .merge({ choice, comment, voted_at: db.fn.now() });
 }
 
 export async function votesOf(db: Db, itemIds: number[]) {
@@ -103,7 +142,14 @@ export async function votesOf(db: Db, itemIds: number[]) {
      where v.item_id = any(?::bigint[]) order by v.voted_at`,
     [itemIds],
   );
-  return r.rows as { item_id: number; user_id: string; name: string; choice: VoteChoice; comment: string | null; voted_at: Date }[];
+  return r.rows as {
+    item_id: number;
+    user_id: string;
+    name: string;
+    choice: VoteChoice;
+    comment: string | null;
+    voted_at: Date;
+  }[];
 }
 
 export async function conflictsOf(db: Db, itemIds: number[]) {
@@ -116,12 +162,30 @@ export async function conflictsOf(db: Db, itemIds: number[]) {
 }
 
 export type DecisionInsert = {
-  itemId: number; proposalId: number; outcome: string; reasons: string; conditions: unknown[]; appealDays: number | null; effectiveDate: string | null; registerSeq: number | null; by: string;
+  itemId: number;
+  proposalId: number;
+  outcome: string;
+  reasons: string;
+  conditions: unknown[];
+  appealDays: number | null;
+  effectiveDate: string | null;
+  registerSeq: number | null;
+  by: string;
 };
 
 export async function insertDecision(db: Db, d: DecisionInsert): Promise<number> {
   const [row] = await db('board_decision')
-    .insert({ item_id: d.itemId, proposal_id: d.proposalId, outcome: d.outcome, reasons: d.reasons, conditions: JSON.stringify(d.conditions), appeal_days: d.appealDays, effective_date: d.effectiveDate, register_seq: d.registerSeq, decided_by: d.by })
+    .insert({
+      item_id: d.itemId,
+      proposal_id: d.proposalId,
+      outcome: d.outcome,
+      reasons: d.reasons,
+      conditions: JSON.stringify(d.conditions),
+      appeal_days: d.appealDays,
+      effective_date: d.effectiveDate,
+      register_seq: d.registerSeq,
+      decided_by: d.by,
+    })
     .returning('id');
   return Number(row.id);
 }
@@ -133,7 +197,18 @@ export async function decisionsOf(db: Db, itemIds: number[]) {
      from board_decision d left join "user" u on u.id = d.decided_by where d.item_id = any(?::bigint[])`,
     [itemIds],
   );
-  return r.rows as { id: number; item_id: number; outcome: string; reasons: string; conditions: unknown[]; appeal_days: number | null; effective_date: string | null; register_seq: number | null; decided_by: string | null; decided_at: Date }[];
+  return r.rows as {
+    id: number;
+    item_id: number;
+    outcome: string;
+    reasons: string;
+    conditions: unknown[];
+    appeal_days: number | null;
+    effective_date: string | null;
+    register_seq: number | null;
+    decided_by: string | null;
+    decided_at: Date;
+  }[];
 }
 
 /** Bumps the meeting's row version (the agenda changed); returns the new version. */

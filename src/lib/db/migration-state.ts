@@ -15,9 +15,20 @@ export function migrationsFolder(): string {
 /** Throws when the folder cannot be read; a database without the knex tables has everything pending. */
 export async function migrationState(db: Db, folder = migrationsFolder()): Promise<MigrationState> {
   const files = (await readdir(folder)).filter((f) => f.endsWith('.ts') && !f.endsWith('.d.ts')).sort();
-  const exists = await db.raw<{ rows: { t: string | null; l: string | null }[] }>("select to_regclass('knex_migrations')::text as t, to_regclass('knex_migrations_lock')::text as l");
+  const exists = await db.raw<{ rows: { t: string | null; l: string | null }[] }>(
+    "select to_regclass('knex_migrations')::text as t, to_regclass('knex_migrations_lock')::text as l",
+  );
   const { t, l } = exists.rows[0] ?? { t: null, l: null };
-  const done = t ? new Set((await db('knex_migrations').select<{ name: string }[]>('name')).map((r) => r.name)) : new Set<string>();
-  const locked = l ? Boolean((await db('knex_migrations_lock').max<{ m: number | null }>('is_locked as m').first())?.m) : false;
-  return { applied: done.size, pending: files.filter((f) => !done.has(f)), unknown: [...done].filter((n) => !files.includes(n)), locked };
+  const done = t
+    ? new Set((await db('knex_migrations').select<{ name: string }[]>('name')).map((r) => r.name))
+    : new Set<string>();
+  const locked = l
+    ? Boolean((await db('knex_migrations_lock').max<{ m: number | null }>('is_locked as m').first())?.m)
+    : false;
+  return {
+    applied: done.size,
+    pending: files.filter((f) => !done.has(f)),
+    unknown: [...done].filter((n) => !files.includes(n)),
+    locked,
+  };
 }

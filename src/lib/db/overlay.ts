@@ -30,7 +30,10 @@ export async function computeOverlay(db: Db, sel: ParcelSelector, versionIds: nu
   // A batch or every parcel is a bulk write; one drawn or edited parcel is not (see analyzeAfterBulkWrite).
   const bulk = !('parcelIds' in sel) || sel.parcelIds.length > 100;
   const fp = parcelFilter(sel, 'p');
-  await db.raw(`delete from parcel_overlay_run where layer_version_id = any(?::bigint[]) and parcel_id in (select id from parcel where ${f.sql})`, [versionIds, ...f.args]);
+  await db.raw(
+    `delete from parcel_overlay_run where layer_version_id = any(?::bigint[]) and parcel_id in (select id from parcel where ${f.sql})`,
+    [versionIds, ...f.args],
+  );
   // The class areas go to a scratch table first, so each run row is written once with its covered share.
   await db.raw('drop table if exists overlay_scratch');
   await db.raw(
@@ -65,7 +68,9 @@ export async function computeOverlay(db: Db, sel: ParcelSelector, versionIds: nu
      where ${fp.sql}`,
     [versionIds, ...fp.args],
   );
-  await db.raw('insert into parcel_overlay (parcel_id, layer_version_id, class, area_ha, share) select pid, vid, class, area_ha, share from overlay_scratch');
+  await db.raw(
+    'insert into parcel_overlay (parcel_id, layer_version_id, class, area_ha, share) select pid, vid, class, area_ha, share from overlay_scratch',
+  );
   await db.raw('drop table overlay_scratch');
   if (bulk) await analyzeAfterBulkWrite(db, 'parcel_overlay_run', 'parcel_overlay');
 }
@@ -80,10 +85,12 @@ export async function overlayOfParcel(db: Db, parcelId: number): Promise<Overlay
      from cur join parcel_overlay_run run on run.layer_version_id = cur.id and run.parcel_id = ?`,
     [parcelId],
   );
-  return r.rows.map((row: { kind: ReferenceKind; version: number; covered_share: number; classes: OverlayRow['classes'] }) => ({
-    kind: row.kind,
-    layerVersion: row.version,
-    coveredShare: row.covered_share,
-    classes: row.classes,
-  }));
+  return r.rows.map(
+    (row: { kind: ReferenceKind; version: number; covered_share: number; classes: OverlayRow['classes'] }) => ({
+      kind: row.kind,
+      layerVersion: row.version,
+      coveredShare: row.covered_share,
+      classes: row.classes,
+    }),
+  );
 }

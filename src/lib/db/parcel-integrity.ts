@@ -20,7 +20,10 @@ const measure = (a: string, b: string) =>
 const interiorsMeet = (a: string, b: string) => `${a} && ${b} and st_relate(${a}, ${b}, 'T********')`;
 
 /** Pairs of features of one staged upload whose interiors meet (a before b in the file). */
-export async function stagedPairs(db: Db, stagingId: string): Promise<(Measure & { a: number; b: number; refA: string | null; refB: string | null })[]> {
+export async function stagedPairs(
+  db: Db,
+  stagingId: string,
+): Promise<(Measure & { a: number; b: number; refA: string | null; refB: string | null })[]> {
   const r = await db.raw(
     `select a.idx as a, b.idx as b, a.reference as "refA", b.reference as "refB", ${measure('a.geom', 'b.geom')}
      from upload_staging_feature a join upload_staging_feature b on b.staging_id = a.staging_id and b.idx > a.idx and ${interiorsMeet('a.geom', 'b.geom')}
@@ -32,7 +35,10 @@ export async function stagedPairs(db: Db, stagingId: string): Promise<(Measure &
 }
 
 /** Staged features (not rejected) whose interiors meet a parcel of the register. */
-export async function stagedRegisterPairs(db: Db, stagingId: string): Promise<(Measure & { idx: number; reference: string | null; parcel: string })[]> {
+export async function stagedRegisterPairs(
+  db: Db,
+  stagingId: string,
+): Promise<(Measure & { idx: number; reference: string | null; parcel: string })[]> {
   const r = await db.raw(
     `select f.idx, f.reference, p.reference as parcel, ${measure('f.geom', 'p.geom')}
      from upload_staging_feature f join parcel p on ${interiorsMeet('f.geom', 'p.geom')}
@@ -44,7 +50,10 @@ export async function stagedRegisterPairs(db: Db, stagingId: string): Promise<(M
 }
 
 /** Staged features (not rejected) whose reference key, or exact boundary, is already in the register. */
-export async function stagedRegisterTwins(db: Db, stagingId: string): Promise<{ idx: number; reference: string | null; parcel: string; why: 'reference' | 'boundary' }[]> {
+export async function stagedRegisterTwins(
+  db: Db,
+  stagingId: string,
+): Promise<{ idx: number; reference: string | null; parcel: string; why: 'reference' | 'boundary' }[]> {
   const r = await db.raw(
     `select f.idx, f.reference, p.reference as parcel, 'reference' as why from upload_staging_feature f join parcel p on p.reference_key = f.fields->>'referenceKey'
      where f.staging_id = ? and f.status <> 'rejected'
@@ -58,7 +67,11 @@ export async function stagedRegisterTwins(db: Db, stagingId: string): Promise<{ 
 }
 
 /** Parcels of the register whose interiors meet `geometry` (EPSG:4326), except one. */
-export async function geometryRegisterPairs(db: Db, geometry: MultiPolygon, exceptId?: number): Promise<(Measure & { parcel: string })[]> {
+export async function geometryRegisterPairs(
+  db: Db,
+  geometry: MultiPolygon,
+  exceptId?: number,
+): Promise<(Measure & { parcel: string })[]> {
   const r = await db.raw(
     `with g as (select st_geomfromgeojson(?) as geom)
      select p.reference as parcel, ${measure('g.geom', 'p.geom')}
@@ -70,7 +83,11 @@ export async function geometryRegisterPairs(db: Db, geometry: MultiPolygon, exce
 }
 
 /** Appends issues to staged features; `reject` marks them rejected. */
-export async function addStagedIssues(db: Db, stagingId: string, items: { idx: number; issues: unknown[]; reject: boolean }[]): Promise<void> {
+export async function addStagedIssues(
+  db: Db,
+  stagingId: string,
+  items: { idx: number; issues: unknown[]; reject: boolean }[],
+): Promise<void> {
   if (items.length === 0) return;
   await db.raw(
     `update upload_staging_feature f set issues = f.issues || x.issues, status = case when x.reject then 'rejected' else f.status end

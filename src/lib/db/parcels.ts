@@ -22,10 +22,24 @@ export type ParcelRow = {
   created_by_name: string | null;
 };
 
-export type EventRow = { id: number; event_date: string; kind: 'land-use' | 'management' | 'tillage' | 'reseeding'; value: string | null; cultivation: boolean; evidence: string; recorded_by_name: string | null; recorded_at: Date };
+export type EventRow = {
+  id: number;
+  event_date: string;
+  kind: 'land-use' | 'management' | 'tillage' | 'reseeding';
+  value: string | null;
+  cultivation: boolean;
+  evidence: string;
+  recorded_by_name: string | null;
+  recorded_at: Date;
+};
 
 /** Inserts the non-rejected staged features as parcels; returns how many. */
-export async function insertParcelsFromStaging(db: Db, stagingId: string, batchId: string, by: string): Promise<number> {
+export async function insertParcelsFromStaging(
+  db: Db,
+  stagingId: string,
+  batchId: string,
+  by: string,
+): Promise<number> {
   const r = await db.raw(
     `insert into parcel (reference, reference_key, name, land_use, management, owner_ref, stated_area_ha, area_ha, geom, batch_id, created_by, updated_by)
      select f.reference, f.fields->>'referenceKey', f.fields->>'name', f.fields->>'landUse', f.fields->>'management', f.fields->>'ownerRef', (f.fields->>'statedAreaHa')::float8,
@@ -38,7 +52,13 @@ export async function insertParcelsFromStaging(db: Db, stagingId: string, batchI
 }
 
 /** Land-use history from the mapped columns: current use and management as recorded today, plus dated tillage/reseeding and "in grass since" (a dated grassland event). */
-export async function insertEventsFromStaging(db: Db, stagingId: string, batchId: string, by: string, evidence: string): Promise<void> {
+export async function insertEventsFromStaging(
+  db: Db,
+  stagingId: string,
+  batchId: string,
+  by: string,
+  evidence: string,
+): Promise<void> {
   const part = (kind: string, dateSql: string, valueSql: string, field: string) =>
     `select p.id, ${dateSql}, '${kind}', ${valueSql}, ?, ?, ?::uuid from upload_staging_feature f join parcel p on p.reference = f.reference and p.batch_id = ?
      where f.staging_id = ? and f.status <> 'rejected' and f.fields->>'${field}' is not null`;
@@ -68,22 +88,54 @@ export async function getParcel(db: Db, id: number): Promise<ParcelRow | null> {
 export async function listEvents(db: Db, parcelId: number): Promise<EventRow[]> {
   return db('land_use_event as e')
     .leftJoin('user as u', 'u.id', 'e.recorded_by')
-    .select('e.id', db.raw("to_char(e.event_date, 'YYYY-MM-DD') as event_date"), 'e.kind', 'e.value', 'e.cultivation', 'e.evidence', 'u.name as recorded_by_name', 'e.recorded_at')
+    .select(
+      'e.id',
+      db.raw("to_char(e.event_date, 'YYYY-MM-DD') as event_date"),
+      'e.kind',
+      'e.value',
+      'e.cultivation',
+      'e.evidence',
+      'u.name as recorded_by_name',
+      'e.recorded_at',
+    )
     .where('e.parcel_id', parcelId)
     .orderBy([{ column: 'e.event_date' }, { column: 'e.id' }]);
 }
 
-export async function insertEvent(db: Db, e: { parcelId: number; date: string; kind: string; value: string | null; cultivation: boolean; evidence: string; by: string }): Promise<number> {
+export async function insertEvent(
+  db: Db,
+  e: {
+    parcelId: number;
+    date: string;
+    kind: string;
+    value: string | null;
+    cultivation: boolean;
+    evidence: string;
+    by: string;
+  },
+): Promise<number> {
   const [row] = await db('land_use_event')
-    .insert({ parcel_id: e.parcelId, event_date: e.date, kind: e.kind, value: e.value, cultivation: e.cultivation, evidence: e.evidence, recorded_by: e.by })
+    .insert({
+      parcel_id: e.parcelId,
+      event_date: e.date,
+      kind: e.kind,
+      value: e.value,
+      cultivation: e.cultivation,
+      evidence: e.evidence,
+      recorded_by: e.by,
+    })
     .returning('id');
   return row.id;
 }
 
 /** Sets land_use / management on the parcel from its newest events of those kinds. */
 export async function refreshCurrentState(db: Db, parcelId: number, by: string): Promise<void> {
-  const newest = (kind: string) => `(select value from land_use_event where parcel_id = p.id and kind = '${kind}' order by event_date desc, id desc limit 1)`;
-  await db.raw(`update parcel p set land_use = ${newest('land-use')}, management = ${newest('management')}, version = version + 1, updated_by = ?, updated_at = now() where id = ?`, [by, parcelId]);
+  const newest = (kind: string) =>
+    `(select value from land_use_event where parcel_id = p.id and kind = '${kind}' order by event_date desc, id desc limit 1)`;
+  await db.raw(
+    `update parcel p set land_use = ${newest('land-use')}, management = ${newest('management')}, version = version + 1, updated_by = ?, updated_at = now() where id = ?`,
+    [by, parcelId],
+  );
 }
 
 /** Reference of a parcel whose reference has the same key (referenceKey: NFKC, case, look-alikes), if any. */
@@ -102,7 +154,10 @@ export async function sameBoundary(db: Db, geometry: MultiPolygon, exceptId?: nu
   return r.rows[0]?.reference ?? null;
 }
 
-export async function insertDrawnParcel(db: Db, p: { reference: string; referenceKey: string; name: string | null; geometry: MultiPolygon; by: string }): Promise<number> {
+export async function insertDrawnParcel(
+  db: Db,
+  p: { reference: string; referenceKey: string; name: string | null; geometry: MultiPolygon; by: string },
+): Promise<number> {
   const r = await db.raw(
     `insert into parcel (reference, reference_key, name, area_ha, geom, created_by, updated_by)
      values (?, ?, ?, st_area(st_geomfromgeojson(?)::geography) / 10000, st_geomfromgeojson(?), ?, ?) returning id`,
@@ -137,7 +192,13 @@ const width = (g: string) => `(st_xmax(st_extent(${g})) - st_xmin(st_extent(${g}
 const LOCAL_EXTENT = `case when ${width('st_shiftlongitude(p.geom)')} + 1 < ${width('p.geom')} then st_extent(st_shiftlongitude(p.geom)) else st_extent(p.geom) end::geometry`;
 
 /** Where parcels are: one lon/lat extent per upload batch (drawn parcels together), largest first. */
-export type ParcelArea = { id: string | null; fileName: string | null; savedAt: Date | null; count: number; extent: [number, number, number, number] };
+export type ParcelArea = {
+  id: string | null;
+  fileName: string | null;
+  savedAt: Date | null;
+  count: number;
+  extent: [number, number, number, number];
+};
 
 export async function parcelAreas(db: Db, limit = 20): Promise<ParcelArea[]> {
   const r = await db.raw(
@@ -147,22 +208,40 @@ export async function parcelAreas(db: Db, limit = 20): Promise<ParcelArea[]> {
      ) x order by n desc, saved_at desc nulls last limit ?`,
     [limit],
   );
-  return r.rows.map((x: { id: string | null; file_name: string | null; saved_at: Date | null; n: number; w: number; s: number; e: number; n2: number }) => ({ id: x.id, fileName: x.file_name, savedAt: x.saved_at, count: x.n, extent: [x.w, x.s, x.e, x.n2] }));
+  return r.rows.map(
+    (x: {
+      id: string | null;
+      file_name: string | null;
+      saved_at: Date | null;
+      n: number;
+      w: number;
+      s: number;
+      e: number;
+      n2: number;
+    }) => ({ id: x.id, fileName: x.file_name, savedAt: x.saved_at, count: x.n, extent: [x.w, x.s, x.e, x.n2] }),
+  );
 }
 
 /** The parcels an upload saved (still in the register), with their outlines, first `limit` by reference. */
 export async function parcelsOfUpload(db: Db, batchId: string, limit: number) {
-  const batch = await db('upload_batch').where({ id: batchId, purpose: 'parcels' }).first('id', 'file_name', 'saved_at');
+  const batch = await db('upload_batch')
+    .where({ id: batchId, purpose: 'parcels' })
+    .first('id', 'file_name', 'saved_at');
   if (!batch) return null;
   const [{ n }] = (await db.raw('select count(*)::int as n from parcel where batch_id = ?', [batchId])).rows;
   const rows = (
-    await db.raw(`select id::int as id, reference, st_asgeojson(geom, 7)::json as geometry from parcel where batch_id = ? order by reference limit ?`, [batchId, limit])
+    await db.raw(
+      `select id::int as id, reference, st_asgeojson(geom, 7)::json as geometry from parcel where batch_id = ? order by reference limit ?`,
+      [batchId, limit],
+    )
   ).rows as { id: number; reference: string; geometry: GeoJSON.MultiPolygon }[];
   return { fileName: batch.file_name as string, savedAt: batch.saved_at as Date, count: Number(n), rows };
 }
 
 export async function bumpMapVersion(db: Db): Promise<number> {
-  const r = await db.raw("update map_data_version set version = version + 1, changed_at = now() where name = 'map' returning version");
+  const r = await db.raw(
+    "update map_data_version set version = version + 1, changed_at = now() where name = 'map' returning version",
+  );
   return Number(r.rows[0].version);
 }
 

@@ -29,7 +29,10 @@ export type ProposalRow = {
 const DETAIL_COLUMNS = `p.*, to_char(p.decision_due, 'YYYY-MM-DD') as decision_due, u.name as created_by_name`;
 
 export async function getProposal(db: Db, id: number, opts: { lock?: boolean } = {}): Promise<ProposalRow | null> {
-  const r = await db.raw(`select ${DETAIL_COLUMNS} from proposal p left join "user" u on u.id = p.created_by where p.id = ? ${opts.lock ? 'for update of p' : ''}`, [id]);
+  const r = await db.raw(
+    `select ${DETAIL_COLUMNS} from proposal p left join "user" u on u.id = p.created_by where p.id = ? ${opts.lock ? 'for update of p' : ''}`,
+    [id],
+  );
   return r.rows[0] ?? null;
 }
 
@@ -38,37 +41,85 @@ export async function nextReference(db: Db, year: number): Promise<string> {
   return `P-${year}-${String(r.rows[0].n).padStart(4, '0')}`;
 }
 
-export type ProposalInsert = { reference: string; title: string; description: string; startYear: number; proposed: LandUseState; applicant: { name: string; contact: string; interest: string }; by: string };
+export type ProposalInsert = {
+  reference: string;
+  title: string;
+  description: string;
+  startYear: number;
+  proposed: LandUseState;
+  applicant: { name: string; contact: string; interest: string };
+  by: string;
+};
 
 export async function insertProposal(db: Db, p: ProposalInsert): Promise<number> {
   const [row] = await db('proposal')
     .insert({
-      reference: p.reference, title: p.title, description: p.description, start_year: p.startYear, proposed: JSON.stringify(p.proposed),
-      applicant_name: p.applicant.name, applicant_contact: p.applicant.contact, applicant_interest: p.applicant.interest, created_by: p.by, updated_by: p.by,
+      reference: p.reference,
+      title: p.title,
+      description: p.description,
+      start_year: p.startYear,
+      proposed: JSON.stringify(p.proposed),
+      applicant_name: p.applicant.name,
+      applicant_contact: p.applicant.contact,
+      applicant_interest: p.applicant.interest,
+      created_by: p.by,
+      updated_by: p.by,
     })
     .returning('id');
   return Number(row.id);
 }
 
-export async function updateProposalFields(db: Db, id: number, fields: Partial<Omit<ProposalInsert, 'reference' | 'by'>>, by: string): Promise<number> {
+export async function updateProposalFields(
+  db: Db,
+  id: number,
+  fields: Partial<Omit<ProposalInsert, 'reference' | 'by'>>,
+  by: string,
+): Promise<number> {
   const set: Record<string, unknown> = { updated_by: by, updated_at: db.fn.now(), version: db.raw('version + 1') };
   if (fields.title !== undefined) set.title = fields.title;
   if (fields.description !== undefined) set.description = fields.description;
   if (fields.startYear !== undefined) set.start_year = fields.startYear;
   if (fields.proposed !== undefined) set.proposed = JSON.stringify(fields.proposed);
-  if (fields.applicant !== undefined) Object.assign(set, { applicant_name: fields.applicant.name, applicant_contact: fields.applicant.contact, applicant_interest: fields.applicant.interest });
+  if (fields.applicant !== undefined)
+    Object.assign(set, {
+      applicant_name: fields.applicant.name,
+      applicant_contact: fields.applicant.contact,
+      applicant_interest: fields.applicant.interest,
+    });
   const [row] = await db('proposal').where({ id }).update(set).returning('version');
   return Number(row.version);
 }
 
-export async function setState(db: Db, id: number, p: { from: ProposalState; to: ProposalState; reason: string | null; by: string; submittedAt?: boolean; decisionDays?: number }): Promise<number> {
-  const set: Record<string, unknown> = { state: p.to, updated_by: p.by, updated_at: db.fn.now(), version: db.raw('version + 1') };
+export async function setState(
+  db: Db,
+  id: number,
+  p: {
+    from: ProposalState;
+    to: ProposalState;
+    reason: string | null;
+    by: string;
+    submittedAt?: boolean;
+    decisionDays?: number;
+  },
+): Promise<number> {
+  const set: Record<string, unknown> = {
+    state: p.to,
+    updated_by: p.by,
+    updated_at: db.fn.now(),
+    version: db.raw('version + 1'),
+  };
   if (p.submittedAt) {
     set.submitted_at = db.fn.now();
     set.decision_due = db.raw('current_date + ?::int', [p.decisionDays ?? 35]);
   }
   const [row] = await db('proposal').where({ id }).update(set).returning('version');
-  await db('proposal_event').insert({ proposal_id: id, from_state: p.from, to_state: p.to, reason: p.reason, by: p.by });
+  await db('proposal_event').insert({
+    proposal_id: id,
+    from_state: p.from,
+    to_state: p.to,
+    reason: p.reason,
+    by: p.by,
+  });
   return Number(row.version);
 }
 
@@ -78,7 +129,10 @@ export async function insertCreatedEvent(db: Db, id: number, by: string): Promis
 
 /** Parcels that do not exist, by id. */
 export async function missingParcels(db: Db, ids: number[]): Promise<number[]> {
-  const r = await db.raw('select i from unnest(?::bigint[]) i where not exists (select 1 from parcel p where p.id = i)', [ids]);
+  const r = await db.raw(
+    'select i from unnest(?::bigint[]) i where not exists (select 1 from parcel p where p.id = i)',
+    [ids],
+  );
   return r.rows.map((x: { i: string }) => Number(x.i));
 }
 
@@ -86,7 +140,11 @@ export async function missingParcels(db: Db, ids: number[]): Promise<number[]> {
  * Replaces the parcels of a proposal. A part must lie inside its parcel (0.5 m tolerance for
  * digitising along the edge, measured on the ellipsoid); returns the references of parts that do not.
  */
-export async function replaceParcels(db: Db, proposalId: number, parcels: { parcelId: number; part: MultiPolygon | null }[]): Promise<{ outside: string[] }> {
+export async function replaceParcels(
+  db: Db,
+  proposalId: number,
+  parcels: { parcelId: number; part: MultiPolygon | null }[],
+): Promise<{ outside: string[] }> {
   await db('proposal_parcel').where({ proposal_id: proposalId }).delete();
   const rows = parcels.map((p, i) => ({ id: p.parcelId, pos: i, part: p.part ? JSON.stringify(p.part) : null }));
   await db.raw(
@@ -106,7 +164,18 @@ export async function replaceParcels(db: Db, proposalId: number, parcels: { parc
   return { outside: outside.rows.map((r: { reference: string }) => r.reference) };
 }
 
-export type ProposalParcelRow = { parcel_id: number; reference: string; name: string | null; owner_ref: string | null; area_ha: number; parcel_area_ha: number; part: MultiPolygon | null; geometry: MultiPolygon; land_use: string | null; management: string | null };
+export type ProposalParcelRow = {
+  parcel_id: number;
+  reference: string;
+  name: string | null;
+  owner_ref: string | null;
+  area_ha: number;
+  parcel_area_ha: number;
+  part: MultiPolygon | null;
+  geometry: MultiPolygon;
+  land_use: string | null;
+  management: string | null;
+};
 
 export async function listParcels(db: Db, proposalId: number): Promise<ProposalParcelRow[]> {
   const r = await db.raw(
@@ -123,22 +192,49 @@ export async function listEvents(db: Db, proposalId: number) {
     `select e.from_state, e.to_state, e.reason, u.name as by_name, e.at from proposal_event e left join "user" u on u.id = e.by where e.proposal_id = ? order by e.id`,
     [proposalId],
   );
-  return r.rows as { from_state: string | null; to_state: string; reason: string | null; by_name: string | null; at: Date }[];
+  return r.rows as {
+    from_state: string | null;
+    to_state: string;
+    reason: string | null;
+    by_name: string | null;
+    at: Date;
+  }[];
 }
 
-export type ListFilter = { state?: ProposalState; parcel?: string; risk?: number; q?: string; sort: string; dir: 'asc' | 'desc'; page: number; pageSize: number };
+export type ListFilter = {
+  state?: ProposalState;
+  parcel?: string;
+  risk?: number;
+  q?: string;
+  sort: string;
+  dir: 'asc' | 'desc';
+  page: number;
+  pageSize: number;
+};
 
 const SORTS: Record<string, string> = {
-  reference: 'p.id', title: 'lower(p.title)', state: 'p.state', updated: 'p.updated_at', deadline: 'p.decision_due', risk: 'a.grade_level', co2e: 'a.co2e_total', area: 'area_ha',
+  reference: 'p.id',
+  title: 'lower(p.title)',
+  state: 'p.state',
+  updated: 'p.updated_at',
+  deadline: 'p.decision_due',
+  risk: 'a.grade_level',
+  co2e: 'a.co2e_total',
+  area: 'area_ha',
 };
 
 export async function listProposals(db: Db, f: ListFilter) {
   const where: string[] = ['true'];
   const args: Knex.Value[] = [];
   if (f.state) where.push('p.state = ?') && args.push(f.state);
-  if (f.parcel) where.push('exists (select 1 from proposal_parcel x join parcel y on y.id = x.parcel_id where x.proposal_id = p.id and lower(y.reference) = lower(?))') && args.push(f.parcel);
+  if (f.parcel)
+    where.push(
+      'exists (select 1 from proposal_parcel x join parcel y on y.id = x.parcel_id where x.proposal_id = p.id and lower(y.reference) = lower(?))',
+    ) && args.push(f.parcel);
   if (f.risk) where.push('a.grade_level = ?') && args.push(f.risk);
-  if (f.q) where.push("(p.reference ilike ? or p.title ilike ?)") && args.push(`%${f.q.replace(/[%_\\]/g, '\\$&')}%`, `%${f.q.replace(/[%_\\]/g, '\\$&')}%`);
+  if (f.q)
+    where.push('(p.reference ilike ? or p.title ilike ?)') &&
+      args.push(`%${f.q.replace(/[%_\\]/g, '\\$&')}%`, `%${f.q.replace(/[%_\\]/g, '\\$&')}%`);
   const from = `from proposal p
     left join lateral (select grade_level, grade_label, co2e_total from assessment where proposal_id = p.id order by number desc limit 1) a on true
     left join lateral (select count(*)::int as parcel_count, coalesce(sum(pp.area_ha), 0) as area_ha,
@@ -159,11 +255,31 @@ export async function listProposals(db: Db, f: ListFilter) {
 }
 
 export type ListRow = {
-  id: number; reference: string; title: string; state: ProposalState; start_year: number; submitted_at: Date | null; decision_due: string | null; updated_at: Date;
-  grade_level: number | null; grade_label: string | null; co2e_total: number | null; parcel_count: number; area_ha: number; refs: string[] | null;
+  id: number;
+  reference: string;
+  title: string;
+  state: ProposalState;
+  start_year: number;
+  submitted_at: Date | null;
+  decision_due: string | null;
+  updated_at: Date;
+  grade_level: number | null;
+  grade_label: string | null;
+  co2e_total: number | null;
+  parcel_count: number;
+  area_ha: number;
+  refs: string[] | null;
 };
 
-export type AttachmentRow = { id: string; file_name: string; media_type: string; size_bytes: number; sha256: string; uploaded_by_name: string | null; uploaded_at: Date };
+export type AttachmentRow = {
+  id: string;
+  file_name: string;
+  media_type: string;
+  size_bytes: number;
+  sha256: string;
+  uploaded_by_name: string | null;
+  uploaded_at: Date;
+};
 
 export async function listAttachments(db: Db, proposalId: number): Promise<AttachmentRow[]> {
   const r = await db.raw(
@@ -174,17 +290,49 @@ export async function listAttachments(db: Db, proposalId: number): Promise<Attac
   return r.rows;
 }
 
-export async function insertAttachment(db: Db, a: { id: string; proposalId: number; fileName: string; mediaType: string; bytes: Uint8Array; sha256: string; by: string }): Promise<void> {
-  await db('proposal_attachment').insert({ id: a.id, proposal_id: a.proposalId, file_name: a.fileName, media_type: a.mediaType, size_bytes: a.bytes.length, sha256: a.sha256, bytes: Buffer.from(a.bytes), uploaded_by: a.by });
+export async function insertAttachment(
+  db: Db,
+  a: {
+    id: string;
+    proposalId: number;
+    fileName: string;
+    mediaType: string;
+    bytes: Uint8Array;
+    sha256: string;
+    by: string;
+  },
+): Promise<void> {
+  await db('proposal_attachment').insert({
+    id: a.id,
+    proposal_id: a.proposalId,
+    file_name: a.fileName,
+    media_type: a.mediaType,
+    size_bytes: a.bytes.length,
+    sha256: a.sha256,
+    bytes: Buffer.from(a.bytes),
+    uploaded_by: a.by,
+  });
 }
 
-export async function getAttachment(db: Db, proposalId: number, id: string): Promise<{ file_name: string; media_type: string; bytes: Buffer; sha256: string } | null> {
-  return (await db('proposal_attachment').select('file_name', 'media_type', 'bytes', 'sha256').where({ proposal_id: proposalId, id }).first()) ?? null;
+export async function getAttachment(
+  db: Db,
+  proposalId: number,
+  id: string,
+): Promise<{ file_name: string; media_type: string; bytes: Buffer; sha256: string } | null> {
+  return (
+    (await db('proposal_attachment')
+      .select('file_name', 'media_type', 'bytes', 'sha256')
+      .where({ proposal_id: proposalId, id })
+      .first()) ?? null
+  );
 }
 
 /** Users holding a role (active ones), for notifications. */
 export async function usersWithRole(db: Db, role: string): Promise<{ id: string; name: string; email: string }[]> {
-  const r = await db.raw(`select id, name, email from "user" where ? = any(string_to_array(role, ',')) and coalesce(banned, false) = false order by email`, [role]);
+  const r = await db.raw(
+    `select id, name, email from "user" where ? = any(string_to_array(role, ',')) and coalesce(banned, false) = false order by email`,
+    [role],
+  );
   return r.rows;
 }
 

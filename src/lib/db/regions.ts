@@ -28,10 +28,17 @@ export type ReferenceRatio = {
 };
 
 async function currentRegionVersion(conn: Db): Promise<{ id: number; version: number } | null> {
-  return (await conn('reference_layer_version').where({ kind: 'region', status: 'published' }).orderBy('version', 'desc').first('id', 'version')) ?? null;
+  return (
+    (await conn('reference_layer_version')
+      .where({ kind: 'region', status: 'published' })
+      .orderBy('version', 'desc')
+      .first('id', 'version')) ?? null
+  );
 }
 
-export async function regionList(conn: Db): Promise<{ layerVersion: number | null; regions: { key: string; label: string }[] }> {
+export async function regionList(
+  conn: Db,
+): Promise<{ layerVersion: number | null; regions: { key: string; label: string }[] }> {
   const v = await currentRegionVersion(conn);
   if (!v) return { layerVersion: null, regions: [] };
   return { layerVersion: v.version, regions: await regionsOfVersion(conn, v.id) };
@@ -39,7 +46,11 @@ export async function regionList(conn: Db): Promise<{ layerVersion: number | nul
 
 /** The regions (key and name) of one region layer version. */
 export async function regionsOfVersion(conn: Db, versionId: number): Promise<{ key: string; label: string }[]> {
-  const rows: { key: string; label: string | null }[] = await conn('reference_feature').where({ version_id: versionId }).groupBy('class').orderBy('class').select('class as key', conn.raw('min(label) as label'));
+  const rows: { key: string; label: string | null }[] = await conn('reference_feature')
+    .where({ version_id: versionId })
+    .groupBy('class')
+    .orderBy('class')
+    .select('class as key', conn.raw('min(label) as label'));
   return rows.map((r) => ({ key: r.key, label: r.label ?? classLabel(r.key) }));
 }
 
@@ -68,10 +79,25 @@ export async function regionStatsAt(conn: Db, dates: string[], keys?: string[]):
     [v.id, latest, wanted.map((r) => r.key)],
   );
   const s = await getGisSettings(conn);
-  const windows = { permanentGrasslandYears: s['land-use.permanent-grassland-years'], uncultivatedYears: s['land-use.uncultivated-years'], tillageEndsGrassland: s['land-use.tillage-ends-grassland'] };
-  const parcels: RegionParcel[] = assigned.rows.map((r: { region_key: string; area_ha: number; events: LandUseEvent[] }) => ({ regionKey: r.region_key, areaHa: Number(r.area_ha), events: r.events }));
+  const windows = {
+    permanentGrasslandYears: s['land-use.permanent-grassland-years'],
+    uncultivatedYears: s['land-use.uncultivated-years'],
+    tillageEndsGrassland: s['land-use.tillage-ends-grassland'],
+  };
+  const parcels: RegionParcel[] = assigned.rows.map(
+    (r: { region_key: string; area_ha: number; events: LandUseEvent[] }) => ({
+      regionKey: r.region_key,
+      areaHa: Number(r.area_ha),
+      events: r.events,
+    }),
+  );
   return dates.map((asOf) =>
-    regionFigures(wanted, asOf === latest ? parcels : parcels.map((p) => ({ ...p, events: p.events.filter((e) => e.date <= asOf) })), asOf, windows),
+    regionFigures(
+      wanted,
+      asOf === latest ? parcels : parcels.map((p) => ({ ...p, events: p.events.filter((e) => e.date <= asOf) })),
+      asOf,
+      windows,
+    ),
   );
 }
 
@@ -102,39 +128,93 @@ export async function referenceRatios(conn: Db, keys: string[]): Promise<Map<str
  * Figures as of `asOf` and reference ratios of the same regions from one read of the history
  * (what an assessment, the screening map and the dashboard need together).
  */
-export async function regionStatsWithReference(conn: Db, asOf: string, keys?: string[]): Promise<{ stats: RegionStat[]; refs: Map<string, ReferenceRatio> }> {
+export async function regionStatsWithReference(
+  conn: Db,
+  asOf: string,
+  keys?: string[],
+): Promise<{ stats: RegionStat[]; refs: Map<string, ReferenceRatio> }> {
   const year = await referenceYear(conn);
   const [stats = [], figs = []] = await regionStatsAt(conn, [asOf, referenceDate(year)], keys);
-  return { stats, refs: await ratiosFrom(conn, year, figs, stats.map((s) => s.key)) };
+  return {
+    stats,
+    refs: await ratiosFrom(
+      conn,
+      year,
+      figs,
+      stats.map((s) => s.key),
+    ),
+  };
 }
 
-async function ratiosFrom(conn: Db, year: number, figs: RegionStat[], keys: string[]): Promise<Map<string, ReferenceRatio>> {
+async function ratiosFrom(
+  conn: Db,
+  year: number,
+  figs: RegionStat[],
+  keys: string[],
+): Promise<Map<string, ReferenceRatio>> {
   const out = new Map<string, ReferenceRatio>();
   if (!keys.length) return out;
   for (const fig of figs) {
     if (!keys.includes(fig.key)) continue;
     if (historyCovers(fig)) {
-      out.set(fig.key, { key: fig.key, referenceYear: year, ratio: fig.permanentGrasslandHa / fig.agriculturalHa, origin: 'computed', source: `Computed from the recorded land-use history as of ${referenceDate(year)}`, enteredBy: null, enteredAt: null });
+      out.set(fig.key, {
+        key: fig.key,
+        referenceYear: year,
+        ratio: fig.permanentGrasslandHa / fig.agriculturalHa,
+        origin: 'computed',
+        source: `Computed from the recorded land-use history as of ${referenceDate(year)}`,
+        enteredBy: null,
+        enteredAt: null,
+      });
     }
   }
   const missing = keys.filter((k) => !out.has(k));
   if (missing.length) {
-    const rows = await conn('region_reference_ratio as r').leftJoin('user as u', 'u.id', 'r.entered_by').whereIn('r.region_key', missing)
-      .distinctOn('r.region_key').orderBy([{ column: 'r.region_key' }, { column: 'r.id', order: 'desc' }])
+    const rows = await conn('region_reference_ratio as r')
+      .leftJoin('user as u', 'u.id', 'r.entered_by')
+      .whereIn('r.region_key', missing)
+      .distinctOn('r.region_key')
+      .orderBy([{ column: 'r.region_key' }, { column: 'r.id', order: 'desc' }])
       .select('r.region_key', 'r.reference_year', 'r.ratio', 'r.source', 'u.name', 'r.entered_at');
     for (const row of rows) {
-      out.set(row.region_key, { key: row.region_key, referenceYear: row.reference_year, ratio: Number(row.ratio), origin: 'entered', source: row.source, enteredBy: row.name ?? null, enteredAt: row.entered_at.toISOString() });
+      out.set(row.region_key, {
+        key: row.region_key,
+        referenceYear: row.reference_year,
+        ratio: Number(row.ratio),
+        origin: 'entered',
+        source: row.source,
+        enteredBy: row.name ?? null,
+        enteredAt: row.entered_at.toISOString(),
+      });
     }
   }
   return out;
 }
 
-export async function insertReferenceRatio(conn: Db, r: { key: string; referenceYear: number; ratio: number; source: string; by: string }): Promise<number> {
-  const [row] = await conn('region_reference_ratio').insert({ region_key: r.key, reference_year: r.referenceYear, ratio: r.ratio, source: r.source, entered_by: r.by }).returning('id');
+export async function insertReferenceRatio(
+  conn: Db,
+  r: { key: string; referenceYear: number; ratio: number; source: string; by: string },
+): Promise<number> {
+  const [row] = await conn('region_reference_ratio')
+    .insert({ region_key: r.key, reference_year: r.referenceYear, ratio: r.ratio, source: r.source, entered_by: r.by })
+    .returning('id');
   return Number(row.id);
 }
 
-export async function listEnteredRatios(conn: Db, key: string): Promise<{ referenceYear: number; ratio: number; source: string; enteredBy: string | null; enteredAt: string }[]> {
-  const rows = await conn('region_reference_ratio as r').leftJoin('user as u', 'u.id', 'r.entered_by').where('r.region_key', key).orderBy('r.id', 'desc').select('r.reference_year', 'r.ratio', 'r.source', 'u.name', 'r.entered_at');
-  return rows.map((r) => ({ referenceYear: r.reference_year, ratio: Number(r.ratio), source: r.source, enteredBy: r.name ?? null, enteredAt: r.entered_at.toISOString() }));
+export async function listEnteredRatios(
+  conn: Db,
+  key: string,
+): Promise<{ referenceYear: number; ratio: number; source: string; enteredBy: string | null; enteredAt: string }[]> {
+  const rows = await conn('region_reference_ratio as r')
+    .leftJoin('user as u', 'u.id', 'r.entered_by')
+    .where('r.region_key', key)
+    .orderBy('r.id', 'desc')
+    .select('r.reference_year', 'r.ratio', 'r.source', 'u.name', 'r.entered_at');
+  return rows.map((r) => ({
+    referenceYear: r.reference_year,
+    ratio: Number(r.ratio),
+    source: r.source,
+    enteredBy: r.name ?? null,
+    enteredAt: r.entered_at.toISOString(),
+  }));
 }

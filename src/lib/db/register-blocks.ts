@@ -20,7 +20,13 @@ export async function storedBlocks(db: Db, size: number): Promise<BlockDigest[]>
      where last_seq - first_seq + 1 = ? and (first_seq - 1) % ? = 0 order by first_seq`,
     [size, size],
   );
-  return r.rows.map((x: { first: number; last: number; last_hash: string; digest: string }) => ({ first: x.first, last: x.last, n: size, lastHash: x.last_hash, digest: x.digest }));
+  return r.rows.map((x: { first: number; last: number; last_hash: string; digest: string }) => ({
+    first: x.first,
+    last: x.last,
+    n: size,
+    lastHash: x.last_hash,
+    digest: x.digest,
+  }));
 }
 
 /** Digests of the blocks of `size` entries between `from` and `to` (both block edges), as the rows are now. */
@@ -30,12 +36,27 @@ export async function blockDigests(db: Db, size: number, from: number, to: numbe
      from register_entry where seq between ? and ? group by (seq - 1) / ? order by 1`,
     [from, to, size],
   );
-  return r.rows.map((x: { first: number; last: number; n: number; last_hash: string; digest: string }) => ({ first: x.first, last: x.last, n: x.n, lastHash: x.last_hash, digest: x.digest }));
+  return r.rows.map((x: { first: number; last: number; n: number; last_hash: string; digest: string }) => ({
+    first: x.first,
+    last: x.last,
+    n: x.n,
+    lastHash: x.last_hash,
+    digest: x.digest,
+  }));
 }
 
 export async function saveBlocks(db: Db, blocks: BlockDigest[]): Promise<void> {
   if (!blocks.length) return;
   await db('register_verified_block')
-    .insert(blocks.map((b) => ({ first_seq: b.first, last_seq: b.last, last_hash: b.lastHash, digest: b.digest, verified_at: db.fn.now() })))
-    .onConflict(['first_seq', 'last_seq']).merge();
+    .insert(
+      blocks.map((b) => ({
+        first_seq: b.first,
+        last_seq: b.last,
+        last_hash: b.lastHash,
+        digest: b.digest,
+        verified_at: db.fn.now(),
+      })),
+    )
+    .onConflict(['first_seq', 'last_seq'])
+    .merge();
 }

@@ -7,7 +7,11 @@ import type { Db } from './client';
 /** One lock key for appends to the register, shared by every instance (pg_advisory_xact_lock). */
 const APPEND_LOCK = 0x5257_4b01;
 
-export type RegisterRow = StoredEntry & { supersedes_seq: number | null; created_at: Date; superseded_by: number | null };
+export type RegisterRow = StoredEntry & {
+  supersedes_seq: number | null;
+  created_at: Date;
+  superseded_by: number | null;
+};
 
 export async function head(db: Db): Promise<{ seq: number; hash: string } | null> {
   const r = await db.raw('select seq, hash from register_entry order by seq desc limit 1');
@@ -24,7 +28,10 @@ export async function listState(db: Db): Promise<ListState> {
      from (select 1) one left join lateral (select seq, hash from register_entry order by seq desc limit 1) h on true`,
   );
   const row = r.rows[0];
-  return { head: row.seq === null ? null : { seq: Number(row.seq), hash: row.hash }, regionVersionId: row.region_version === null ? null : Number(row.region_version) };
+  return {
+    head: row.seq === null ? null : { seq: Number(row.seq), hash: row.hash },
+    regionVersionId: row.region_version === null ? null : Number(row.region_version),
+  };
 }
 
 /** Appends an entry in the caller's transaction; the advisory lock makes concurrent appends queue, so the chain cannot fork. */
@@ -34,12 +41,24 @@ export async function appendEntry(trx: Db, content: RegisterContent): Promise<{ 
   const seq = (last?.seq ?? 0) + 1;
   const prevHash = last?.hash ?? GENESIS_HASH;
   const hash = entryHash(seq, prevHash, content);
-  await trx('register_entry').insert({ seq, prev_hash: prevHash, hash, content: JSON.stringify(content), supersedes_seq: content.supersedes });
+  await trx('register_entry').insert({
+    seq,
+    prev_hash: prevHash,
+    hash,
+    content: JSON.stringify(content),
+    supersedes_seq: content.supersedes,
+  });
   return { seq, hash };
 }
 
 /** Entries in seq order after `afterSeq`, `limit` at a time (keyset paging for exports and single entries). */
-export async function batchAfter(db: Db, afterSeq: number, limit: number, where = 'true', args: Knex.Value[] = []): Promise<RegisterRow[]> {
+export async function batchAfter(
+  db: Db,
+  afterSeq: number,
+  limit: number,
+  where = 'true',
+  args: Knex.Value[] = [],
+): Promise<RegisterRow[]> {
   const r = await db.raw(
     `select seq::float8 as seq, prev_hash, hash, content, supersedes_seq::float8 as supersedes_seq, created_at,
             (select min(s.seq)::float8 from register_entry s where s.supersedes_seq = e.seq) as superseded_by
@@ -50,7 +69,13 @@ export async function batchAfter(db: Db, afterSeq: number, limit: number, where 
 }
 
 /** One CSV row per entry, every column computed from the stored content (named as `CSV_COLUMNS`); nothing to parse in Node. */
-export async function csvBatchAfter(db: Db, afterSeq: number, limit: number, where = 'true', args: Knex.Value[] = []): Promise<({ seq: number } & Record<string, string | number | null>)[]> {
+export async function csvBatchAfter(
+  db: Db,
+  afterSeq: number,
+  limit: number,
+  where = 'true',
+  args: Knex.Value[] = [],
+): Promise<({ seq: number } & Record<string, string | number | null>)[]> {
   // jsonb_to_record reads the stored content once per row (each -> on the column itself would read the whole value again).
   const r = await db.raw(
     `select e.seq::float8 as seq, e.hash, c.kind, c.proposal->>'reference' as reference, c.proposal->>'title' as title,
@@ -74,7 +99,10 @@ export async function csvBatchAfter(db: Db, afterSeq: number, limit: number, whe
 
 /** Only what verify needs (seq, hashes, content as text parsed once), in seq order. */
 export async function chainBatch(db: Db, afterSeq: number, limit: number): Promise<StoredEntry[]> {
-  const r = await db.raw('select seq::float8 as seq, prev_hash, hash, content from register_entry where seq > ? order by seq limit ?', [afterSeq, limit]);
+  const r = await db.raw(
+    'select seq::float8 as seq, prev_hash, hash, content from register_entry where seq > ? order by seq limit ?',
+    [afterSeq, limit],
+  );
   return r.rows;
 }
 
@@ -82,7 +110,16 @@ export async function getEntry(db: Db, seq: number): Promise<RegisterRow | null>
   return (await batchAfter(db, seq - 1, 1, 'seq = ?', [seq]))[0] ?? null;
 }
 
-export type RegisterFilter = { outcome?: string; year?: number; risk?: number; areaMin?: number; areaMax?: number; region?: string; q?: string; current?: boolean };
+export type RegisterFilter = {
+  outcome?: string;
+  year?: number;
+  risk?: number;
+  areaMin?: number;
+  areaMax?: number;
+  region?: string;
+  q?: string;
+  current?: boolean;
+};
 
 /**
  * The WHERE clause of a filter over `register_entry e`. With `headSeq`, the register as it stood
@@ -101,11 +138,15 @@ export function filterSql(f: RegisterFilter, headSeq?: number): { where: string;
   if (f.region) where.push('e.region = ?') && args.push(f.region);
   if (f.q) {
     const like = `%${f.q.replace(/[%_\\]/g, '\\$&')}%`;
-    where.push("(e.reference ilike ? or e.content->'proposal'->>'title' ilike ? or exists (select 1 from jsonb_array_elements(e.content->'parcels') p where p->>'reference' ilike ?))");
+    where.push(
+      "(e.reference ilike ? or e.content->'proposal'->>'title' ilike ? or exists (select 1 from jsonb_array_elements(e.content->'parcels') p where p->>'reference' ilike ?))",
+    );
     args.push(like, like, like);
   }
   if (f.current) {
-    where.push(`not exists (select 1 from register_entry s where s.supersedes_seq = e.seq${headSeq !== undefined ? ' and s.seq <= ?' : ''})`);
+    where.push(
+      `not exists (select 1 from register_entry s where s.supersedes_seq = e.seq${headSeq !== undefined ? ' and s.seq <= ?' : ''})`,
+    );
     if (headSeq !== undefined) args.push(headSeq);
   }
   return { where: where.join(' and '), args };
@@ -116,12 +157,30 @@ export function filterSql(f: RegisterFilter, headSeq?: number): { where: string;
  * 20261202010100). None is ever null (the content schema requires them), so a plain ORDER BY
  * (which an index scan gives in either direction) sorts as NULLS LAST would.
  */
-const SORTS: Record<string, string> = { seq: 'e.seq', decided: "(e.content->>'decidedOn')", area: 'e.area_ha', risk: 'e.risk_level', co2e: "((e.content->'figures'->>'co2eTotal')::float8)", reference: 'e.reference' };
+const SORTS: Record<string, string> = {
+  seq: 'e.seq',
+  decided: "(e.content->>'decidedOn')",
+  area: 'e.area_ha',
+  risk: 'e.risk_level',
+  co2e: "((e.content->'figures'->>'co2eTotal')::float8)",
+  reference: 'e.reference',
+};
 
-export type ListRow = { seq: number; hash: string; supersedes_seq: number | null; superseded_by: number | null; created_at: Date; summary: Record<string, unknown> };
+export type ListRow = {
+  seq: number;
+  hash: string;
+  supersedes_seq: number | null;
+  superseded_by: number | null;
+  created_at: Date;
+  summary: Record<string, unknown>;
+};
 
 /** One page of the register as it stood at `headSeq`. */
-export async function listEntries(db: Db, f: RegisterFilter & { sort: string; dir: 'asc' | 'desc'; page: number; pageSize: number }, headSeq: number): Promise<ListRow[]> {
+export async function listEntries(
+  db: Db,
+  f: RegisterFilter & { sort: string; dir: 'asc' | 'desc'; page: number; pageSize: number },
+  headSeq: number,
+): Promise<ListRow[]> {
   const { where, args } = filterSql(f, headSeq);
   const dir = f.dir === 'asc' ? 'asc' : 'desc';
   const sort = SORTS[f.sort] ?? 'e.seq';

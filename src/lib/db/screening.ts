@@ -5,8 +5,18 @@ import { analyzeAfterBulkWrite } from './bulk';
 import type { Db } from './client';
 
 export type ScreeningInputRow = {
-  id: number; reference: string; area_ha: number; owner_ref: string | null; climate: string | null; climate_cover: number | null;
-  soils: { class: string; share: number }[]; soil_cover: number | null; sensitive: number; never_tilled: number; slope: { class: string; share: number }[]; region: string | null;
+  id: number;
+  reference: string;
+  area_ha: number;
+  owner_ref: string | null;
+  climate: string | null;
+  climate_cover: number | null;
+  soils: { class: string; share: number }[];
+  soil_cover: number | null;
+  sensitive: number;
+  never_tilled: number;
+  slope: { class: string; share: number }[];
+  region: string | null;
 };
 
 /** Every parcel with its overlay against the current published layers, summarised per kind. */
@@ -34,8 +44,16 @@ export async function screeningInputs(db: Db): Promise<ScreeningInputRow[]> {
 }
 
 export async function allEvents(db: Db) {
-  const r = await db.raw(`select parcel_id::int as parcel_id, to_char(event_date, 'YYYY-MM-DD') as date, kind, value, cultivation from land_use_event order by parcel_id, event_date, id`);
-  return r.rows as { parcel_id: number; date: string; kind: 'land-use' | 'management' | 'tillage' | 'reseeding'; value: string | null; cultivation: boolean }[];
+  const r = await db.raw(
+    `select parcel_id::int as parcel_id, to_char(event_date, 'YYYY-MM-DD') as date, kind, value, cultivation from land_use_event order by parcel_id, event_date, id`,
+  );
+  return r.rows as {
+    parcel_id: number;
+    date: string;
+    kind: 'land-use' | 'management' | 'tillage' | 'reseeding';
+    value: string | null;
+    cultivation: boolean;
+  }[];
 }
 
 /** Permanent grassland converted per holding by proposals (submitted or later, not withdrawn) within the window. */
@@ -51,9 +69,32 @@ export async function proposalsByHolding(db: Db, windowYears: number) {
   return r.rows as { owner_ref: string; ha: number; refs: string[] }[];
 }
 
-export async function insertRun(db: Db, run: { factorSet: { id: string; version: number }; ruleSet: { id: string; version: number }; layers: Record<string, number>; mapVersion: number; screened: number; ms: number; reason: string; by: string | null }): Promise<number> {
+export async function insertRun(
+  db: Db,
+  run: {
+    factorSet: { id: string; version: number };
+    ruleSet: { id: string; version: number };
+    layers: Record<string, number>;
+    mapVersion: number;
+    screened: number;
+    ms: number;
+    reason: string;
+    by: string | null;
+  },
+): Promise<number> {
   const [row] = await db('screening_run')
-    .insert({ factor_set_id: run.factorSet.id, factor_set_version: run.factorSet.version, rule_set_id: run.ruleSet.id, rule_set_version: run.ruleSet.version, layer_versions: JSON.stringify(run.layers), map_data_version: run.mapVersion, parcels_screened: run.screened, duration_ms: run.ms, reason: run.reason, by: run.by })
+    .insert({
+      factor_set_id: run.factorSet.id,
+      factor_set_version: run.factorSet.version,
+      rule_set_id: run.ruleSet.id,
+      rule_set_version: run.ruleSet.version,
+      layer_versions: JSON.stringify(run.layers),
+      map_data_version: run.mapVersion,
+      parcels_screened: run.screened,
+      duration_ms: run.ms,
+      reason: run.reason,
+      by: run.by,
+    })
     .returning('id');
   return Number(row.id);
 }
@@ -62,7 +103,18 @@ export async function insertRun(db: Db, run: { factorSet: { id: string; version:
 export async function replaceResults(db: Db, runId: number, results: ScreeningResult[]): Promise<void> {
   await db('screening_result').delete();
   for (let at = 0; at < results.length; at += 5000) {
-    const rows = results.slice(at, at + 5000).map((r) => ({ p: r.parcelId, l: r.level, lb: r.label, c: r.co2eTotal, h: r.co2eHigh, s: r.socLossPerHa, r: r.rules, pr: r.problem }));
+    const rows = results
+      .slice(at, at + 5000)
+      .map((r) => ({
+        p: r.parcelId,
+        l: r.level,
+        lb: r.label,
+        c: r.co2eTotal,
+        h: r.co2eHigh,
+        s: r.socLossPerHa,
+        r: r.rules,
+        pr: r.problem,
+      }));
     await db.raw(
       `insert into screening_result (parcel_id, run_id, level, label, co2e_total, co2e_high, soc_loss_per_ha, rules, problem)
        select x.p, ?, x.l, x.lb, x.c, x.h, x.s, array(select jsonb_array_elements_text(x.r)), x.pr
@@ -74,23 +126,44 @@ export async function replaceResults(db: Db, runId: number, results: ScreeningRe
 }
 
 export async function latestRun(db: Db) {
-  return (await db('screening_run as r').leftJoin('user as u', 'u.id', 'r.by').select('r.*', 'u.name as by_name').orderBy('r.id', 'desc').first()) ?? null;
+  return (
+    (await db('screening_run as r')
+      .leftJoin('user as u', 'u.id', 'r.by')
+      .select('r.*', 'u.name as by_name')
+      .orderBy('r.id', 'desc')
+      .first()) ?? null
+  );
 }
 
-const SORTS: Record<string, string> = { reference: 'p.reference', area: 'p.area_ha', level: 's.level', co2e: 's.co2e_total', high: 's.co2e_high', loss: 's.soc_loss_per_ha' };
+const SORTS: Record<string, string> = {
+  reference: 'p.reference',
+  area: 'p.area_ha',
+  level: 's.level',
+  co2e: 's.co2e_total',
+  high: 's.co2e_high',
+  loss: 's.soc_loss_per_ha',
+};
 
-export async function listResults(db: Db, q: { level?: number; region?: string; sort: string; dir: 'asc' | 'desc'; page: number; pageSize: number }) {
+export async function listResults(
+  db: Db,
+  q: { level?: number; region?: string; sort: string; dir: 'asc' | 'desc'; page: number; pageSize: number },
+) {
   const where: string[] = ['true'];
   const args: Knex.Value[] = [];
   if (q.level) where.push('s.level = ?') && args.push(q.level);
   if (q.region) {
-    where.push(`exists (select 1 from parcel_overlay o join reference_layer_version v on v.id = o.layer_version_id and v.kind = 'region' and v.status = 'published' where o.parcel_id = p.id and o.class = ? and o.share >= 0.5)`);
+    where.push(
+      `exists (select 1 from parcel_overlay o join reference_layer_version v on v.id = o.layer_version_id and v.kind = 'region' and v.status = 'published' where o.parcel_id = p.id and o.class = ? and o.share >= 0.5)`,
+    );
     args.push(q.region);
   }
   const from = `from screening_result s join parcel p on p.id = s.parcel_id where ${where.join(' and ')}`;
   const [rows, total] = await Promise.all([
-    db.raw(`select p.id::int as parcel_id, p.reference, p.area_ha, s.level, s.label, s.co2e_total, s.co2e_high, s.soc_loss_per_ha, s.rules, s.problem ${from}
-            order by ${SORTS[q.sort] ?? 's.level'} ${q.dir === 'asc' ? 'asc' : 'desc'} nulls last, p.reference limit ? offset ?`, [...args, q.pageSize, (q.page - 1) * q.pageSize]),
+    db.raw(
+      `select p.id::int as parcel_id, p.reference, p.area_ha, s.level, s.label, s.co2e_total, s.co2e_high, s.soc_loss_per_ha, s.rules, s.problem ${from}
+            order by ${SORTS[q.sort] ?? 's.level'} ${q.dir === 'asc' ? 'asc' : 'desc'} nulls last, p.reference limit ? offset ?`,
+      [...args, q.pageSize, (q.page - 1) * q.pageSize],
+    ),
     db.raw(`select count(*)::int as n ${from}`, args),
   ]);
   return { rows: rows.rows, total: Number(total.rows[0].n) };

@@ -32,7 +32,9 @@ export async function effectiveTerritory(db: Db): Promise<Territory> {
   const s = await storedTerritory(db);
   if (s.stored) {
     if (!s.geometry) return { geometry: null, source: 'none' };
-    const r = await db.raw('select st_asgeojson(st_multi(st_geomfromgeojson(?)), 9)::json as g', [JSON.stringify(s.geometry)]);
+    const r = await db.raw('select st_asgeojson(st_multi(st_geomfromgeojson(?)), 9)::json as g', [
+      JSON.stringify(s.geometry),
+    ]);
     return { geometry: r.rows[0].g, source: 'setting' };
   }
   const r = await db.raw(
@@ -47,7 +49,8 @@ export async function effectiveTerritory(db: Db): Promise<Territory> {
 
 export type OutsideRow = { idx: number; reference: string | null; outsideShare: number; swappedInside: boolean };
 
-const OUTSIDE = (g: string) => `1 - coalesce(st_area(st_intersection(${g}, t.g)::geography) / nullif(st_area(${g}::geography), 0), 0)`;
+const OUTSIDE = (g: string) =>
+  `1 - coalesce(st_area(st_intersection(${g}, t.g)::geography) / nullif(st_area(${g}::geography), 0), 0)`;
 
 /** Staged features (not rejected) more than OUTSIDE_SHARE outside the territory. */
 export async function stagedOutside(db: Db, stagingId: string, territory: MultiPolygon): Promise<OutsideRow[]> {
@@ -63,7 +66,11 @@ export async function stagedOutside(db: Db, stagingId: string, territory: MultiP
 }
 
 /** How much of one geometry lies outside the territory, and whether it would lie inside with its axes swapped. */
-export async function geometryOutside(db: Db, geometry: MultiPolygon, territory: MultiPolygon): Promise<{ outsideShare: number; swappedInside: boolean }> {
+export async function geometryOutside(
+  db: Db,
+  geometry: MultiPolygon,
+  territory: MultiPolygon,
+): Promise<{ outsideShare: number; swappedInside: boolean }> {
   const r = await db.raw(
     `with t as (select st_geomfromgeojson(?) as g), p as (select st_geomfromgeojson(?) as g)
      select case when st_coveredby(p.g, t.g) then 0 else ${OUTSIDE('p.g')} end as "outsideShare", st_coveredby(st_flipcoordinates(p.g), t.g) as "swappedInside" from p, t`,

@@ -28,7 +28,12 @@ export const TILE_SQL = `with b as (select st_tileenvelope(?, ?, ?) as env),
 export const tileBindings = (z: number, x: number, y: number) => [z, x, y, z >= PARCEL_MIN_ZOOM];
 
 /** The tile and the map data version it was drawn at. */
-export async function renderTile(db: Db, z: number, x: number, y: number): Promise<{ tile: Uint8Array; version: number }> {
+export async function renderTile(
+  db: Db,
+  z: number,
+  x: number,
+  y: number,
+): Promise<{ tile: Uint8Array; version: number }> {
   const r = await db.raw(TILE_SQL, tileBindings(z, x, y));
   return { tile: new Uint8Array(r.rows[0].tile), version: Number(r.rows[0].version) };
 }

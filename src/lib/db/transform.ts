@@ -19,19 +19,31 @@ export async function postgisKnowsSrid(db: Db, srid: number): Promise<boolean> {
 }
 
 /** [lon, lat] of each [x, y] in EPSG:srid; non-finite input stays NaN. */
-export async function transformPositions(db: Db, positions: Position[], srid: number, crsName: string): Promise<Position[]> {
+export async function transformPositions(
+  db: Db,
+  positions: Position[],
+  srid: number,
+  crsName: string,
+): Promise<Position[]> {
   const out: Position[] = [];
   for (let at = 0; at < positions.length; at += CHUNK) {
-    const chunk = positions.slice(at, at + CHUNK).map((p) => (Number.isFinite(p[0]) && Number.isFinite(p[1]) ? [p[0], p[1]] : null));
+    const chunk = positions
+      .slice(at, at + CHUNK)
+      .map((p) => (Number.isFinite(p[0]) && Number.isFinite(p[1]) ? [p[0], p[1]] : null));
     try {
       const r = await db.raw(
         `select case when p is null or jsonb_typeof(p) = 'null' then null else st_asbinary(st_transform(st_setsrid(st_makepoint((p->>0)::float8, (p->>1)::float8), ?), 4326)) end as g, i
          from jsonb_array_elements(?::jsonb) with ordinality as t(p, i) order by i`,
         [srid, JSON.stringify(chunk)],
       );
-      for (const row of r.rows as { g: Buffer | null }[]) out.push(row.g ? [row.g.readDoubleLE(5), row.g.readDoubleLE(13)] : [Number.NaN, Number.NaN]);
+      for (const row of r.rows as { g: Buffer | null }[])
+        out.push(row.g ? [row.g.readDoubleLE(5), row.g.readDoubleLE(13)] : [Number.NaN, Number.NaN]);
     } catch (error) {
-      throw new GisInputError('unknown-crs', `Some coordinates cannot be converted from "${crsName}" (EPSG:${srid}) to WGS 84: ${(error as Error).message}`, { cause: error });
+      throw new GisInputError(
+        'unknown-crs',
+        `Some coordinates cannot be converted from "${crsName}" (EPSG:${srid}) to WGS 84: ${(error as Error).message}`,
+        { cause: error },
+      );
     }
   }
   return out;
@@ -39,11 +51,18 @@ export async function transformPositions(db: Db, positions: Position[], srid: nu
 
 /** True when PostGIS reprojects this CRS: a datum shift and an EPSG code PostGIS knows. */
 export async function reprojectsInPostgis(db: Db, crs: CrsDefinition | null): Promise<boolean> {
-  return !!crs && crs.epsg !== null && crs.epsg !== 4326 && needsDatumShift(crs) && (await postgisKnowsSrid(db, crs.epsg));
+  return (
+    !!crs && crs.epsg !== null && crs.epsg !== 4326 && needsDatumShift(crs) && (await postgisKnowsSrid(db, crs.epsg))
+  );
 }
 
 /** Converts a layer to EPSG:4326: by PostGIS for CRSs with a datum shift and an EPSG code PostGIS knows, else by proj4. */
-export async function reprojectLayer(db: Db, features: RawFeature[], crs: CrsDefinition | null, layerName: string): Promise<RawFeature[]> {
+export async function reprojectLayer(
+  db: Db,
+  features: RawFeature[],
+  crs: CrsDefinition | null,
+  layerName: string,
+): Promise<RawFeature[]> {
   if (!crs || !(await reprojectsInPostgis(db, crs))) return layerToWgs84(features, crs, layerName);
   const positions: Position[] = [];
   for (const f of features) if (f.geometry) forEachPosition(f.geometry, (p) => positions.push(p));

@@ -31,14 +31,40 @@ export type StagedFeature = {
   rawGeom: unknown | null;
 };
 
-const COLUMNS = ['id', 'purpose', 'file_name', 'format', 'size_bytes', 'sha256', 'layers', 'layer_name', 'source_crs', 'column_mapping', 'report_summary', 'validated_at', 'created_by', 'created_at', 'expires_at'];
+const COLUMNS = [
+  'id',
+  'purpose',
+  'file_name',
+  'format',
+  'size_bytes',
+  'sha256',
+  'layers',
+  'layer_name',
+  'source_crs',
+  'column_mapping',
+  'report_summary',
+  'validated_at',
+  'created_by',
+  'created_at',
+  'expires_at',
+];
 
 export async function deleteExpiredStaging(db: Db): Promise<number> {
   return db('upload_staging').where('expires_at', '<', db.fn.now()).delete();
 }
 
-export async function insertStaging(db: Db, row: Omit<StagingRow, 'layer_name' | 'source_crs' | 'column_mapping' | 'report_summary' | 'validated_at' | 'created_at'> & { file_bytes: Uint8Array }): Promise<void> {
-  await db('upload_staging').insert({ ...row, layers: JSON.stringify(row.layers), file_bytes: Buffer.from(row.file_bytes) });
+export async function insertStaging(
+  db: Db,
+  row: Omit<
+    StagingRow,
+    'layer_name' | 'source_crs' | 'column_mapping' | 'report_summary' | 'validated_at' | 'created_at'
+  > & { file_bytes: Uint8Array },
+): Promise<void> {
+  await db('upload_staging').insert({
+    ...row,
+    layers: JSON.stringify(row.layers),
+    file_bytes: Buffer.from(row.file_bytes),
+  });
 }
 
 export async function getStaging(db: Db, id: string, opts: { lock?: boolean } = {}): Promise<StagingRow | null> {
@@ -54,11 +80,16 @@ const READ_PIECE_BYTES = 1 << 20;
  * hex and reassembled in a single turn of the event loop, stalling every other request meanwhile.
  */
 export async function getStagingBytes(db: Db, id: string): Promise<Uint8Array> {
-  const size = (await db('upload_staging').select(db.raw('octet_length(file_bytes)::int as n')).where({ id }).first())?.n as number | undefined;
+  const size = (await db('upload_staging').select(db.raw('octet_length(file_bytes)::int as n')).where({ id }).first())
+    ?.n as number | undefined;
   if (size === undefined) throw new Error(`staged upload ${id} is gone`);
   const out = new Uint8Array(size);
   for (let at = 0; at < size; at += READ_PIECE_BYTES) {
-    const r = await db.raw('select substring(file_bytes from ? for ?) as piece from upload_staging where id = ?', [at + 1, READ_PIECE_BYTES, id]);
+    const r = await db.raw('select substring(file_bytes from ? for ?) as piece from upload_staging where id = ?', [
+      at + 1,
+      READ_PIECE_BYTES,
+      id,
+    ]);
     out.set(r.rows[0].piece as Buffer, at);
   }
   return out;
@@ -88,7 +119,8 @@ export async function replaceStagedFeatures(db: Db, stagingId: string, features:
   await replaceStagedFeatureChunks(db, stagingId, stagedFeatureChunks(features));
 }
 
-const push = (code: string, message: string) => `issues || jsonb_build_array(jsonb_build_object('code', '${code}', 'message', ${message}, 'severity', 'error'))`;
+const push = (code: string, message: string) =>
+  `issues || jsonb_build_array(jsonb_build_object('code', '${code}', 'message', ${message}, 'severity', 'error'))`;
 
 /** Rejects features whose reference (by its key, references.ts) or exact geometry is already in the register. */
 export async function rejectRegisterDuplicates(db: Db, stagingId: string): Promise<void> {
@@ -130,10 +162,20 @@ export async function repairWithMakeValid(db: Db, stagingId: string, minAreaM2: 
   );
 }
 
-export type ReportSummary = { total: number; ok: number; repaired: number; rejected: number; byCode: Record<string, number> };
+export type ReportSummary = {
+  total: number;
+  ok: number;
+  repaired: number;
+  rejected: number;
+  byCode: Record<string, number>;
+};
 
 export async function stagedSummary(db: Db, stagingId: string): Promise<ReportSummary> {
-  const counts = await db('upload_staging_feature').select('status').count<{ status: string; n: number }[]>('* as n').where({ staging_id: stagingId }).groupBy('status');
+  const counts = await db('upload_staging_feature')
+    .select('status')
+    .count<{ status: string; n: number }[]>('* as n')
+    .where({ staging_id: stagingId })
+    .groupBy('status');
   const codes = await db.raw(
     `select i->>'code' as code, count(*)::int as n from upload_staging_feature, jsonb_array_elements(issues) i where staging_id = ? group by 1`,
     [stagingId],
@@ -164,8 +206,14 @@ export async function stagedProblems(db: Db, stagingId: string, limit: number) {
 
 /** Every staged feature in file order with its measured area, in batches (for the CSV report). */
 export async function* stagedReportRows(db: Db, stagingId: string, batch = 2000) {
-  for (let after = -1; ; ) {
-    const rows: { idx: number; status: string; reference: string | null; issues: { code: string; message: string; severity: string }[]; area_ha: number | null }[] = await db('upload_staging_feature')
+  for (let after = -1; ;) {
+    const rows: {
+      idx: number;
+      status: string;
+      reference: string | null;
+      issues: { code: string; message: string; severity: string }[];
+      area_ha: number | null;
+    }[] = await db('upload_staging_feature')
       .select('idx', 'status', 'reference', 'issues', db.raw(`${MEASURED_AREA_HA} as area_ha`))
       .where({ staging_id: stagingId })
       .andWhere('idx', '>', after)
@@ -177,14 +225,29 @@ export async function* stagedReportRows(db: Db, stagingId: string, batch = 2000)
   }
 }
 
-export async function updateStagingValidation(db: Db, id: string, v: { layerName: string; sourceCrs: unknown; mapping: unknown; summary: ReportSummary }): Promise<void> {
+export async function updateStagingValidation(
+  db: Db,
+  id: string,
+  v: { layerName: string; sourceCrs: unknown; mapping: unknown; summary: ReportSummary },
+): Promise<void> {
   await db('upload_staging')
     .where({ id })
-    .update({ layer_name: v.layerName, source_crs: JSON.stringify(v.sourceCrs), column_mapping: JSON.stringify(v.mapping), report_summary: JSON.stringify(v.summary), validated_at: db.fn.now() });
+    .update({
+      layer_name: v.layerName,
+      source_crs: JSON.stringify(v.sourceCrs),
+      column_mapping: JSON.stringify(v.mapping),
+      report_summary: JSON.stringify(v.summary),
+      validated_at: db.fn.now(),
+    });
 }
 
 /** Copies a staged upload into the permanent batch table (original bytes included). */
-export async function insertBatchFromStaging(db: Db, stagingId: string, batchId: string, savedCount: number): Promise<void> {
+export async function insertBatchFromStaging(
+  db: Db,
+  stagingId: string,
+  batchId: string,
+  savedCount: number,
+): Promise<void> {
   await db.raw(
     `insert into upload_batch (id, purpose, file_name, format, size_bytes, sha256, file_bytes, layer_name, source_crs, column_mapping, feature_count, saved_count, uploaded_by, uploaded_at)
      select ?, purpose, file_name, format, size_bytes, sha256, file_bytes, layer_name, source_crs, column_mapping,
@@ -198,9 +261,21 @@ export async function getRememberedMapping(db: Db, sourceKey: string): Promise<R
   return (await db('column_mapping').select('mapping').where({ source_key: sourceKey }).first())?.mapping ?? null;
 }
 
-export async function rememberMapping(db: Db, sourceKey: string, purpose: string, mapping: unknown, by: string): Promise<void> {
+export async function rememberMapping(
+  db: Db,
+  sourceKey: string,
+  purpose: string,
+  mapping: unknown,
+  by: string,
+): Promise<void> {
   await db('column_mapping')
-    .insert({ source_key: sourceKey, purpose, mapping: JSON.stringify(mapping), updated_by: by, updated_at: db.fn.now() })
+    .insert({
+      source_key: sourceKey,
+      purpose,
+      mapping: JSON.stringify(mapping),
+      updated_by: by,
+      updated_at: db.fn.now(),
+    })
     .onConflict('source_key')
     .merge();
 }

@@ -3,13 +3,38 @@ import { formatRoles, parseRoles, type Role } from '../auth/roles';
 import type { Db } from './client';
 
 export type UserStatus = 'invited' | 'active' | 'deactivated';
-export type UserSummary = { id: string; name: string; email: string; roles: Role[]; status: UserStatus; createdAt: string; version: number };
+export type UserSummary = {
+  id: string;
+  name: string;
+  email: string;
+  roles: Role[];
+  status: UserStatus;
+  createdAt: string;
+  version: number;
+};
 
-type Row = { id: string; name: string; email: string; role: string | null; banned: boolean | null; createdAt: Date; has_password: boolean; version: number };
+type Row = {
+  id: string;
+  name: string;
+  email: string;
+  role: string | null;
+  banned: boolean | null;
+  createdAt: Date;
+  has_password: boolean;
+  version: number;
+};
 
 function toSummary(r: Row): UserSummary {
   const status: UserStatus = r.banned ? 'deactivated' : r.has_password ? 'active' : 'invited';
-  return { id: r.id, name: r.name, email: r.email, roles: parseRoles(r.role), status, createdAt: r.createdAt.toISOString(), version: r.version };
+  return {
+    id: r.id,
+    name: r.name,
+    email: r.email,
+    roles: parseRoles(r.role),
+    status,
+    createdAt: r.createdAt.toISOString(),
+    version: r.version,
+  };
 }
 
 function baseQuery(db: Db) {
@@ -21,7 +46,9 @@ function baseQuery(db: Db) {
     'u.banned',
     'u.createdAt',
     'u.version',
-    db.raw(`exists (select 1 from account a where a."userId" = u.id and a."providerId" = 'credential' and a.password is not null) as has_password`),
+    db.raw(
+      `exists (select 1 from account a where a."userId" = u.id and a."providerId" = 'credential' and a.password is not null) as has_password`,
+    ),
   );
 }
 
@@ -41,11 +68,23 @@ export async function findUserIdByEmail(db: Db, email: string): Promise<string |
 }
 
 export async function insertUser(db: Db, u: { id: string; name: string; email: string; roles: Role[] }): Promise<void> {
-  await db('user').insert({ id: u.id, name: u.name, email: u.email.toLowerCase(), emailVerified: false, role: formatRoles(u.roles), banned: false });
+  await db('user').insert({
+    id: u.id,
+    name: u.name,
+    email: u.email.toLowerCase(),
+    emailVerified: false,
+    role: formatRoles(u.roles),
+    banned: false,
+  });
 }
 
 /** Applies an administrator's change when the row is still at `version`; false when someone changed it meanwhile. */
-export async function updateUser(db: Db, id: string, version: number, patch: { name?: string; roles?: Role[]; active?: boolean }): Promise<boolean> {
+export async function updateUser(
+  db: Db,
+  id: string,
+  version: number,
+  patch: { name?: string; roles?: Role[]; active?: boolean },
+): Promise<boolean> {
   const values: Record<string, unknown> = { updatedAt: db.fn.now(), version: db.raw('version + 1') };
   if (patch.name !== undefined) values.name = patch.name;
   if (patch.roles !== undefined) values.role = formatRoles(patch.roles);
@@ -65,13 +104,23 @@ export async function setPassword(db: Db, userId: string, passwordHash: string):
   if (existing) {
     await db('account').where({ id: existing.id }).update({ password: passwordHash, updatedAt: db.fn.now() });
   } else {
-    await db('account').insert({ id: crypto.randomUUID(), accountId: userId, providerId: 'credential', userId, password: passwordHash, updatedAt: db.fn.now() });
+    await db('account').insert({
+      id: crypto.randomUUID(),
+      accountId: userId,
+      providerId: 'credential',
+      userId,
+      password: passwordHash,
+      updatedAt: db.fn.now(),
+    });
   }
   await db('user').where({ id: userId }).update({ emailVerified: true, updatedAt: db.fn.now() });
 }
 
 export async function countAdmins(db: Db): Promise<number> {
-  const r = await db('user').where('role', 'like', '%admin%').andWhere((q) => q.whereNull('banned').orWhere('banned', false)).count<{ count: number }[]>('* as count');
+  const r = await db('user')
+    .where('role', 'like', '%admin%')
+    .andWhere((q) => q.whereNull('banned').orWhere('banned', false))
+    .count<{ count: number }[]>('* as count');
   return Number(r[0]?.count ?? 0);
 }
 

@@ -18,9 +18,14 @@ export type FollowUpSettings = z.output<typeof followUpSettingsSchema>;
 export const FOLLOW_UP_SETTING_KEYS = Object.keys(followUpSettingsSchema.shape) as (keyof FollowUpSettings)[];
 
 export function readFollowUpSettings(rows: { key: string; value: unknown }[]): FollowUpSettings {
-  const stored = Object.fromEntries(rows.filter((r) => (FOLLOW_UP_SETTING_KEYS as string[]).includes(r.key)).map((r) => [r.key, r.value]));
+  const stored = Object.fromEntries(
+    rows.filter((r) => (FOLLOW_UP_SETTING_KEYS as string[]).includes(r.key)).map((r) => [r.key, r.value]),
+  );
   const parsed = followUpSettingsSchema.safeParse(stored);
-  if (!parsed.success) throw new Error(`setting "${String(parsed.error.issues[0]!.path[0])}" is invalid: ${parsed.error.issues[0]!.message}`);
+  if (!parsed.success)
+    throw new Error(
+      `setting "${String(parsed.error.issues[0]!.path[0])}" is invalid: ${parsed.error.issues[0]!.message}`,
+    );
   return parsed.data;
 }
 
@@ -36,7 +41,12 @@ export const TASK_STATUSES = ['open', 'done', 'not-done', 'partly'] as const;
 export type TaskStatus = (typeof TASK_STATUSES)[number];
 export const OUTCOMES = ['done', 'not-done', 'partly'] as const;
 export type TaskOutcome = (typeof OUTCOMES)[number];
-export const STATUS_LABELS: Record<TaskStatus, string> = { open: 'Open', done: 'Done', 'not-done': 'Not done', partly: 'Partly done' };
+export const STATUS_LABELS: Record<TaskStatus, string> = {
+  open: 'Open',
+  done: 'Done',
+  'not-done': 'Not done',
+  partly: 'Partly done',
+};
 
 /** Adds whole years to a date "YYYY-MM-DD" (29 February becomes 28 February in a common year). */
 export function addYears(date: string, years: number): string {

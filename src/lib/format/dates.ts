@@ -9,8 +9,18 @@
 export const DATE_LOCALE = 'en-GB';
 export const DATE_TIME_ZONE = 'UTC';
 
-const DAY = new Intl.DateTimeFormat(DATE_LOCALE, { day: 'numeric', month: 'short', year: 'numeric', timeZone: DATE_TIME_ZONE });
-const TIME = new Intl.DateTimeFormat(DATE_LOCALE, { hour: '2-digit', minute: '2-digit', hourCycle: 'h23', timeZone: DATE_TIME_ZONE });
+const DAY = new Intl.DateTimeFormat(DATE_LOCALE, {
+  day: 'numeric',
+  month: 'short',
+  year: 'numeric',
+  timeZone: DATE_TIME_ZONE,
+});
+const TIME = new Intl.DateTimeFormat(DATE_LOCALE, {
+  hour: '2-digit',
+  minute: '2-digit',
+  hourCycle: 'h23',
+  timeZone: DATE_TIME_ZONE,
+});
 const CALENDAR_DAY = /^(\d{4})-(\d{2})-(\d{2})$/;
 
 export type DateInput = string | number | Date | null | undefined;
@@ -23,7 +33,6 @@ function toDate(v: DateInput): Date | null {
     const d = m ? new Date(Date.UTC(Number(m[1]), Number(m[2]) - 1, Number(m[3]))) : new Date(v);
     if (Number.isNaN(d.getTime())) return null;
     return m && d.toISOString().slice(0, 10) !== v ? null : d; // 2026-02-30 is no day
-
   }
   const d = new Date(v);
   return Number.isNaN(d.getTime()) ? null : d;

@@ -23,7 +23,12 @@ const wrapLon = (lon: number) => (lon > 180 ? lon - 360 : lon < -180 ? lon + 360
 function wrapped(rings: Ring[]): Ring[] {
   const lons = rings.flatMap((r) => r.map((p) => p[0]!));
   const beyond = lons.some((l) => Math.abs(l) > 180);
-  if (!beyond || lons.some((l) => !Number.isFinite(l) || Math.abs(l) > 360) || Math.max(...lons) - Math.min(...lons) >= 180) return rings;
+  if (
+    !beyond ||
+    lons.some((l) => !Number.isFinite(l) || Math.abs(l) > 360) ||
+    Math.max(...lons) - Math.min(...lons) >= 180
+  )
+    return rings;
   return rings.map((r) => r.map((p) => [wrapLon(p[0]!), p[1]!]));
 }
 
@@ -56,7 +61,10 @@ function splitPolygon(original: Ring[]): Ring[][] {
   if (minLon < 0) continuous = continuous.map((r) => r.map((p) => [p[0]! + 360, p[1]!]));
   const polygon: Polygon = { type: 'Polygon', coordinates: continuous };
   const parts: Ring[][] = [];
-  for (const [box, shift] of [[[-1, -90, 180, 90], 0], [[180, -90, 541, 90], -360]] as const) {
+  for (const [box, shift] of [
+    [[-1, -90, 180, 90], 0],
+    [[180, -90, 541, 90], -360],
+  ] as const) {
     const clipped = bboxClip(polygon, [...box]).geometry as Polygon;
     const kept = clipped.coordinates.filter((r) => r.length >= 4);
     if (kept.length > 0 && kept[0]!.length >= 4) parts.push(kept.map((r) => r.map((p) => [p[0]! + shift, p[1]!])));

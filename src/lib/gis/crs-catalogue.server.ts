@@ -1,7 +1,15 @@
 import { readFile } from 'node:fs/promises';
 import { createRequire } from 'node:module';
 import { GisInputError } from './errors';
-import { crsFromWkt, epsgCodeFromWkt, fromWgs84, nameFromWkt, needsDatumShift, toWgs84, type CrsDefinition } from './crs';
+import {
+  crsFromWkt,
+  epsgCodeFromWkt,
+  fromWgs84,
+  nameFromWkt,
+  needsDatumShift,
+  toWgs84,
+  type CrsDefinition,
+} from './crs';
 import { identifyEpsg, transformationsToWgs84, unknownDatumError } from './proj-cli.server';
 
 /**
@@ -33,8 +41,8 @@ const PICKABLE_KINDS = new Set(['CRS-PROJCRS', 'CRS-GEOGCRS']);
  * (common practice; codes from the EPSG registry as shipped in epsg-index).
  */
 const COMMON_CODES = new Set([
-  4326, 3857, 4258, 3035, 27700, 2157, 29903, 2154, 31370, 28992, 3006, 3067, 2056, 5514, 2180, 31467, 31468,
-  3416, 23700, 3763, 2100, 3844, 3794, 2193, 7855, 3577, 5070, 3978, 25829, 25830, 25831, 25832, 25833, 25834, 25835,
+  4326, 3857, 4258, 3035, 27700, 2157, 29903, 2154, 31370, 28992, 3006, 3067, 2056, 5514, 2180, 31467, 31468, 3416,
+  23700, 3763, 2100, 3844, 3794, 2193, 7855, 3577, 5070, 3978, 25829, 25830, 25831, 25832, 25833, 25834, 25835,
 ]);
 
 let loading: Promise<Map<number, EpsgEntry>> | null = null;
@@ -44,7 +52,8 @@ async function catalogue(): Promise<Map<number, EpsgEntry>> {
     const path = createRequire(import.meta.url).resolve('epsg-index/all.json');
     const all = JSON.parse(await readFile(path, 'utf8')) as Record<string, EpsgEntry>;
     const map = new Map<number, EpsgEntry>();
-    for (const entry of Object.values(all)) if (entry.proj4 && PICKABLE_KINDS.has(entry.kind)) map.set(Number(entry.code), entry);
+    for (const entry of Object.values(all))
+      if (entry.proj4 && PICKABLE_KINDS.has(entry.kind)) map.set(Number(entry.code), entry);
     return map;
   })();
   return loading;
@@ -68,13 +77,17 @@ function toDefinition(entry: EpsgEntry): CrsDefinition {
 /** The CRS for an EPSG code. Throws GisInputError('unknown-crs') for codes not in the catalogue. */
 export async function crsFromEpsg(code: number): Promise<CrsDefinition> {
   const entry = (await catalogue()).get(code);
-  if (!entry) throw new GisInputError('unknown-crs', `EPSG:${code} is not a projected or geographic CRS known to this app.`);
+  if (!entry)
+    throw new GisInputError('unknown-crs', `EPSG:${code} is not a projected or geographic CRS known to this app.`);
   return toDefinition(entry);
 }
 
 /** Lower-case alphanumerics with "1984"-style years cut to "84", so ESRI and EPSG names compare. */
 export function normaliseCrsName(name: string): string {
-  return name.toLowerCase().replace(/(^|\D)19(\d\d)(?!\d)/g, '$1$2').replace(/[^a-z0-9]/g, '');
+  return name
+    .toLowerCase()
+    .replace(/(^|\D)19(\d\d)(?!\d)/g, '$1$2')
+    .replace(/[^a-z0-9]/g, '');
 }
 
 let byName: Promise<Map<string, number | null>> | null = null;
@@ -99,7 +112,10 @@ function agrees(a: CrsDefinition, wkt: CrsDefinition): boolean {
   const centre = [(w + e) / 2, (s + n) / 2];
   const xy = fromWgs84(centre, a);
   const back = toWgs84(xy, wkt);
-  const metres = Math.hypot((back[0]! - centre[0]!) * 111_320 * Math.cos((centre[1]! * Math.PI) / 180), (back[1]! - centre[1]!) * 110_540);
+  const metres = Math.hypot(
+    (back[0]! - centre[0]!) * 111_320 * Math.cos((centre[1]! * Math.PI) / 180),
+    (back[1]! - centre[1]!) * 110_540,
+  );
   return metres <= 5;
 }
 
@@ -142,7 +158,10 @@ export async function crsFromPrj(wkt: string): Promise<CrsDefinition> {
  * name or area ("utm 33n", "british", "lambert france"). Common grids rank first.
  */
 export async function searchCrs(query: string, limit = 20): Promise<CrsSearchHit[]> {
-  const q = query.trim().toLowerCase().replace(/^epsg:?\s*/, '');
+  const q = query
+    .trim()
+    .toLowerCase()
+    .replace(/^epsg:?\s*/, '');
   if (!q) return [];
   const scored: { hit: CrsSearchHit; score: number }[] = [];
   const tokens = q.split(/\s+/);

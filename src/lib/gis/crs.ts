@@ -60,7 +60,11 @@ function converterFor(crs: CrsDefinition): proj4.Converter {
     try {
       converter = proj4(crs.definition, WGS84_DEFINITION);
     } catch (error) {
-      throw new GisInputError('bad-prj', `The coordinate reference system "${crs.name}" cannot be read: ${(error as Error).message}`, { cause: error });
+      throw new GisInputError(
+        'bad-prj',
+        `The coordinate reference system "${crs.name}" cannot be read: ${(error as Error).message}`,
+        { cause: error },
+      );
     }
     converters.set(crs.definition, converter);
   }
@@ -80,7 +84,8 @@ export function crsFromWkt(wkt: string): CrsDefinition {
   return crs;
 }
 
-const WGS84_LIKE_DATUM = /DATUM\s*\[\s*"(D_)?(WGS_?(19)?84|World[ _]Geodetic[ _]System[ _]1984|ETRS_?(19)?89|European[ _]Terrestrial[ _]Reference[ _]System[ _]1989|World Geodetic System 1984 ensemble|European Terrestrial Reference System 1989 ensemble)"/i;
+const WGS84_LIKE_DATUM =
+  /DATUM\s*\[\s*"(D_)?(WGS_?(19)?84|World[ _]Geodetic[ _]System[ _]1984|ETRS_?(19)?89|European[ _]Terrestrial[ _]Reference[ _]System[ _]1989|World Geodetic System 1984 ensemble|European Terrestrial Reference System 1989 ensemble)"/i;
 
 /**
  * True when getting from `crs` to WGS 84 needs a datum transformation (more than the metre-level
@@ -109,7 +114,10 @@ export function toWgs84(position: Position, crs: CrsDefinition): Position {
   if (crs.definition === WGS84_DEFINITION) return [position[0]!, position[1]!];
   const [lon, lat] = converterFor(crs).forward([position[0]!, position[1]!]);
   if (!Number.isFinite(lon) || !Number.isFinite(lat)) {
-    throw new GisInputError('unknown-crs', `Coordinates (${position[0]}, ${position[1]}) cannot be converted from "${crs.name}" to WGS 84.`);
+    throw new GisInputError(
+      'unknown-crs',
+      `Coordinates (${position[0]}, ${position[1]}) cannot be converted from "${crs.name}" to WGS 84.`,
+    );
   }
   return [lon!, lat!];
 }
@@ -154,7 +162,9 @@ export function firstOutsideAreaOfUse(geometry4326: Geometry, crs: CrsDefinition
   forEachPosition(geometry4326, (p) => {
     const lon = p[0]!;
     const lat = p[1]!;
-    const lonOk = crossesAntimeridian ? lon >= w - marginDeg || lon <= e + marginDeg : lon >= w - marginDeg && lon <= e + marginDeg;
+    const lonOk = crossesAntimeridian
+      ? lon >= w - marginDeg || lon <= e + marginDeg
+      : lon >= w - marginDeg && lon <= e + marginDeg;
     const latOk = lat >= s - marginDeg && lat <= n + marginDeg;
     if (!(lonOk && latOk) && bad === null) bad = p;
   });

@@ -2,7 +2,10 @@
 import type { ParcelMapping } from './field-mapping';
 
 /** Fields a parcel mapping can fill, with their labels for the wizard. */
-export const PARCEL_FIELD_LABELS: Record<Exclude<keyof ParcelMapping, 'statedAreaUnit' | 'grassSinceDate' | 'lastTillageDate'>, string> = {
+export const PARCEL_FIELD_LABELS: Record<
+  Exclude<keyof ParcelMapping, 'statedAreaUnit' | 'grassSinceDate' | 'lastTillageDate'>,
+  string
+> = {
   reference: 'Parcel reference',
   name: 'Field name',
   landUse: 'Current land use',

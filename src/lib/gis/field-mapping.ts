@@ -86,7 +86,10 @@ function readArea(v: AttributeValue | undefined): { value: number | null; bad: b
  * A land-use or management value checked against the list the events route uses
  * (land-use-events.ts EVENT_VALUES): the value or its label, any case; null when empty.
  */
-export function readChoice(v: AttributeValue | undefined, kind: 'land-use' | 'management'): { value: string | null; bad: boolean } {
+export function readChoice(
+  v: AttributeValue | undefined,
+  kind: 'land-use' | 'management',
+): { value: string | null; bad: boolean } {
   const s = text(v)?.toLowerCase() ?? null;
   if (s === null) return { value: null, bad: false };
   const choices = EVENT_VALUES[kind];
@@ -98,17 +101,41 @@ export function readChoice(v: AttributeValue | undefined, kind: 'land-use' | 'ma
 const GRASS_CHOICES = ['grassland', 'temporary-grassland', 'meadow', 'pasture', 'rough-grazing'];
 
 /** Maps one feature's attributes; `today` ("YYYY-MM-DD") bounds the dates. */
-export function mapParcelFeature(props: Record<string, AttributeValue>, m: ParcelMapping, today = new Date().toISOString().slice(0, 10)): { reference: string | null; fields: ParcelFields; issues: ValidationIssue[] } {
+export function mapParcelFeature(
+  props: Record<string, AttributeValue>,
+  m: ParcelMapping,
+  today = new Date().toISOString().slice(0, 10),
+): { reference: string | null; fields: ParcelFields; issues: ValidationIssue[] } {
   const issues: ValidationIssue[] = [];
   const reference = text(props[m.reference]);
-  if (!reference) issues.push({ code: 'no-reference', message: `The parcel reference (column "${m.reference}") is empty.`, severity: 'error' });
+  if (!reference)
+    issues.push({
+      code: 'no-reference',
+      message: `The parcel reference (column "${m.reference}") is empty.`,
+      severity: 'error',
+    });
   const date = (col: string | undefined, what: string, fallback?: string) => {
     const r = col ? readDate(props[col]) : { date: null, bad: false };
     const where = col ? ` (column "${col}")` : ' (date for the whole file)';
-    if (r.bad) issues.push({ code: 'bad-date', message: `${what} "${String(props[col!])}"${where} is not a date (YYYY-MM-DD).`, severity: 'error' });
+    if (r.bad)
+      issues.push({
+        code: 'bad-date',
+        message: `${what} "${String(props[col!])}"${where} is not a date (YYYY-MM-DD).`,
+        severity: 'error',
+      });
     const d = r.date ?? (r.bad ? null : (fallback ?? null));
-    if (d !== null && d > today) issues.push({ code: 'bad-date', message: `${what} ${d}${r.date ? where : ' (date for the whole file)'} lies in the future (today is ${today}).`, severity: 'error' });
-    else if (d !== null && d < EARLIEST_EVENT_DATE) issues.push({ code: 'bad-date', message: `${what} ${d}${r.date ? where : ' (date for the whole file)'} lies before ${EARLIEST_EVENT_DATE.slice(0, 4)}.`, severity: 'error' });
+    if (d !== null && d > today)
+      issues.push({
+        code: 'bad-date',
+        message: `${what} ${d}${r.date ? where : ' (date for the whole file)'} lies in the future (today is ${today}).`,
+        severity: 'error',
+      });
+    else if (d !== null && d < EARLIEST_EVENT_DATE)
+      issues.push({
+        code: 'bad-date',
+        message: `${what} ${d}${r.date ? where : ' (date for the whole file)'} lies before ${EARLIEST_EVENT_DATE.slice(0, 4)}.`,
+        severity: 'error',
+      });
     return d;
   };
   const lastTillage = date(m.lastTillage, 'Last tillage date', m.lastTillageDate);
@@ -117,18 +144,32 @@ export function mapParcelFeature(props: Record<string, AttributeValue>, m: Parce
   let statedArea: ParcelFields['statedArea'] = null;
   if (m.statedArea) {
     const a = readArea(props[m.statedArea]);
-    if (a.bad) issues.push({ code: 'bad-area', message: `Stated area "${String(props[m.statedArea])}" (column "${m.statedArea}") is not a number of ${m.statedAreaUnit}.`, severity: 'error' });
+    if (a.bad)
+      issues.push({
+        code: 'bad-area',
+        message: `Stated area "${String(props[m.statedArea])}" (column "${m.statedArea}") is not a number of ${m.statedAreaUnit}.`,
+        severity: 'error',
+      });
     if (a.value !== null) statedArea = { value: a.value, unit: m.statedAreaUnit };
   }
   const choice = (col: string | undefined, kind: 'land-use' | 'management', what: string) => {
     if (!col) return null;
     const r = readChoice(props[col], kind);
-    if (r.bad) issues.push({ code: `bad-${kind}`, message: `${what} "${String(props[col])}" (column "${col}") is not on the list; use one of: ${Object.keys(EVENT_VALUES[kind]).join(', ')}.`, severity: 'error' });
+    if (r.bad)
+      issues.push({
+        code: `bad-${kind}`,
+        message: `${what} "${String(props[col])}" (column "${col}") is not on the list; use one of: ${Object.keys(EVENT_VALUES[kind]).join(', ')}.`,
+        severity: 'error',
+      });
     return r.value;
   };
   const landUse = choice(m.landUse, 'land-use', 'Land use');
   if (grassSince && landUse && !GRASS_CHOICES.includes(landUse)) {
-    issues.push({ code: 'history-contradiction', message: `The parcel is said to be in grass since ${grassSince} but its current land use is "${landUse}".`, severity: 'error' });
+    issues.push({
+      code: 'history-contradiction',
+      message: `The parcel is said to be in grass since ${grassSince} but its current land use is "${landUse}".`,
+      severity: 'error',
+    });
   }
   return {
     reference,
@@ -146,9 +187,14 @@ export function mapParcelFeature(props: Record<string, AttributeValue>, m: Parce
   };
 }
 
-export function mapReferenceFeature(props: Record<string, AttributeValue>, m: ReferenceMapping): { cls: string | null; label: string | null; issues: ValidationIssue[] } {
+export function mapReferenceFeature(
+  props: Record<string, AttributeValue>,
+  m: ReferenceMapping,
+): { cls: string | null; label: string | null; issues: ValidationIssue[] } {
   const problem = classProblem(m.kind, props[m.classAttribute]);
   const cls = problem ? null : String(props[m.classAttribute]).trim();
-  const issues: ValidationIssue[] = problem ? [{ code: 'bad-class', message: `${problem} (column "${m.classAttribute}")`, severity: 'error' }] : [];
+  const issues: ValidationIssue[] = problem
+    ? [{ code: 'bad-class', message: `${problem} (column "${m.classAttribute}")`, severity: 'error' }]
+    : [];
   return { cls, label: m.labelAttribute ? text(props[m.labelAttribute]) : null, issues };
 }

@@ -4,7 +4,12 @@
  */
 import type { LandUseEventKind } from './land-use-history';
 
-export const EVENT_KINDS = ['land-use', 'management', 'tillage', 'reseeding'] as const satisfies readonly LandUseEventKind[];
+export const EVENT_KINDS = [
+  'land-use',
+  'management',
+  'tillage',
+  'reseeding',
+] as const satisfies readonly LandUseEventKind[];
 
 export const EVENT_KIND_LABELS: Record<LandUseEventKind, string> = {
   'land-use': 'Land use',
@@ -38,7 +43,13 @@ export const EVENT_VALUES: Record<LandUseEventKind, Record<string, string>> = {
     lime: 'Limed (counts as cultivation)',
     fertiliser: 'Fertiliser spread (counts as cultivation)',
   },
-  tillage: { ploughing: 'Ploughing', discing: 'Discing', harrowing: 'Harrowing', rotavating: 'Rotavating', subsoiling: 'Subsoiling' },
+  tillage: {
+    ploughing: 'Ploughing',
+    discing: 'Discing',
+    harrowing: 'Harrowing',
+    rotavating: 'Rotavating',
+    subsoiling: 'Subsoiling',
+  },
   reseeding: { 'full-reseed': 'Full reseed', overseeding: 'Overseeding', 'slot-seeding': 'Slot seeding' },
 };
 
@@ -55,15 +66,26 @@ export type EventIssue = { path: ['date' | 'kind' | 'value' | 'evidence']; messa
 export function checkLandUseEvent(e: EventInput, today: string): EventIssue[] {
   const issues: EventIssue[] = [];
   if (e.date.trim() === '') issues.push({ path: ['date'], message: 'Give the date of the event.' });
-  else if (!/^\d{4}-\d{2}-\d{2}$/.test(e.date)) issues.push({ path: ['date'], message: 'Use a date in the form YYYY-MM-DD.' });
+  else if (!/^\d{4}-\d{2}-\d{2}$/.test(e.date))
+    issues.push({ path: ['date'], message: 'Use a date in the form YYYY-MM-DD.' });
   else if (e.date > today) issues.push({ path: ['date'], message: `The date lies in the future (today is ${today}).` });
-  else if (e.date < EARLIEST_EVENT_DATE) issues.push({ path: ['date'], message: `The date lies before ${EARLIEST_EVENT_DATE.slice(0, 4)}; give a date from 1900 on.` });
+  else if (e.date < EARLIEST_EVENT_DATE)
+    issues.push({
+      path: ['date'],
+      message: `The date lies before ${EARLIEST_EVENT_DATE.slice(0, 4)}; give a date from 1900 on.`,
+    });
   const choices = EVENT_VALUES[e.kind];
   const value = e.value?.trim() ?? '';
   if (!choices) issues.push({ path: ['kind'], message: `Choose one of: ${EVENT_KINDS.join(', ')}.` });
-  else if (value === '' && !VALUE_OPTIONAL.includes(e.kind)) issues.push({ path: ['value'], message: `Choose the ${EVENT_KIND_LABELS[e.kind].toLowerCase()}.` });
-  else if (value !== '' && !Object.hasOwn(choices, value)) issues.push({ path: ['value'], message: `"${value}" is not a ${EVENT_KIND_LABELS[e.kind].toLowerCase()} value; choose one of: ${Object.keys(choices).join(', ')}.` });
-  if (e.evidence.trim().length < 3) issues.push({ path: ['evidence'], message: 'Say where this comes from (at least 3 characters).' });
+  else if (value === '' && !VALUE_OPTIONAL.includes(e.kind))
+    issues.push({ path: ['value'], message: `Choose the ${EVENT_KIND_LABELS[e.kind].toLowerCase()}.` });
+  else if (value !== '' && !Object.hasOwn(choices, value))
+    issues.push({
+      path: ['value'],
+      message: `"${value}" is not a ${EVENT_KIND_LABELS[e.kind].toLowerCase()} value; choose one of: ${Object.keys(choices).join(', ')}.`,
+    });
+  if (e.evidence.trim().length < 3)
+    issues.push({ path: ['evidence'], message: 'Say where this comes from (at least 3 characters).' });
   return issues;
 }
 

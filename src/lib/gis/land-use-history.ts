@@ -102,16 +102,28 @@ export function deriveLandUseFlags(events: LandUseEvent[], options: LandUseFlagO
   };
 }
 
-function permanentGrassland(history: LandUseEvent[], uses: LandUseEvent[], grass: Set<string>, asOf: string, o: LandUseFlagOptions): StatusFlag {
+function permanentGrassland(
+  history: LandUseEvent[],
+  uses: LandUseEvent[],
+  grass: Set<string>,
+  asOf: string,
+  o: LandUseFlagOptions,
+): StatusFlag {
   const years = o.permanentGrasslandYears ?? 5;
   const current = uses.at(-1);
   if (!current) return { value: null, reason: 'No land use is recorded, so permanent grassland cannot be decided.' };
-  if (!grass.has(current.value!)) return { value: false, reason: `The current land use is "${current.value}" (since ${formatDate(current.date)}), not grassland.` };
+  if (!grass.has(current.value!))
+    return {
+      value: false,
+      reason: `The current land use is "${current.value}" (since ${formatDate(current.date)}), not grassland.`,
+    };
   const lastOther = uses.findLast((e) => !grass.has(e.value!));
   const spellStart = lastOther ? uses.find((e) => e.date > lastOther.date)!.date : uses[0]!.date;
   let since = spellStart;
   let cause = lastOther ? `after "${lastOther.value}" in ${formatDate(lastOther.date)}` : 'with no other use recorded';
-  const lastWork = o.tillageEndsGrassland ? history.findLast((e) => e.kind === 'tillage' || e.kind === 'reseeding') : undefined;
+  const lastWork = o.tillageEndsGrassland
+    ? history.findLast((e) => e.kind === 'tillage' || e.kind === 'reseeding')
+    : undefined;
   if (lastWork && lastWork.date > since) {
     since = lastWork.date;
     cause = `since the ${lastWork.kind} of ${formatDate(lastWork.date)}`;
@@ -133,20 +145,39 @@ function uncultivated(history: LandUseEvent[], start: string | null, asOf: strin
   const windowStart = yearsBefore(asOf, years);
   const last = history.findLast(isCultivation);
   if (last && last.date > windowStart) {
-    return { value: false, reason: `Cultivated on ${formatDate(last.date)} (${last.kind}${last.value ? `: ${last.value}` : ''}), within the last ${years} years.` };
+    return {
+      value: false,
+      reason: `Cultivated on ${formatDate(last.date)} (${last.kind}${last.value ? `: ${last.value}` : ''}), within the last ${years} years.`,
+    };
   }
   if (start === null || start > windowStart) {
-    return { value: null, reason: `Records begin ${formatDate(start, 'nowhere')}, later than ${formatDate(windowStart)}: the ${years}-year window is not covered.` };
+    return {
+      value: null,
+      reason: `Records begin ${formatDate(start, 'nowhere')}, later than ${formatDate(windowStart)}: the ${years}-year window is not covered.`,
+    };
   }
   const before = last ? ` (last cultivation ${last.date})` : '';
-  return { value: true, reason: `No cultivation recorded between ${formatDate(windowStart)} and ${formatDate(asOf)}${before}.` };
+  return {
+    value: true,
+    reason: `No cultivation recorded between ${formatDate(windowStart)} and ${formatDate(asOf)}${before}.`,
+  };
 }
 
-function neverTilled(history: LandUseEvent[], uses: LandUseEvent[], grass: Set<string>, start: string | null): StatusFlag {
+function neverTilled(
+  history: LandUseEvent[],
+  uses: LandUseEvent[],
+  grass: Set<string>,
+  start: string | null,
+): StatusFlag {
   const tilled = history.find((e) => e.kind === 'tillage');
-  if (tilled) return { value: false, reason: `Tilled on ${formatDate(tilled.date)}${tilled.value ? ` (${tilled.value})` : ''}.` };
+  if (tilled)
+    return { value: false, reason: `Tilled on ${formatDate(tilled.date)}${tilled.value ? ` (${tilled.value})` : ''}.` };
   const arable = uses.find((e) => !grass.has(e.value!));
-  if (arable) return { value: false, reason: `Used as "${arable.value}" from ${formatDate(arable.date)}, which implies tillage.` };
+  if (arable)
+    return {
+      value: false,
+      reason: `Used as "${arable.value}" from ${formatDate(arable.date)}, which implies tillage.`,
+    };
   if (start === null) return { value: null, reason: 'No history is recorded.' };
   return { value: true, reason: `No tillage or arable use recorded since records began on ${formatDate(start)}.` };
 }

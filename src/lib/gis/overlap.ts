@@ -27,11 +27,15 @@ export type OverlapKind = 'near-duplicate' | 'overlap' | 'overlap-minor';
 /** Overlaps under 1 m² are rounding of shared vertices, not overlaps (common practice). */
 export const NEGLIGIBLE_OVERLAP_M2 = 1;
 
-export function classifyOverlap(m: OverlapMeasure, t: OverlapTolerance): { kind: OverlapKind; share: number; differenceM2: number } | null {
+export function classifyOverlap(
+  m: OverlapMeasure,
+  t: OverlapTolerance,
+): { kind: OverlapKind; share: number; differenceM2: number } | null {
   if (m.overlapM2 < NEGLIGIBLE_OVERLAP_M2) return null;
   const differenceM2 = Math.max(0, m.areaAM2 + m.areaBM2 - 2 * m.overlapM2);
   const share = m.overlapM2 / Math.min(m.areaAM2, m.areaBM2);
-  if (differenceM2 <= t.nearDuplicateShare * Math.max(m.areaAM2, m.areaBM2)) return { kind: 'near-duplicate', share, differenceM2 };
+  if (differenceM2 <= t.nearDuplicateShare * Math.max(m.areaAM2, m.areaBM2))
+    return { kind: 'near-duplicate', share, differenceM2 };
   return { kind: share > t.maxShare && m.overlapM2 > t.maxM2 ? 'overlap' : 'overlap-minor', share, differenceM2 };
 }
 
@@ -39,7 +43,12 @@ const m2 = (v: number) => (v >= 10_000 ? `${(v / 10_000).toFixed(4)} ha` : `${v.
 const pct = (v: number) => `${(v * 100).toFixed(v < 0.01 ? 2 : 1)} %`;
 
 /** The issue for the feature that overlaps `other` ("feature 3 (P-12)" or "parcel P-12 in the register"), or null. */
-export function overlapIssue(m: OverlapMeasure, t: OverlapTolerance, self: string, other: string): ValidationIssue | null {
+export function overlapIssue(
+  m: OverlapMeasure,
+  t: OverlapTolerance,
+  self: string,
+  other: string,
+): ValidationIssue | null {
   const c = classifyOverlap(m, t);
   if (!c) return null;
   if (c.kind === 'near-duplicate') {
@@ -51,6 +60,14 @@ export function overlapIssue(m: OverlapMeasure, t: OverlapTolerance, self: strin
   }
   const what = `${self} overlaps ${other} by ${m2(m.overlapM2)} (${pct(c.share)} of the smaller parcel)`;
   return c.kind === 'overlap'
-    ? { code: 'overlap', message: `${what}, more than the tolerance of ${pct(t.maxShare)} and ${m2(t.maxM2)}.`, severity: 'error' }
-    : { code: 'overlap-minor', message: `${what}; within the tolerance (${pct(t.maxShare)} or ${m2(t.maxM2)}), as when both were digitised along the same edge.`, severity: 'warning' };
+    ? {
+        code: 'overlap',
+        message: `${what}, more than the tolerance of ${pct(t.maxShare)} and ${m2(t.maxM2)}.`,
+        severity: 'error',
+      }
+    : {
+        code: 'overlap-minor',
+        message: `${what}; within the tolerance (${pct(t.maxShare)} or ${m2(t.maxM2)}), as when both were digitised along the same edge.`,
+        severity: 'warning',
+      };
 }

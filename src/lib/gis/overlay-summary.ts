@@ -31,7 +31,14 @@ export const COVER_EPSILON = 0.001;
 export function summariseKind(kind: ReferenceKind, row: OverlayRow | undefined): KindSummary {
   const info = KIND_INFO[kind];
   if (!row) {
-    return { kind, layerVersion: null, classes: [], dominant: null, uncoveredShare: 1, flag: info.flagUncovered ? `No published ${info.label.toLowerCase()} layer covers this parcel yet.` : null };
+    return {
+      kind,
+      layerVersion: null,
+      classes: [],
+      dominant: null,
+      uncoveredShare: 1,
+      flag: info.flagUncovered ? `No published ${info.label.toLowerCase()} layer covers this parcel yet.` : null,
+    };
   }
   const classes = [...row.classes].sort((a, b) => b.share - a.share || a.class.localeCompare(b.class));
   const covered = Math.min(1, row.coveredShare ?? classes.reduce((s, c) => s + c.share, 0));
@@ -48,5 +55,13 @@ export function summariseKind(kind: ReferenceKind, row: OverlayRow | undefined):
 }
 
 export function summariseOverlay(rows: OverlayRow[]): Record<ReferenceKind, KindSummary> {
-  return Object.fromEntries(REFERENCE_KINDS.map((k) => [k, summariseKind(k, rows.find((r) => r.kind === k))])) as Record<ReferenceKind, KindSummary>;
+  return Object.fromEntries(
+    REFERENCE_KINDS.map((k) => [
+      k,
+      summariseKind(
+        k,
+        rows.find((r) => r.kind === k),
+      ),
+    ]),
+  ) as Record<ReferenceKind, KindSummary>;
 }

@@ -16,7 +16,10 @@ async function projinfo(args: string[]): Promise<string> {
     return `${stderr}\n${stdout}`;
   } catch (error) {
     const e = error as NodeJS.ErrnoException & { stdout?: string; stderr?: string };
-    if (e.code === 'ENOENT') throw new Error('projinfo (Debian package proj-bin) is not installed; run scripts/ensure-system.sh.', { cause: error });
+    if (e.code === 'ENOENT')
+      throw new Error('projinfo (Debian package proj-bin) is not installed; run scripts/ensure-system.sh.', {
+        cause: error,
+      });
     return `${e.stderr ?? ''}\n${e.stdout ?? ''}`;
   }
 }
@@ -32,7 +35,10 @@ export async function identifyEpsg(wkt: string): Promise<{ code: number; confide
   const text = wkt.trim();
   if (!/^[A-Za-z]/.test(text)) return null; // WKT starts with a keyword; never pass an option-like argument
   const out = await projinfo(['--identify', '-o', 'PROJ', text]);
-  const hits = [...out.matchAll(/^EPSG:(\d+): (\d+) %$/gm)].map((m) => ({ code: Number(m[1]), confidence: Number(m[2]) }));
+  const hits = [...out.matchAll(/^EPSG:(\d+): (\d+) %$/gm)].map((m) => ({
+    code: Number(m[1]),
+    confidence: Number(m[2]),
+  }));
   const best = hits.filter((h) => h.confidence >= IDENTIFY_MIN_CONFIDENCE).sort((a, b) => b.confidence - a.confidence);
   if (best.length === 0 || (best.length > 1 && best[1]!.confidence === best[0]!.confidence)) return null;
   return best[0]!;

@@ -33,7 +33,8 @@ export const KIND_INFO: Record<ReferenceKind, KindInfo> = {
 };
 
 /** Fill patterns drawn by the map legend and layer styles. */
-export type Pattern = 'solid' | 'hatch' | 'cross' | 'dots' | 'vertical' | 'horizontal' | 'backslash' | 'grid' | 'rings' | 'checker';
+export type Pattern =
+  'solid' | 'hatch' | 'cross' | 'dots' | 'vertical' | 'horizontal' | 'backslash' | 'grid' | 'rings' | 'checker';
 
 export interface LegendEntry {
   label: string;
@@ -47,7 +48,18 @@ export interface LegendEntry {
  */
 const COLOURS = ['#0072B2', '#E69F00', '#000000', '#CC79A7', '#009E73', '#D55E00', '#56B4E9'];
 /** Ten patterns; with seven colours (coprime), the first 70 classes on the map each get their own pair. */
-const PATTERNS: Pattern[] = ['hatch', 'dots', 'grid', 'backslash', 'rings', 'horizontal', 'cross', 'checker', 'vertical', 'solid'];
+const PATTERNS: Pattern[] = [
+  'hatch',
+  'dots',
+  'grid',
+  'backslash',
+  'rings',
+  'horizontal',
+  'cross',
+  'checker',
+  'vertical',
+  'solid',
+];
 
 const CLASS_LABELS: Record<string, string> = {
   hac: 'High-activity clay (HAC)',
@@ -73,7 +85,14 @@ export function classLabel(cls: string): string {
  */
 export function legendFor(kind: ReferenceKind, classes: readonly string[], start = 0): Record<string, LegendEntry> {
   return Object.fromEntries(
-    orderedClasses(kind, classes).map((cls, i) => [cls, { label: classLabel(cls), colour: COLOURS[(start + i) % COLOURS.length]!, pattern: PATTERNS[(start + i) % PATTERNS.length]! }]),
+    orderedClasses(kind, classes).map((cls, i) => [
+      cls,
+      {
+        label: classLabel(cls),
+        colour: COLOURS[(start + i) % COLOURS.length]!,
+        pattern: PATTERNS[(start + i) % PATTERNS.length]!,
+      },
+    ]),
   );
 }
 
@@ -82,7 +101,9 @@ function orderedClasses(kind: ReferenceKind, classes: readonly string[]): string
 }
 
 /** Legends of the current layers, numbered across layers in the order of REFERENCE_KINDS. */
-export function legendForAll(layers: { kind: ReferenceKind; classes: readonly string[] }[]): Map<ReferenceKind, Record<string, LegendEntry>> {
+export function legendForAll(
+  layers: { kind: ReferenceKind; classes: readonly string[] }[],
+): Map<ReferenceKind, Record<string, LegendEntry>> {
   const out = new Map<ReferenceKind, Record<string, LegendEntry>>();
   let start = 0;
   for (const kind of REFERENCE_KINDS) {

@@ -10,7 +10,11 @@ import { DEFAULT_GRASSLAND_USES, deriveLandUseFlags, type LandUseEvent } from '.
 
 export const CROPLAND_USES = ['arable', 'fallow'];
 
-export type LandUseWindows = { permanentGrasslandYears: number; uncultivatedYears: number; tillageEndsGrassland: boolean };
+export type LandUseWindows = {
+  permanentGrasslandYears: number;
+  uncultivatedYears: number;
+  tillageEndsGrassland: boolean;
+};
 export type RegionParcel = { regionKey: string; areaHa: number; events: LandUseEvent[] };
 
 export interface RegionFigures {
@@ -25,8 +29,26 @@ export interface RegionFigures {
   unknownUseHa: number;
 }
 
-export function regionFigures(regions: { key: string; label: string }[], parcels: RegionParcel[], asOf: string, windows: LandUseWindows): RegionFigures[] {
-  const out = new Map(regions.map((r) => [r.key, { key: r.key, label: r.label, parcels: 0, agriculturalHa: 0, permanentGrasslandHa: 0, undecidedHa: 0, unknownUseHa: 0 }]));
+export function regionFigures(
+  regions: { key: string; label: string }[],
+  parcels: RegionParcel[],
+  asOf: string,
+  windows: LandUseWindows,
+): RegionFigures[] {
+  const out = new Map(
+    regions.map((r) => [
+      r.key,
+      {
+        key: r.key,
+        label: r.label,
+        parcels: 0,
+        agriculturalHa: 0,
+        permanentGrasslandHa: 0,
+        undecidedHa: 0,
+        unknownUseHa: 0,
+      },
+    ]),
+  );
   const grass = new Set(DEFAULT_GRASSLAND_USES);
   for (const p of parcels) {
     const fig = out.get(p.regionKey);

@@ -51,7 +51,8 @@ export function isPolygonWoundRfc7946(rings: Ring[]): boolean {
 export function rewindGeometry<G extends Geometry | null>(geometry: G): G {
   if (geometry === null) return geometry;
   if (geometry.type === 'Polygon') return { type: 'Polygon', coordinates: rewindPolygon(geometry.coordinates) } as G;
-  if (geometry.type === 'MultiPolygon') return { type: 'MultiPolygon', coordinates: geometry.coordinates.map(rewindPolygon) } as G;
+  if (geometry.type === 'MultiPolygon')
+    return { type: 'MultiPolygon', coordinates: geometry.coordinates.map(rewindPolygon) } as G;
   return geometry;
 }
 

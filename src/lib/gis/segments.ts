@@ -13,8 +13,10 @@ function orient(a: Position, b: Position, c: Position): number {
 
 function onSegment(a: Position, b: Position, p: Position): boolean {
   return (
-    Math.min(a[0]!, b[0]!) <= p[0]! && p[0]! <= Math.max(a[0]!, b[0]!) &&
-    Math.min(a[1]!, b[1]!) <= p[1]! && p[1]! <= Math.max(a[1]!, b[1]!)
+    Math.min(a[0]!, b[0]!) <= p[0]! &&
+    p[0]! <= Math.max(a[0]!, b[0]!) &&
+    Math.min(a[1]!, b[1]!) <= p[1]! &&
+    p[1]! <= Math.max(a[1]!, b[1]!)
   );
 }
 
@@ -26,8 +28,10 @@ export function segmentsIntersect(a: Position, b: Position, c: Position, d: Posi
   const o4 = orient(c, d, b);
   if (o1 !== o2 && o3 !== o4) return true;
   return (
-    (o1 === 0 && onSegment(a, b, c)) || (o2 === 0 && onSegment(a, b, d)) ||
-    (o3 === 0 && onSegment(c, d, a)) || (o4 === 0 && onSegment(c, d, b))
+    (o1 === 0 && onSegment(a, b, c)) ||
+    (o2 === 0 && onSegment(a, b, d)) ||
+    (o3 === 0 && onSegment(c, d, a)) ||
+    (o4 === 0 && onSegment(c, d, b))
   );
 }
 
@@ -90,7 +94,8 @@ export function pointInRing(p: Position, ring: Position[]): boolean {
   for (let i = 0, j = ring.length - 1; i < ring.length; j = i++) {
     const a = ring[i]!;
     const b = ring[j]!;
-    if (a[1]! > p[1]! !== b[1]! > p[1]! && p[0]! < ((b[0]! - a[0]!) * (p[1]! - a[1]!)) / (b[1]! - a[1]!) + a[0]!) inside = !inside;
+    if (a[1]! > p[1]! !== b[1]! > p[1]! && p[0]! < ((b[0]! - a[0]!) * (p[1]! - a[1]!)) / (b[1]! - a[1]!) + a[0]!)
+      inside = !inside;
   }
   return inside;
 }

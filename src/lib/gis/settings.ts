@@ -5,8 +5,16 @@
 import { z } from 'zod';
 
 export const gisSettingsSchema = z.object({
-  'upload.max-bytes': z.number().int().positive().default(25 * 1024 * 1024),
-  'upload.max-uncompressed-bytes': z.number().int().positive().default(250 * 1024 * 1024),
+  'upload.max-bytes': z
+    .number()
+    .int()
+    .positive()
+    .default(25 * 1024 * 1024),
+  'upload.max-uncompressed-bytes': z
+    .number()
+    .int()
+    .positive()
+    .default(250 * 1024 * 1024),
   'upload.max-zip-entries': z.number().int().positive().default(1000),
   'upload.staging-hours': z.number().positive().default(24),
   /** Slivers: parcels below this are rejected, m² (common practice: 0.01 ha). */
@@ -32,7 +40,11 @@ export const gisSettingsSchema = z.object({
 });
 
 export function overlapTolerance(s: GisSettings) {
-  return { maxShare: s['validation.overlap-max-share'], maxM2: s['validation.overlap-max-m2'], nearDuplicateShare: s['validation.near-duplicate-share'] };
+  return {
+    maxShare: s['validation.overlap-max-share'],
+    maxM2: s['validation.overlap-max-m2'],
+    nearDuplicateShare: s['validation.near-duplicate-share'],
+  };
 }
 
 export type GisSettings = z.output<typeof gisSettingsSchema>;
@@ -40,7 +52,9 @@ export const GIS_SETTING_KEYS = Object.keys(gisSettingsSchema.shape) as (keyof G
 
 /** Settings from stored rows; an invalid stored value fails loudly with its key. */
 export function readGisSettings(rows: { key: string; value: unknown }[]): GisSettings {
-  const stored = Object.fromEntries(rows.filter((r) => (GIS_SETTING_KEYS as string[]).includes(r.key)).map((r) => [r.key, r.value]));
+  const stored = Object.fromEntries(
+    rows.filter((r) => (GIS_SETTING_KEYS as string[]).includes(r.key)).map((r) => [r.key, r.value]),
+  );
   const parsed = gisSettingsSchema.safeParse(stored);
   if (!parsed.success) {
     const i = parsed.error.issues[0]!;

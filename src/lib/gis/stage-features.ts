@@ -9,7 +9,13 @@ import type { CrsDefinition } from './crs';
 import { mapParcelFeature, mapReferenceFeature, type ParcelMapping, type ReferenceMapping } from './field-mapping';
 import { referenceKey } from './references';
 import type { RawFeature } from './types';
-import { seenNothing, validateFeatures, type FeatureToValidate, type SeenSoFar, type ValidationIssue } from './validate';
+import {
+  seenNothing,
+  validateFeatures,
+  type FeatureToValidate,
+  type SeenSoFar,
+  type ValidationIssue,
+} from './validate';
 
 export type StageOptions = {
   minAreaM2: number;
@@ -30,21 +36,43 @@ export type StagedFeature = {
 };
 
 function isSelfIntersectingPolygon(raw: Geometry | null, issues: ValidationIssue[]): boolean {
-  return !!raw && (raw.type === 'Polygon' || raw.type === 'MultiPolygon') && issues.some((i) => i.code === 'self-intersection');
+  return (
+    !!raw &&
+    (raw.type === 'Polygon' || raw.type === 'MultiPolygon') &&
+    issues.some((i) => i.code === 'self-intersection')
+  );
 }
 
 /** `seen` and `offset` stage a file chunk by chunk: duplicates are found across chunks and `idx` counts from the file's start. */
-export function stageFeatures(features: RawFeature[], purpose: 'parcels' | 'reference', mapping: ParcelMapping | ReferenceMapping, options: StageOptions, seen: SeenSoFar = seenNothing(), offset = 0): StagedFeature[] {
+export function stageFeatures(
+  features: RawFeature[],
+  purpose: 'parcels' | 'reference',
+  mapping: ParcelMapping | ReferenceMapping,
+  options: StageOptions,
+  seen: SeenSoFar = seenNothing(),
+  offset = 0,
+): StagedFeature[] {
   const mapped = features.map((f) => {
     if ('kind' in mapping) {
       const r = mapReferenceFeature(f.properties, mapping);
       return { reference: null, fields: { class: r.cls, label: r.label }, issues: r.issues, stated: null };
     }
     const r = mapParcelFeature(f.properties, mapping);
-    const statedAreaHa = r.fields.statedArea ? toSquareMetres(r.fields.statedArea.value, r.fields.statedArea.unit) / 10_000 : null;
-    return { reference: r.reference, fields: { ...r.fields, statedAreaHa, referenceKey: r.reference ? referenceKey(r.reference) : null }, issues: r.issues, stated: r.fields.statedArea };
+    const statedAreaHa = r.fields.statedArea
+      ? toSquareMetres(r.fields.statedArea.value, r.fields.statedArea.unit) / 10_000
+      : null;
+    return {
+      reference: r.reference,
+      fields: { ...r.fields, statedAreaHa, referenceKey: r.reference ? referenceKey(r.reference) : null },
+      issues: r.issues,
+      stated: r.fields.statedArea,
+    };
   });
-  const toValidate: FeatureToValidate[] = features.map((f, i) => ({ geometry: f.geometry, reference: purpose === 'parcels' ? mapped[i]!.reference : null, statedArea: mapped[i]!.stated }));
+  const toValidate: FeatureToValidate[] = features.map((f, i) => ({
+    geometry: f.geometry,
+    reference: purpose === 'parcels' ? mapped[i]!.reference : null,
+    statedArea: mapped[i]!.stated,
+  }));
   const report = validateFeatures(toValidate, options, seen, offset);
   return report.features.map((r, i) => {
     const issues = [...mapped[i]!.issues, ...r.issues];

@@ -7,7 +7,11 @@ import { formatDate } from '../format/dates';
 
 export function uploadName(fileName: string): string {
   const base = fileName.replace(/^.*[\\/]/, '').replace(/(\.(zip|geojson|json|shp))+$/i, '');
-  const words = base.replace(/[_\-.]+/g, ' ').replace(/\s+/g, ' ').trim() || fileName;
+  const words =
+    base
+      .replace(/[_\-.]+/g, ' ')
+      .replace(/\s+/g, ' ')
+      .trim() || fileName;
   return words.charAt(0).toUpperCase() + words.slice(1);
 }
 

@@ -54,25 +54,51 @@ function checkPolygon(rings: Ring[], part: string, issues: ValidationIssue[]): R
   for (const [i, ring] of rings.entries()) {
     const label = `${part}${i === 0 ? 'outer ring' : `hole ${i}`}`;
     if (ring.length > 0 && !isRingClosed(ring)) {
-      issues.push({ code: 'ring-not-closed', message: `The ${label} was not closed; its first point was added at the end.`, severity: 'repaired' });
+      issues.push({
+        code: 'ring-not-closed',
+        message: `The ${label} was not closed; its first point was added at the end.`,
+        severity: 'repaired',
+      });
     }
     const { ring: open, repeated, spikes } = cleanVertices(ring);
-    if (repeated) issues.push({ code: 'repeated-vertex', message: `Repeated points were removed from the ${label}.`, severity: 'repaired' });
-    if (spikes) issues.push({ code: 'spike-removed', message: `A zero-width spike was removed from the ${label}.`, severity: 'repaired' });
+    if (repeated)
+      issues.push({
+        code: 'repeated-vertex',
+        message: `Repeated points were removed from the ${label}.`,
+        severity: 'repaired',
+      });
+    if (spikes)
+      issues.push({
+        code: 'spike-removed',
+        message: `A zero-width spike was removed from the ${label}.`,
+        severity: 'repaired',
+      });
     if (open.length < 3) {
-      issues.push({ code: 'ring-too-short', message: `The ${label} has ${open.length} distinct points; a ring needs at least 3.`, severity: 'error' });
+      issues.push({
+        code: 'ring-too-short',
+        message: `The ${label} has ${open.length} distinct points; a ring needs at least 3.`,
+        severity: 'error',
+      });
       return null;
     }
     cleaned.push(closeRing(open));
   }
   const crossing = findSelfIntersection(cleaned);
   if (crossing) {
-    issues.push({ code: 'self-intersection', message: `The boundary crosses or touches itself near ${fmt(crossing)} (lon, lat).`, severity: 'error' });
+    issues.push({
+      code: 'self-intersection',
+      message: `The boundary crosses or touches itself near ${fmt(crossing)} (lon, lat).`,
+      severity: 'error',
+    });
     return null;
   }
   const strayHole = cleaned.slice(1).findIndex((hole) => !pointInRing(hole[0]!, cleaned[0]!));
   if (strayHole >= 0) {
-    issues.push({ code: 'hole-outside', message: `Hole ${strayHole + 1} lies outside the outer ring.`, severity: 'error' });
+    issues.push({
+      code: 'hole-outside',
+      message: `Hole ${strayHole + 1} lies outside the outer ring.`,
+      severity: 'error',
+    });
     return null;
   }
   if (!isPolygonWoundRfc7946(cleaned)) {
@@ -89,15 +115,30 @@ function checkPolygon(rings: Ring[], part: string, issues: ValidationIssue[]): R
 export function checkGeometry(geometry: Geometry | null | undefined): GeometryCheck {
   const issues: ValidationIssue[] = [];
   if (!geometry) {
-    return { geometry: null, issues: [{ code: 'empty-geometry', message: 'The feature has no geometry.', severity: 'error' }] };
+    return {
+      geometry: null,
+      issues: [{ code: 'empty-geometry', message: 'The feature has no geometry.', severity: 'error' }],
+    };
   }
   if (geometry.type !== 'Polygon' && geometry.type !== 'MultiPolygon') {
-    return { geometry: null, issues: [{ code: 'not-polygon', message: `The geometry is a ${geometry.type}; parcels must be Polygon or MultiPolygon.`, severity: 'error' }] };
+    return {
+      geometry: null,
+      issues: [
+        {
+          code: 'not-polygon',
+          message: `The geometry is a ${geometry.type}; parcels must be Polygon or MultiPolygon.`,
+          severity: 'error',
+        },
+      ],
+    };
   }
   const polygons = geometry.type === 'Polygon' ? [geometry.coordinates] : geometry.coordinates;
   const nonEmpty = polygons.filter((rings) => rings.length > 0 && rings[0]!.length > 0);
   if (nonEmpty.length === 0) {
-    return { geometry: null, issues: [{ code: 'empty-geometry', message: 'The geometry has no coordinates.', severity: 'error' }] };
+    return {
+      geometry: null,
+      issues: [{ code: 'empty-geometry', message: 'The geometry has no coordinates.', severity: 'error' }],
+    };
   }
   const out: Ring[][] = [];
   for (const [i, rings] of nonEmpty.entries()) {

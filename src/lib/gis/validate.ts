@@ -60,13 +60,20 @@ export function geometryKey(geometry: MultiPolygon): string {
     const start = pts.indexOf([...pts].sort()[0]!);
     return [...pts.slice(start), ...pts.slice(0, start)].join(' ');
   };
-  return geometry.coordinates.map((rings) => rings.map(ringKey).join('|')).sort().join('#');
+  return geometry.coordinates
+    .map((rings) => rings.map(ringKey).join('|'))
+    .sort()
+    .join('#');
 }
 
 function checkRanges(geometry: MultiPolygon, options: ValidationOptions): ValidationIssue | null {
   const outside = firstOutsideWgs84(geometry);
   if (outside) {
-    return { code: 'coordinates-out-of-range', message: `Coordinate (${outside[0]}, ${outside[1]}) is not a valid longitude/latitude; check the CRS.`, severity: 'error' };
+    return {
+      code: 'coordinates-out-of-range',
+      message: `Coordinate (${outside[0]}, ${outside[1]}) is not a valid longitude/latitude; check the CRS.`,
+      severity: 'error',
+    };
   }
   const crs = options.sourceCrs;
   const far = crs ? firstOutsideAreaOfUse(geometry, crs, options.areaOfUseMarginDeg ?? 1) : null;
@@ -80,10 +87,19 @@ function checkRanges(geometry: MultiPolygon, options: ValidationOptions): Valida
   return null;
 }
 
-function checkStatedArea(f: FeatureToValidate, areaM2: number, perimeterM: number, o: ValidationOptions): ValidationIssue | null {
+function checkStatedArea(
+  f: FeatureToValidate,
+  areaM2: number,
+  perimeterM: number,
+  o: ValidationOptions,
+): ValidationIssue | null {
   if (!f.statedArea || !Number.isFinite(f.statedArea.value)) return null;
   const statedM2 = toSquareMetres(f.statedArea.value, f.statedArea.unit);
-  const toleranceM2 = areaToleranceM2(perimeterM, o.toleranceMetresPerPerimeterMetre ?? 1.25, o.toleranceCapM2 ?? 10_000);
+  const toleranceM2 = areaToleranceM2(
+    perimeterM,
+    o.toleranceMetresPerPerimeterMetre ?? 1.25,
+    o.toleranceCapM2 ?? 10_000,
+  );
   if (Math.abs(statedM2 - areaM2) <= toleranceM2) return null;
   return {
     code: 'area-mismatch',
@@ -109,7 +125,12 @@ export interface SeenSoFar {
 export const seenNothing = (): SeenSoFar => ({ refs: new Map(), geoms: new Map() });
 
 /** `offset` is the index of the first feature in the whole file, when `features` is one chunk of it. */
-export function validateFeatures(features: FeatureToValidate[], options: ValidationOptions = {}, seen: SeenSoFar = seenNothing(), offset = 0): ValidationReport {
+export function validateFeatures(
+  features: FeatureToValidate[],
+  options: ValidationOptions = {},
+  seen: SeenSoFar = seenNothing(),
+  offset = 0,
+): ValidationReport {
   const { refs: seenRefs, geoms: seenGeoms } = seen;
   const reports = features.map((f, at): FeatureReport => {
     const index = offset + at;
@@ -118,7 +139,11 @@ export function validateFeatures(features: FeatureToValidate[], options: Validat
     const checked = checkGeometry(cut ?? f.geometry);
     const issues = [...checked.issues];
     if (cut) {
-      issues.unshift({ code: 'antimeridian-split', message: `The boundary crosses the antimeridian (180°); it was cut there into ${cut.coordinates.length} parts, one on each side (RFC 7946 §3.1.9). The area is unchanged.`, severity: 'repaired' });
+      issues.unshift({
+        code: 'antimeridian-split',
+        message: `The boundary crosses the antimeridian (180°); it was cut there into ${cut.coordinates.length} parts, one on each side (RFC 7946 §3.1.9). The area is unchanged.`,
+        severity: 'repaired',
+      });
     }
     let geometry = checked.geometry;
     let areaHa: number | null = null;
@@ -131,13 +156,22 @@ export function validateFeatures(features: FeatureToValidate[], options: Validat
       perimeterM = m.perimeterM;
       const minAreaM2 = options.minAreaM2 ?? 100;
       if (m.areaM2 < minAreaM2) {
-        issues.push({ code: 'sliver', message: `The parcel measures ${m.areaM2.toFixed(1)} m², below the minimum of ${minAreaM2} m² (a sliver).`, severity: 'error' });
+        issues.push({
+          code: 'sliver',
+          message: `The parcel measures ${m.areaM2.toFixed(1)} m², below the minimum of ${minAreaM2} m² (a sliver).`,
+          severity: 'error',
+        });
       }
       const mismatch = checkStatedArea(f, m.areaM2, m.perimeterM, options);
       if (mismatch) issues.push(mismatch);
       const key = createHash('sha256').update(geometryKey(geometry)).digest('base64');
       const twin = seenGeoms.get(key);
-      if (twin !== undefined) issues.push({ code: 'duplicate-geometry', message: `Same geometry as feature ${twin + 1}.`, severity: 'error' });
+      if (twin !== undefined)
+        issues.push({
+          code: 'duplicate-geometry',
+          message: `Same geometry as feature ${twin + 1}.`,
+          severity: 'error',
+        });
       else seenGeoms.set(key, index);
     }
     const refProblem = reference ? referenceProblem(reference) : null;
@@ -145,13 +179,27 @@ export function validateFeatures(features: FeatureToValidate[], options: Validat
     else if (reference) {
       const key = referenceKey(reference);
       const twin = seenRefs.get(key);
-      const same = twin === undefined ? '' : twin.reference === reference ? '' : ` as "${twin.reference}" (the same once case, width and look-alike letters are set aside)`;
-      if (twin !== undefined) issues.push({ code: 'duplicate-reference', message: `Parcel reference "${reference}" is also used by feature ${twin.index + 1}${same}.`, severity: 'error' });
+      const same =
+        twin === undefined
+          ? ''
+          : twin.reference === reference
+            ? ''
+            : ` as "${twin.reference}" (the same once case, width and look-alike letters are set aside)`;
+      if (twin !== undefined)
+        issues.push({
+          code: 'duplicate-reference',
+          message: `Parcel reference "${reference}" is also used by feature ${twin.index + 1}${same}.`,
+          severity: 'error',
+        });
       else seenRefs.set(key, { index, reference });
     }
     const rejected = issues.some((i) => i.severity === 'error');
     if (rejected && checked.geometry === null) geometry = null;
-    const status: FeatureStatus = rejected ? 'rejected' : issues.some((i) => i.severity === 'repaired') ? 'repaired' : 'ok';
+    const status: FeatureStatus = rejected
+      ? 'rejected'
+      : issues.some((i) => i.severity === 'repaired')
+        ? 'repaired'
+        : 'ok';
     return { index, reference, status, issues, areaHa, perimeterM, geometry };
   });
   return { features: reports, summary: summarise(reports) };

@@ -6,7 +6,11 @@ import { allSpecs } from '../api';
 
 const routes = allSpecs
   .filter((s) => !s.path.startsWith('/api/auth/')) // better-auth's: lib/auth/endpoints.ts answers for them
-  .map((s) => ({ method: s.method as string, multipart: !!s.multipart, pattern: new RegExp(`^${s.path.replace(/[.]/g, '\\.').replace(/\{[^}]+\}/g, '[^/]+')}/?$`) }));
+  .map((s) => ({
+    method: s.method as string,
+    multipart: !!s.multipart,
+    pattern: new RegExp(`^${s.path.replace(/[.]/g, '\\.').replace(/\{[^}]+\}/g, '[^/]+')}/?$`),
+  }));
 
 export type ApiRouteMatch = { allowed: string[]; multipart: boolean } | null;
 

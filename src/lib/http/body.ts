@@ -65,7 +65,10 @@ export function mediaTypeOf(request: Request): string | null {
 /** Throws 400 when any string (or object key) in a parsed value contains the NUL character. */
 export function rejectNul(value: unknown, path: (string | number)[] = []): void {
   if (typeof value === 'string') {
-    if (value.includes('\u0000')) throw new HttpError('BAD_REQUEST', 'Text may not contain the NUL character (code 0).', [{ path, message: 'contains NUL' }]);
+    if (value.includes('\u0000'))
+      throw new HttpError('BAD_REQUEST', 'Text may not contain the NUL character (code 0).', [
+        { path, message: 'contains NUL' },
+      ]);
   } else if (Array.isArray(value)) {
     value.forEach((v, i) => rejectNul(v, [...path, i]));
   } else if (value && typeof value === 'object') {
@@ -78,7 +81,8 @@ export function rejectNul(value: unknown, path: (string | number)[] = []): void 
 
 /** A JSON body: exactly application/json, at most `cap` bytes, valid, without NUL characters. */
 export async function readJson(request: Request, cap = MAX_JSON_BYTES): Promise<unknown> {
-  if (mediaTypeOf(request) !== 'application/json') throw new HttpError('UNSUPPORTED_MEDIA_TYPE', 'Send the request body as application/json.');
+  if (mediaTypeOf(request) !== 'application/json')
+    throw new HttpError('UNSUPPORTED_MEDIA_TYPE', 'Send the request body as application/json.');
   const bytes = await readBodyCapped(request, cap);
   let value: unknown;
   try {
@@ -92,7 +96,8 @@ export async function readJson(request: Request, cap = MAX_JSON_BYTES): Promise<
 
 /** A form body (application/x-www-form-urlencoded), capped, without NUL characters. */
 export async function readForm(request: Request, cap = MAX_AUTH_BODY_BYTES): Promise<URLSearchParams> {
-  if (mediaTypeOf(request) !== 'application/x-www-form-urlencoded') throw new HttpError('UNSUPPORTED_MEDIA_TYPE', 'Send the form as application/x-www-form-urlencoded.');
+  if (mediaTypeOf(request) !== 'application/x-www-form-urlencoded')
+    throw new HttpError('UNSUPPORTED_MEDIA_TYPE', 'Send the form as application/x-www-form-urlencoded.');
   const text = new TextDecoder().decode(await readBodyCapped(request, cap));
   const form = new URLSearchParams(text);
   rejectNul(Object.fromEntries(form));

@@ -32,7 +32,10 @@ export class HttpError extends Error {
 }
 
 export function json(data: unknown, status = 200, headers: Record<string, string> = {}): Response {
-  return new Response(JSON.stringify(data), { status, headers: { 'content-type': 'application/json; charset=utf-8', ...headers } });
+  return new Response(JSON.stringify(data), {
+    status,
+    headers: { 'content-type': 'application/json; charset=utf-8', ...headers },
+  });
 }
 
 export function errorResponse(code: ErrorCode, message: string, issues?: Issue[]): Response {

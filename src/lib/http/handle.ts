@@ -13,7 +13,11 @@ import { logger } from '../log.mjs';
 import { requestRecord } from '../request-context';
 
 // Optional spec fields read as `Schema | undefined`: infer from the schema when there is one.
-type Infer<T> = [Exclude<T, undefined>] extends [never] ? undefined : Exclude<T, undefined> extends z.ZodType ? z.output<Exclude<T, undefined>> : undefined;
+type Infer<T> = [Exclude<T, undefined>] extends [never]
+  ? undefined
+  : Exclude<T, undefined> extends z.ZodType
+    ? z.output<Exclude<T, undefined>>
+    : undefined;
 
 export type Caller = { id: string; name: string; email: string; roles: Role[] };
 
@@ -30,7 +34,10 @@ export { MAX_JSON_BYTES } from './body';
 export const MAX_INT = 2_147_483_647;
 
 export function zodIssues(error: z.ZodError): Issue[] {
-  return error.issues.map((i) => ({ path: i.path.map((p) => (typeof p === 'symbol' ? String(p) : p)), message: i.message }));
+  return error.issues.map((i) => ({
+    path: i.path.map((p) => (typeof p === 'symbol' ? String(p) : p)),
+    message: i.message,
+  }));
 }
 
 function parse<T extends z.ZodType>(schema: T, value: unknown, where: string): z.output<T> {
@@ -48,10 +55,15 @@ function parse<T extends z.ZodType>(schema: T, value: unknown, where: string): z
 function checkIntegers(value: unknown, where: string, path: (string | number)[] = []): void {
   if (typeof value === 'number' && Number.isInteger(value) && Math.abs(value) > MAX_INT) {
     const at = path.length ? ` (${path.join('.')})` : '';
-    throw new HttpError('UNPROCESSABLE_CONTENT', `Invalid ${where}${at}: whole numbers must lie between -${MAX_INT} and ${MAX_INT}.`, [{ path, message: 'out of range' }]);
+    throw new HttpError(
+      'UNPROCESSABLE_CONTENT',
+      `Invalid ${where}${at}: whole numbers must lie between -${MAX_INT} and ${MAX_INT}.`,
+      [{ path, message: 'out of range' }],
+    );
   }
   if (Array.isArray(value)) value.forEach((v, i) => checkIntegers(v, where, [...path, i]));
-  else if (value && typeof value === 'object' && !(value instanceof Date)) for (const [k, v] of Object.entries(value)) checkIntegers(v, where, [...path, k]);
+  else if (value && typeof value === 'object' && !(value instanceof Date))
+    for (const [k, v] of Object.entries(value)) checkIntegers(v, where, [...path, k]);
 }
 
 function edge<T>(value: T, where: string): T {
@@ -63,7 +75,8 @@ function edge<T>(value: T, where: string): T {
 function inputErrorOf(err: unknown): HttpError | null {
   const code = (err as { code?: unknown })?.code;
   if (code === '22003') return new HttpError('UNPROCESSABLE_CONTENT', 'A number in the request is out of range.');
-  if (code === '22021' || code === '22P05') return new HttpError('BAD_REQUEST', 'The request contains a character that cannot be stored (such as NUL).');
+  if (code === '22021' || code === '22P05')
+    return new HttpError('BAD_REQUEST', 'The request contains a character that cannot be stored (such as NUL).');
   return null;
 }
 
@@ -83,8 +96,13 @@ export function handle<S extends ApiSpec>(spec: S, fn: (input: HandlerInput<S>) 
       rejectNul(ctx.params, ['path']);
       rejectNul(Object.fromEntries(ctx.url.searchParams), ['query']);
       const params = spec.params ? edge(parse(spec.params, ctx.params, 'path parameter'), 'path parameter') : undefined;
-      const query = spec.query ? edge(parse(spec.query, Object.fromEntries(ctx.url.searchParams), 'query'), 'query') : undefined;
-      const body = spec.body && !spec.multipart ? edge(parse(spec.body, await readJson(ctx.request), 'request'), 'request') : undefined;
+      const query = spec.query
+        ? edge(parse(spec.query, Object.fromEntries(ctx.url.searchParams), 'query'), 'query')
+        : undefined;
+      const body =
+        spec.body && !spec.multipart
+          ? edge(parse(spec.body, await readJson(ctx.request), 'request'), 'request')
+          : undefined;
       const result = await fn({ ctx, user, body, query, params } as HandlerInput<S>);
       if (result instanceof Response) return result;
       if (result === undefined) return new Response(null, { status: 204 });
@@ -93,7 +111,10 @@ export function handle<S extends ApiSpec>(spec: S, fn: (input: HandlerInput<S>) 
       const known = err instanceof HttpError ? err : inputErrorOf(err);
       if (known) return errorResponse(known.code, known.message, known.issues);
       const record = requestRecord();
-      logger.error({ reqId: record?.id, method: ctx.request.method, route: record?.route ?? spec.path, err }, 'request failed');
+      logger.error(
+        { reqId: record?.id, method: ctx.request.method, route: record?.route ?? spec.path, err },
+        'request failed',
+      );
       return errorResponse('INTERNAL_SERVER_ERROR', 'Something went wrong on the server. The error has been logged.');
     }
   };

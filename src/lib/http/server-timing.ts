@@ -15,6 +15,8 @@ export class Phases {
 
   /** `total;dur=…` (named by the caller) first, then every phase. */
   header(total: string): string {
-    return [{ name: total, ms: performance.now() - this.start }, ...this.list].map((p) => `${p.name};dur=${p.ms.toFixed(1)}`).join(', ');
+    return [{ name: total, ms: performance.now() - this.start }, ...this.list]
+      .map((p) => `${p.name};dur=${p.ms.toFixed(1)}`)
+      .join(', ');
   }
 }

@@ -31,8 +31,10 @@ export type ApiSpec<
   multipart?: boolean;
 };
 
-export function defineSpec<B extends z.ZodType | undefined = undefined, Q extends z.ZodType | undefined = undefined, P extends z.ZodType | undefined = undefined>(
-  spec: ApiSpec<B, Q, P>,
-): ApiSpec<B, Q, P> {
+export function defineSpec<
+  B extends z.ZodType | undefined = undefined,
+  Q extends z.ZodType | undefined = undefined,
+  P extends z.ZodType | undefined = undefined,
+>(spec: ApiSpec<B, Q, P>): ApiSpec<B, Q, P> {
   return spec;
 }

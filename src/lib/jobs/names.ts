@@ -3,6 +3,13 @@ export const JOB_NAMES = ['deadline-reminders', 'follow-up-overdue'] as const;
 export type JobName = (typeof JOB_NAMES)[number];
 
 export const JOB_INFO: Record<JobName, { cron: string; summary: string }> = {
-  'deadline-reminders': { cron: '15 6 * * *', summary: 'Mails the assessors and the chair once per proposal when its decision deadline is near (setting proposal.reminder-days) and once when it has passed.' },
-  'follow-up-overdue': { cron: '30 6 * * *', summary: 'Mails the assignee role once per open follow-up task whose due date has passed.' },
+  'deadline-reminders': {
+    cron: '15 6 * * *',
+    summary:
+      'Mails the assessors and the chair once per proposal when its decision deadline is near (setting proposal.reminder-days) and once when it has passed.',
+  },
+  'follow-up-overdue': {
+    cron: '30 6 * * *',
+    summary: 'Mails the assignee role once per open follow-up task whose due date has passed.',
+  },
 };

@@ -21,7 +21,13 @@ const HANDLERS: Record<JobName, () => Promise<object>> = {
 const QUEUE_OPTIONS = { retryLimit: 3, retryDelay: 60, retryBackoff: true, expireInSeconds: 15 * 60 };
 
 function options(extra: PgBoss.ConstructorOptions = {}): PgBoss.ConstructorOptions {
-  return { connectionString: config().DATABASE_URL, schema: JOB_SCHEMA, max: 3, application_name: 'swardkeep-jobs', ...extra };
+  return {
+    connectionString: config().DATABASE_URL,
+    schema: JOB_SCHEMA,
+    max: 3,
+    application_name: 'swardkeep-jobs',
+    ...extra,
+  };
 }
 
 async function ensureQueues(boss: PgBoss): Promise<void> {
@@ -83,5 +89,13 @@ export async function jobRun(name: JobName, id: string) {
   const boss = await startJobQueue();
   const job = await boss.getJobById<{ requestedBy?: string }>(name, id, { includeArchive: true });
   if (!job) return null;
-  return { id: job.id, name: job.name, state: job.state, createdOn: job.createdOn.toISOString(), startedOn: job.startedOn?.toISOString() ?? null, completedOn: job.completedOn?.toISOString() ?? null, output: job.output ?? null };
+  return {
+    id: job.id,
+    name: job.name,
+    state: job.state,
+    createdOn: job.createdOn.toISOString(),
+    startedOn: job.startedOn?.toISOString() ?? null,
+    completedOn: job.completedOn?.toISOString() ?? null,
+    output: job.output ?? null,
+  };
 }

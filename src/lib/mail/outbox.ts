@@ -9,10 +9,22 @@ import type { MailContent } from './templates';
 export type OutgoingMail = MailContent & { to: string };
 
 export async function enqueueMail(db: Db, mail: OutgoingMail): Promise<void> {
-  await db('mail_outbox').insert({ recipient: mail.to, subject: mail.subject, body_text: mail.text, body_html: mail.html });
+  await db('mail_outbox').insert({
+    recipient: mail.to,
+    subject: mail.subject,
+    body_text: mail.text,
+    body_html: mail.html,
+  });
 }
 
-export type OutboxRow = { id: number; recipient: string; subject: string; body_text: string; body_html: string; attempts: number };
+export type OutboxRow = {
+  id: number;
+  recipient: string;
+  subject: string;
+  body_text: string;
+  body_html: string;
+  attempts: number;
+};
 
 /** Claims up to `limit` due messages; SKIP LOCKED lets several app instances share the queue. */
 export async function claimDueMail(trx: Db, limit: number): Promise<OutboxRow[]> {

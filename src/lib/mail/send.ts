@@ -19,5 +19,11 @@ function getTransport(): Transporter {
 }
 
 export async function sendMail(mail: OutgoingMail): Promise<void> {
-  await getTransport().sendMail({ from: config().MAIL_FROM, to: mail.to, subject: mail.subject, text: mail.text, html: mail.html });
+  await getTransport().sendMail({
+    from: config().MAIL_FROM,
+    to: mail.to,
+    subject: mail.subject,
+    text: mail.text,
+    html: mail.html,
+  });
 }

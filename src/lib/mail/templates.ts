@@ -16,7 +16,13 @@ function render(subject: string, paragraphs: string[], link?: { url: string; lab
   return { subject, text, html };
 }
 
-export function invitationMail(p: { name: string; invitedBy: string; roles: string; url: string; expiresDays: number }): MailContent {
+export function invitationMail(p: {
+  name: string;
+  invitedBy: string;
+  roles: string;
+  url: string;
+  expiresDays: number;
+}): MailContent {
   return render(
     'Your Swardkeep account',
     [
@@ -45,7 +51,11 @@ type ProposalRef = { reference: string; title: string; url: string };
 export function proposalSubmittedMail(p: ProposalRef & { name: string; by: string; decisionDue: string }): MailContent {
   return render(
     `Proposal ${p.reference} submitted for assessment`,
-    [`Hello ${p.name},`, `${p.by} has submitted proposal ${p.reference}, "${p.title}", for assessment.`, `The decision is due by ${formatDate(p.decisionDue)}.`],
+    [
+      `Hello ${p.name},`,
+      `${p.by} has submitted proposal ${p.reference}, "${p.title}", for assessment.`,
+      `The decision is due by ${formatDate(p.decisionDue)}.`,
+    ],
     { url: p.url, label: 'Open the proposal' },
   );
 }
@@ -53,12 +63,19 @@ export function proposalSubmittedMail(p: ProposalRef & { name: string; by: strin
 export function proposalReturnedMail(p: ProposalRef & { name: string; by: string; reason: string }): MailContent {
   return render(
     `Proposal ${p.reference} returned: more information needed`,
-    [`Hello ${p.name},`, `${p.by} has returned proposal ${p.reference}, "${p.title}", and asks for more information:`, p.reason, 'Edit the proposal and submit it again; the decision period starts again from the new submission.'],
+    [
+      `Hello ${p.name},`,
+      `${p.by} has returned proposal ${p.reference}, "${p.title}", and asks for more information:`,
+      p.reason,
+      'Edit the proposal and submit it again; the decision period starts again from the new submission.',
+    ],
     { url: p.url, label: 'Open the proposal' },
   );
 }
 
-export function assessmentSignedMail(p: ProposalRef & { name: string; by: string; number: number; level: string; co2e: string; forChair: boolean }): MailContent {
+export function assessmentSignedMail(
+  p: ProposalRef & { name: string; by: string; number: number; level: string; co2e: string; forChair: boolean },
+): MailContent {
   return render(
     `Assessment of ${p.reference} signed off`,
     [
@@ -71,15 +88,29 @@ export function assessmentSignedMail(p: ProposalRef & { name: string; by: string
   );
 }
 
-export function boardDecisionMail(p: ProposalRef & { name: string; outcome: string; reasons: string; conditions: { text: string; dueDate: string; checkedBy: string }[]; appealUntil: string | null; effectiveDate: string; registerSeq: number }): MailContent {
-  const outcome = { approved: 'approved', 'approved-with-conditions': 'approved with conditions', refused: 'refused' }[p.outcome] ?? p.outcome;
+export function boardDecisionMail(
+  p: ProposalRef & {
+    name: string;
+    outcome: string;
+    reasons: string;
+    conditions: { text: string; dueDate: string; checkedBy: string }[];
+    appealUntil: string | null;
+    effectiveDate: string;
+    registerSeq: number;
+  },
+): MailContent {
+  const outcome =
+    { approved: 'approved', 'approved-with-conditions': 'approved with conditions', refused: 'refused' }[p.outcome] ??
+    p.outcome;
   return render(
     `Board decision on ${p.reference}: ${outcome}`,
     [
       `Hello ${p.name},`,
       `The board has decided on proposal ${p.reference}, "${p.title}": ${outcome}.`,
       `Reasons: ${p.reasons}`,
-      ...p.conditions.map((c, i) => `Condition ${i + 1}: ${c.text} (due ${formatDate(c.dueDate)}; checked by ${c.checkedBy}).`),
+      ...p.conditions.map(
+        (c, i) => `Condition ${i + 1}: ${c.text} (due ${formatDate(c.dueDate)}; checked by ${c.checkedBy}).`,
+      ),
       `Effective from ${formatDate(p.effectiveDate)}.${p.appealUntil ? ` An appeal may be lodged until ${formatDate(p.appealUntil)}; local law sets how.` : ''}`,
       `The decision is entry ${p.registerSeq} of the public register.`,
     ],
@@ -87,32 +118,62 @@ export function boardDecisionMail(p: ProposalRef & { name: string; outcome: stri
   );
 }
 
-export function decisionDueMail(p: ProposalRef & { name: string; decisionDue: string; daysLeft: number; state: string }): MailContent {
-  const when = p.daysLeft === 0 ? 'today' : `in ${p.daysLeft} day${p.daysLeft === 1 ? '' : 's'}, on ${formatDate(p.decisionDue)}`;
+export function decisionDueMail(
+  p: ProposalRef & { name: string; decisionDue: string; daysLeft: number; state: string },
+): MailContent {
+  const when =
+    p.daysLeft === 0 ? 'today' : `in ${p.daysLeft} day${p.daysLeft === 1 ? '' : 's'}, on ${formatDate(p.decisionDue)}`;
   return render(
     `Decision on ${p.reference} due ${p.daysLeft === 0 ? 'today' : `by ${formatDate(p.decisionDue)}`}`,
-    [`Hello ${p.name},`, `The decision on proposal ${p.reference}, "${p.title}", is due ${when}. The proposal is now "${p.state}".`, 'The decision period is set by local law; check what it allows if the decision cannot be made in time.'],
+    [
+      `Hello ${p.name},`,
+      `The decision on proposal ${p.reference}, "${p.title}", is due ${when}. The proposal is now "${p.state}".`,
+      'The decision period is set by local law; check what it allows if the decision cannot be made in time.',
+    ],
     { url: p.url, label: 'Open the proposal' },
   );
 }
 
-export function decisionOverdueMail(p: ProposalRef & { name: string; decisionDue: string; daysOver: number; state: string }): MailContent {
+export function decisionOverdueMail(
+  p: ProposalRef & { name: string; decisionDue: string; daysOver: number; state: string },
+): MailContent {
   return render(
     `Decision on ${p.reference} is overdue`,
-    [`Hello ${p.name},`, `The decision on proposal ${p.reference}, "${p.title}", was due on ${formatDate(p.decisionDue)}, ${p.daysOver} day${p.daysOver === 1 ? '' : 's'} ago. The proposal is still "${p.state}".`, 'Local law says what follows from a missed decision period; check it with your legal adviser.'],
+    [
+      `Hello ${p.name},`,
+      `The decision on proposal ${p.reference}, "${p.title}", was due on ${formatDate(p.decisionDue)}, ${p.daysOver} day${p.daysOver === 1 ? '' : 's'} ago. The proposal is still "${p.state}".`,
+      'Local law says what follows from a missed decision period; check it with your legal adviser.',
+    ],
     { url: p.url, label: 'Open the proposal' },
   );
 }
 
-export function followUpOverdueMail(p: ProposalRef & { name: string; task: string; dueDate: string; checkedBy: string }): MailContent {
+export function followUpOverdueMail(
+  p: ProposalRef & { name: string; task: string; dueDate: string; checkedBy: string },
+): MailContent {
   return render(
     `Follow-up overdue on ${p.reference}`,
-    [`Hello ${p.name},`, `A follow-up of the decision on proposal ${p.reference}, "${p.title}", was due on ${formatDate(p.dueDate)} and has no outcome yet:`, p.task, `Checked by: ${p.checkedBy}. Record the outcome, with evidence, on the follow-ups page.`],
+    [
+      `Hello ${p.name},`,
+      `A follow-up of the decision on proposal ${p.reference}, "${p.title}", was due on ${formatDate(p.dueDate)} and has no outcome yet:`,
+      p.task,
+      `Checked by: ${p.checkedBy}. Record the outcome, with evidence, on the follow-ups page.`,
+    ],
     { url: p.url, label: 'Open the follow-ups' },
   );
 }
 
-export function compensationReversedMail(p: ProposalRef & { name: string; parcel: string; eventDate: string; event: string; permanenceUntil: string; creditedCo2e: string | null; registerSeq: number }): MailContent {
+export function compensationReversedMail(
+  p: ProposalRef & {
+    name: string;
+    parcel: string;
+    eventDate: string;
+    event: string;
+    permanenceUntil: string;
+    creditedCo2e: string | null;
+    registerSeq: number;
+  },
+): MailContent {
   return render(
     `Compensation for ${p.reference} reversed: parcel ${p.parcel} ploughed`,
     [

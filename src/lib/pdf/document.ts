@@ -12,12 +12,26 @@ import { outlinePaths } from '../register/outline';
 
 const require = createRequire(import.meta.url);
 let fontBytes: Buffer | null = null;
-const font = () => (fontBytes ??= readFileSync(require.resolve('@fontsource/roboto-flex/files/roboto-flex-latin-400-normal.woff')));
+const font = () =>
+  (fontBytes ??= readFileSync(require.resolve('@fontsource/roboto-flex/files/roboto-flex-latin-400-normal.woff')));
 
 // Code points of the font's "latin" subset (its unicode-range in @fontsource/roboto-flex/latin-400.css).
 const COVERED: [number, number][] = [
-  [0x20, 0x7e], [0xa0, 0xff], [0x131, 0x131], [0x152, 0x153], [0x2bb, 0x2bc], [0x2c6, 0x2c6], [0x2da, 0x2da], [0x2dc, 0x2dc],
-  [0x2000, 0x206f], [0x20ac, 0x20ac], [0x2122, 0x2122], [0x2191, 0x2191], [0x2193, 0x2193], [0x2212, 0x2212], [0x2215, 0x2215],
+  [0x20, 0x7e],
+  [0xa0, 0xff],
+  [0x131, 0x131],
+  [0x152, 0x153],
+  [0x2bb, 0x2bc],
+  [0x2c6, 0x2c6],
+  [0x2da, 0x2da],
+  [0x2dc, 0x2dc],
+  [0x2000, 0x206f],
+  [0x20ac, 0x20ac],
+  [0x2122, 0x2122],
+  [0x2191, 0x2191],
+  [0x2193, 0x2193],
+  [0x2212, 0x2212],
+  [0x2215, 0x2215],
 ];
 const covered = (cp: number) => COVERED.some(([a, b]) => cp >= a && cp <= b);
 
@@ -45,7 +59,12 @@ export const SWARD = '#245a41';
 export const CLAY = '#9a3b1d';
 
 export function newPdf(info: { title: string; subject: string }): { doc: Pdf; done: Promise<Buffer> } {
-  const doc = new PDFDocument({ size: 'A4', margin: 50, info: { Title: info.title, Subject: info.subject, Author: 'Swardkeep', Creator: 'Swardkeep' }, bufferPages: true });
+  const doc = new PDFDocument({
+    size: 'A4',
+    margin: 50,
+    info: { Title: info.title, Subject: info.subject, Author: 'Swardkeep', Creator: 'Swardkeep' },
+    bufferPages: true,
+  });
   doc.registerFont('body', font());
   doc.font('body').fillColor(INK);
   const chunks: Buffer[] = [];
@@ -65,11 +84,21 @@ export function ensureSpace(doc: Pdf, height: number): void {
 
 export function heading(doc: Pdf, text: string, size = 13): void {
   ensureSpace(doc, size * 3);
-  doc.moveDown(0.6).fontSize(size).fillColor(SWARD).text(pdfText(text), doc.page.margins.left, doc.y, { width: contentWidth(doc) }).fillColor(INK).moveDown(0.2);
+  doc
+    .moveDown(0.6)
+    .fontSize(size)
+    .fillColor(SWARD)
+    .text(pdfText(text), doc.page.margins.left, doc.y, { width: contentWidth(doc) })
+    .fillColor(INK)
+    .moveDown(0.2);
 }
 
 export function para(doc: Pdf, text: string, opts: { size?: number; color?: string } = {}): void {
-  doc.fontSize(opts.size ?? 10).fillColor(opts.color ?? INK).text(pdfText(text), doc.page.margins.left, doc.y, { width: contentWidth(doc) }).fillColor(INK);
+  doc
+    .fontSize(opts.size ?? 10)
+    .fillColor(opts.color ?? INK)
+    .text(pdfText(text), doc.page.margins.left, doc.y, { width: contentWidth(doc) })
+    .fillColor(INK);
 }
 
 /** Rows of label: value, the label in a fixed column. */
@@ -78,7 +107,10 @@ export function rows(doc: Pdf, items: [string, string][], labelWidth = 130): voi
   const width = contentWidth(doc) - labelWidth - 8;
   doc.fontSize(10);
   for (const [k, v] of items) {
-    const h = Math.max(doc.heightOfString(pdfText(v), { width }), doc.heightOfString(pdfText(k), { width: labelWidth }));
+    const h = Math.max(
+      doc.heightOfString(pdfText(v), { width }),
+      doc.heightOfString(pdfText(k), { width: labelWidth }),
+    );
     ensureSpace(doc, h + 4);
     const y = doc.y;
     doc.fillColor(MUTED).text(pdfText(k), left, y, { width: labelWidth });
@@ -102,16 +134,26 @@ type MultiPolygon = { type: 'MultiPolygon'; coordinates: number[][][][] };
 export function parcelMap(doc: Pdf, geoms: MultiPolygon[], height = 210): void {
   const width = contentWidth(doc);
   ensureSpace(doc, height + 10);
-  const x0 = doc.page.margins.left, y0 = doc.y;
+  const x0 = doc.page.margins.left,
+    y0 = doc.y;
   const map = outlinePaths(geoms, width, height, 30);
   doc.save().rect(x0, y0, width, height).fill('#eef5f0').restore();
   doc.save().translate(x0, y0);
   for (const d of map.paths) doc.path(d).fillOpacity(0.35).fillAndStroke(SWARD, '#15382a', 'even-odd');
   doc.restore();
-  doc.save().fillOpacity(1).fillColor(INK).fontSize(10).text('N ↑', x0 + width - 40, y0 + 8, { width: 32, align: 'right' });
+  doc
+    .save()
+    .fillOpacity(1)
+    .fillColor(INK)
+    .fontSize(10)
+    .text('N ↑', x0 + width - 40, y0 + 8, { width: 32, align: 'right' });
   if (map.scaleM) {
     const yb = y0 + height - 12;
-    doc.moveTo(x0 + 12, yb).lineTo(x0 + 12 + map.scaleM.px, yb).lineWidth(2.5).stroke(INK);
+    doc
+      .moveTo(x0 + 12, yb)
+      .lineTo(x0 + 12 + map.scaleM.px, yb)
+      .lineWidth(2.5)
+      .stroke(INK);
     doc.fontSize(9).text(`${map.scaleM.metres.toLocaleString('en')} m`, x0 + 12, yb - 13, { width: 120 });
   }
   doc.restore();
@@ -123,17 +165,29 @@ export function parcelMap(doc: Pdf, geoms: MultiPolygon[], height = 210): void {
 export function riskLine(doc: Pdf, level: number): void {
   const info = levelInfo(level);
   ensureSpace(doc, 20);
-  const x = doc.page.margins.left, y = doc.y, s = 12;
+  const x = doc.page.margins.left,
+    y = doc.y,
+    s = 12;
   doc.save().lineWidth(1.6).strokeColor(INK).fillColor(INK);
   if (info.shape === 'ring') doc.circle(x + s / 2, y + s / 2, s / 2 - 1).stroke();
-  else if (info.shape === 'diamond') doc.polygon([x + s / 2, y], [x + s, y + s / 2], [x + s / 2, y + s], [x, y + s / 2]).stroke();
+  else if (info.shape === 'diamond')
+    doc.polygon([x + s / 2, y], [x + s, y + s / 2], [x + s / 2, y + s], [x, y + s / 2]).stroke();
   else if (info.shape === 'triangle') doc.polygon([x + s / 2, y], [x + s, y + s], [x, y + s]).fill();
   else {
     doc.rect(x, y, s, s).fill();
-    doc.moveTo(x + 3, y + s / 2).lineTo(x + s - 3, y + s / 2).lineWidth(2).stroke('#ffffff');
+    doc
+      .moveTo(x + 3, y + s / 2)
+      .lineTo(x + s - 3, y + s / 2)
+      .lineWidth(2)
+      .stroke('#ffffff');
   }
   doc.restore();
-  doc.fontSize(11).fillColor(INK).text(pdfText(`Risk level ${level} of 4: ${info.label}. ${info.meaning}`), x + s + 8, y, { width: contentWidth(doc) - s - 8 });
+  doc
+    .fontSize(11)
+    .fillColor(INK)
+    .text(pdfText(`Risk level ${level} of 4: ${info.label}. ${info.meaning}`), x + s + 8, y, {
+      width: contentWidth(doc) - s - 8,
+    });
   doc.x = x;
 }
 
@@ -144,7 +198,14 @@ export function footers(doc: Pdf, text: string): void {
     doc.switchToPage(i);
     const bottom = doc.page.margins.bottom;
     doc.page.margins.bottom = 0;
-    doc.fontSize(8).fillColor(MUTED).text(pdfText(`${text} · page ${i + 1} of ${range.count}`), doc.page.margins.left, doc.page.height - 32, { width: contentWidth(doc), align: 'center', lineBreak: false });
+    doc
+      .fontSize(8)
+      .fillColor(MUTED)
+      .text(pdfText(`${text} · page ${i + 1} of ${range.count}`), doc.page.margins.left, doc.page.height - 32, {
+        width: contentWidth(doc),
+        align: 'center',
+        lineBreak: false,
+      });
     doc.page.margins.bottom = bottom;
   }
   doc.fillColor(INK);

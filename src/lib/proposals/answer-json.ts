@@ -10,7 +10,9 @@ function withTail(objectText: string, tail: string): string {
   return objectText === '{}' ? `{${tail}}` : `${objectText.slice(0, -1)},${tail}}`;
 }
 
-export function assessmentAnswerJson(answer: { parcels: ({ estimate: Estimate | null } & Record<string, unknown>)[] } & Record<string, unknown>): string {
+export function assessmentAnswerJson(
+  answer: { parcels: ({ estimate: Estimate | null } & Record<string, unknown>)[] } & Record<string, unknown>,
+): string {
   const memo = new Map<unknown[], string>();
   const once = (a: unknown[]) => {
     let text = memo.get(a);

@@ -17,7 +17,10 @@ export function stateFromRecord(landUse: string | null, management: string | nul
   const mg = management?.toLowerCase() ?? null;
   if (use && DEFAULT_GRASSLAND_USES.includes(use)) {
     if (!GRAZING_OR_CUTTING.includes(mg)) {
-      return { state: null, note: `Recorded as ${use} with "${mg}"; the record does not say whether the grassland is improved, nominal or degraded (IPCC 2006 Vol 4 Ch 6 Table 6.2). Choose its state.` };
+      return {
+        state: null,
+        note: `Recorded as ${use} with "${mg}"; the record does not say whether the grassland is improved, nominal or degraded (IPCC 2006 Vol 4 Ch 6 Table 6.2). Choose its state.`,
+      };
     }
     return {
       state: { landUse: 'grassland', management: 'nominal', input: 'medium' },
@@ -31,10 +34,14 @@ export function stateFromRecord(landUse: string | null, management: string | nul
     };
   }
   if (!use) return { state: null, note: 'The register has no land use for this parcel. Choose its current state.' };
-  return { state: null, note: `Recorded as ${use}, which the grassland and cropland factors do not cover. Choose the state to estimate from.` };
+  return {
+    state: null,
+    note: `Recorded as ${use}, which the grassland and cropland factors do not cover. Choose the state to estimate from.`,
+  };
 }
 
 export function describeState(s: LandUseState): string {
-  if (s.landUse === 'grassland') return `grassland, ${s.management.replace(/-/g, ' ')}${s.management === 'improved' ? `, ${s.input} input` : ''}`;
+  if (s.landUse === 'grassland')
+    return `grassland, ${s.management.replace(/-/g, ' ')}${s.management === 'improved' ? `, ${s.input} input` : ''}`;
   return `cropland, ${s.system.replace(/-/g, ' ')}, ${s.tillage === 'none' ? 'no tillage' : `${s.tillage} tillage`}, ${s.input.replace(/-/g, ' ')} input`;
 }

@@ -12,11 +12,13 @@ const starts = (b: Uint8Array, sig: number[]) => sig.every((v, i) => b[i] === v)
 
 function pngProblem(b: Uint8Array): string | null {
   // PNG spec (ISO/IEC 15948) §5.2-5.3: the first chunk is IHDR with width and height as 4-byte big-endian.
-  if (b.length < 33 || String.fromCharCode(...b.subarray(12, 16)) !== 'IHDR') return 'the file says it is a PNG image but has no image header.';
+  if (b.length < 33 || String.fromCharCode(...b.subarray(12, 16)) !== 'IHDR')
+    return 'the file says it is a PNG image but has no image header.';
   const view = new DataView(b.buffer, b.byteOffset, b.byteLength);
   const [w, h] = [view.getUint32(16), view.getUint32(20)];
   if (w === 0 || h === 0) return 'the PNG image has no pixels.';
-  if (w * h > MAX_IMAGE_PIXELS) return `the PNG image claims ${w} x ${h} pixels, more than the ${MAX_IMAGE_PIXELS.toLocaleString('en')} allowed.`;
+  if (w * h > MAX_IMAGE_PIXELS)
+    return `the PNG image claims ${w} x ${h} pixels, more than the ${MAX_IMAGE_PIXELS.toLocaleString('en')} allowed.`;
   return null;
 }
 
@@ -44,7 +46,9 @@ export function detectAttachmentType(bytes: Uint8Array): { type: AttachmentType 
   if (starts(bytes, [0x25, 0x50, 0x44, 0x46, 0x2d])) {
     // ISO 32000-1 §7.5.5: a PDF ends with %%EOF (allowing trailing white space).
     const tail = new TextDecoder('latin1').decode(bytes.subarray(Math.max(0, bytes.length - 1024)));
-    return tail.includes('%%EOF') ? { type: 'application/pdf' } : { problem: 'the PDF is incomplete (it has no end-of-file marker); it may be cut short.' };
+    return tail.includes('%%EOF')
+      ? { type: 'application/pdf' }
+      : { problem: 'the PDF is incomplete (it has no end-of-file marker); it may be cut short.' };
   }
   if (starts(bytes, [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a])) {
     const p = pngProblem(bytes);
@@ -55,7 +59,8 @@ export function detectAttachmentType(bytes: Uint8Array): { type: AttachmentType 
     return p ? { problem: p } : { type: 'image/jpeg' };
   }
   if (starts(bytes, [0x50, 0x4b])) return { problem: 'it is a zip archive, not a PDF, PNG or JPEG file.' };
-  if (starts(bytes, [0x4d, 0x5a]) || starts(bytes, [0x7f, 0x45, 0x4c, 0x46])) return { problem: 'it is a program, not a document.' };
+  if (starts(bytes, [0x4d, 0x5a]) || starts(bytes, [0x7f, 0x45, 0x4c, 0x46]))
+    return { problem: 'it is a program, not a document.' };
   const head = new TextDecoder('utf-8', { fatal: false }).decode(bytes.subarray(0, 512)).trimStart().toLowerCase();
   if (head.startsWith('<')) return { problem: 'it is a web page or markup, not a PDF, PNG or JPEG file.' };
   return { problem: 'it is not a PDF, PNG or JPEG file (judged by its content, not its name).' };

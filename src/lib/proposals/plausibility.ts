@@ -23,7 +23,13 @@ export type Plausibility = {
 export function checkPlausibility(converts: boolean, socBefore: number, socAfter: number): Plausibility {
   const base = { band: { ...FIELD_STUDY_BAND }, studies: FIELD_STUDIES };
   if (!converts || socBefore <= 0) {
-    return { ...base, applicable: false, lossShare: null, inBand: null, message: 'Not a conversion of grassland to cropland on mineral soil: the field-study band does not apply.' };
+    return {
+      ...base,
+      applicable: false,
+      lossShare: null,
+      inBand: null,
+      message: 'Not a conversion of grassland to cropland on mineral soil: the field-study band does not apply.',
+    };
   }
   const loss = (socBefore - socAfter) / socBefore;
   const pct = (x: number) => `${Math.round(x * 100)} %`;

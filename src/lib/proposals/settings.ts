@@ -7,7 +7,11 @@ export const proposalSettingsSchema = z.object({
   /** Days from a valid submission to the decision deadline. 35 days: the screening-decision period of the England EIA (Agriculture) (No.2) Regulations 2006, reg. 8(5). */
   'proposal.decision-days': z.number().int().positive().default(35),
   /** Largest attachment, bytes. */
-  'proposal.attachment-max-bytes': z.number().int().positive().default(15 * 1024 * 1024),
+  'proposal.attachment-max-bytes': z
+    .number()
+    .int()
+    .positive()
+    .default(15 * 1024 * 1024),
   /** Days before the deadline when the decision-due reminder goes out. */
   'proposal.reminder-days': z.number().int().nonnegative().default(7),
   /** Allow signing off while a factor table used is not yet confirmed by this authority. */
@@ -24,7 +28,9 @@ export type ProposalSettings = z.output<typeof proposalSettingsSchema>;
 export const PROPOSAL_SETTING_KEYS = Object.keys(proposalSettingsSchema.shape) as (keyof ProposalSettings)[];
 
 export function readProposalSettings(rows: { key: string; value: unknown }[]): ProposalSettings {
-  const stored = Object.fromEntries(rows.filter((r) => (PROPOSAL_SETTING_KEYS as string[]).includes(r.key)).map((r) => [r.key, r.value]));
+  const stored = Object.fromEntries(
+    rows.filter((r) => (PROPOSAL_SETTING_KEYS as string[]).includes(r.key)).map((r) => [r.key, r.value]),
+  );
   const parsed = proposalSettingsSchema.safeParse(stored);
   if (!parsed.success) {
     const i = parsed.error.issues[0]!;

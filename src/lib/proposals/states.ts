@@ -5,7 +5,16 @@
  */
 import type { Role } from '../auth/roles';
 
-export const PROPOSAL_STATES = ['draft', 'submitted', 'returned', 'in-assessment', 'assessed', 'on-agenda', 'decided', 'withdrawn'] as const;
+export const PROPOSAL_STATES = [
+  'draft',
+  'submitted',
+  'returned',
+  'in-assessment',
+  'assessed',
+  'on-agenda',
+  'decided',
+  'withdrawn',
+] as const;
 export type ProposalState = (typeof PROPOSAL_STATES)[number];
 
 export const STATE_LABELS: Record<ProposalState, string> = {
@@ -31,14 +40,65 @@ export type Transition = {
 };
 
 export const TRANSITIONS: readonly Transition[] = [
-  { to: 'submitted', from: ['draft', 'returned'], roles: ['planner'], reasonRequired: false, label: 'Submit for assessment' },
-  { to: 'in-assessment', from: ['submitted'], roles: ['assessor'], reasonRequired: false, label: 'Start the assessment' },
-  { to: 'returned', from: ['submitted', 'in-assessment'], roles: ['assessor'], reasonRequired: true, label: 'Return to the planner for more information' },
-  { to: 'assessed', from: ['in-assessment'], roles: ['assessor'], reasonRequired: false, viaAction: 'sign the assessment off', label: 'Sign off' },
-  { to: 'in-assessment', from: ['assessed'], roles: ['assessor'], reasonRequired: true, label: 'Reopen the assessment' },
-  { to: 'on-agenda', from: ['assessed'], roles: ['chair', 'admin'], reasonRequired: false, viaAction: 'put it on a board meeting’s agenda', label: 'Put on an agenda' },
-  { to: 'decided', from: ['on-agenda'], roles: ['chair', 'admin'], reasonRequired: false, viaAction: 'record the board’s decision', label: 'Record the decision' },
-  { to: 'withdrawn', from: ['draft', 'submitted', 'returned', 'in-assessment', 'assessed', 'on-agenda'], roles: ['planner'], reasonRequired: true, label: 'Withdraw' },
+  {
+    to: 'submitted',
+    from: ['draft', 'returned'],
+    roles: ['planner'],
+    reasonRequired: false,
+    label: 'Submit for assessment',
+  },
+  {
+    to: 'in-assessment',
+    from: ['submitted'],
+    roles: ['assessor'],
+    reasonRequired: false,
+    label: 'Start the assessment',
+  },
+  {
+    to: 'returned',
+    from: ['submitted', 'in-assessment'],
+    roles: ['assessor'],
+    reasonRequired: true,
+    label: 'Return to the planner for more information',
+  },
+  {
+    to: 'assessed',
+    from: ['in-assessment'],
+    roles: ['assessor'],
+    reasonRequired: false,
+    viaAction: 'sign the assessment off',
+    label: 'Sign off',
+  },
+  {
+    to: 'in-assessment',
+    from: ['assessed'],
+    roles: ['assessor'],
+    reasonRequired: true,
+    label: 'Reopen the assessment',
+  },
+  {
+    to: 'on-agenda',
+    from: ['assessed'],
+    roles: ['chair', 'admin'],
+    reasonRequired: false,
+    viaAction: 'put it on a board meeting’s agenda',
+    label: 'Put on an agenda',
+  },
+  {
+    to: 'decided',
+    from: ['on-agenda'],
+    roles: ['chair', 'admin'],
+    reasonRequired: false,
+    viaAction: 'record the board’s decision',
+    label: 'Record the decision',
+  },
+  {
+    to: 'withdrawn',
+    from: ['draft', 'submitted', 'returned', 'in-assessment', 'assessed', 'on-agenda'],
+    roles: ['planner'],
+    reasonRequired: true,
+    label: 'Withdraw',
+  },
 ];
 
 /** States in which a planner may still change the proposal's content. */
@@ -49,13 +109,38 @@ export type TransitionCheck =
   | { ok: false; code: 'CONFLICT' | 'FORBIDDEN' | 'UNPROCESSABLE_CONTENT'; message: string };
 
 /** Whether `roles` may move a proposal from `from` to `to`, and if not, why (409 = the state machine, 403 = the role). */
-export function checkTransition(from: ProposalState, to: ProposalState, roles: readonly Role[], reason: string | undefined): TransitionCheck {
+export function checkTransition(
+  from: ProposalState,
+  to: ProposalState,
+  roles: readonly Role[],
+  reason: string | undefined,
+): TransitionCheck {
   const byState = TRANSITIONS.filter((t) => t.to === to && t.from.includes(from));
-  if (byState.length === 0) return { ok: false, code: 'CONFLICT', message: `A proposal that is "${STATE_LABELS[from]}" cannot move to "${STATE_LABELS[to]}".` };
+  if (byState.length === 0)
+    return {
+      ok: false,
+      code: 'CONFLICT',
+      message: `A proposal that is "${STATE_LABELS[from]}" cannot move to "${STATE_LABELS[to]}".`,
+    };
   const t = byState.find((x) => x.roles.some((r) => roles.includes(r)));
-  if (!t) return { ok: false, code: 'FORBIDDEN', message: `Moving a proposal to "${STATE_LABELS[to]}" needs the role: ${byState.flatMap((x) => x.roles).join(' or ')}.` };
-  if (t.viaAction) return { ok: false, code: 'CONFLICT', message: `A proposal becomes "${STATE_LABELS[to]}" only when you ${t.viaAction}.` };
-  if (t.reasonRequired && !(reason && reason.trim().length >= 3)) return { ok: false, code: 'UNPROCESSABLE_CONTENT', message: 'Give a reason (at least 3 characters); it is kept in the proposal history.' };
+  if (!t)
+    return {
+      ok: false,
+      code: 'FORBIDDEN',
+      message: `Moving a proposal to "${STATE_LABELS[to]}" needs the role: ${byState.flatMap((x) => x.roles).join(' or ')}.`,
+    };
+  if (t.viaAction)
+    return {
+      ok: false,
+      code: 'CONFLICT',
+      message: `A proposal becomes "${STATE_LABELS[to]}" only when you ${t.viaAction}.`,
+    };
+  if (t.reasonRequired && !(reason && reason.trim().length >= 3))
+    return {
+      ok: false,
+      code: 'UNPROCESSABLE_CONTENT',
+      message: 'Give a reason (at least 3 characters); it is kept in the proposal history.',
+    };
   return { ok: true, transition: t };
 }
 

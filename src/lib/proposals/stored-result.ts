@@ -27,7 +27,6 @@ function sharedKeys(items: unknown[]): string[] | null {
   return keys;
 }
 
-
 function column(values: unknown[]): Column {
   const first = values[0];
   if (first === null || ['string', 'number', 'boolean'].includes(typeof first)) {
@@ -37,7 +36,8 @@ function column(values: unknown[]): Column {
   if (sharedKeys(values)) return ['p', packRows(values as Record<string, unknown>[])];
   if (values.every(Array.isArray)) {
     const items = (values as unknown[][]).flat();
-    if (items.length && sharedKeys(items)) return ['a', (values as unknown[][]).map((v) => v.length), packRows(items as Record<string, unknown>[])];
+    if (items.length && sharedKeys(items))
+      return ['a', (values as unknown[][]).map((v) => v.length), packRows(items as Record<string, unknown>[])];
   }
   return ['v', values];
 }
@@ -51,14 +51,17 @@ export function packRows(rows: Record<string, unknown>[]): Packed {
 
 function columnValues(c: Column, n: number): unknown[] {
   switch (c[0]) {
-    case 'v': return c[1];
-    case 'p': return unpackRows(c[1]);
+    case 'v':
+      return c[1];
+    case 'p':
+      return unpackRows(c[1]);
     case 'a': {
       const items = unpackRows(c[2]);
       let at = 0;
       return c[1].map((len) => items.slice(at, (at += len)));
     }
-    case 'c': return Array.from({ length: n }, () => c[1]);
+    case 'c':
+      return Array.from({ length: n }, () => c[1]);
   }
 }
 
@@ -68,10 +71,17 @@ export function unpackRows(p: Packed): Record<string, unknown>[] {
 }
 
 /** A list packed when its items share their keys, else as it is (`{ list }`). */
-const packList = (v: unknown) => (Array.isArray(v) && (v.length === 0 || sharedKeys(v)) ? { rows: packRows(v as Record<string, unknown>[]) } : { list: v });
+const packList = (v: unknown) =>
+  Array.isArray(v) && (v.length === 0 || sharedKeys(v))
+    ? { rows: packRows(v as Record<string, unknown>[]) }
+    : { list: v };
 const unpackList = (v: { rows?: Packed; list?: unknown }) => (v.rows ? unpackRows(v.rows) : v.list);
 
-type ResultLike = { parcels: unknown; overlayUsed: Record<string, unknown>; facts: { parcels: unknown } & Record<string, unknown> } & Record<string, unknown>;
+type ResultLike = {
+  parcels: unknown;
+  overlayUsed: Record<string, unknown>;
+  facts: { parcels: unknown } & Record<string, unknown>;
+} & Record<string, unknown>;
 
 /** The form written to `assessment.result`. */
 export function packResult<T extends ResultLike>(r: T): Record<string, unknown> {

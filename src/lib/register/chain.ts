@@ -25,10 +25,13 @@ export class ChainVerifier {
     this.entries++;
     if (this.firstBrokenEntry === null) {
       const why =
-        e.seq !== this.expectedSeq ? `entry ${e.seq} follows ${this.expectedSeq - 1}: an entry is missing`
-        : e.prev_hash !== this.prevHash ? `entry ${e.seq} does not name the hash of entry ${e.seq - 1}`
-        : entryHash(e.seq, e.prev_hash, e.content) !== e.hash ? `the content of entry ${e.seq} does not match its hash`
-        : null;
+        e.seq !== this.expectedSeq
+          ? `entry ${e.seq} follows ${this.expectedSeq - 1}: an entry is missing`
+          : e.prev_hash !== this.prevHash
+            ? `entry ${e.seq} does not name the hash of entry ${e.seq - 1}`
+            : entryHash(e.seq, e.prev_hash, e.content) !== e.hash
+              ? `the content of entry ${e.seq} does not match its hash`
+              : null;
       if (why) {
         this.firstBrokenEntry = e.seq;
         this.problem = why;
@@ -43,13 +46,26 @@ export class ChainVerifier {
    * `lastHash`) as checked, when its rows are known to be unchanged since.
    */
   skip(entries: number, lastSeq: number, lastHash: string): void {
-    if (this.firstBrokenEntry !== null || lastSeq - entries + 1 !== this.expectedSeq) throw new Error('a verified block must follow the entries checked so far');
+    if (this.firstBrokenEntry !== null || lastSeq - entries + 1 !== this.expectedSeq)
+      throw new Error('a verified block must follow the entries checked so far');
     this.entries += entries;
     this.expectedSeq = lastSeq + 1;
     this.prevHash = lastHash;
   }
 
-  result(): { ok: boolean; entries: number; firstBrokenEntry: number | null; problem: string | null; headHash: string | null } {
-    return { ok: this.firstBrokenEntry === null, entries: this.entries, firstBrokenEntry: this.firstBrokenEntry, problem: this.problem, headHash: this.entries ? this.prevHash : null };
+  result(): {
+    ok: boolean;
+    entries: number;
+    firstBrokenEntry: number | null;
+    problem: string | null;
+    headHash: string | null;
+  } {
+    return {
+      ok: this.firstBrokenEntry === null,
+      entries: this.entries,
+      firstBrokenEntry: this.firstBrokenEntry,
+      problem: this.problem,
+      headHash: this.entries ? this.prevHash : null,
+    };
   }
 }

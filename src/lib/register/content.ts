@@ -15,18 +15,32 @@ export const OUTCOME_LABELS: Record<Outcome, string> = {
 };
 export const ENTRY_KINDS = ['decision', 'correction', 'appeal-outcome', 'compensation-reversed'] as const;
 export const ENTRY_KIND_LABELS: Record<(typeof ENTRY_KINDS)[number], string> = {
-  decision: 'Board decision', correction: 'Correction', 'appeal-outcome': 'Outcome of an appeal', 'compensation-reversed': 'Compensation reversed',
+  decision: 'Board decision',
+  correction: 'Correction',
+  'appeal-outcome': 'Outcome of an appeal',
+  'compensation-reversed': 'Compensation reversed',
 };
 
 export const conditionSchema = z.object({
   text: z.string().trim().min(5, 'Describe the condition (at least 5 characters).').max(2000),
   dueDate: z.iso.date('Give the due date as YYYY-MM-DD.'),
   checkedBy: z.string().trim().min(2, 'Say who checks the condition (an office, e.g. "Field officer").').max(200),
-  restoreParcel: z.string().trim().min(1).max(60).optional().describe('Reference of a parcel the condition requires restored to grassland; it is then held in grass for the permanence period'),
+  restoreParcel: z
+    .string()
+    .trim()
+    .min(1)
+    .max(60)
+    .optional()
+    .describe(
+      'Reference of a parcel the condition requires restored to grassland; it is then held in grass for the permanence period',
+    ),
 });
 export type Condition = z.output<typeof conditionSchema>;
 
-const multiPolygon = z.object({ type: z.literal('MultiPolygon'), coordinates: z.array(z.array(z.array(z.array(z.number())))) });
+const multiPolygon = z.object({
+  type: z.literal('MultiPolygon'),
+  coordinates: z.array(z.array(z.array(z.array(z.number())))),
+});
 
 export const registerContentSchema = z.object({
   kind: z.enum(ENTRY_KINDS),
@@ -37,26 +51,56 @@ export const registerContentSchema = z.object({
   outcome: z.enum(OUTCOMES),
   reasons: z.string(),
   conditions: z.array(conditionSchema),
-  figures: z.object({ co2eTotal: z.number(), co2eLow: z.number(), co2eHigh: z.number(), socChangeTotal: z.number(), runs: z.number(), gwp: z.string(), unit: z.literal('t CO2e') }),
+  figures: z.object({
+    co2eTotal: z.number(),
+    co2eLow: z.number(),
+    co2eHigh: z.number(),
+    socChangeTotal: z.number(),
+    runs: z.number(),
+    gwp: z.string(),
+    unit: z.literal('t CO2e'),
+  }),
   risk: z.object({ level: z.number(), label: z.string() }),
   factorSet: z.object({ id: z.string(), version: z.number() }),
   ruleSet: z.object({ id: z.string(), version: z.number() }).nullable(),
   assessment: z.object({ number: z.number() }),
   meeting: z.object({ date: z.string(), place: z.string() }).nullable(),
-  votes: z.object({ approve: z.number(), approveWithConditions: z.number(), refuse: z.number(), defer: z.number(), abstain: z.number(), declaredConflicts: z.number() }).nullable(),
+  votes: z
+    .object({
+      approve: z.number(),
+      approveWithConditions: z.number(),
+      refuse: z.number(),
+      defer: z.number(),
+      abstain: z.number(),
+      declaredConflicts: z.number(),
+    })
+    .nullable(),
   appealUntil: z.string().nullable(),
   effectiveDate: z.string(),
   decidedOn: z.string().describe('YYYY-MM-DD'),
   recordedAt: z.string().describe('ISO time the entry was written'),
   supersedes: z.number().nullable(),
   note: z.string().nullable().describe('Why a correction or appeal outcome replaces the earlier entry'),
-  compensation: z.object({
-    parcelReference: z.string(), areaHa: z.number(), creditedCo2e: z.number().describe('t CO2e removal credited against the approval (positive)'), permanenceUntil: z.string(),
-  }).optional().describe('An approval only: the parcel restored to grassland as compensation and the gain credited for it'),
-  reverses: z.object({
-    seq: z.number().describe('The entry whose compensation is reversed'), parcelReference: z.string(), creditedCo2e: z.number(), eventDate: z.string(), permanenceUntil: z.string(),
-    budgetYear: z.number().describe('The budget year the reversed gain counts in: the year the parcel was ploughed'),
-  }).optional().describe('A compensation-reversed entry only: the credited gain it takes back'),
+  compensation: z
+    .object({
+      parcelReference: z.string(),
+      areaHa: z.number(),
+      creditedCo2e: z.number().describe('t CO2e removal credited against the approval (positive)'),
+      permanenceUntil: z.string(),
+    })
+    .optional()
+    .describe('An approval only: the parcel restored to grassland as compensation and the gain credited for it'),
+  reverses: z
+    .object({
+      seq: z.number().describe('The entry whose compensation is reversed'),
+      parcelReference: z.string(),
+      creditedCo2e: z.number(),
+      eventDate: z.string(),
+      permanenceUntil: z.string(),
+      budgetYear: z.number().describe('The budget year the reversed gain counts in: the year the parcel was ploughed'),
+    })
+    .optional()
+    .describe('A compensation-reversed entry only: the credited gain it takes back'),
 });
 export type RegisterContent = z.output<typeof registerContentSchema>;
 

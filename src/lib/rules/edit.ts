@@ -14,22 +14,37 @@ export class RuleEditError extends Error {
 }
 
 /** The document after the change, validated as a whole; throws RuleEditError naming the field. */
-export function withRuleChange(doc: RuleSetDocument, change: RuleChange): { document: RuleSetDocument; before: Rule | null; after: Rule | null } {
+export function withRuleChange(
+  doc: RuleSetDocument,
+  change: RuleChange,
+): { document: RuleSetDocument; before: Rule | null; after: Rule | null } {
   const index = doc.rules.findIndex((r) => r.id === change.ruleId);
   const before = index >= 0 ? doc.rules[index]! : null;
   let rules: unknown[];
   if (change.action === 'remove') {
-    if (!before) throw new RuleEditError(`There is no rule "${change.ruleId}" in this draft.`, [{ path: ['ruleId'], message: 'Unknown rule.' }]);
+    if (!before)
+      throw new RuleEditError(`There is no rule "${change.ruleId}" in this draft.`, [
+        { path: ['ruleId'], message: 'Unknown rule.' },
+      ]);
     rules = doc.rules.filter((_, i) => i !== index);
   } else {
     const id = (change.rule as { id?: unknown } | null)?.id;
-    if (id !== change.ruleId) throw new RuleEditError(`The rule's id must be "${change.ruleId}".`, [{ path: ['rule', 'id'], message: 'Must equal ruleId.' }]);
+    if (id !== change.ruleId)
+      throw new RuleEditError(`The rule's id must be "${change.ruleId}".`, [
+        { path: ['rule', 'id'], message: 'Must equal ruleId.' },
+      ]);
     rules = index >= 0 ? doc.rules.map((r, i) => (i === index ? change.rule : r)) : [...doc.rules, change.rule];
   }
   const parsed = ruleSetDocumentSchema.safeParse({ ...doc, rules });
   if (!parsed.success) {
-    const issues = parsed.error.issues.map((i) => ({ path: rulePath(i.path, index >= 0 ? index : doc.rules.length), message: i.message }));
-    throw new RuleEditError(`The rule is not valid: ${issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')}`, issues);
+    const issues = parsed.error.issues.map((i) => ({
+      path: rulePath(i.path, index >= 0 ? index : doc.rules.length),
+      message: i.message,
+    }));
+    throw new RuleEditError(
+      `The rule is not valid: ${issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')}`,
+      issues,
+    );
   }
   const after = change.action === 'remove' ? null : parsed.data.rules.find((r) => r.id === change.ruleId)!;
   return { document: parsed.data, before, after };
@@ -42,7 +57,12 @@ function rulePath(path: PropertyKey[], index: number): (string | number)[] {
   return p;
 }
 
-export function cloneRuleSetDocument(doc: RuleSetDocument, id: string, title: string, description: string): RuleSetDocument {
+export function cloneRuleSetDocument(
+  doc: RuleSetDocument,
+  id: string,
+  title: string,
+  description: string,
+): RuleSetDocument {
   return ruleSetDocumentSchema.parse({ ...doc, id, version: 1, title, description });
 }
 

@@ -18,7 +18,14 @@ export function gradeProposal(facts: GradeFacts, doc: RuleSetDocument, ref: Rule
   const undecided: NonNullable<Grade['undecided']> = [];
   for (const rule of ordered) {
     const result = evaluateKind(rule.kind, rule.params as RuleParams<RuleKind>, facts);
-    if (result.fired) reasons.push({ rule: rule.id, citation: citationText(rule), text: result.text, level: rule.gate ? 4 : rule.level, gate: rule.gate });
+    if (result.fired)
+      reasons.push({
+        rule: rule.id,
+        citation: citationText(rule),
+        text: result.text,
+        level: rule.gate ? 4 : rule.level,
+        gate: rule.gate,
+      });
     else if (result.undecided) undecided.push({ rule: rule.id, citation: citationText(rule), text: result.undecided });
   }
   const level = reasons.reduce<RiskLevel>((top, r) => (r.level > top ? r.level : top), 1);
@@ -27,6 +34,8 @@ export function gradeProposal(facts: GradeFacts, doc: RuleSetDocument, ref: Rule
 
 /** The look-back window (years) of the set's holding rule, for gathering earlier proposals; null when the set has none. */
 export function holdingWindowYears(doc: RuleSetDocument): number | null {
-  const windows = doc.rules.filter((r): r is Extract<Rule, { kind: 'holding-cumulative-area' }> => r.kind === 'holding-cumulative-area').map((r) => r.params.windowYears);
+  const windows = doc.rules
+    .filter((r): r is Extract<Rule, { kind: 'holding-cumulative-area' }> => r.kind === 'holding-cumulative-area')
+    .map((r) => r.params.windowYears);
   return windows.length ? Math.max(...windows) : null;
 }

@@ -17,9 +17,24 @@ export interface LevelInfo {
 
 export const LEVELS: Record<RiskLevel, LevelInfo> = {
   1: { level: 1, label: 'Routine', shape: 'ring', meaning: 'No rule of the set fired; the usual assessment applies.' },
-  2: { level: 2, label: 'Closer look', shape: 'diamond', meaning: 'A threshold was passed; the assessor checks the figures before sign-off.' },
-  3: { level: 3, label: 'Full review', shape: 'triangle', meaning: 'Screening thresholds were reached; a full review (and any statutory screening) is needed.' },
-  4: { level: 4, label: 'Barred unless cleared', shape: 'barred-square', meaning: 'A hard gate fired: the conversion is not allowed unless the authority clears the legal bar.' },
+  2: {
+    level: 2,
+    label: 'Closer look',
+    shape: 'diamond',
+    meaning: 'A threshold was passed; the assessor checks the figures before sign-off.',
+  },
+  3: {
+    level: 3,
+    label: 'Full review',
+    shape: 'triangle',
+    meaning: 'Screening thresholds were reached; a full review (and any statutory screening) is needed.',
+  },
+  4: {
+    level: 4,
+    label: 'Barred unless cleared',
+    shape: 'barred-square',
+    meaning: 'A hard gate fired: the conversion is not allowed unless the authority clears the legal bar.',
+  },
 };
 
 export const RISK_LEVELS: readonly RiskLevel[] = [1, 2, 3, 4];

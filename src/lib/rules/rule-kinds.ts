@@ -53,22 +53,36 @@ const sensitive: Evaluator<'sensitive-share'> = (p, f) => {
   const hits = f.parcels.filter((x) => moreThan(x.sensitive.share, p.aboveShare));
   if (hits.length === 0) return { fired: false };
   const total = hits.reduce((s, x) => s + x.sensitive.areaHa, 0);
-  const parts = hits.map((x) => `${x.reference}: ${fmtHa(x.sensitive.areaHa)}, ${fmtPct(x.sensitive.share)} of the area assessed`);
-  return { fired: true, text: `${fmtHa(total)} of the proposal lies in designated sensitive grassland (${parts.join('; ')}); the rule fires above ${fmtPct(p.aboveShare)}.` };
+  const parts = hits.map(
+    (x) => `${x.reference}: ${fmtHa(x.sensitive.areaHa)}, ${fmtPct(x.sensitive.share)} of the area assessed`,
+  );
+  return {
+    fired: true,
+    text: `${fmtHa(total)} of the proposal lies in designated sensitive grassland (${parts.join('; ')}); the rule fires above ${fmtPct(p.aboveShare)}.`,
+  };
 };
 
 const regionFall: Evaluator<'region-ratio-fall'> = (p, f) => {
   const touched = f.regions.filter((r) => r.convertedHa > 0);
-  const hits = touched.filter((r) => r.relativeFallAfter !== null && moreThan(r.relativeFallAfter, p.aboveRelativeFall));
+  const hits = touched.filter(
+    (r) => r.relativeFallAfter !== null && moreThan(r.relativeFallAfter, p.aboveRelativeFall),
+  );
   if (hits.length > 0) {
     const parts = hits.map(
       (r) =>
         `in ${r.label} the permanent-grassland ratio would be ${fmtRatio(r.ratioAfter!)} after converting ${fmtHa(r.convertedHa)}, ${fmtPct(r.relativeFallAfter!)} below its reference ratio ${fmtRatio(r.referenceRatio!)}${r.referenceYear ? ` of ${r.referenceYear}` : ''}`,
     );
-    return { fired: true, text: `${capitalise(listWords(parts))}; the limit is a fall of more than ${fmtPct(p.aboveRelativeFall)}.` };
+    return {
+      fired: true,
+      text: `${capitalise(listWords(parts))}; the limit is a fall of more than ${fmtPct(p.aboveRelativeFall)}.`,
+    };
   }
   const open = touched.filter((r) => r.relativeFallAfter === null);
-  if (open.length > 0) return { fired: false, undecided: `No reference ratio is known for ${listWords(open.map((r) => r.label))}, so the fall of the permanent-grassland ratio cannot be checked.` };
+  if (open.length > 0)
+    return {
+      fired: false,
+      undecided: `No reference ratio is known for ${listWords(open.map((r) => r.label))}, so the fall of the permanent-grassland ratio cannot be checked.`,
+    };
   return { fired: false };
 };
 
@@ -81,7 +95,10 @@ const holding: Evaluator<'holding-cumulative-area'> = (p, f) => {
       ? `on one holding this proposal converts ${fmtHa(h.thisProposalHa)} of permanent grassland and earlier proposals within ${h.windowYears} years (${listWords(h.earlierReferences)}) converted ${fmtHa(h.earlierHa)}, together ${fmtHa(h.cumulativeHa)}`
       : `on one holding this proposal converts ${fmtHa(h.cumulativeHa)} of permanent grassland`,
   );
-  return { fired: true, text: `${capitalise(listWords(parts))}; the screening threshold is ${fmtHa(p.atLeastHa)} or more, added up over ${p.windowYears} years.` };
+  return {
+    fired: true,
+    text: `${capitalise(listWords(parts))}; the screening threshold is ${fmtHa(p.atLeastHa)} or more, added up over ${p.windowYears} years.`,
+  };
 };
 
 const neverTilled: Evaluator<'never-tilled'> = (p, f) => {
@@ -89,8 +106,12 @@ const neverTilled: Evaluator<'never-tilled'> = (p, f) => {
   const byLayer = f.parcels.filter((x) => moreThan(x.neverTilledLayer.share, p.aboveShare));
   if (byFlag.length === 0 && byLayer.length === 0) return { fired: false };
   const parts: string[] = [];
-  if (byFlag.length) parts.push(`the recorded history shows no tillage or arable use on ${listWords(byFlag.map((x) => x.reference))}`);
-  if (byLayer.length) parts.push(`the never-tilled grassland layer covers ${listWords(byLayer.map((x) => `${fmtHa(x.neverTilledLayer.areaHa)} (${fmtPct(x.neverTilledLayer.share)}) of ${x.reference}`))}`);
+  if (byFlag.length)
+    parts.push(`the recorded history shows no tillage or arable use on ${listWords(byFlag.map((x) => x.reference))}`);
+  if (byLayer.length)
+    parts.push(
+      `the never-tilled grassland layer covers ${listWords(byLayer.map((x) => `${fmtHa(x.neverTilledLayer.areaHa)} (${fmtPct(x.neverTilledLayer.share)}) of ${x.reference}`))}`,
+    );
   return { fired: true, text: `${capitalise(parts.join('; '))}.` };
 };
 
@@ -99,16 +120,23 @@ const slope: Evaluator<'slope-class'> = (p, f) => {
   for (const x of f.parcels) {
     for (const cls of p.classes) {
       const s = x.slope[cls];
-      if (s && moreThan(s.share, p.aboveShare)) parts.push(`${fmtHa(s.areaHa)} (${fmtPct(s.share)}) of ${x.reference} is in slope class "${cls}"`);
+      if (s && moreThan(s.share, p.aboveShare))
+        parts.push(`${fmtHa(s.areaHa)} (${fmtPct(s.share)}) of ${x.reference} is in slope class "${cls}"`);
     }
   }
   if (parts.length === 0) return { fired: false };
-  return { fired: true, text: `${capitalise(listWords(parts))}; the rule covers the classes ${listWords(p.classes.map((c) => `"${c}"`))}.` };
+  return {
+    fired: true,
+    text: `${capitalise(listWords(parts))}; the rule covers the classes ${listWords(p.classes.map((c) => `"${c}"`))}.`,
+  };
 };
 
 const socPerHa: Evaluator<'soc-loss-per-ha'> = (p, f) => {
   if (!moreThan(f.totals.socLossPerHa, p.aboveTonnesCPerHa)) return { fired: false };
-  return { fired: true, text: `The soil-carbon loss averages ${fmtT1(f.totals.socLossPerHa)} t C/ha over the ${fmtHa(f.totals.areaHa)} assessed, more than ${fmtT1(p.aboveTonnesCPerHa)} t C/ha.` };
+  return {
+    fired: true,
+    text: `The soil-carbon loss averages ${fmtT1(f.totals.socLossPerHa)} t C/ha over the ${fmtHa(f.totals.areaHa)} assessed, more than ${fmtT1(p.aboveTonnesCPerHa)} t C/ha.`,
+  };
 };
 
 const co2e: Evaluator<'co2e-total'> = (p, f) => {
@@ -120,9 +148,16 @@ const co2e: Evaluator<'co2e-total'> = (p, f) => {
 
 const budget: Evaluator<'budget-share'> = (p, f) => {
   const b = f.budget;
-  if (b.proposalShare === null || b.budgetT === null) return { fired: false, undecided: `No carbon budget is set for ${b.year}, so the share of it this proposal would use cannot be checked.` };
+  if (b.proposalShare === null || b.budgetT === null)
+    return {
+      fired: false,
+      undecided: `No carbon budget is set for ${b.year}, so the share of it this proposal would use cannot be checked.`,
+    };
   if (!moreThan(b.proposalShare, p.aboveShare)) return { fired: false };
-  return { fired: true, text: `The proposal would use ${fmtPct(b.proposalShare)} of the ${b.year} carbon budget of ${fmtT(b.budgetT)} t CO2e (${fmtT(b.committedT)} t already committed); the rule fires above ${fmtPct(p.aboveShare)}.` };
+  return {
+    fired: true,
+    text: `The proposal would use ${fmtPct(b.proposalShare)} of the ${b.year} carbon budget of ${fmtT(b.budgetT)} t CO2e (${fmtT(b.committedT)} t already committed); the rule fires above ${fmtPct(p.aboveShare)}.`,
+  };
 };
 
 const EVALUATORS: { [K in RuleKind]: Evaluator<K> } = {

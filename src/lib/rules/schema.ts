@@ -7,8 +7,16 @@
 import { z } from 'zod';
 import { RULE_KIND_PARAMS, RULE_KINDS, type RuleKind } from './rule-kinds';
 
-export const ruleSetIdSchema = z.string().regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, 'Use lower-case letters, digits and hyphens, e.g. "tarrow-2027".').min(3).max(60);
-const ruleId = z.string().regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, 'Use lower-case letters, digits and hyphens.').min(2).max(60);
+export const ruleSetIdSchema = z
+  .string()
+  .regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, 'Use lower-case letters, digits and hyphens, e.g. "tarrow-2027".')
+  .min(3)
+  .max(60);
+const ruleId = z
+  .string()
+  .regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, 'Use lower-case letters, digits and hyphens.')
+  .min(2)
+  .max(60);
 
 export const citationSchema = z.strictObject({
   /** The law, guidance or policy, e.g. "Regulation (EU) 2021/2115". */
@@ -31,13 +39,28 @@ const ruleBase = {
   thresholdSource: z.string().trim().min(3).max(300),
 };
 
-const ruleVariants = RULE_KINDS.map((k) => z.strictObject({ ...ruleBase, kind: z.literal(k), params: RULE_KIND_PARAMS[k] }));
+const ruleVariants = RULE_KINDS.map((k) =>
+  z.strictObject({ ...ruleBase, kind: z.literal(k), params: RULE_KIND_PARAMS[k] }),
+);
 
-type RuleOf<K extends RuleKind> = { id: string; title: string; level: 2 | 3 | 4; gate: boolean; citation: z.output<typeof citationSchema>; explanation: string; thresholdSource: string; kind: K; params: z.output<(typeof RULE_KIND_PARAMS)[K]> };
+type RuleOf<K extends RuleKind> = {
+  id: string;
+  title: string;
+  level: 2 | 3 | 4;
+  gate: boolean;
+  citation: z.output<typeof citationSchema>;
+  explanation: string;
+  thresholdSource: string;
+  kind: K;
+  params: z.output<(typeof RULE_KIND_PARAMS)[K]>;
+};
 export type Rule = { [K in RuleKind]: RuleOf<K> }[RuleKind];
 
-export const ruleSchema = (z.discriminatedUnion('kind', ruleVariants as unknown as [z.ZodObject, ...z.ZodObject[]]) as unknown as z.ZodType<Rule>).superRefine((r, ctx) => {
-  if (r.gate && r.level !== 4) ctx.addIssue({ code: 'custom', path: ['level'], message: 'A hard gate sets the top level: give it level 4.' });
+export const ruleSchema = (
+  z.discriminatedUnion('kind', ruleVariants as unknown as [z.ZodObject, ...z.ZodObject[]]) as unknown as z.ZodType<Rule>
+).superRefine((r, ctx) => {
+  if (r.gate && r.level !== 4)
+    ctx.addIssue({ code: 'custom', path: ['level'], message: 'A hard gate sets the top level: give it level 4.' });
 });
 
 export const ruleSetDocumentSchema = z
@@ -53,7 +76,8 @@ export const ruleSetDocumentSchema = z
   .superRefine((doc, ctx) => {
     const seen = new Set<string>();
     doc.rules.forEach((r, i) => {
-      if (seen.has(r.id)) ctx.addIssue({ code: 'custom', path: ['rules', i, 'id'], message: `Rule id "${r.id}" is used twice.` });
+      if (seen.has(r.id))
+        ctx.addIssue({ code: 'custom', path: ['rules', i, 'id'], message: `Rule id "${r.id}" is used twice.` });
       seen.add(r.id);
     });
   });

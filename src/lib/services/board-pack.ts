@@ -23,14 +23,24 @@ const today = () => new Date().toISOString().slice(0, 10);
 
 type Facts = Pick<GradeFacts, 'parcels' | 'regions'>;
 
-type RegionFigures = { stat: Awaited<ReturnType<typeof regionStats>>[number] | undefined; ref: Awaited<ReturnType<typeof referenceRatio>> };
+type RegionFigures = {
+  stat: Awaited<ReturnType<typeof regionStats>>[number] | undefined;
+  ref: Awaited<ReturnType<typeof referenceRatio>>;
+};
 /** Region figures read once per region for all the items of a meeting. */
 export type RegionMemo = Map<string, Promise<RegionFigures>>;
 
 async function regionImpact(conn: Db, facts: Facts, memo: RegionMemo) {
   const out = [];
   for (const r of facts.regions) {
-    if (!memo.has(r.key)) memo.set(r.key, (async () => ({ stat: (await regionStats(conn, today(), [r.key]))[0], ref: await referenceRatio(conn, r.key) }))());
+    if (!memo.has(r.key))
+      memo.set(
+        r.key,
+        (async () => ({
+          stat: (await regionStats(conn, today(), [r.key]))[0],
+          ref: await referenceRatio(conn, r.key),
+        }))(),
+      );
     const { stat, ref } = await memo.get(r.key)!;
     if (!stat) continue;
     const f = regionFacts(stat, ref ? { ratio: ref.ratio, referenceYear: ref.referenceYear } : null, r.convertedHa);
@@ -44,7 +54,15 @@ async function budgetImpact(conn: Db, year: number, co2eT: number) {
   const budgetT = settings['budget.yearly-co2e-t'];
   const committedT = await committedCo2e(conn, year);
   const afterT = committedT + co2eT;
-  return { year, budgetT, committedT, proposalT: co2eT, afterT, shareAfter: budgetT ? afterT / budgetT : null, overBudget: budgetT ? afterT > budgetT : null };
+  return {
+    year,
+    budgetT,
+    committedT,
+    proposalT: co2eT,
+    afterT,
+    shareAfter: budgetT ? afterT / budgetT : null,
+    overBudget: budgetT ? afterT > budgetT : null,
+  };
 }
 
 /** One item's pack. */
@@ -52,38 +70,72 @@ export async function itemPack(meetingId: number, itemId: number, conn: Db = db,
   const item = await store.getItem(conn, meetingId, itemId);
   if (!item) throw new HttpError('NOT_FOUND', `No item ${itemId} on meeting ${meetingId}.`);
   const [p, a, parcels, settings] = await Promise.all([
-    proposals.getProposal(conn, item.proposal_id), assessments.getAssessment(conn, item.assessment_id), proposals.listParcels(conn, item.proposal_id), proposals.getProposalSettings(conn),
+    proposals.getProposal(conn, item.proposal_id),
+    assessments.getAssessment(conn, item.assessment_id),
+    proposals.listParcels(conn, item.proposal_id),
+    proposals.getProposalSettings(conn),
   ]);
   if (!p || !a) throw new HttpError('NOT_FOUND', `Item ${itemId} has lost its proposal or assessment.`);
   const r = a.result as unknown as StoredResult;
   const facts = r.facts as unknown as Facts;
-  const [regions, budget] = await Promise.all([regionImpact(conn, facts, memo), budgetImpact(conn, p.start_year, r.totals.co2eTotal)]);
+  const [regions, budget] = await Promise.all([
+    regionImpact(conn, facts, memo),
+    budgetImpact(conn, p.start_year, r.totals.co2eTotal),
+  ]);
   return {
     meeting: { id: item.meeting_id, date: item.meeting_date, place: item.place },
     item: { id: item.id, position: item.position, status: item.status },
-    proposal: { id: p.id, reference: p.reference, title: p.title, state: p.state, proposed: p.proposed, startYear: p.start_year },
+    proposal: {
+      id: p.id,
+      reference: p.reference,
+      title: p.title,
+      state: p.state,
+      proposed: p.proposed,
+      startYear: p.start_year,
+    },
     clock: clockOf(p.decision_due, p.state, settings['proposal.reminder-days']),
     parcels: parcels.map((x) => {
       const assessed = r.parcels.find((y) => y.parcelId === x.parcel_id);
       const f = facts.parcels.find((y) => y.parcelId === x.parcel_id);
       return {
-        reference: x.reference, areaHa: x.area_ha, parcelAreaHa: x.parcel_area_ha, part: x.part !== null,
+        reference: x.reference,
+        areaHa: x.area_ha,
+        parcelAreaHa: x.parcel_area_ha,
+        part: x.part !== null,
         geometry: (x.part ?? x.geometry) as unknown as { type: 'MultiPolygon'; coordinates: number[][][][] },
-        currentState: (assessed?.request?.before ?? null) as LandUseState | null, stateSource: assessed?.currentState ?? null,
-        climate: assessed?.overlay.climate ?? null, soils: assessed?.overlay.soils ?? [], overlayFlags: assessed?.overlay.flags ?? [],
+        currentState: (assessed?.request?.before ?? null) as LandUseState | null,
+        stateSource: assessed?.currentState ?? null,
+        climate: assessed?.overlay.climate ?? null,
+        soils: assessed?.overlay.soils ?? [],
+        overlayFlags: assessed?.overlay.flags ?? [],
         regionKey: f?.regionKey ?? null,
-        permanentGrassland: f?.flags.permanentGrassland ?? null, neverTilled: f?.flags.neverTilled ?? null,
-        sensitiveShare: f?.sensitive.share ?? 0, co2eTotal: assessed?.figures?.co2eTotal ?? null,
+        permanentGrassland: f?.flags.permanentGrassland ?? null,
+        neverTilled: f?.flags.neverTilled ?? null,
+        sensitiveShare: f?.sensitive.share ?? 0,
+        co2eTotal: assessed?.figures?.co2eTotal ?? null,
       };
     }),
     assessment: {
-      id: a.id, number: a.number, signedBy: a.signed_by_name, signedAt: a.signed_at?.toISOString() ?? null, findings: a.findings ?? '',
-      factorSet: r.factorSet, gwp: r.gwp, totals: r.totals,
+      id: a.id,
+      number: a.number,
+      signedBy: a.signed_by_name,
+      signedAt: a.signed_at?.toISOString() ?? null,
+      findings: a.findings ?? '',
+      factorSet: r.factorSet,
+      gwp: r.gwp,
+      totals: r.totals,
     },
-    risk: { level: r.grade.level, label: r.grade.label, reasons: r.grade.reasons.map((x) => ({ text: x.text, citation: x.citation, level: x.level, gate: x.gate })), ruleSet: r.grade.ruleSet },
+    risk: {
+      level: r.grade.level,
+      label: r.grade.label,
+      reasons: r.grade.reasons.map((x) => ({ text: x.text, citation: x.citation, level: x.level, gate: x.gate })),
+      ruleSet: r.grade.ruleSet,
+    },
     alternatives: r.alternatives,
     impact: { regions, budget },
-    cautions: [...new Set([...STANDARD_CAUTIONS, ...r.cautions.filter((c) => !c.startsWith('Unconfirmed value used:'))])],
+    cautions: [
+      ...new Set([...STANDARD_CAUTIONS, ...r.cautions.filter((c) => !c.startsWith('Unconfirmed value used:'))]),
+    ],
   };
 }
 

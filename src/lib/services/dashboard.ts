@@ -8,7 +8,14 @@ import * as dash from '../db/dashboard';
 import { db, type Db } from '../db/client';
 import { getProposalSettings } from '../db/proposals';
 import { regionStatsWithReference } from '../db/regions';
-import { budgetLeft, changesByYear, conditionsByDue, conversionPending, daysPast, regionHeadroom } from '../dashboard/figures';
+import {
+  budgetLeft,
+  changesByYear,
+  conditionsByDue,
+  conversionPending,
+  daysPast,
+  regionHeadroom,
+} from '../dashboard/figures';
 import { citationText } from '../rules';
 import { loadRuleSet } from './rule-sets';
 
@@ -17,7 +24,12 @@ async function ratioRule(conn: Db) {
   const set = await loadRuleSet(conn).catch(() => null);
   const rule = set?.document.rules.find((r) => r.kind === 'region-ratio-fall');
   if (!set || !rule) return null;
-  return { ruleSet: set.ref, ruleId: rule.id, maxRelativeFall: (rule.params as { aboveRelativeFall: number }).aboveRelativeFall, citation: citationText(rule) };
+  return {
+    ruleSet: set.ref,
+    ruleId: rule.id,
+    maxRelativeFall: (rule.params as { aboveRelativeFall: number }).aboveRelativeFall,
+    citation: citationText(rule),
+  };
 }
 
 async function regionRows(conn: Db, today: string, parcels: dash.ApprovedParcelRow[], maxRelativeFall: number | null) {
@@ -31,10 +43,23 @@ async function regionRows(conn: Db, today: string, parcels: dash.ApprovedParcelR
   for (const s of stats) {
     const ref = refs.get(s.key);
     const pendingConvertedHa = pending.get(s.key) ?? 0;
-    const h = regionHeadroom({ agriculturalHa: s.agriculturalHa, permanentGrasslandHa: s.permanentGrasslandHa, referenceRatio: ref?.ratio ?? null, maxRelativeFall, pendingConvertedHa });
+    const h = regionHeadroom({
+      agriculturalHa: s.agriculturalHa,
+      permanentGrasslandHa: s.permanentGrasslandHa,
+      referenceRatio: ref?.ratio ?? null,
+      maxRelativeFall,
+      pendingConvertedHa,
+    });
     rows.push({
-      key: s.key, label: s.label, agriculturalHa: s.agriculturalHa, permanentGrasslandHa: s.permanentGrasslandHa, pendingConvertedHa,
-      referenceRatio: ref?.ratio ?? null, referenceYear: ref?.referenceYear ?? null, referenceSource: ref?.source ?? null, referenceOrigin: ref?.origin ?? null,
+      key: s.key,
+      label: s.label,
+      agriculturalHa: s.agriculturalHa,
+      permanentGrasslandHa: s.permanentGrasslandHa,
+      pendingConvertedHa,
+      referenceRatio: ref?.ratio ?? null,
+      referenceYear: ref?.referenceYear ?? null,
+      referenceSource: ref?.source ?? null,
+      referenceOrigin: ref?.origin ?? null,
       ...h,
     });
   }
@@ -45,7 +70,12 @@ export async function dashboard(now = new Date(), conn: Db = db) {
   const today = now.toISOString().slice(0, 10);
   const year = now.getUTCFullYear();
   const [parcels, committed, conditions, overdue, settings, rule] = await Promise.all([
-    dash.approvedParcels(conn), dash.committedByYear(conn), dash.conditionsWithDueDates(conn), dash.overdueProposals(conn, today), getProposalSettings(conn), ratioRule(conn),
+    dash.approvedParcels(conn),
+    dash.committedByYear(conn),
+    dash.conditionsWithDueDates(conn),
+    dash.overdueProposals(conn, today),
+    getProposalSettings(conn),
+    ratioRule(conn),
   ]);
   const budgetT = settings['budget.yearly-co2e-t'];
   const thisYear = committed.find((c) => c.year === year)?.committedT ?? 0;
@@ -53,13 +83,30 @@ export async function dashboard(now = new Date(), conn: Db = db) {
   return {
     asOf: today,
     year,
-    changes: changesByYear(parcels.map((p) => ({ year: p.year, priorLandUse: p.priorLandUse, proposedLandUse: p.proposedLandUse, areaHa: p.areaHa })), year),
-    budget: { budgetT, years: committed.map((c) => ({ ...c, ...budgetLeft(budgetT, c.committedT) })), thisYear: { year, ...budgetLeft(budgetT, thisYear) } },
+    changes: changesByYear(
+      parcels.map((p) => ({
+        year: p.year,
+        priorLandUse: p.priorLandUse,
+        proposedLandUse: p.proposedLandUse,
+        areaHa: p.areaHa,
+      })),
+      year,
+    ),
+    budget: {
+      budgetT,
+      years: committed.map((c) => ({ ...c, ...budgetLeft(budgetT, c.committedT) })),
+      thisYear: { year, ...budgetLeft(budgetT, thisYear) },
+    },
     ratioRule: rule,
     regions: await regionRows(conn, today, parcels, rule?.maxRelativeFall ?? null),
     conditions: {
-      open: due.open.length, overdue: due.overdue.length,
-      items: [...due.overdue, ...due.open].map((c) => ({ ...c, overdue: c.dueDate < today, daysPast: daysPast(c.dueDate, today) })),
+      open: due.open.length,
+      overdue: due.overdue.length,
+      items: [...due.overdue, ...due.open].map((c) => ({
+        ...c,
+        overdue: c.dueDate < today,
+        daysPast: daysPast(c.dueDate, today),
+      })),
     },
     overdueProposals: overdue.map((p) => ({ ...p, daysOverdue: daysPast(p.decisionDue, today) })),
   };

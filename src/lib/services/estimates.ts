@@ -1,5 +1,12 @@
 /** Runs an estimate against a stored, published factor set (never mixing sets). */
-import { canSignOff, estimateLandUseChange, EstimateInputError, tablesUsed, unconfirmedTables, type FactorSetDocument } from '../carbon';
+import {
+  canSignOff,
+  estimateLandUseChange,
+  EstimateInputError,
+  tablesUsed,
+  unconfirmedTables,
+  type FactorSetDocument,
+} from '../carbon';
 import type { z } from 'zod';
 import type { estimateBodySchema } from '../api/estimates';
 import { db } from '../db/client';
@@ -19,7 +26,11 @@ export function estimateWithSet(body: EstimateBody & { factorSet: string }, set:
 export function asHttpError(err: unknown): unknown {
   if (err instanceof EstimateInputError) {
     const first = err.issues[0];
-    return new HttpError('UNPROCESSABLE_CONTENT', first ? `${first.path.join('.') || 'request'}: ${first.message}` : err.message, err.issues);
+    return new HttpError(
+      'UNPROCESSABLE_CONTENT',
+      first ? `${first.path.join('.') || 'request'}: ${first.message}` : err.message,
+      err.issues,
+    );
   }
   return err;
 }

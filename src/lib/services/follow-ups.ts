@@ -20,7 +20,12 @@ export const followUpsUrl = () => `${config().BETTER_AUTH_URL}/follow-ups`;
 const today = () => new Date().toISOString().slice(0, 10);
 
 export type DecisionTaskFacts = {
-  proposalId: number; decisionId: number; outcome: string; conditions: Condition[]; effectiveDate: string; parcelReferences: string[];
+  proposalId: number;
+  decisionId: number;
+  outcome: string;
+  conditions: Condition[];
+  effectiveDate: string;
+  parcelReferences: string[];
   compensationParcel: string | null;
 };
 
@@ -31,39 +36,101 @@ export async function createDecisionTasks(trx: Db, f: DecisionTaskFacts): Promis
   const siteDue = addDays(f.effectiveDate, settings['follow-up.site-check-days']);
   const ids: number[] = [];
   for (const [i, c] of f.conditions.entries()) {
-    ids.push(await store.insertTask(trx, { proposalId: f.proposalId, decisionId: f.decisionId, kind: 'condition', conditionIndex: i, title: c.text, dueDate: c.dueDate, checkedBy: c.checkedBy, assigneeRole: 'assessor' }));
+    ids.push(
+      await store.insertTask(trx, {
+        proposalId: f.proposalId,
+        decisionId: f.decisionId,
+        kind: 'condition',
+        conditionIndex: i,
+        title: c.text,
+        dueDate: c.dueDate,
+        checkedBy: c.checkedBy,
+        assigneeRole: 'assessor',
+      }),
+    );
   }
   const parcels = f.parcelReferences.join(', ');
-  ids.push(await store.insertTask(trx, {
-    proposalId: f.proposalId, decisionId: f.decisionId, kind: 'site-check', dueDate: siteDue, checkedBy: 'Field officer', assigneeRole: 'assessor',
-    title: `Confirm on site that the conversion of ${f.parcelReferences.length === 1 ? 'parcel' : 'parcels'} ${parcels} follows the decision (effective ${formatDate(f.effectiveDate)}).`,
-  }));
+  ids.push(
+    await store.insertTask(trx, {
+      proposalId: f.proposalId,
+      decisionId: f.decisionId,
+      kind: 'site-check',
+      dueDate: siteDue,
+      checkedBy: 'Field officer',
+      assigneeRole: 'assessor',
+      title: `Confirm on site that the conversion of ${f.parcelReferences.length === 1 ? 'parcel' : 'parcels'} ${parcels} follows the decision (effective ${formatDate(f.effectiveDate)}).`,
+    }),
+  );
   if (f.compensationParcel) {
-    ids.push(await store.insertTask(trx, {
-      proposalId: f.proposalId, decisionId: f.decisionId, kind: 'compensation-check', dueDate: siteDue, checkedBy: 'Field officer', assigneeRole: 'assessor',
-      title: `Confirm on site that parcel ${f.compensationParcel} has been restored to grassland as the compensation for this approval.`,
-    }));
+    ids.push(
+      await store.insertTask(trx, {
+        proposalId: f.proposalId,
+        decisionId: f.decisionId,
+        kind: 'compensation-check',
+        dueDate: siteDue,
+        checkedBy: 'Field officer',
+        assigneeRole: 'assessor',
+        title: `Confirm on site that parcel ${f.compensationParcel} has been restored to grassland as the compensation for this approval.`,
+      }),
+    );
   }
   return ids;
 }
 
 function view(t: store.TaskRow, evidence: store.EvidenceRow[], on: string) {
   return {
-    id: t.id, proposalId: t.proposal_id, reference: t.reference, proposalTitle: t.proposal_title, decisionId: t.decision_id, registerSeq: t.register_seq,
-    kind: t.kind, title: t.title, dueDate: t.due_date, checkedBy: t.checked_by, assigneeRole: t.assignee_role, status: t.status,
-    overdue: t.status === 'open' && t.due_date < on, outcomeNote: t.outcome_note, outcomeBy: t.outcome_by_name, outcomeAt: t.outcome_at?.toISOString() ?? null,
-    version: t.version, createdAt: t.created_at.toISOString(),
-    evidence: evidence.filter((e) => e.task_id === t.id).map((e) => ({ id: e.id, fileName: e.file_name, mediaType: e.media_type, sizeBytes: e.size_bytes, sha256: e.sha256, uploadedBy: e.uploaded_by_name, uploadedAt: e.uploaded_at.toISOString() })),
+    id: t.id,
+    proposalId: t.proposal_id,
+    reference: t.reference,
+    proposalTitle: t.proposal_title,
+    decisionId: t.decision_id,
+    registerSeq: t.register_seq,
+    kind: t.kind,
+    title: t.title,
+    dueDate: t.due_date,
+    checkedBy: t.checked_by,
+    assigneeRole: t.assignee_role,
+    status: t.status,
+    overdue: t.status === 'open' && t.due_date < on,
+    outcomeNote: t.outcome_note,
+    outcomeBy: t.outcome_by_name,
+    outcomeAt: t.outcome_at?.toISOString() ?? null,
+    version: t.version,
+    createdAt: t.created_at.toISOString(),
+    evidence: evidence
+      .filter((e) => e.task_id === t.id)
+      .map((e) => ({
+        id: e.id,
+        fileName: e.file_name,
+        mediaType: e.media_type,
+        sizeBytes: e.size_bytes,
+        sha256: e.sha256,
+        uploadedBy: e.uploaded_by_name,
+        uploadedAt: e.uploaded_at.toISOString(),
+      })),
   };
 }
 
 export type FollowUpView = ReturnType<typeof view>;
 
-export async function listFollowUps(q: { status?: string; overdue?: boolean; reference?: string; page: number; pageSize: number }, on = today()) {
+export async function listFollowUps(
+  q: { status?: string; overdue?: boolean; reference?: string; page: number; pageSize: number },
+  on = today(),
+) {
   const { rows, total } = await store.listTasks(db, { ...q, today: on });
-  const evidence = await store.listEvidence(db, rows.map((r) => r.id));
+  const evidence = await store.listEvidence(
+    db,
+    rows.map((r) => r.id),
+  );
   const overdueOpen = (await store.listTasks(db, { overdue: true, today: on, page: 1, pageSize: 1 })).total;
-  return { items: rows.map((r) => view(r, evidence, on)), total, page: q.page, pageSize: q.pageSize, overdueOpen, today: on };
+  return {
+    items: rows.map((r) => view(r, evidence, on)),
+    total,
+    page: q.page,
+    pageSize: q.pageSize,
+    overdueOpen,
+    today: on,
+  };
 }
 
 export async function followUpDetail(id: number, conn: Db = db) {
@@ -73,33 +140,81 @@ export async function followUpDetail(id: number, conn: Db = db) {
 }
 
 /** Records (or changes) the outcome; the version read must still be current. */
-export async function recordOutcome(by: Caller, id: number, input: { outcome: TaskOutcome; note: string; version: number }) {
+export async function recordOutcome(
+  by: Caller,
+  id: number,
+  input: { outcome: TaskOutcome; note: string; version: number },
+) {
   return withTransaction(db, async (trx) => {
     const t = await store.getTask(trx, id, { lock: true });
     if (!t) throw new HttpError('NOT_FOUND', `No follow-up task with id ${id}.`);
     if (t.version !== input.version) {
-      throw new HttpError('CONFLICT', `Someone else recorded an outcome for this task after you opened it (it is at version ${t.version}, you sent ${input.version}). Reload it; nothing was saved.`);
+      throw new HttpError(
+        'CONFLICT',
+        `Someone else recorded an outcome for this task after you opened it (it is at version ${t.version}, you sent ${input.version}). Reload it; nothing was saved.`,
+      );
     }
-    if (input.outcome !== 'done' && !input.note.trim()) throw new HttpError('UNPROCESSABLE_CONTENT', 'Say what was found when the task is not done or only partly done.', [{ path: ['note'], message: 'required unless done' }]);
+    if (input.outcome !== 'done' && !input.note.trim())
+      throw new HttpError(
+        'UNPROCESSABLE_CONTENT',
+        'Say what was found when the task is not done or only partly done.',
+        [{ path: ['note'], message: 'required unless done' }],
+      );
     const version = await store.setOutcome(trx, id, { outcome: input.outcome, note: input.note.trim(), by: by.id });
-    await recordAudit(trx, { actorId: by.id, action: 'follow-up.outcome', entityType: 'follow_up_task', entityId: String(id), details: { proposal: t.reference, kind: t.kind, from: t.status, outcome: input.outcome } });
+    await recordAudit(trx, {
+      actorId: by.id,
+      action: 'follow-up.outcome',
+      entityType: 'follow_up_task',
+      entityId: String(id),
+      details: { proposal: t.reference, kind: t.kind, from: t.status, outcome: input.outcome },
+    });
     return followUpDetail(id, trx).then((v) => ({ ...v, version }));
   });
 }
 
 export async function addEvidence(by: Caller, id: number, file: { fileName: string; bytes: Uint8Array }) {
   const max = (await getProposalSettings(db))['proposal.attachment-max-bytes'];
-  if (file.bytes.length > max) throw new HttpError('PAYLOAD_TOO_LARGE', `"${file.fileName}" is ${file.bytes.length.toLocaleString('en')} bytes; evidence files may be at most ${max.toLocaleString('en')} bytes.`);
+  if (file.bytes.length > max)
+    throw new HttpError(
+      'PAYLOAD_TOO_LARGE',
+      `"${file.fileName}" is ${file.bytes.length.toLocaleString('en')} bytes; evidence files may be at most ${max.toLocaleString('en')} bytes.`,
+    );
   const kind = detectAttachmentType(file.bytes);
-  if ('problem' in kind) throw new HttpError('UNSUPPORTED_MEDIA_TYPE', `"${file.fileName}" was not added: ${kind.problem} Add PDF, PNG or JPEG files.`);
+  if ('problem' in kind)
+    throw new HttpError(
+      'UNSUPPORTED_MEDIA_TYPE',
+      `"${file.fileName}" was not added: ${kind.problem} Add PDF, PNG or JPEG files.`,
+    );
   return withTransaction(db, async (trx) => {
     const t = await store.getTask(trx, id, { lock: true });
     if (!t) throw new HttpError('NOT_FOUND', `No follow-up task with id ${id}.`);
     const evidenceId = randomUUID();
     const sha256 = createHash('sha256').update(file.bytes).digest('hex');
-    await store.insertEvidence(trx, { id: evidenceId, taskId: id, fileName: file.fileName, mediaType: kind.type, bytes: file.bytes, sha256, by: by.id });
-    await recordAudit(trx, { actorId: by.id, action: 'follow-up.evidence', entityType: 'follow_up_task', entityId: String(id), details: { proposal: t.reference, evidenceId, fileName: file.fileName, sha256, sizeBytes: file.bytes.length } });
-    return { id: evidenceId, fileName: file.fileName, mediaType: kind.type, sizeBytes: file.bytes.length, sha256, uploadedBy: by.name, uploadedAt: new Date().toISOString() };
+    await store.insertEvidence(trx, {
+      id: evidenceId,
+      taskId: id,
+      fileName: file.fileName,
+      mediaType: kind.type,
+      bytes: file.bytes,
+      sha256,
+      by: by.id,
+    });
+    await recordAudit(trx, {
+      actorId: by.id,
+      action: 'follow-up.evidence',
+      entityType: 'follow_up_task',
+      entityId: String(id),
+      details: { proposal: t.reference, evidenceId, fileName: file.fileName, sha256, sizeBytes: file.bytes.length },
+    });
+    return {
+      id: evidenceId,
+      fileName: file.fileName,
+      mediaType: kind.type,
+      sizeBytes: file.bytes.length,
+      sha256,
+      uploadedBy: by.name,
+      uploadedAt: new Date().toISOString(),
+    };
   });
 }
 

@@ -10,9 +10,26 @@ import { HttpError } from '../http/errors';
 import { currentLegend } from './reference-layers';
 
 export async function mapConfig(userId: string) {
-  const [version, areas, legend, settings] = await Promise.all([mapVersion(db), parcelAreas(db), currentLegend(), getGisSettings(db)]);
-  const named = areas.map((a) => ({ id: a.id, label: a.fileName ? uploadLabel(a.fileName, a.savedAt) : 'Parcels drawn on the map', count: a.count, extent: a.extent }));
-  return { dataVersion: version, tileToken: issueTileToken(userId), areas: named, legend, basemapUrl: settings['map.basemap-url'], parcelMinZoom: PARCEL_MIN_ZOOM };
+  const [version, areas, legend, settings] = await Promise.all([
+    mapVersion(db),
+    parcelAreas(db),
+    currentLegend(),
+    getGisSettings(db),
+  ]);
+  const named = areas.map((a) => ({
+    id: a.id,
+    label: a.fileName ? uploadLabel(a.fileName, a.savedAt) : 'Parcels drawn on the map',
+    count: a.count,
+    extent: a.extent,
+  }));
+  return {
+    dataVersion: version,
+    tileToken: issueTileToken(userId),
+    areas: named,
+    legend,
+    basemapUrl: settings['map.basemap-url'],
+    parcelMinZoom: PARCEL_MIN_ZOOM,
+  };
 }
 
 export const MAX_UPLOAD_OUTLINES = 2000;
@@ -35,7 +52,10 @@ export async function uploadOnMap(batchId: string) {
  * statement with the version it was drawn at, so a kept tile is a fixed fact of that version, never
  * stale, whichever instance bumped it. Bounded by bytes; the least recently used go first.
  */
-const rendered = new LRUCache<string, Uint8Array>({ maxSize: 64 * 1024 * 1024, sizeCalculation: (t) => t.byteLength + 64 });
+const rendered = new LRUCache<string, Uint8Array>({
+  maxSize: 64 * 1024 * 1024,
+  sizeCalculation: (t) => t.byteLength + 64,
+});
 /** Versions this process has seen drawn: an If-None-Match naming one of them can be answered without a query. */
 const seenVersions = new LRUCache<number, true>({ max: 64 });
 
@@ -46,13 +66,24 @@ const seenVersions = new LRUCache<number, true>({ max: 64 });
  * process has drawn it before, else with one statement (tile and version). A matching If-None-Match
  * on a versioned URL gets 304 without a query.
  */
-export async function tileResponse(request: Request, z: number, x: number, y: number, askedVersion: number | undefined): Promise<Response> {
+export async function tileResponse(
+  request: Request,
+  z: number,
+  x: number,
+  y: number,
+  askedVersion: number | undefined,
+): Promise<Response> {
   const max = 2 ** z;
-  if (x >= max || y >= max) throw new HttpError('BAD_REQUEST', `Tile ${z}/${x}/${y} does not exist: x and y must be below ${max} at zoom ${z}.`);
+  if (x >= max || y >= max)
+    throw new HttpError(
+      'BAD_REQUEST',
+      `Tile ${z}/${x}/${y} does not exist: x and y must be below ${max} at zoom ${z}.`,
+    );
   const immutable = { 'cache-control': 'private, max-age=86400, immutable', vary: 'Cookie' };
   if (askedVersion !== undefined && seenVersions.has(askedVersion)) {
     const etag = `"m${askedVersion}"`;
-    if (request.headers.get('if-none-match') === etag) return new Response(null, { status: 304, headers: { etag, ...immutable } });
+    if (request.headers.get('if-none-match') === etag)
+      return new Response(null, { status: 304, headers: { etag, ...immutable } });
     const kept = rendered.get(`${askedVersion}/${z}/${x}/${y}`);
     if (kept) return tileAnswer(kept, { etag, ...immutable });
   }
@@ -60,20 +91,36 @@ export async function tileResponse(request: Request, z: number, x: number, y: nu
   seenVersions.set(version, true);
   rendered.set(`${version}/${z}/${x}/${y}`, tile);
   const etag = `"m${version}"`;
-  const headers = askedVersion === version ? { etag, ...immutable } : { etag, 'cache-control': 'private, no-cache', vary: 'Cookie' };
+  const headers =
+    askedVersion === version ? { etag, ...immutable } : { etag, 'cache-control': 'private, no-cache', vary: 'Cookie' };
   if (request.headers.get('if-none-match') === etag) return new Response(null, { status: 304, headers });
   return tileAnswer(tile, headers);
 }
 
 const tileAnswer = (tile: Uint8Array, headers: Record<string, string>) =>
-  new Response(tile as Uint8Array<ArrayBuffer>, { status: 200, headers: { ...headers, 'content-type': 'application/vnd.mapbox-vector-tile' } });
+  new Response(tile as Uint8Array<ArrayBuffer>, {
+    status: 200,
+    headers: { ...headers, 'content-type': 'application/vnd.mapbox-vector-tile' },
+  });
 
 export const MAX_SNAP_FEATURES = 1500;
 
 export async function parcelsForSnapping(box: [number, number, number, number]) {
   const [w, s, e, n] = box;
   if (w >= e || s >= n) throw new HttpError('UNPROCESSABLE_CONTENT', 'The box must run west < east and south < north.');
-  if ((e - w) * (n - s) > 0.05) throw new HttpError('UNPROCESSABLE_CONTENT', 'Zoom in further: the box is too large for drawing (at most 0.05 square degrees).');
+  if ((e - w) * (n - s) > 0.05)
+    throw new HttpError(
+      'UNPROCESSABLE_CONTENT',
+      'Zoom in further: the box is too large for drawing (at most 0.05 square degrees).',
+    );
   const rows = await parcelsInBox(db, box, MAX_SNAP_FEATURES);
-  return { type: 'FeatureCollection' as const, features: rows.map((r) => ({ type: 'Feature' as const, id: r.id, properties: { id: r.id, reference: r.reference }, geometry: r.geometry })) };
+  return {
+    type: 'FeatureCollection' as const,
+    features: rows.map((r) => ({
+      type: 'Feature' as const,
+      id: r.id,
+      properties: { id: r.id, reference: r.reference },
+      geometry: r.geometry,
+    })),
+  };
 }

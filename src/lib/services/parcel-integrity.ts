@@ -17,9 +17,12 @@ const lower = (s: string) => s.charAt(0).toLowerCase() + s.slice(1);
 /** At validation: overlaps with the register, then within the file; errors reject the feature. */
 export async function checkStagedOverlaps(trx: Db, stagingId: string, tolerance: OverlapTolerance): Promise<void> {
   const found = new Map<number, ValidationIssue[]>();
-  const add = (idx: number, issue: ValidationIssue | null) => issue && found.set(idx, [...(found.get(idx) ?? []), issue]);
-  for (const p of await integrity.stagedRegisterPairs(trx, stagingId)) add(p.idx, overlapIssue(p, tolerance, label(p.idx, p.reference), `parcel ${p.parcel} in the register`));
-  for (const p of await integrity.stagedPairs(trx, stagingId)) add(p.b, overlapIssue(p, tolerance, label(p.b, p.refB), lower(label(p.a, p.refA))));
+  const add = (idx: number, issue: ValidationIssue | null) =>
+    issue && found.set(idx, [...(found.get(idx) ?? []), issue]);
+  for (const p of await integrity.stagedRegisterPairs(trx, stagingId))
+    add(p.idx, overlapIssue(p, tolerance, label(p.idx, p.reference), `parcel ${p.parcel} in the register`));
+  for (const p of await integrity.stagedPairs(trx, stagingId))
+    add(p.b, overlapIssue(p, tolerance, label(p.b, p.refB), lower(label(p.a, p.refA))));
   await integrity.addStagedIssues(
     trx,
     stagingId,
@@ -35,7 +38,11 @@ export async function recheckStagedInSave(trx: Db, stagingId: string, tolerance:
   await integrity.lockParcelRegister(trx);
   const problems: string[] = [];
   for (const t of await integrity.stagedRegisterTwins(trx, stagingId)) {
-    problems.push(t.why === 'reference' ? `reference "${t.reference}" is now taken by parcel ${t.parcel}` : `${lower(label(t.idx, t.reference))} has the same boundary as parcel ${t.parcel}`);
+    problems.push(
+      t.why === 'reference'
+        ? `reference "${t.reference}" is now taken by parcel ${t.parcel}`
+        : `${lower(label(t.idx, t.reference))} has the same boundary as parcel ${t.parcel}`,
+    );
   }
   for (const p of await integrity.stagedRegisterPairs(trx, stagingId)) {
     const issue = overlapIssue(p, tolerance, label(p.idx, p.reference), `parcel ${p.parcel}`);
@@ -43,7 +50,10 @@ export async function recheckStagedInSave(trx: Db, stagingId: string, tolerance:
   }
   if (problems.length) {
     const more = problems.length > 3 ? ` and ${problems.length - 3} more` : '';
-    throw new HttpError('CONFLICT', `Another save changed the register after this upload was validated: ${problems.slice(0, 3).join('; ')}${more}. Validate again to see the report.`);
+    throw new HttpError(
+      'CONFLICT',
+      `Another save changed the register after this upload was validated: ${problems.slice(0, 3).join('; ')}${more}. Validate again to see the report.`,
+    );
   }
 }
 
@@ -51,12 +61,22 @@ export async function recheckStagedInSave(trx: Db, stagingId: string, tolerance:
  * A drawn or edited boundary, under the register lock: a near-duplicate or an overlap above the
  * tolerance is refused (409, naming the parcel and the area); smaller overlaps come back as warnings.
  */
-export async function checkBoundaryAgainstRegister(trx: Db, geometry: MultiPolygon, tolerance: OverlapTolerance, exceptId?: number): Promise<string[]> {
+export async function checkBoundaryAgainstRegister(
+  trx: Db,
+  geometry: MultiPolygon,
+  tolerance: OverlapTolerance,
+  exceptId?: number,
+): Promise<string[]> {
   await integrity.lockParcelRegister(trx);
   const issues = (await integrity.geometryRegisterPairs(trx, geometry, exceptId))
     .map((p) => overlapIssue(p, tolerance, 'The boundary', `parcel ${p.parcel}`))
     .filter((i): i is ValidationIssue => i !== null);
   const errors = issues.filter((i) => i.severity === 'error');
-  if (errors.length) throw new HttpError('CONFLICT', errors.map((e) => e.message).join(' '), errors.map((e) => ({ path: ['geometry'], message: e.message })));
+  if (errors.length)
+    throw new HttpError(
+      'CONFLICT',
+      errors.map((e) => e.message).join(' '),
+      errors.map((e) => ({ path: ['geometry'], message: e.message })),
+    );
   return issues.map((i) => i.message);
 }

@@ -8,7 +8,11 @@ import { db } from '../db/client';
 import { migrationState } from '../db/migration-state';
 import { HttpError } from '../http/errors';
 
-export async function readiness(): Promise<{ ready: true; database: true; migrations: { applied: number; pending: number } }> {
+export async function readiness(): Promise<{
+  ready: true;
+  database: true;
+  migrations: { applied: number; pending: number };
+}> {
   try {
     await db.raw('select 1');
   } catch {
@@ -18,12 +22,18 @@ export async function readiness(): Promise<{ ready: true; database: true; migrat
   try {
     state = await migrationState(db);
   } catch {
-    throw new HttpError('SERVICE_UNAVAILABLE', 'Not ready: the migration state could not be read (is the migrations folder beside the build?).');
+    throw new HttpError(
+      'SERVICE_UNAVAILABLE',
+      'Not ready: the migration state could not be read (is the migrations folder beside the build?).',
+    );
   }
   if (state.locked) throw new HttpError('SERVICE_UNAVAILABLE', 'Not ready: a migration is running.');
   if (state.pending.length) {
     const names = state.pending.slice(0, 3).join(', ') + (state.pending.length > 3 ? ', …' : '');
-    throw new HttpError('SERVICE_UNAVAILABLE', `Not ready: ${state.pending.length} migration(s) pending (${names}); run \`npm run migrate latest\`.`);
+    throw new HttpError(
+      'SERVICE_UNAVAILABLE',
+      `Not ready: ${state.pending.length} migration(s) pending (${names}); run \`npm run migrate latest\`.`,
+    );
   }
   return { ready: true, database: true, migrations: { applied: state.applied, pending: 0 } };
 }

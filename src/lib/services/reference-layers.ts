@@ -42,15 +42,29 @@ export async function publishLayerVersion(by: Caller, id: number, note: string |
   return withTransaction(db, async (trx) => {
     const v = await layers.getLayerVersion(trx, id, { lock: true });
     if (!v) throw new HttpError('NOT_FOUND', 'No such reference layer version.');
-    if (v.status === 'published') throw new HttpError('CONFLICT', `Version ${v.version} of the ${KIND_INFO[v.kind].label.toLowerCase()} layer is already published.`);
+    if (v.status === 'published')
+      throw new HttpError(
+        'CONFLICT',
+        `Version ${v.version} of the ${KIND_INFO[v.kind].label.toLowerCase()} layer is already published.`,
+      );
     const current = (await layers.currentVersions(trx)).find((c) => c.kind === v.kind);
-    if (current && current.version > v.version) throw new HttpError('CONFLICT', `Version ${current.version} is newer and already published; upload the layer again to replace it.`);
+    if (current && current.version > v.version)
+      throw new HttpError(
+        'CONFLICT',
+        `Version ${current.version} is newer and already published; upload the layer again to replace it.`,
+      );
     await layers.markPublished(trx, id, by.id, note);
     const t0 = performance.now();
     await computeOverlay(trx, { all: true }, [id]);
     const overlayMs = Math.round(performance.now() - t0);
     await bumpMapVersion(trx);
-    await recordAudit(trx, { actorId: by.id, action: 'reference-layer.publish', entityType: 'reference-layer', entityId: `${v.kind}@${v.version}`, details: { note, previous: current?.version ?? null } });
+    await recordAudit(trx, {
+      actorId: by.id,
+      action: 'reference-layer.publish',
+      entityType: 'reference-layer',
+      entityId: `${v.kind}@${v.version}`,
+      details: { note, previous: current?.version ?? null },
+    });
     await recomputeScreening(trx, by.id, `${KIND_INFO[v.kind].label} version ${v.version} published`);
     return { id, kind: v.kind, version: v.version, timings: { overlayMs } };
   });

@@ -29,33 +29,45 @@ export const VERIFY_BLOCK = 10_000;
  * blocks just hashed are recorded with their digests for the next verify.
  */
 export async function verifyRegister(blockSize = VERIFY_BLOCK) {
-  return db.transaction(async (trx) => {
-    const v = new ChainVerifier();
-    const stored = await blocks.storedBlocks(trx, blockSize);
-    const prefix = stored.filter((b, i) => b.first === i * blockSize + 1);
-    let after = 0;
-    if (prefix.length) {
-      const now = await blocks.blockDigests(trx, blockSize, 1, prefix.at(-1)!.last);
-      for (const [i, b] of prefix.entries()) {
-        const c = now[i];
-        if (!c || c.first !== b.first || c.last !== b.last || c.n !== blockSize || c.digest !== b.digest || c.lastHash !== b.lastHash) break;
-        v.skip(blockSize, b.last, b.lastHash);
-        after = b.last;
+  return db.transaction(
+    async (trx) => {
+      const v = new ChainVerifier();
+      const stored = await blocks.storedBlocks(trx, blockSize);
+      const prefix = stored.filter((b, i) => b.first === i * blockSize + 1);
+      let after = 0;
+      if (prefix.length) {
+        const now = await blocks.blockDigests(trx, blockSize, 1, prefix.at(-1)!.last);
+        for (const [i, b] of prefix.entries()) {
+          const c = now[i];
+          if (
+            !c ||
+            c.first !== b.first ||
+            c.last !== b.last ||
+            c.n !== blockSize ||
+            c.digest !== b.digest ||
+            c.lastHash !== b.lastHash
+          )
+            break;
+          v.skip(blockSize, b.last, b.lastHash);
+          after = b.last;
+        }
       }
-    }
-    let next = store.chainBatch(trx, after, VERIFY_BATCH);
-    for (;;) {
-      const rows = await next;
-      const full = rows.length === VERIFY_BATCH;
-      if (full) next = store.chainBatch(trx, rows[rows.length - 1]!.seq, VERIFY_BATCH);
-      for (const r of rows) v.add(r);
-      if (!full) break;
-    }
-    const result = v.result();
-    const complete = Math.floor(result.entries / blockSize) * blockSize;
-    if (result.ok && complete > after) await blocks.saveBlocks(trx, await blocks.blockDigests(trx, blockSize, after + 1, complete));
-    return { ...result, checkedAt: new Date().toISOString() };
-  }, { isolationLevel: 'repeatable read' });
+      let next = store.chainBatch(trx, after, VERIFY_BATCH);
+      for (;;) {
+        const rows = await next;
+        const full = rows.length === VERIFY_BATCH;
+        if (full) next = store.chainBatch(trx, rows[rows.length - 1]!.seq, VERIFY_BATCH);
+        for (const r of rows) v.add(r);
+        if (!full) break;
+      }
+      const result = v.result();
+      const complete = Math.floor(result.entries / blockSize) * blockSize;
+      if (result.ok && complete > after)
+        await blocks.saveBlocks(trx, await blocks.blockDigests(trx, blockSize, after + 1, complete));
+      return { ...result, checkedAt: new Date().toISOString() };
+    },
+    { isolationLevel: 'repeatable read' },
+  );
 }
 
 export async function registerHead() {
@@ -66,10 +78,26 @@ export async function registerHead() {
 function summary(r: store.ListRow) {
   const c = r.summary as unknown as Omit<RegisterContent, 'parcels'> & { parcelReferences: string[] };
   return {
-    seq: r.seq, hash: r.hash, kind: c.kind, reference: c.proposal.reference, title: c.proposal.title, proposedUse: c.proposal.proposedUse,
-    outcome: c.outcome, decidedOn: c.decidedOn, effectiveDate: c.effectiveDate, areaHa: c.areaHa, region: c.region, riskLevel: c.risk.level, riskLabel: c.risk.label,
-    co2eTotal: c.figures.co2eTotal, co2eLow: c.figures.co2eLow, co2eHigh: c.figures.co2eHigh, parcelReferences: c.parcelReferences, conditions: c.conditions.length,
-    supersedesSeq: r.supersedes_seq, supersededBy: r.superseded_by,
+    seq: r.seq,
+    hash: r.hash,
+    kind: c.kind,
+    reference: c.proposal.reference,
+    title: c.proposal.title,
+    proposedUse: c.proposal.proposedUse,
+    outcome: c.outcome,
+    decidedOn: c.decidedOn,
+    effectiveDate: c.effectiveDate,
+    areaHa: c.areaHa,
+    region: c.region,
+    riskLevel: c.risk.level,
+    riskLabel: c.risk.label,
+    co2eTotal: c.figures.co2eTotal,
+    co2eLow: c.figures.co2eLow,
+    co2eHigh: c.figures.co2eHigh,
+    parcelReferences: c.parcelReferences,
+    conditions: c.conditions.length,
+    supersedesSeq: r.supersedes_seq,
+    supersededBy: r.superseded_by,
   };
 }
 
@@ -123,10 +151,21 @@ function remember<T>(cache: Map<string, Promise<T>>, max: number, key: string, m
   return p;
 }
 
-const filterKey = (f: store.RegisterFilter) => [f.outcome, f.year, f.risk, f.areaMin, f.areaMax, f.region, f.q, f.current];
+const filterKey = (f: store.RegisterFilter) => [
+  f.outcome,
+  f.year,
+  f.risk,
+  f.areaMin,
+  f.areaMax,
+  f.region,
+  f.q,
+  f.current,
+];
 
 function countAt(f: store.RegisterFilter, head: { seq: number; hash: string }): Promise<number> {
-  return remember(counts, COUNT_CACHE_MAX, `${head.hash}|${JSON.stringify(filterKey(f))}`, () => store.countEntries(db, f, head.seq));
+  return remember(counts, COUNT_CACHE_MAX, `${head.hash}|${JSON.stringify(filterKey(f))}`, () =>
+    store.countEntries(db, f, head.seq),
+  );
 }
 
 function pageAt(q: ListQuery, head: { seq: number; hash: string }) {
@@ -170,7 +209,17 @@ async function publicMemberVotes(seq: number) {
 export async function registerEntry(seq: number) {
   const r = await store.getEntry(db, seq);
   if (!r) throw new HttpError('NOT_FOUND', `The register has no entry ${seq}.`);
-  return { seq: r.seq, hash: r.hash, prevHash: r.prev_hash, supersedesSeq: r.supersedes_seq, supersededBy: r.superseded_by, createdAt: r.created_at.toISOString(), content: r.content as RegisterContent, memberVotes: await publicMemberVotes(seq), ...(await registerHead()) };
+  return {
+    seq: r.seq,
+    hash: r.hash,
+    prevHash: r.prev_hash,
+    supersedesSeq: r.supersedes_seq,
+    supersededBy: r.superseded_by,
+    createdAt: r.created_at.toISOString(),
+    content: r.content as RegisterContent,
+    memberVotes: await publicMemberVotes(seq),
+    ...(await registerHead()),
+  };
 }
 
 /** Rows of the filtered register in seq order, batch by batch (flat memory however long the register); the next batch is read while this one is written out. */
@@ -197,44 +246,88 @@ async function* readAhead<T extends { seq: number }>(read: (afterSeq: number) =>
 }
 
 export const CSV_COLUMNS = [
-  'seq', 'hash', 'kind', 'reference', 'title', 'proposed_use', 'outcome', 'decided_on', 'effective_date', 'appeal_until', 'parcels', 'area_ha', 'region',
-  'risk_level', 'risk_label', 'co2e_t', 'co2e_low_t', 'co2e_high_t', 'gwp', 'factor_set', 'rule_set', 'meeting_date', 'conditions', 'reasons', 'supersedes_seq', 'superseded_by',
+  'seq',
+  'hash',
+  'kind',
+  'reference',
+  'title',
+  'proposed_use',
+  'outcome',
+  'decided_on',
+  'effective_date',
+  'appeal_until',
+  'parcels',
+  'area_ha',
+  'region',
+  'risk_level',
+  'risk_label',
+  'co2e_t',
+  'co2e_low_t',
+  'co2e_high_t',
+  'gwp',
+  'factor_set',
+  'rule_set',
+  'meeting_date',
+  'conditions',
+  'reasons',
+  'supersedes_seq',
+  'superseded_by',
 ] as const;
 
 /** The CSV columns are read by PostgreSQL straight from the stored content (db/register.ts `csvBatchAfter`), so no entry is parsed here. */
 export function registerCsv(f: store.RegisterFilter, room?: Room): ReadableStream<Uint8Array> {
-  return textStream((async function* () {
-    yield stringify([[...CSV_COLUMNS]]);
-    const { where, args } = store.filterSql({ ...f, region: await regionKeyOf(f.region) });
-    for await (const rows of readAhead((after) => store.csvBatchAfter(db, after, EXPORT_BATCH, where, args))) if (rows.length) yield stringify(rows.map((r) => CSV_COLUMNS.map((c) => r[c] ?? '')));
-  })(), room);
+  return textStream(
+    (async function* () {
+      yield stringify([[...CSV_COLUMNS]]);
+      const { where, args } = store.filterSql({ ...f, region: await regionKeyOf(f.region) });
+      for await (const rows of readAhead((after) => store.csvBatchAfter(db, after, EXPORT_BATCH, where, args)))
+        if (rows.length) yield stringify(rows.map((r) => CSV_COLUMNS.map((c) => r[c] ?? '')));
+    })(),
+    room,
+  );
 }
 
 /** RFC 7946 FeatureCollection: one Feature per entry, its parcels as one MultiPolygon (WGS 84 lon/lat). */
 export function registerGeoJson(f: store.RegisterFilter, room?: Room): ReadableStream<Uint8Array> {
-  return textStream((async function* () {
-    yield '{"type":"FeatureCollection","features":[';
-    let first = true;
-    for await (const rows of filteredRows(f)) {
-      if (!rows.length) continue;
-      const features = rows.map((r) => {
-        const c = r.content as RegisterContent;
-        const { parcels, ...props } = c;
-        return JSON.stringify({
-          type: 'Feature',
-          id: r.seq,
-          geometry: { type: 'MultiPolygon', coordinates: parcels.flatMap((p) => p.geometry.coordinates) },
-          properties: { seq: r.seq, hash: r.hash, supersededBy: r.superseded_by, parcelReferences: parcels.map((p) => p.reference), ...props },
+  return textStream(
+    (async function* () {
+      yield '{"type":"FeatureCollection","features":[';
+      let first = true;
+      for await (const rows of filteredRows(f)) {
+        if (!rows.length) continue;
+        const features = rows.map((r) => {
+          const c = r.content as RegisterContent;
+          const { parcels, ...props } = c;
+          return JSON.stringify({
+            type: 'Feature',
+            id: r.seq,
+            geometry: { type: 'MultiPolygon', coordinates: parcels.flatMap((p) => p.geometry.coordinates) },
+            properties: {
+              seq: r.seq,
+              hash: r.hash,
+              supersededBy: r.superseded_by,
+              parcelReferences: parcels.map((p) => p.reference),
+              ...props,
+            },
+          });
         });
-      });
-      yield (first ? '' : ',') + features.join(',');
-      first = false;
-    }
-    yield ']}';
-  })(), room);
+        yield (first ? '' : ',') + features.join(',');
+        first = false;
+      }
+      yield ']}';
+    })(),
+    room,
+  );
 }
 
-export type CorrectionInput = { kind: 'correction' | 'appeal-outcome'; note: string; outcome?: Outcome; reasons?: string; conditions?: Condition[]; effectiveDate?: string };
+export type CorrectionInput = {
+  kind: 'correction' | 'appeal-outcome';
+  note: string;
+  outcome?: Outcome;
+  reasons?: string;
+  conditions?: Condition[];
+  effectiveDate?: string;
+};
 
 /** A correction or appeal outcome: a new entry carrying the superseded one's content with the changes and a note (`now` dates it). */
 export async function correctEntry(by: Caller, seq: number, input: CorrectionInput, now = new Date()) {
@@ -242,31 +335,71 @@ export async function correctEntry(by: Caller, seq: number, input: CorrectionInp
     await trx.raw('select pg_advisory_xact_lock(?)', [0x5257_4b01]);
     const old = await store.getEntry(trx, seq);
     if (!old) throw new HttpError('NOT_FOUND', `The register has no entry ${seq}.`);
-    if (old.superseded_by) throw new HttpError('CONFLICT', `Entry ${seq} has already been superseded by entry ${old.superseded_by}; correct that one instead.`);
+    if (old.superseded_by)
+      throw new HttpError(
+        'CONFLICT',
+        `Entry ${seq} has already been superseded by entry ${old.superseded_by}; correct that one instead.`,
+      );
     const c = old.content as RegisterContent;
     const outcome = input.outcome ?? c.outcome;
     const conditions = input.conditions ?? (outcome === 'approved-with-conditions' ? c.conditions : []);
-    if (outcome === 'approved-with-conditions' && conditions.length === 0) throw new HttpError('UNPROCESSABLE_CONTENT', 'An approval with conditions needs at least one condition.', [{ path: ['conditions'], message: 'at least one condition' }]);
-    if (outcome !== 'approved-with-conditions' && conditions.length) throw new HttpError('UNPROCESSABLE_CONTENT', 'Only an approval with conditions carries conditions.', [{ path: ['conditions'], message: 'remove them or choose approved-with-conditions' }]);
+    if (outcome === 'approved-with-conditions' && conditions.length === 0)
+      throw new HttpError('UNPROCESSABLE_CONTENT', 'An approval with conditions needs at least one condition.', [
+        { path: ['conditions'], message: 'at least one condition' },
+      ]);
+    if (outcome !== 'approved-with-conditions' && conditions.length)
+      throw new HttpError('UNPROCESSABLE_CONTENT', 'Only an approval with conditions carries conditions.', [
+        { path: ['conditions'], message: 'remove them or choose approved-with-conditions' },
+      ]);
     const content: RegisterContent = {
-      ...c, kind: input.kind, outcome, conditions, reasons: input.reasons ?? c.reasons, effectiveDate: input.effectiveDate ?? c.effectiveDate,
-      decidedOn: now.toISOString().slice(0, 10), recordedAt: now.toISOString(), supersedes: seq, note: input.note,
+      ...c,
+      kind: input.kind,
+      outcome,
+      conditions,
+      reasons: input.reasons ?? c.reasons,
+      effectiveDate: input.effectiveDate ?? c.effectiveDate,
+      decidedOn: now.toISOString().slice(0, 10),
+      recordedAt: now.toISOString(),
+      supersedes: seq,
+      note: input.note,
     };
     const entry = await store.appendEntry(trx, content);
-    await recordAudit(trx, { actorId: by.id, action: `register.${input.kind}`, entityType: 'register_entry', entityId: String(entry.seq), details: { supersedes: seq, outcome, hash: entry.hash } });
+    await recordAudit(trx, {
+      actorId: by.id,
+      action: `register.${input.kind}`,
+      entityType: 'register_entry',
+      entityId: String(entry.seq),
+      details: { supersedes: seq, outcome, hash: entry.hash },
+    });
     return { seq: entry.seq, hash: entry.hash, supersedesSeq: seq, outcome };
   });
 }
 
 /** A public vector tile of the register's parcels; the ETag is the register head, so a new entry changes it on every instance. */
-export async function registerTileResponse(request: Request, z: number, x: number, y: number, askedHead: number | undefined): Promise<Response> {
+export async function registerTileResponse(
+  request: Request,
+  z: number,
+  x: number,
+  y: number,
+  askedHead: number | undefined,
+): Promise<Response> {
   const max = 2 ** z;
-  if (x >= max || y >= max) throw new HttpError('BAD_REQUEST', `Tile ${z}/${x}/${y} does not exist: x and y must be below ${max} at zoom ${z}.`);
+  if (x >= max || y >= max)
+    throw new HttpError(
+      'BAD_REQUEST',
+      `Tile ${z}/${x}/${y} does not exist: x and y must be below ${max} at zoom ${z}.`,
+    );
   const h = await registerHead();
   const etag = `"r${h.headSeq}-${(h.headHash ?? 'empty').slice(0, 16)}"`;
   // A URL naming the current head never changes (entries are append-only); other URLs revalidate.
-  const headers = { etag, 'cache-control': askedHead === h.headSeq ? 'public, max-age=86400, immutable' : 'public, no-cache' };
+  const headers = {
+    etag,
+    'cache-control': askedHead === h.headSeq ? 'public, max-age=86400, immutable' : 'public, no-cache',
+  };
   if (request.headers.get('if-none-match') === etag) return new Response(null, { status: 304, headers });
   const tile = await store.registerTile(db, z, x, y);
-  return new Response(tile as Uint8Array<ArrayBuffer>, { status: 200, headers: { ...headers, 'content-type': 'application/vnd.mapbox-vector-tile' } });
+  return new Response(tile as Uint8Array<ArrayBuffer>, {
+    status: 200,
+    headers: { ...headers, 'content-type': 'application/vnd.mapbox-vector-tile' },
+  });
 }

@@ -35,19 +35,41 @@ async function mailTo(trx: Db, roles: string[], make: (u: { name: string }) => M
 export async function sendDeadlineReminders(on = today()): Promise<{ reminders: number; overdue: number }> {
   return withTransaction(db, async (trx) => {
     const days = (await getProposalSettings(trx))['proposal.reminder-days'];
-    const due = await trx('proposal').select('id', 'reference', 'title', 'state', trx.raw("to_char(decision_due, 'YYYY-MM-DD') as decision_due"))
-      .whereIn('state', CLOCK_STATES).whereNotNull('decision_due').where('decision_due', '<=', addDays(on, days)).orderBy('decision_due').orderBy('id');
+    const due = await trx('proposal')
+      .select('id', 'reference', 'title', 'state', trx.raw("to_char(decision_due, 'YYYY-MM-DD') as decision_due"))
+      .whereIn('state', CLOCK_STATES)
+      .whereNotNull('decision_due')
+      .where('decision_due', '<=', addDays(on, days))
+      .orderBy('decision_due')
+      .orderBy('id');
     const sent = { reminders: 0, overdue: 0 };
     for (const p of due as { id: number; reference: string; title: string; state: string; decision_due: string }[]) {
       const left = daysLeft(p.decision_due, on);
       const notice = `${left < 0 ? 'deadline-overdue' : 'deadline-reminder'}:${p.decision_due}`;
       if (!(await claimNotice(trx, 'proposal', p.id, notice))) continue;
-      const ref = { reference: p.reference, title: p.title, url: proposalUrl(p.id), decisionDue: p.decision_due, state: p.state };
-      const n = await mailTo(trx, ['assessor', 'chair'], (u) => (left < 0 ? decisionOverdueMail({ ...ref, name: u.name, daysOver: -left }) : decisionDueMail({ ...ref, name: u.name, daysLeft: left })));
+      const ref = {
+        reference: p.reference,
+        title: p.title,
+        url: proposalUrl(p.id),
+        decisionDue: p.decision_due,
+        state: p.state,
+      };
+      const n = await mailTo(trx, ['assessor', 'chair'], (u) =>
+        left < 0
+          ? decisionOverdueMail({ ...ref, name: u.name, daysOver: -left })
+          : decisionDueMail({ ...ref, name: u.name, daysLeft: left }),
+      );
       await countRecipients(trx, 'proposal', p.id, notice, n);
       sent[left < 0 ? 'overdue' : 'reminders']++;
     }
-    if (sent.reminders + sent.overdue) await recordAudit(trx, { actorId: null, action: 'job.deadline-reminders', entityType: 'job', entityId: 'deadline-reminders', details: { on, ...sent } });
+    if (sent.reminders + sent.overdue)
+      await recordAudit(trx, {
+        actorId: null,
+        action: 'job.deadline-reminders',
+        entityType: 'job',
+        entityId: 'deadline-reminders',
+        details: { on, ...sent },
+      });
     return sent;
   });
 }
@@ -57,11 +79,28 @@ export async function sendFollowUpOverdueNotices(on = today()): Promise<{ overdu
     let overdue = 0;
     for (const t of await overdueOpenTasks(trx, on)) {
       if (!(await claimNotice(trx, 'follow_up_task', t.id, 'follow-up-overdue'))) continue;
-      const n = await mailTo(trx, [t.assignee_role], (u) => followUpOverdueMail({ reference: t.reference, title: t.proposal_title, url: followUpsUrl(), name: u.name, task: t.title, dueDate: t.due_date, checkedBy: t.checked_by }));
+      const n = await mailTo(trx, [t.assignee_role], (u) =>
+        followUpOverdueMail({
+          reference: t.reference,
+          title: t.proposal_title,
+          url: followUpsUrl(),
+          name: u.name,
+          task: t.title,
+          dueDate: t.due_date,
+          checkedBy: t.checked_by,
+        }),
+      );
       await countRecipients(trx, 'follow_up_task', t.id, 'follow-up-overdue', n);
       overdue++;
     }
-    if (overdue) await recordAudit(trx, { actorId: null, action: 'job.follow-up-overdue', entityType: 'job', entityId: 'follow-up-overdue', details: { on, overdue } });
+    if (overdue)
+      await recordAudit(trx, {
+        actorId: null,
+        action: 'job.follow-up-overdue',
+        entityType: 'job',
+        entityId: 'follow-up-overdue',
+        details: { on, overdue },
+      });
     return { overdue };
   });
 }

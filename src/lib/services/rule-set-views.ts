@@ -6,7 +6,11 @@ import { diffRuleSets, ruleSetDocumentSchema } from '../rules';
 import { defaultRuleSetId } from './rule-sets';
 
 export async function listRuleSetSummaries(conn: Db = db) {
-  const [sets, versions, def] = await Promise.all([rs.listRuleSets(conn), rs.listRuleSetVersions(conn), defaultRuleSetId(conn)]);
+  const [sets, versions, def] = await Promise.all([
+    rs.listRuleSets(conn),
+    rs.listRuleSetVersions(conn),
+    defaultRuleSetId(conn),
+  ]);
   return sets.map((s) => ({
     id: s.id,
     title: s.title,
@@ -32,9 +36,29 @@ export async function getRuleSetView(setId: string, which: number | 'draft' | un
   const summary = (await listRuleSetSummaries(conn)).find((s) => s.id === setId);
   if (!summary) throw new HttpError('NOT_FOUND', `No rule set "${setId}".`);
   const row = await rs.getRuleSetVersion(conn, setId, which ?? 'latest');
-  if (!row) throw new HttpError('NOT_FOUND', which === 'draft' ? 'This rule set has no draft.' : `No such version of rule set "${setId}".`);
-  const edits = (await rs.listRuleEdits(conn, setId)).map((e) => ({ version: e.version, rule: e.rule_id, action: e.action, before: e.before, after: e.after, reason: e.reason, by: e.edited_by_name, at: e.edited_at.toISOString() }));
-  return { summary, version: row.version, status: row.status, revision: row.revision, document: ruleSetDocumentSchema.parse(row.document), edits };
+  if (!row)
+    throw new HttpError(
+      'NOT_FOUND',
+      which === 'draft' ? 'This rule set has no draft.' : `No such version of rule set "${setId}".`,
+    );
+  const edits = (await rs.listRuleEdits(conn, setId)).map((e) => ({
+    version: e.version,
+    rule: e.rule_id,
+    action: e.action,
+    before: e.before,
+    after: e.after,
+    reason: e.reason,
+    by: e.edited_by_name,
+    at: e.edited_at.toISOString(),
+  }));
+  return {
+    summary,
+    version: row.version,
+    status: row.status,
+    revision: row.revision,
+    document: ruleSetDocumentSchema.parse(row.document),
+    edits,
+  };
 }
 
 /** "id@3" or "id@draft" → its parts. */

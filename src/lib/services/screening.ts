@@ -34,7 +34,12 @@ function normalised(classes: { class: string; share: number }[]): { type: string
 }
 
 /** Recomputes the whole map inside `trx`. Returns the number of parcels screened and the time taken. */
-export async function recomputeScreening(trx: Db, by: string | null, reason: string, phases?: Phases): Promise<{ screened: number; ms: number }> {
+export async function recomputeScreening(
+  trx: Db,
+  by: string | null,
+  reason: string,
+  phases?: Phases,
+): Promise<{ screened: number; ms: number }> {
   const t0 = performance.now();
   const [settings, gis] = [await getProposalSettings(trx), await getGisSettings(trx)];
   const set = await loadPublished(trx, await defaultSetId(trx));
@@ -43,9 +48,18 @@ export async function recomputeScreening(trx: Db, by: string | null, reason: str
   const rows = await store.screeningInputs(trx);
   phases?.mark('inputs');
   const events = new Map<number, LandUseEvent[]>();
-  for (const e of await store.allEvents(trx)) events.set(e.parcel_id, [...(events.get(e.parcel_id) ?? []), { date: e.date, kind: e.kind, value: e.value, cultivation: e.cultivation }]);
+  for (const e of await store.allEvents(trx))
+    events.set(e.parcel_id, [
+      ...(events.get(e.parcel_id) ?? []),
+      { date: e.date, kind: e.kind, value: e.value, cultivation: e.cultivation },
+    ]);
   phases?.mark('events');
-  const flagOptions = { asOf: today(), permanentGrasslandYears: gis['land-use.permanent-grassland-years'], uncultivatedYears: gis['land-use.uncultivated-years'], tillageEndsGrassland: gis['land-use.tillage-ends-grassland'] };
+  const flagOptions = {
+    asOf: today(),
+    permanentGrasslandYears: gis['land-use.permanent-grassland-years'],
+    uncultivatedYears: gis['land-use.uncultivated-years'],
+    tillageEndsGrassland: gis['land-use.tillage-ends-grassland'],
+  };
   const parcels: ScreeningParcel[] = [];
   for (const r of rows) {
     const flags = deriveLandUseFlags(events.get(r.id) ?? [], flagOptions);
@@ -53,9 +67,15 @@ export async function recomputeScreening(trx: Db, by: string | null, reason: str
     const covered = (share: number | null) => share !== null && share >= 1 - COVER_EPSILON;
     const area = (share: number) => ({ share, areaHa: share * r.area_ha });
     parcels.push({
-      parcelId: r.id, reference: r.reference, areaHa: r.area_ha, ownerRef: r.owner_ref, regionKey: r.region,
-      climate: covered(r.climate_cover) ? r.climate : null, soils: covered(r.soil_cover) ? normalised(r.soils) : [],
-      sensitive: area(r.sensitive), neverTilledLayer: area(r.never_tilled),
+      parcelId: r.id,
+      reference: r.reference,
+      areaHa: r.area_ha,
+      ownerRef: r.owner_ref,
+      regionKey: r.region,
+      climate: covered(r.climate_cover) ? r.climate : null,
+      soils: covered(r.soil_cover) ? normalised(r.soils) : [],
+      sensitive: area(r.sensitive),
+      neverTilledLayer: area(r.never_tilled),
       slope: Object.fromEntries(r.slope.map((s) => [s.class, area(s.share)])),
       flags: { permanentGrassland: true, uncultivated: flags.uncultivated.value, neverTilled: flags.neverTilled.value },
     });
@@ -63,18 +83,29 @@ export async function recomputeScreening(trx: Db, by: string | null, reason: str
   phases?.mark('flags');
   const keys = [...new Set(parcels.map((p) => p.regionKey).filter((k): k is string => !!k))];
   const regions = new Map<string, (ha: number) => ReturnType<typeof regionFacts>>();
-  const { stats, refs } = keys.length ? await regionStatsWithReference(trx, today(), keys) : { stats: [], refs: new Map() };
+  const { stats, refs } = keys.length
+    ? await regionStatsWithReference(trx, today(), keys)
+    : { stats: [], refs: new Map() };
   for (const s of stats) {
     const ref = refs.get(s.key);
     regions.set(s.key, (ha) => regionFacts(s, ref ? { ratio: ref.ratio, referenceYear: ref.referenceYear } : null, ha));
   }
   const windowYears = holdingWindowYears(rules.document) ?? 5;
-  const earlierOnHolding = new Map((await store.proposalsByHolding(trx, windowYears)).map((h) => [h.owner_ref, { ha: h.ha, references: h.refs }]));
+  const earlierOnHolding = new Map(
+    (await store.proposalsByHolding(trx, windowYears)).map((h) => [h.owner_ref, { ha: h.ha, references: h.refs }]),
+  );
   const year = new Date().getUTCFullYear();
   const committedT = await committedCo2e(trx, year);
   phases?.mark('regions');
   const results = screenParcels(parcels, {
-    set, gwp: settings['assessment.gwp'], runs: settings['assessment.runs'], seed: SEED, rules, regions, earlierOnHolding, windowYears,
+    set,
+    gwp: settings['assessment.gwp'],
+    runs: settings['assessment.runs'],
+    seed: SEED,
+    rules,
+    regions,
+    earlierOnHolding,
+    windowYears,
     // Committed: the CO2e of approvals in the register for proposals starting this year.
     budget: { year, budgetT: settings['budget.yearly-co2e-t'], committedT },
   });
@@ -82,10 +113,30 @@ export async function recomputeScreening(trx: Db, by: string | null, reason: str
   const layers = Object.fromEntries((await currentVersions(trx)).map((v) => [v.kind, v.version]));
   const ms = Math.round(performance.now() - t0);
   const mapV = await bumpMapVersion(trx);
-  const runId = await store.insertRun(trx, { factorSet: { id: set.id, version: set.version }, ruleSet: rules.ref, layers, mapVersion: mapV, screened: results.length, ms, reason, by });
+  const runId = await store.insertRun(trx, {
+    factorSet: { id: set.id, version: set.version },
+    ruleSet: rules.ref,
+    layers,
+    mapVersion: mapV,
+    screened: results.length,
+    ms,
+    reason,
+    by,
+  });
   await store.replaceResults(trx, runId, results);
   phases?.mark('store');
-  await recordAudit(trx, { actorId: by, action: 'screening.recompute', entityType: 'screening', entityId: String(runId), details: { reason, screened: results.length, factorSet: `${set.id}@${set.version}`, ruleSet: `${rules.ref.id}@${rules.ref.version}` } });
+  await recordAudit(trx, {
+    actorId: by,
+    action: 'screening.recompute',
+    entityType: 'screening',
+    entityId: String(runId),
+    details: {
+      reason,
+      screened: results.length,
+      factorSet: `${set.id}@${set.version}`,
+      ruleSet: `${rules.ref.id}@${rules.ref.version}`,
+    },
+  });
   return { screened: results.length, ms };
 }
 
@@ -102,13 +153,44 @@ export async function screeningTable(q: Parameters<typeof store.listResults>[1])
   return {
     run: run
       ? {
-          computedAt: new Date(run.computed_at).toISOString(), by: run.by_name ?? null, reason: run.reason, factorSet: `${run.factor_set_id}@${run.factor_set_version}`, ruleSet: `${run.rule_set_id}@${run.rule_set_version}`,
-          layers: run.layer_versions, parcelsScreened: run.parcels_screened, durationMs: run.duration_ms, parcelsChangedSince: Number(run.map_data_version) < version,
+          computedAt: new Date(run.computed_at).toISOString(),
+          by: run.by_name ?? null,
+          reason: run.reason,
+          factorSet: `${run.factor_set_id}@${run.factor_set_version}`,
+          ruleSet: `${run.rule_set_id}@${run.rule_set_version}`,
+          layers: run.layer_versions,
+          parcelsScreened: run.parcels_screened,
+          durationMs: run.duration_ms,
+          parcelsChangedSince: Number(run.map_data_version) < version,
         }
       : null,
-    items: list.rows.map((r: { parcel_id: number; reference: string; area_ha: number; level: number | null; label: string | null; co2e_total: number | null; co2e_high: number | null; soc_loss_per_ha: number | null; rules: string[]; problem: string | null }) => ({
-      parcelId: r.parcel_id, reference: r.reference, areaHa: r.area_ha, level: r.level, label: r.label, co2eTotal: r.co2e_total, co2eHigh: r.co2e_high, socLossPerHa: r.soc_loss_per_ha, rules: r.rules, problem: r.problem,
-    })),
-    total: list.total, page: q.page, pageSize: q.pageSize,
+    items: list.rows.map(
+      (r: {
+        parcel_id: number;
+        reference: string;
+        area_ha: number;
+        level: number | null;
+        label: string | null;
+        co2e_total: number | null;
+        co2e_high: number | null;
+        soc_loss_per_ha: number | null;
+        rules: string[];
+        problem: string | null;
+      }) => ({
+        parcelId: r.parcel_id,
+        reference: r.reference,
+        areaHa: r.area_ha,
+        level: r.level,
+        label: r.label,
+        co2eTotal: r.co2e_total,
+        co2eHigh: r.co2e_high,
+        socLossPerHa: r.soc_loss_per_ha,
+        rules: r.rules,
+        problem: r.problem,
+      }),
+    ),
+    total: list.total,
+    page: q.page,
+    pageSize: q.pageSize,
   };
 }

@@ -17,16 +17,31 @@ const pct = (share: number) => `${(share * 100).toFixed(share < 0.995 ? 1 : 0)} 
 export function territoryIssue(row: { outsideShare: number; swappedInside: boolean }, self: string): ValidationIssue {
   const where = row.outsideShare >= 0.995 ? 'lies outside' : `lies ${pct(row.outsideShare)} outside`;
   return row.swappedInside
-    ? { code: 'axes-swapped', message: `${self} ${where} the authority's territory, but with longitude and latitude swapped it lies inside: the axes look swapped (latitude given first). Fix the column order or the CRS axis order and upload again.`, severity: 'error' }
-    : { code: 'outside-territory', message: `${self} ${where} the authority's territory; check the coordinate reference system, or ask an administrator about the territory setting.`, severity: 'error' };
+    ? {
+        code: 'axes-swapped',
+        message: `${self} ${where} the authority's territory, but with longitude and latitude swapped it lies inside: the axes look swapped (latitude given first). Fix the column order or the CRS axis order and upload again.`,
+        severity: 'error',
+      }
+    : {
+        code: 'outside-territory',
+        message: `${self} ${where} the authority's territory; check the coordinate reference system, or ask an administrator about the territory setting.`,
+        severity: 'error',
+      };
 }
 
 /** At validation: rejects staged features outside the territory (no check when there is none). */
-export async function checkStagedTerritory(trx: Db, stagingId: string): Promise<{ idx: number; issues: ValidationIssue[]; reject: boolean }[]> {
+export async function checkStagedTerritory(
+  trx: Db,
+  stagingId: string,
+): Promise<{ idx: number; issues: ValidationIssue[]; reject: boolean }[]> {
   const t = await territory.effectiveTerritory(trx);
   if (!t.geometry) return [];
   const rows = await territory.stagedOutside(trx, stagingId, t.geometry);
-  return rows.map((r) => ({ idx: r.idx, issues: [territoryIssue(r, `Feature ${r.idx + 1}${r.reference ? ` (${r.reference})` : ''}`)], reject: true }));
+  return rows.map((r) => ({
+    idx: r.idx,
+    issues: [territoryIssue(r, `Feature ${r.idx + 1}${r.reference ? ` (${r.reference})` : ''}`)],
+    reject: true,
+  }));
 }
 
 /** A drawn or edited boundary outside the territory: 422 naming the problem. */
@@ -48,15 +63,31 @@ export async function getTerritory() {
 export async function putTerritory(by: Caller, value: Polygon | MultiPolygon | null) {
   if (value) {
     const outside = firstOutsideWgs84(value);
-    if (outside) throw new HttpError('UNPROCESSABLE_CONTENT', `Coordinate (${outside[0]}, ${outside[1]}) is not a longitude/latitude in WGS 84.`, [{ path: ['territory'], message: 'out of range' }]);
+    if (outside)
+      throw new HttpError(
+        'UNPROCESSABLE_CONTENT',
+        `Coordinate (${outside[0]}, ${outside[1]}) is not a longitude/latitude in WGS 84.`,
+        [{ path: ['territory'], message: 'out of range' }],
+      );
     const checked = checkGeometry(value);
     const errors = checked.issues.filter((i) => i.severity === 'error');
-    if (!checked.geometry || errors.length) throw new HttpError('UNPROCESSABLE_CONTENT', `The territory is not a valid polygon: ${errors.map((e) => e.message).join(' ')}`, errors.map((e) => ({ path: ['territory'], message: e.message })));
+    if (!checked.geometry || errors.length)
+      throw new HttpError(
+        'UNPROCESSABLE_CONTENT',
+        `The territory is not a valid polygon: ${errors.map((e) => e.message).join(' ')}`,
+        errors.map((e) => ({ path: ['territory'], message: e.message })),
+      );
   }
   return withTransaction(db, async (trx) => {
     const before = await territory.storedTerritory(trx);
     await territory.storeTerritory(trx, value, by.id);
-    await recordAudit(trx, { actorId: by.id, action: 'settings.territory', entityType: 'setting', entityId: territory.TERRITORY_KEY, details: { before: before.stored ? before.geometry : 'default', after: value } });
+    await recordAudit(trx, {
+      actorId: by.id,
+      action: 'settings.territory',
+      entityType: 'setting',
+      entityId: territory.TERRITORY_KEY,
+      details: { before: before.stored ? before.geometry : 'default', after: value },
+    });
     const t = await territory.effectiveTerritory(trx);
     return { territory: t.geometry, source: t.source, defaultMarginDeg: territory.DEFAULT_MARGIN_DEG };
   });

@@ -27,7 +27,10 @@ export interface ParsedLayer {
 }
 
 /** A layer without its features (what crosses from the worker pool cheaply): counts, columns, CRS hints, extent. */
-export type LayerInfo = Omit<ParsedLayer, 'features'> & { featureCount: number; bbox: [number, number, number, number] | null };
+export type LayerInfo = Omit<ParsedLayer, 'features'> & {
+  featureCount: number;
+  bbox: [number, number, number, number] | null;
+};
 
 export function layerInfo(layer: ParsedLayer): LayerInfo {
   const { features, ...rest } = layer;
@@ -44,7 +47,9 @@ export interface LayerCrs {
 const PAYLOAD = new Set(['file-too-large', 'uncompressed-too-large']);
 
 export function gisError(error: GisInputError): HttpError {
-  return new HttpError(PAYLOAD.has(error.code) ? 'PAYLOAD_TOO_LARGE' : 'UNPROCESSABLE_CONTENT', error.message, [{ path: ['file'], message: error.code }]);
+  return new HttpError(PAYLOAD.has(error.code) ? 'PAYLOAD_TOO_LARGE' : 'UNPROCESSABLE_CONTENT', error.message, [
+    { path: ['file'], message: error.code },
+  ]);
 }
 
 /** Zip by magic bytes or name; GeoJSON by name or a leading "{". Anything else is refused. */
@@ -54,25 +59,56 @@ export function detectFormat(fileName: string, bytes: Uint8Array): UploadFormat 
   let i = bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf ? 3 : 0;
   while (i < bytes.length && i < 1000 && [0x20, 0x09, 0x0a, 0x0d].includes(bytes[i]!)) i++;
   if (lower.endsWith('.geojson') || lower.endsWith('.json') || bytes[i] === 0x7b) return 'geojson';
-  throw new HttpError('UNSUPPORTED_MEDIA_TYPE', `"${fileName}" is neither a zipped shapefile (.zip) nor a GeoJSON file (.geojson); upload one of those.`);
+  throw new HttpError(
+    'UNSUPPORTED_MEDIA_TYPE',
+    `"${fileName}" is neither a zipped shapefile (.zip) nor a GeoJSON file (.geojson); upload one of those.`,
+  );
 }
 
-export async function parseUpload(bytes: Uint8Array, format: UploadFormat, fileName: string, settings: GisSettings): Promise<ParsedLayer[]> {
+export async function parseUpload(
+  bytes: Uint8Array,
+  format: UploadFormat,
+  fileName: string,
+  settings: GisSettings,
+): Promise<ParsedLayer[]> {
   try {
     if (format === 'shapefile-zip') {
-      const layers = await parseShapefileZip(bytes, { maxUncompressedBytes: settings['upload.max-uncompressed-bytes'], maxEntries: settings['upload.max-zip-entries'] });
-      return layers.map((l) => ({ name: l.name, features: l.features, columns: l.columns, geometryType: l.shapeType, prjWkt: l.prjWkt, geojsonEpsg: null }));
+      const layers = await parseShapefileZip(bytes, {
+        maxUncompressedBytes: settings['upload.max-uncompressed-bytes'],
+        maxEntries: settings['upload.max-zip-entries'],
+      });
+      return layers.map((l) => ({
+        name: l.name,
+        features: l.features,
+        columns: l.columns,
+        geometryType: l.shapeType,
+        prjWkt: l.prjWkt,
+        geojsonEpsg: null,
+      }));
     }
     let text: string;
     try {
       text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
     } catch {
-      throw new HttpError('UNPROCESSABLE_CONTENT', `"${fileName}" is not UTF-8 text; GeoJSON must be UTF-8 (RFC 7946 §1).`, [{ path: ['file'], message: 'unreadable-encoding' }]);
+      throw new HttpError(
+        'UNPROCESSABLE_CONTENT',
+        `"${fileName}" is not UTF-8 text; GeoJSON must be UTF-8 (RFC 7946 §1).`,
+        [{ path: ['file'], message: 'unreadable-encoding' }],
+      );
     }
     const layer = parseGeoJson(text.replace(/^\uFEFF/, ''), settings['upload.max-bytes']);
     const types = [...new Set(layer.features.map((f) => f.geometry?.type ?? 'null'))].join(', ');
     const name = fileName.replace(/\.(geo)?json$/i, '') || 'features';
-    return [{ name, features: layer.features, columns: layer.columns, geometryType: types, prjWkt: null, geojsonEpsg: layer.epsg }];
+    return [
+      {
+        name,
+        features: layer.features,
+        columns: layer.columns,
+        geometryType: types,
+        prjWkt: null,
+        geojsonEpsg: layer.epsg,
+      },
+    ];
   } catch (error) {
     if (isGisInputError(error)) throw gisError(error);
     throw error;
@@ -82,7 +118,8 @@ export async function parseUpload(bytes: Uint8Array, format: UploadFormat, fileN
 /** The CRS a layer declares, or null with the reason the planner must pick one. */
 export async function detectLayerCrs(layer: ParsedLayer | LayerInfo): Promise<LayerCrs> {
   try {
-    if (layer.geojsonEpsg !== null) return { crs: await assertDatumShiftKnown(await crsFromEpsg(layer.geojsonEpsg)), source: 'geojson', note: null };
+    if (layer.geojsonEpsg !== null)
+      return { crs: await assertDatumShiftKnown(await crsFromEpsg(layer.geojsonEpsg)), source: 'geojson', note: null };
     if (layer.prjWkt) return { crs: await crsFromPrj(layer.prjWkt), source: 'prj', note: null };
   } catch (error) {
     if (!isGisInputError(error)) throw error;
@@ -100,16 +137,23 @@ export async function detectLayerCrs(layer: ParsedLayer | LayerInfo): Promise<La
 }
 
 /** The CRS to use: the planner's EPSG choice, else the declared one; refuses when neither. */
-export async function resolveCrs(layer: ParsedLayer | LayerInfo, epsg: number | undefined): Promise<{ crs: CrsDefinition; source: 'picked' | 'prj' | 'geojson' }> {
+export async function resolveCrs(
+  layer: ParsedLayer | LayerInfo,
+  epsg: number | undefined,
+): Promise<{ crs: CrsDefinition; source: 'picked' | 'prj' | 'geojson' }> {
   if (epsg !== undefined) {
     try {
       return { crs: await assertDatumShiftKnown(await crsFromEpsg(epsg)), source: 'picked' };
     } catch (error) {
-      if (isGisInputError(error)) throw new HttpError('UNPROCESSABLE_CONTENT', error.message, [{ path: ['epsg'], message: error.message }]);
+      if (isGisInputError(error))
+        throw new HttpError('UNPROCESSABLE_CONTENT', error.message, [{ path: ['epsg'], message: error.message }]);
       throw error;
     }
   }
   const found = await detectLayerCrs(layer);
-  if (!found.crs || !found.source) throw new HttpError('UNPROCESSABLE_CONTENT', found.note ?? 'Choose the coordinate reference system by EPSG code.', [{ path: ['epsg'], message: 'needed' }]);
+  if (!found.crs || !found.source)
+    throw new HttpError('UNPROCESSABLE_CONTENT', found.note ?? 'Choose the coordinate reference system by EPSG code.', [
+      { path: ['epsg'], message: 'needed' },
+    ]);
   return { crs: found.crs, source: found.source };
 }

@@ -39,10 +39,15 @@ export async function saveUpload(by: Caller, id: string): Promise<SaveResult> {
     return await withTransaction(db, async (trx) => {
       await serialPlans(trx);
       const staging = await loadOwnStaging(trx, by, id, true);
-      if (!staging.validated_at || !staging.report_summary) throw new HttpError('CONFLICT', 'Validate the upload before saving it.');
+      if (!staging.validated_at || !staging.report_summary)
+        throw new HttpError('CONFLICT', 'Validate the upload before saving it.');
       const summary = staging.report_summary as { total: number; rejected: number };
       const valid = summary.total - summary.rejected;
-      if (valid === 0) throw new HttpError('UNPROCESSABLE_CONTENT', 'No feature passed validation, so there is nothing to save. Cancel the upload or fix the file.');
+      if (valid === 0)
+        throw new HttpError(
+          'UNPROCESSABLE_CONTENT',
+          'No feature passed validation, so there is nothing to save. Cancel the upload or fix the file.',
+        );
       const t0 = performance.now();
       const batchId = randomUUID();
       await uploads.insertBatchFromStaging(trx, id, batchId, valid);
@@ -51,14 +56,31 @@ export async function saveUpload(by: Caller, id: string): Promise<SaveResult> {
       if (staging.purpose === 'parcels') {
         await recheckStagedInSave(trx, id, overlapTolerance(await getGisSettings(trx)));
         await insertParcelsFromStaging(trx, id, batchId, by.id);
-        await insertEventsFromStaging(trx, id, batchId, by.id, `Upload "${staging.file_name}" (batch ${batchId.slice(0, 8)})`);
+        await insertEventsFromStaging(
+          trx,
+          id,
+          batchId,
+          by.id,
+          `Upload "${staging.file_name}" (batch ${batchId.slice(0, 8)})`,
+        );
         const t1 = performance.now();
-        await computeOverlay(trx, { batchId }, (await currentVersions(trx)).map((v) => v.id));
+        await computeOverlay(
+          trx,
+          { batchId },
+          (await currentVersions(trx)).map((v) => v.id),
+        );
         overlayMs = performance.now() - t1;
         await bumpMapVersion(trx);
       } else {
         const m = staging.column_mapping as { kind: ReferenceKind; classAttribute: string; labelAttribute?: string };
-        const v = await insertVersionFromStaging(trx, { stagingId: id, batchId, kind: m.kind, classAttribute: m.classAttribute, labelAttribute: m.labelAttribute ?? null, by: by.id });
+        const v = await insertVersionFromStaging(trx, {
+          stagingId: id,
+          batchId,
+          kind: m.kind,
+          classAttribute: m.classAttribute,
+          labelAttribute: m.labelAttribute ?? null,
+          by: by.id,
+        });
         referenceVersion = { id: v.id, kind: m.kind, version: v.version };
       }
       await uploads.deleteStaging(trx, id);
@@ -67,14 +89,31 @@ export async function saveUpload(by: Caller, id: string): Promise<SaveResult> {
         action: staging.purpose === 'parcels' ? 'parcels.import' : 'reference-layer.upload',
         entityType: 'upload-batch',
         entityId: batchId,
-        details: { fileName: staging.file_name, sha256: staging.sha256, saved: valid, rejected: summary.rejected, crs: staging.source_crs?.epsg ?? staging.source_crs?.name, referenceVersion },
+        details: {
+          fileName: staging.file_name,
+          sha256: staging.sha256,
+          saved: valid,
+          rejected: summary.rejected,
+          crs: staging.source_crs?.epsg ?? staging.source_crs?.name,
+          referenceVersion,
+        },
       });
       const storeMs = performance.now() - t0 - overlayMs;
-      return { batchId, purpose: staging.purpose, saved: valid, rejected: summary.rejected, referenceVersion, timings: { storeMs: Math.round(storeMs), overlayMs: Math.round(overlayMs) } };
+      return {
+        batchId,
+        purpose: staging.purpose,
+        saved: valid,
+        rejected: summary.rejected,
+        referenceVersion,
+        timings: { storeMs: Math.round(storeMs), overlayMs: Math.round(overlayMs) },
+      };
     });
   } catch (error) {
     if (isUniqueViolation(error)) {
-      throw new HttpError('CONFLICT', 'Another save put some of these parcel references or boundaries in the register after this upload was validated. Validate again to see which.');
+      throw new HttpError(
+        'CONFLICT',
+        'Another save put some of these parcel references or boundaries in the register after this upload was validated. Validate again to see which.',
+      );
     }
     throw error;
   }

@@ -45,15 +45,22 @@ export function sourceKey(purpose: UploadPurpose, columns: string[], layerName: 
 }
 
 export function assertPurposeAllowed(by: Caller, purpose: UploadPurpose): void {
-  if (purpose === 'reference' && !hasAnyRole(by.roles, ['admin'])) throw new HttpError('FORBIDDEN', 'Only administrators upload reference layers.');
+  if (purpose === 'reference' && !hasAnyRole(by.roles, ['admin']))
+    throw new HttpError('FORBIDDEN', 'Only administrators upload reference layers.');
 }
 
-export async function stageUpload(by: Caller, input: { purpose: UploadPurpose; fileName: string; bytes: Uint8Array }): Promise<StagedUpload> {
+export async function stageUpload(
+  by: Caller,
+  input: { purpose: UploadPurpose; fileName: string; bytes: Uint8Array },
+): Promise<StagedUpload> {
   assertPurposeAllowed(by, input.purpose);
   const settings = await getGisSettings(db);
   if (input.bytes.length === 0) throw new HttpError('UNPROCESSABLE_CONTENT', `"${input.fileName}" is empty.`);
   if (input.bytes.length > settings['upload.max-bytes']) {
-    throw new HttpError('PAYLOAD_TOO_LARGE', `"${input.fileName}" is ${input.bytes.length} bytes; at most ${settings['upload.max-bytes']} are allowed.`);
+    throw new HttpError(
+      'PAYLOAD_TOO_LARGE',
+      `"${input.fileName}" is ${input.bytes.length} bytes; at most ${settings['upload.max-bytes']} are allowed.`,
+    );
   }
   const started = performance.now();
   const format = detectFormat(input.fileName, input.bytes);
@@ -74,7 +81,14 @@ export async function stageUpload(by: Caller, input: { purpose: UploadPurpose; f
         columns: layer.columns,
         crs: found.crs && found.source ? { epsg: found.crs.epsg, name: found.crs.name, source: found.source } : null,
         crsNote: found.note,
-        rememberedMapping: await uploads.getRememberedMapping(trx, sourceKey(input.purpose, layer.columns.map((c) => c.name), layer.name)),
+        rememberedMapping: await uploads.getRememberedMapping(
+          trx,
+          sourceKey(
+            input.purpose,
+            layer.columns.map((c) => c.name),
+            layer.name,
+          ),
+        ),
       });
     }
     await uploads.insertStaging(trx, {
@@ -89,16 +103,34 @@ export async function stageUpload(by: Caller, input: { purpose: UploadPurpose; f
       created_by: by.id,
       expires_at: expiresAt,
     });
-    await recordAudit(trx, { actorId: by.id, action: 'upload.stage', entityType: 'upload', entityId: id, details: { fileName: input.fileName, sha256, purpose: input.purpose } });
-    return { id, purpose: input.purpose, fileName: input.fileName, format, sizeBytes: input.bytes.length, sha256, expiresAt: expiresAt.toISOString(), layers, timings: { parseMs } };
+    await recordAudit(trx, {
+      actorId: by.id,
+      action: 'upload.stage',
+      entityType: 'upload',
+      entityId: id,
+      details: { fileName: input.fileName, sha256, purpose: input.purpose },
+    });
+    return {
+      id,
+      purpose: input.purpose,
+      fileName: input.fileName,
+      format,
+      sizeBytes: input.bytes.length,
+      sha256,
+      expiresAt: expiresAt.toISOString(),
+      layers,
+      timings: { parseMs },
+    };
   });
 }
 
 /** The staged upload of this caller (admins may continue anyone's); 404 / 410 otherwise. */
 export async function loadOwnStaging(conn: Db, by: Caller, id: string, lock = false): Promise<uploads.StagingRow> {
   const row = await uploads.getStaging(conn, id, { lock });
-  if (!row || (row.created_by !== by.id && !hasAnyRole(by.roles, ['admin']))) throw new HttpError('NOT_FOUND', 'No such staged upload. It may have been saved or cancelled.');
-  if (row.expires_at.getTime() < Date.now()) throw new HttpError('GONE', 'This staged upload has expired; upload the file again.');
+  if (!row || (row.created_by !== by.id && !hasAnyRole(by.roles, ['admin'])))
+    throw new HttpError('NOT_FOUND', 'No such staged upload. It may have been saved or cancelled.');
+  if (row.expires_at.getTime() < Date.now())
+    throw new HttpError('GONE', 'This staged upload has expired; upload the file again.');
   assertPurposeAllowed(by, row.purpose);
   return row;
 }
@@ -106,8 +138,15 @@ export async function loadOwnStaging(conn: Db, by: Caller, id: string, lock = fa
 export async function cancelUpload(by: Caller, id: string): Promise<void> {
   await withTransaction(db, async (trx) => {
     const row = await uploads.getStaging(trx, id, { lock: true });
-    if (!row || (row.created_by !== by.id && !hasAnyRole(by.roles, ['admin']))) throw new HttpError('NOT_FOUND', 'No such staged upload. It may have been saved or cancelled.');
+    if (!row || (row.created_by !== by.id && !hasAnyRole(by.roles, ['admin'])))
+      throw new HttpError('NOT_FOUND', 'No such staged upload. It may have been saved or cancelled.');
     await uploads.deleteStaging(trx, id);
-    await recordAudit(trx, { actorId: by.id, action: 'upload.cancel', entityType: 'upload', entityId: id, details: { fileName: row.file_name } });
+    await recordAudit(trx, {
+      actorId: by.id,
+      action: 'upload.cancel',
+      entityType: 'upload',
+      entityId: id,
+      details: { fileName: row.file_name },
+    });
   });
 }

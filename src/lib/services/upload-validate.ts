@@ -6,7 +6,13 @@
  * the file and with the register. Parsing, proj4 and validation run in the worker pool. The staged
  * features replace any earlier validation of the same upload, in one transaction.
  */
-import { mappedColumns, parcelMappingSchema, referenceMappingSchema, type ParcelMapping, type ReferenceMapping } from '../gis/field-mapping';
+import {
+  mappedColumns,
+  parcelMappingSchema,
+  referenceMappingSchema,
+  type ParcelMapping,
+  type ReferenceMapping,
+} from '../gis/field-mapping';
 import { isGisInputError } from '../gis/errors';
 import { overlapTolerance, type GisSettings } from '../gis/settings';
 import type { CrsDefinition } from '../gis/crs';
@@ -42,7 +48,11 @@ function parseMapping(purpose: 'parcels' | 'reference', mapping: unknown): Parce
   const r = schema.safeParse(mapping);
   if (!r.success) {
     const issues = zodIssues(r.error).map((i) => ({ ...i, path: ['mapping', ...i.path] }));
-    throw new HttpError('UNPROCESSABLE_CONTENT', `Invalid column mapping (${issues[0]!.path.join('.')}): ${issues[0]!.message}`, issues);
+    throw new HttpError(
+      'UNPROCESSABLE_CONTENT',
+      `Invalid column mapping (${issues[0]!.path.join('.')}): ${issues[0]!.message}`,
+      issues,
+    );
   }
   return r.data;
 }
@@ -66,21 +76,40 @@ export async function validateUpload(by: Caller, id: string, input: ValidationIn
   const file = { bytes, format: staging.format, fileName: staging.file_name, settings };
   const layers = await runGisTask('inspect', file);
   const layer = layers.find((l) => l.name === input.layer);
-  if (!layer) throw new HttpError('UNPROCESSABLE_CONTENT', `The file has no layer "${input.layer}"; it has ${layers.map((l) => `"${l.name}"`).join(', ')}.`, [{ path: ['layer'], message: 'unknown layer' }]);
+  if (!layer)
+    throw new HttpError(
+      'UNPROCESSABLE_CONTENT',
+      `The file has no layer "${input.layer}"; it has ${layers.map((l) => `"${l.name}"`).join(', ')}.`,
+      [{ path: ['layer'], message: 'unknown layer' }],
+    );
   const names = new Set(layer.columns.map((c) => c.name));
   const missing = mappedColumns(mapping).filter((c) => !names.has(c));
-  if (missing.length) throw new HttpError('UNPROCESSABLE_CONTENT', `Layer "${layer.name}" has no column ${missing.map((c) => `"${c}"`).join(', ')}.`, [{ path: ['mapping'], message: 'unknown column' }]);
+  if (missing.length)
+    throw new HttpError(
+      'UNPROCESSABLE_CONTENT',
+      `Layer "${layer.name}" has no column ${missing.map((c) => `"${c}"`).join(', ')}.`,
+      [{ path: ['mapping'], message: 'unknown column' }],
+    );
   const { crs, source } = await resolveCrs(layer, input.epsg);
   const parseMs = Math.round(performance.now() - started);
   const t1 = performance.now();
   const inPostgis = await reprojectsInPostgis(db, crs);
-  const stage = { layerName: layer.name, purpose: staging.purpose, mapping, options: validationOptions(settings, crs, staging.purpose) };
+  const stage = {
+    layerName: layer.name,
+    purpose: staging.purpose,
+    mapping,
+    options: validationOptions(settings, crs, staging.purpose),
+  };
   // The features stay in the worker pool (parse, reproject, validate, serialise); only JSON text comes back.
   // A CRS with a datum shift is reprojected by PostGIS, so those features make the round trip through here.
   const chunks = await (async () => {
     if (!inPostgis) return runGisTask('stageFile', { ...file, ...stage, proj4Crs: crs });
     const parsed = (await runGisTask('parse', file)).find((l) => l.name === layer.name)!;
-    return runGisTask('stage', { ...stage, features: await reprojectLayer(db, parsed.features, crs, layer.name), proj4Crs: null });
+    return runGisTask('stage', {
+      ...stage,
+      features: await reprojectLayer(db, parsed.features, crs, layer.name),
+      proj4Crs: null,
+    });
   })().catch((error) => {
     throw isGisInputError(error) ? gisError(error) : error;
   });
@@ -96,7 +125,17 @@ export async function validateUpload(by: Caller, id: string, input: ValidationIn
     const summary = await uploads.stagedSummary(trx, id);
     const sourceCrs = { epsg: crs.epsg, name: crs.name, definition: crs.definition, source };
     await uploads.updateStagingValidation(trx, id, { layerName: layer.name, sourceCrs, mapping, summary });
-    await uploads.rememberMapping(trx, sourceKey(staging.purpose, layer.columns.map((c) => c.name), layer.name), staging.purpose, mapping, by.id);
+    await uploads.rememberMapping(
+      trx,
+      sourceKey(
+        staging.purpose,
+        layer.columns.map((c) => c.name),
+        layer.name,
+      ),
+      staging.purpose,
+      mapping,
+      by.id,
+    );
     const problems = await uploads.stagedProblems(trx, id, REPORT_LIMIT);
     return { summary, problems };
   });
@@ -107,31 +146,62 @@ export async function validateUpload(by: Caller, id: string, input: ValidationIn
     layer: layer.name,
     crs: { epsg: crs.epsg, name: crs.name, source },
     summary: result.summary,
-    features: result.problems.map((p) => ({ index: p.idx, reference: p.reference, status: p.status, issues: p.issues, areaHa: p.area_ha })),
+    features: result.problems.map((p) => ({
+      index: p.idx,
+      reference: p.reference,
+      status: p.status,
+      issues: p.issues,
+      areaHa: p.area_ha,
+    })),
     omitted: Math.max(0, withIssues - listed),
     timings: { parseMs, validateMs: Math.round(performance.now() - t1) },
   };
 }
 
 async function countOkWithWarnings(id: string): Promise<number> {
-  const r = await db('upload_staging_feature').where({ staging_id: id, status: 'ok' }).andWhereRaw('jsonb_array_length(issues) > 0').count<{ n: number }[]>('* as n');
+  const r = await db('upload_staging_feature')
+    .where({ staging_id: id, status: 'ok' })
+    .andWhereRaw('jsonb_array_length(issues) > 0')
+    .count<{ n: number }[]>('* as n');
   return Number(r[0]?.n ?? 0);
 }
 
-const REPORT_STATUS: Record<string, string> = { ok: 'Valid', repaired: 'Repaired, will be saved', rejected: 'Rejected, not saved' };
+const REPORT_STATUS: Record<string, string> = {
+  ok: 'Valid',
+  repaired: 'Repaired, will be saved',
+  rejected: 'Rejected, not saved',
+};
 
 /** The whole validation report as CSV, streamed in file order (owner or admin; validated uploads only). */
-export async function uploadReportCsv(by: Caller, id: string): Promise<{ fileName: string; body: ReadableStream<Uint8Array> }> {
+export async function uploadReportCsv(
+  by: Caller,
+  id: string,
+): Promise<{ fileName: string; body: ReadableStream<Uint8Array> }> {
   const staging = await loadOwnStaging(db, by, id);
-  if (!staging.validated_at) throw new HttpError('CONFLICT', 'This upload has not been checked yet: run the validation first, then download its report.');
+  if (!staging.validated_at)
+    throw new HttpError(
+      'CONFLICT',
+      'This upload has not been checked yet: run the validation first, then download its report.',
+    );
   const base = staging.file_name.replace(/\.[^.]+$/, '').replace(/[^\w.-]+/g, '_') || 'upload';
   return {
     fileName: `${base}-report.csv`,
-    body: textStream((async function* () {
-      yield stringify([['row', 'reference', 'status', 'measured_area_ha', 'found', 'remarks']]);
-      for await (const r of uploads.stagedReportRows(db, id)) {
-        yield stringify([[r.idx + 1, r.reference ?? '', REPORT_STATUS[r.status] ?? r.status, r.area_ha ?? '', r.issues.map((i) => issueCountText(i.code, 1).replace(/^1 /, '')).join(' | '), r.issues.map((i) => i.message).join(' | ')]]);
-      }
-    })()),
+    body: textStream(
+      (async function* () {
+        yield stringify([['row', 'reference', 'status', 'measured_area_ha', 'found', 'remarks']]);
+        for await (const r of uploads.stagedReportRows(db, id)) {
+          yield stringify([
+            [
+              r.idx + 1,
+              r.reference ?? '',
+              REPORT_STATUS[r.status] ?? r.status,
+              r.area_ha ?? '',
+              r.issues.map((i) => issueCountText(i.code, 1).replace(/^1 /, '')).join(' | '),
+              r.issues.map((i) => i.message).join(' | '),
+            ],
+          ]);
+        }
+      })(),
+    ),
   };
 }

@@ -16,7 +16,8 @@ let pool: Tinypool | null = null;
 
 function getPool(): Tinypool {
   pool ??= new Tinypool({
-    filename: pathToFileURL(resolve(process.env.SWARDKEEP_ROOT ?? process.cwd(), 'src/lib/workers/gis-worker.mjs')).href,
+    filename: pathToFileURL(resolve(process.env.SWARDKEEP_ROOT ?? process.cwd(), 'src/lib/workers/gis-worker.mjs'))
+      .href,
     minThreads: 1,
     maxThreads: Math.max(1, Number(process.env.GIS_WORKERS ?? 2)),
     idleTimeout: 120_000,

@@ -16,17 +16,39 @@ describe('statutory clock of an item', () => {
   it('stops once decided, and says overdue in words', () => {
     expect(clockOf(due, 'decided', 7, '2027-02-01').state).toBe('stopped');
     expect(clockOf(null, 'assessed', 7, '2027-02-01').state).toBe('stopped');
-    expect(clockText(clockOf(due, 'on-agenda', 7, '2027-01-09'))).toBe('Overdue by 3 days: the decision was due 6 Jan 2027');
-    expect(clockText(clockOf(due, 'on-agenda', 7, '2027-01-01'))).toBe('Deadline near: 5 days left (decision due 6 Jan 2027)');
+    expect(clockText(clockOf(due, 'on-agenda', 7, '2027-01-09'))).toBe(
+      'Overdue by 3 days: the decision was due 6 Jan 2027',
+    );
+    expect(clockText(clockOf(due, 'on-agenda', 7, '2027-01-01'))).toBe(
+      'Deadline near: 5 days left (decision due 6 Jan 2027)',
+    );
   });
 });
 
 describe('budget preview', () => {
   it('adds the proposal to what current approvals commit and says when the budget is passed', () => {
     // 4,900 + 123.2 = 5,023.2 t of a 5,000 t budget: 100.5 % (arithmetic).
-    const text = budgetText({ year: 2027, budgetT: 5000, committedT: 4900, proposalT: 123.2, afterT: 5023.2, shareAfter: 5023.2 / 5000, overBudget: true });
+    const text = budgetText({
+      year: 2027,
+      budgetT: 5000,
+      committedT: 4900,
+      proposalT: 123.2,
+      afterT: 5023.2,
+      shareAfter: 5023.2 / 5000,
+      overBudget: true,
+    });
     expect(text).toContain('5,023.2 t CO2e, 100.5 % of the budget — OVER the budget');
-    expect(budgetText({ year: 2027, budgetT: null, committedT: 0, proposalT: 10, afterT: 10, shareAfter: null, overBudget: null })).toMatch(/no yearly budget/);
+    expect(
+      budgetText({
+        year: 2027,
+        budgetT: null,
+        committedT: 0,
+        proposalT: 10,
+        afterT: 10,
+        shareAfter: null,
+        overBudget: null,
+      }),
+    ).toMatch(/no yearly budget/);
   });
 });
 

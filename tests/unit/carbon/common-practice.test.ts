@@ -1,5 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { CLIMATE_REGIONS, EstimateInputError, IPCC_2006, MINERAL_SOIL_TYPES, estimateLandUseChange, estimateRequestSchema } from '~/lib/carbon';
+import {
+  CLIMATE_REGIONS,
+  EstimateInputError,
+  IPCC_2006,
+  MINERAL_SOIL_TYPES,
+  estimateLandUseChange,
+  estimateRequestSchema,
+} from '~/lib/carbon';
 
 // Common practice, no source: converting nominally managed grassland to long-term cultivated
 // cropland (full tillage, medium input) never loses more than about half of the 0-30 cm soil
@@ -10,7 +17,11 @@ describe('grassland to cultivated cropland loses at most ~52% of topsoil carbon 
   for (const climate of CLIMATE_REGIONS)
     for (const soil of MINERAL_SOIL_TYPES) {
       const req = estimateRequestSchema.parse({
-        climate, soils: [{ type: soil, fraction: 1 }], areaHa: 1, biomass: false, n2o: false,
+        climate,
+        soils: [{ type: soil, fraction: 1 }],
+        areaHa: 1,
+        biomass: false,
+        n2o: false,
         before: { landUse: 'grassland', management: 'nominal', input: 'medium' },
         after: { landUse: 'cropland', system: 'long-term-cultivated', tillage: 'full', input: 'medium' },
       });
@@ -32,7 +43,9 @@ describe('grassland to cultivated cropland loses at most ~52% of topsoil carbon 
   it('the worst is tropical moist and wet at 52%; every pair loses something (20-52%)', () => {
     const worst = Math.max(...losses.map((l) => l.loss));
     expect(worst).toBeCloseTo(0.52, 9);
-    expect(new Set(losses.filter((l) => Math.abs(l.loss - worst) < 1e-9).map((l) => l.climate))).toEqual(new Set(['tropical-moist', 'tropical-wet']));
+    expect(new Set(losses.filter((l) => Math.abs(l.loss - worst) < 1e-9).map((l) => l.climate))).toEqual(
+      new Set(['tropical-moist', 'tropical-wet']),
+    );
     expect(Math.min(...losses.map((l) => l.loss))).toBeCloseTo(0.2, 9);
   });
 });

@@ -9,14 +9,21 @@ import ipcc2019 from '~/lib/carbon/factor-sets/ipcc-2019.json';
 describe('factor keys in words', () => {
   it('write the cold-temperate keys as the cool temperate zone, as the climate menu does', () => {
     expect(entryWords('cold-temperate-moist/hac')).toBe('cool temperate moist · high-activity clay');
-    expect(entryWords('cold-temperate-moist/hac').startsWith(CLIMATE_LABELS['cool-temperate-moist'].toLowerCase())).toBe(true);
-    expect(factorKeyWords('organic-soil-ef/grassland/boreal-cold-temperate')).toBe('Organic soil emission factor: grassland · boreal and cool temperate');
-    expect(factorKeyWords('grassland-stock-factors/f-mg/improved/temperate-boreal-moist')).toBe('Grassland stock change factor: management (F_MG) · improved · temperate and boreal, moist');
+    expect(
+      entryWords('cold-temperate-moist/hac').startsWith(CLIMATE_LABELS['cool-temperate-moist'].toLowerCase()),
+    ).toBe(true);
+    expect(factorKeyWords('organic-soil-ef/grassland/boreal-cold-temperate')).toBe(
+      'Organic soil emission factor: grassland · boreal and cool temperate',
+    );
+    expect(factorKeyWords('grassland-stock-factors/f-mg/improved/temperate-boreal-moist')).toBe(
+      'Grassland stock change factor: management (F_MG) · improved · temperate and boreal, moist',
+    );
   });
 
   it('never show "cold temperate" for any shipped entry', () => {
     for (const set of [ipcc2006, ipcc2019]) {
-      for (const t of set.tables) for (const e of t.entries) expect(factorKeyWords(`${t.key}/${e.key}`)).not.toMatch(/cold/i);
+      for (const t of set.tables)
+        for (const e of t.entries) expect(factorKeyWords(`${t.key}/${e.key}`)).not.toMatch(/cold/i);
     }
   });
 });

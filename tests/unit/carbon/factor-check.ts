@@ -20,7 +20,14 @@ export function checker(set: FactorSetDocument) {
   return {
     checked,
     /** Value, unit, uncertainty and status of one entry. */
-    value(table: string, key: string, value: number, unit: string, uncertainty: Uncertainty | { kind: 'none' }, status: 'confirmed' | 'unconfirmed') {
+    value(
+      table: string,
+      key: string,
+      value: number,
+      unit: string,
+      uncertainty: Uncertainty | { kind: 'none' },
+      status: 'confirmed' | 'unconfirmed',
+    ) {
       const { e, status: s } = entry(table, key);
       expect(e.value, `${table}/${key}`).toBe(value);
       expect(e.unit, `${table}/${key} unit`).toBe(unit);
@@ -43,4 +50,10 @@ export const pct = (p: number, basis: 'two-sd' | 'ci95') => ({ kind: 'percent' a
 export const range = (low: number, high: number) => ({ kind: 'range' as const, low, high, basis: 'ci95' as const });
 export const NONE = { kind: 'none' as const };
 export const SOILS = ['hac', 'lac', 'sandy', 'spodic', 'volcanic', 'wetland'] as const;
-export const REGIMES = ['temperate-boreal-dry', 'temperate-boreal-moist', 'tropical-dry', 'tropical-moist-wet', 'tropical-montane'] as const;
+export const REGIMES = [
+  'temperate-boreal-dry',
+  'temperate-boreal-moist',
+  'tropical-dry',
+  'tropical-moist-wet',
+  'tropical-montane',
+] as const;

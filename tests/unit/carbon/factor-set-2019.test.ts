@@ -1,5 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { IPCC_2019, canSignOff, diffFactorSets, IPCC_2006, factorSetDocumentSchema, unconfirmedTables } from '~/lib/carbon';
+import {
+  IPCC_2019,
+  canSignOff,
+  diffFactorSets,
+  IPCC_2006,
+  factorSetDocumentSchema,
+  unconfirmedTables,
+} from '~/lib/carbon';
 import raw2019 from '~/lib/carbon/factor-sets/ipcc-2019.json';
 import { NONE, REGIMES, SOILS, checker, pct, range } from './factor-check';
 
@@ -29,16 +36,16 @@ describe('ipcc-2019 document', () => {
 describe('SOC_REF: 2019 Refinement Vol 4 Ch 2 Table 2.3 (Updated), page not recorded; every cell from memory [M-L]; unconfirmed', () => {
   const T23: Record<string, (number | null)[]> = {
     //                      HAC  LAC   Sandy Spodic Volcanic Wetland
-    boreal:                [63,  null, 10,   117,   20,      146],
-    'cold-temperate-dry':  [35,  24,   13,   null,  20,      87],
-    'cold-temperate-moist':[81,  76,   51,   95,    130,     128],
-    'warm-temperate-dry':  [24,  19,   10,   null,  70,      88],
-    'warm-temperate-moist':[64,  55,   36,   143,   138,     135],
-    'tropical-dry':        [21,  21,   9,    null,  50,      22],
-    'tropical-moist':      [40,  38,   27,   null,  70,      68],
-    'tropical-wet':        [51,  44,   52,   null,  96,      49],
-    'tropical-montane':    [34,  50,   52,   null,  96,      82],
-    polar:                 [null, null, null, null, null,    null],
+    boreal: [63, null, 10, 117, 20, 146],
+    'cold-temperate-dry': [35, 24, 13, null, 20, 87],
+    'cold-temperate-moist': [81, 76, 51, 95, 130, 128],
+    'warm-temperate-dry': [24, 19, 10, null, 70, 88],
+    'warm-temperate-moist': [64, 55, 36, 143, 138, 135],
+    'tropical-dry': [21, 21, 9, null, 50, 22],
+    'tropical-moist': [40, 38, 27, null, 70, 68],
+    'tropical-wet': [51, 44, 52, null, 96, 49],
+    'tropical-montane': [34, 50, 52, null, 96, 82],
+    polar: [null, null, null, null, null, null],
   };
   it('every cell; error: the 2006 ±90% (2 SD) stored as a flagged stand-in', () => {
     for (const [row, cells] of Object.entries(T23))
@@ -55,22 +62,29 @@ describe('SOC_REF: 2019 Refinement Vol 4 Ch 2 Table 2.3 (Updated), page not reco
 describe('Cropland factors: 2019 Refinement Vol 4 Ch 5 Table 5.5 (Updated), page not recorded; from memory [M-L]; unconfirmed', () => {
   // Values as ipcc-tier1.md §3b; F_I and set-aside as 2006. Errors: 2006 cell error as stand-in.
   const T55: [string, string, number[], number[] | null][] = [
-    ['f-lu', 'long-term-cultivated', [0.77, 0.70, 0.92, 0.83, 0.88], [9, 12, 61, 46, 50]],
+    ['f-lu', 'long-term-cultivated', [0.77, 0.7, 0.92, 0.83, 0.88], [9, 12, 61, 46, 50]],
     ['f-lu', 'paddy-rice', [1.35, 1.35, 1.35, 1.35, 1.35], [90, 90, 90, 90, 90]],
     ['f-lu', 'perennial', [0.72, 0.72, 1.01, 0.83, 0.88], [50, 50, 50, 50, 50]], // montane 0.88 marked (?)
     ['f-lu', 'set-aside', [0.93, 0.82, 0.93, 0.82, 0.88], [11, 17, 11, 17, 50]],
-    ['f-mg', 'full', [1.00, 1.00, 1.00, 1.00, 1.00], null],
+    ['f-mg', 'full', [1.0, 1.0, 1.0, 1.0, 1.0], null],
     ['f-mg', 'reduced', [0.98, 1.04, 0.99, 1.04, 1.03], [6, 5, 9, 8, 50]], // montane 1.03 (?)
-    ['f-mg', 'none', [1.03, 1.09, 1.04, 1.10, 1.09], [5, 4, 8, 7, 50]], // montane 1.09 (?)
+    ['f-mg', 'none', [1.03, 1.09, 1.04, 1.1, 1.09], [5, 4, 8, 7, 50]], // montane 1.09 (?)
     ['f-i', 'low', [0.95, 0.92, 0.95, 0.92, 0.94], [13, 14, 13, 14, 50]],
-    ['f-i', 'medium', [1.00, 1.00, 1.00, 1.00, 1.00], null],
+    ['f-i', 'medium', [1.0, 1.0, 1.0, 1.0, 1.0], null],
     ['f-i', 'high-without-manure', [1.04, 1.11, 1.04, 1.11, 1.08], [13, 10, 13, 10, 50]],
     ['f-i', 'high-with-manure', [1.37, 1.44, 1.37, 1.44, 1.41], [12, 13, 12, 13, 50]],
   ];
   it('every factor and regime; polar NA; stand-in errors flagged', () => {
     for (const [f, level, vals, errs] of T55) {
       REGIMES.forEach((g, i) => {
-        const e = c.value('cropland-stock-factors', `${f}/${level}/${g}`, vals[i]!, 'dimensionless', errs ? pct(errs[i]!, 'two-sd') : NONE, 'unconfirmed');
+        const e = c.value(
+          'cropland-stock-factors',
+          `${f}/${level}/${g}`,
+          vals[i]!,
+          'dimensionless',
+          errs ? pct(errs[i]!, 'two-sd') : NONE,
+          'unconfirmed',
+        );
         if (errs) expect(e.uncertainty).toHaveProperty('standIn');
       });
       c.na('cropland-stock-factors', `${f}/${level}/polar`);
@@ -91,7 +105,16 @@ describe('Grassland factors: 2019 Refinement Vol 4 Ch 6 Table 6.2 (Updated), pag
   ];
   it('every factor and regime (all unconfirmed, including the reference levels)', () => {
     for (const [f, level, vals, errs] of T62) {
-      REGIMES.forEach((g, i) => c.value('grassland-stock-factors', `${f}/${level}/${g}`, vals[i]!, 'dimensionless', errs ? pct(errs[i]!, 'ci95') : NONE, 'unconfirmed'));
+      REGIMES.forEach((g, i) =>
+        c.value(
+          'grassland-stock-factors',
+          `${f}/${level}/${g}`,
+          vals[i]!,
+          'dimensionless',
+          errs ? pct(errs[i]!, 'ci95') : NONE,
+          'unconfirmed',
+        ),
+      );
       c.na('grassland-stock-factors', `${f}/${level}/polar`);
     }
     expect(note('grassland-stock-factors')).toMatch(/keeps every 2006 Table 6.2 value/);
@@ -101,14 +124,20 @@ describe('Grassland factors: 2019 Refinement Vol 4 Ch 6 Table 6.2 (Updated), pag
 describe('Tables with no recalled 2019 update keep the 2006 values (from memory [M-H]); unconfirmed; the note says which', () => {
   it('grassland biomass, 2006 Vol 4 Ch 6 Table 6.4 (±75%)', () => {
     const T64: [string, number, number][] = [
-      ['boreal', 1.7, 8.5], ['cold-temperate-dry', 1.7, 6.5], ['cold-temperate-wet', 2.4, 13.6], ['warm-temperate-dry', 1.6, 6.1],
-      ['warm-temperate-wet', 2.7, 13.5], ['tropical-dry', 2.3, 8.7], ['tropical-moist-wet', 6.2, 16.1],
+      ['boreal', 1.7, 8.5],
+      ['cold-temperate-dry', 1.7, 6.5],
+      ['cold-temperate-wet', 2.4, 13.6],
+      ['warm-temperate-dry', 1.6, 6.1],
+      ['warm-temperate-wet', 2.7, 13.5],
+      ['tropical-dry', 2.3, 8.7],
+      ['tropical-moist-wet', 6.2, 16.1],
     ];
     for (const [row, ag, total] of T64) {
       c.value('grassland-biomass', `total/${row}`, total, 't d.m./ha', pct(75, 'ci95'), 'unconfirmed');
       c.value('grassland-biomass', `above-ground/${row}`, ag, 't d.m./ha', pct(75, 'ci95'), 'unconfirmed');
     }
-    for (const row of ['tropical-montane', 'polar']) for (const col of ['total', 'above-ground']) c.na('grassland-biomass', `${col}/${row}`);
+    for (const row of ['tropical-montane', 'polar'])
+      for (const col of ['total', 'above-ground']) c.na('grassland-biomass', `${col}/${row}`);
     expect(note('grassland-biomass')).toMatch(/keeps the 2006 Table 6.4 values/);
   });
   it('carbon fraction 0.47, 2006 Vol 4 Ch 6', () => {
@@ -116,14 +145,26 @@ describe('Tables with no recalled 2019 update keep the 2006 values (from memory 
     expect(note('carbon-fraction')).toMatch(/keeps the 2006 value 0.47/);
   });
   it('cropland biomass, 2006 Vol 4 Ch 5 Table 5.9 (±75%)', () => {
-    for (const [k, v] of [['annual/all', 5.0], ['perennial/temperate', 63.0], ['perennial/tropical-dry', 9.0], ['perennial/tropical-moist', 21.0], ['perennial/tropical-wet', 50.0]] as const)
+    for (const [k, v] of [
+      ['annual/all', 5.0],
+      ['perennial/temperate', 63.0],
+      ['perennial/tropical-dry', 9.0],
+      ['perennial/tropical-moist', 21.0],
+      ['perennial/tropical-wet', 50.0],
+    ] as const)
       c.value('cropland-biomass', k, v, 't C/ha', pct(75, 'ci95'), 'unconfirmed');
     for (const row of ['boreal', 'tropical-montane', 'polar']) c.na('cropland-biomass', `perennial/${row}`);
     expect(note('cropland-biomass')).toMatch(/keeps the 2006 Table 5.9 values/);
   });
   it('drained organic soils, 2006 Tables 5.6 / 6.3 (the Refinement points to the 2013 Wetlands Supplement, not adopted here)', () => {
-    for (const [k, v] of [['cropland/boreal-cold-temperate', 5.0], ['cropland/warm-temperate', 10.0], ['cropland/tropical', 20.0],
-      ['grassland/boreal-cold-temperate', 0.25], ['grassland/warm-temperate', 2.5], ['grassland/tropical', 5.0]] as const)
+    for (const [k, v] of [
+      ['cropland/boreal-cold-temperate', 5.0],
+      ['cropland/warm-temperate', 10.0],
+      ['cropland/tropical', 20.0],
+      ['grassland/boreal-cold-temperate', 0.25],
+      ['grassland/warm-temperate', 2.5],
+      ['grassland/tropical', 5.0],
+    ] as const)
       c.value('organic-soil-ef', k, v, 't C/ha/yr', pct(90, 'ci95'), 'unconfirmed');
     c.na('organic-soil-ef', 'cropland/polar');
     c.na('organic-soil-ef', 'grassland/polar');
@@ -139,7 +180,7 @@ describe('N2O: 2019 Refinement Vol 4 Ch 11 Eq 11.8 (Updated), Tables 11.1 and 11
   it('EF1 disaggregated (from memory [M-H]): other inputs wet 0.006 (0.001-0.011), dry 0.005 (0-0.011); aggregated 0.010 (0.001-0.018); synthetic wet 0.016 (0.013-0.019); flooded rice 0.004 (0-0.029) [M-L]', () => {
     c.value('n2o-mineralisation', 'ef1/wet', 0.006, 'kg N2O-N/kg N', range(0.001, 0.011), 'unconfirmed');
     c.value('n2o-mineralisation', 'ef1/dry', 0.005, 'kg N2O-N/kg N', range(0, 0.011), 'unconfirmed');
-    c.value('n2o-mineralisation', 'ef1/aggregated', 0.010, 'kg N2O-N/kg N', range(0.001, 0.018), 'unconfirmed');
+    c.value('n2o-mineralisation', 'ef1/aggregated', 0.01, 'kg N2O-N/kg N', range(0.001, 0.018), 'unconfirmed');
     c.value('n2o-mineralisation', 'ef1/synthetic-wet', 0.016, 'kg N2O-N/kg N', range(0.013, 0.019), 'unconfirmed');
     c.value('n2o-mineralisation', 'ef1/flooded-rice', 0.004, 'kg N2O-N/kg N', range(0, 0.029), 'unconfirmed');
   });

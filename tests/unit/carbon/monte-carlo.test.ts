@@ -1,11 +1,20 @@
 import { describe, expect, it } from 'vitest';
-import { IPCC_2006, IPCC_2019, buildPlan, estimateLandUseChange, estimateRequestSchema, runMonteCarlo } from '~/lib/carbon';
+import {
+  IPCC_2006,
+  IPCC_2019,
+  buildPlan,
+  estimateLandUseChange,
+  estimateRequestSchema,
+  runMonteCarlo,
+} from '~/lib/carbon';
 import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
 import { drawTruncated, percentile, spreadOf } from '~/lib/carbon/sampling';
 
 // IPCC Approach 2 (2006 IPCC Guidelines Vol 1 Ch 3, Monte Carlo simulation; from memory).
 const base = {
-  climate: 'cool-temperate-moist', soils: [{ type: 'hac', fraction: 1 }], areaHa: 10,
+  climate: 'cool-temperate-moist',
+  soils: [{ type: 'hac', fraction: 1 }],
+  areaHa: 10,
   before: { landUse: 'grassland', management: 'nominal', input: 'medium' },
   after: { landUse: 'cropland', system: 'long-term-cultivated', tillage: 'full', input: 'medium' },
 } as const;
@@ -22,14 +31,30 @@ describe('Monte Carlo uncertainty', () => {
   });
 
   it('defaults to 1000 runs, seed 1, when asked with {}', () => {
-    expect(estimateLandUseChange(req({ uncertainty: {} }), IPCC_2006).uncertainty).toMatchObject({ runs: 1000, seed: 1 });
+    expect(estimateLandUseChange(req({ uncertainty: {} }), IPCC_2006).uncertainty).toMatchObject({
+      runs: 1000,
+      seed: 1,
+    });
     expect(estimateLandUseChange(req(), IPCC_2006).uncertainty).toBeUndefined();
   });
 
   for (const [name, extra, set] of [
     ['loss, 2006', {}, IPCC_2006],
-    ['loss with organic soil, 2006', { soils: [{ type: 'hac', fraction: 0.5 }, { type: 'organic', fraction: 0.5 }] }, IPCC_2006],
-    ['gain, 2006', { before: base.after, after: { landUse: 'grassland', management: 'improved', input: 'high' } }, IPCC_2006],
+    [
+      'loss with organic soil, 2006',
+      {
+        soils: [
+          { type: 'hac', fraction: 0.5 },
+          { type: 'organic', fraction: 0.5 },
+        ],
+      },
+      IPCC_2006,
+    ],
+    [
+      'gain, 2006',
+      { before: base.after, after: { landUse: 'grassland', management: 'improved', input: 'high' } },
+      IPCC_2006,
+    ],
     ['loss, 2019', { climate: 'tropical-moist' }, IPCC_2019],
   ] as const) {
     it(`the 95% range contains the point estimate (${name})`, () => {
@@ -42,7 +67,10 @@ describe('Monte Carlo uncertainty', () => {
   it('more runs narrow the sampling noise of the percentile estimates (seeds 1..20, 200 vs 5000 runs)', () => {
     const r = req();
     const plan = buildPlan(r, IPCC_2006);
-    const sd = (xs: number[]) => { const m = xs.reduce((s, x) => s + x, 0) / xs.length; return Math.sqrt(xs.reduce((s, x) => s + (x - m) ** 2, 0) / (xs.length - 1)); };
+    const sd = (xs: number[]) => {
+      const m = xs.reduce((s, x) => s + x, 0) / xs.length;
+      return Math.sqrt(xs.reduce((s, x) => s + (x - m) ** 2, 0) / (xs.length - 1));
+    };
     const spreadAt = (runs: number) => {
       const mc = Array.from({ length: 20 }, (_, i) => runMonteCarlo(plan, r.areaHa, r.transitionYears, runs, i + 1));
       return { low: sd(mc.map((m) => m.co2eLow)), high: sd(mc.map((m) => m.co2eHigh)) };
@@ -61,7 +89,10 @@ describe('Monte Carlo uncertainty', () => {
     expect(mc.samples).toHaveLength(5000);
     expect(mc.samples.every(Number.isFinite)).toBe(true);
     // sd of SOC_REF 95 with ±90% as 2 SD = 42.75; as a 95% CI half-width it would be 43.62.
-    expect(spreadOf(95, { kind: 'percent', plusMinusPercent: 90, basis: 'two-sd' })).toEqual({ below: 42.75, above: 42.75 });
+    expect(spreadOf(95, { kind: 'percent', plusMinusPercent: 90, basis: 'two-sd' })).toEqual({
+      below: 42.75,
+      above: 42.75,
+    });
     expect(spreadOf(95, { kind: 'percent', plusMinusPercent: 90, basis: 'ci95' })!.below).toBeCloseTo(43.622, 3);
     // Asymmetric range (EF1 0.01, 0.003-0.03): two-piece normal, 1.96 sd to each end.
     const ef1 = spreadOf(0.01, { kind: 'range', low: 0.003, high: 0.03, basis: 'ci95' })!;

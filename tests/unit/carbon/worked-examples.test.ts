@@ -15,7 +15,14 @@ describe('hand-worked examples (tests/fixtures/worked-examples.ts)', () => {
     expect(WORKED_EXAMPLES.some((w) => w.expected.co2eTotal > 0)).toBe(true);
     expect(WORKED_EXAMPLES.some((w) => w.expected.co2eTotal < 0)).toBe(true);
     expect(new Set(reqs.map((r) => r.gwp))).toEqual(new Set(['ar4', 'ar5', 'ar6']));
-    for (const c of ['cool-temperate-moist', 'cool-temperate-dry', 'tropical-moist', 'tropical-dry', 'tropical-montane', 'boreal-moist'])
+    for (const c of [
+      'cool-temperate-moist',
+      'cool-temperate-dry',
+      'tropical-moist',
+      'tropical-dry',
+      'tropical-montane',
+      'boreal-moist',
+    ])
       expect(reqs.some((r) => r.climate === c)).toBe(true);
     expect(reqs.some((r) => r.soils.length > 1)).toBe(true);
     expect(reqs.some((r) => r.soils.some((s) => s.type === 'organic'))).toBe(true);
@@ -62,20 +69,32 @@ describe('result details', () => {
 
   it('lists every value used with its source and status (we1)', () => {
     const keys = run('we1-warm-temperate-moist-loss-ar5').factors.map((f) => f.key);
-    expect(keys).toEqual(expect.arrayContaining([
-      'soc-ref/warm-temperate-moist/hac', 'cropland-stock-factors/f-lu/long-term-cultivated/temperate-boreal-moist',
-      'grassland-stock-factors/f-mg/nominal/temperate-boreal-moist', 'grassland-biomass/total/warm-temperate-wet',
-      'carbon-fraction/herbaceous', 'cropland-biomass/annual/all', 'n2o-mineralisation/cn-ratio/land-use-change',
-      'n2o-mineralisation/ef1/wet', 'n2o-mineralisation/frac-leach', 'n2o-mineralisation/ef5', 'gwp/ar5/n2o',
-      'constant/c-to-co2', 'constant/n2o-n-to-n2o',
-    ]));
+    expect(keys).toEqual(
+      expect.arrayContaining([
+        'soc-ref/warm-temperate-moist/hac',
+        'cropland-stock-factors/f-lu/long-term-cultivated/temperate-boreal-moist',
+        'grassland-stock-factors/f-mg/nominal/temperate-boreal-moist',
+        'grassland-biomass/total/warm-temperate-wet',
+        'carbon-fraction/herbaceous',
+        'cropland-biomass/annual/all',
+        'n2o-mineralisation/cn-ratio/land-use-change',
+        'n2o-mineralisation/ef1/wet',
+        'n2o-mineralisation/frac-leach',
+        'n2o-mineralisation/ef5',
+        'gwp/ar5/n2o',
+        'constant/c-to-co2',
+        'constant/n2o-n-to-n2o',
+      ]),
+    );
     // The peak above-ground column of Table 6.4 is never the one used.
     expect(keys.some((k) => k.includes('above-ground'))).toBe(false);
   });
 
   it('names each unchecked value once, in words and grouped by table, and keeps the three standing cautions', () => {
     const r = run('we1-warm-temperate-moist-loss-ar5');
-    expect(r.cautions.slice(0, 3).join(' ')).toMatch(/Tier 1.*site survey or soil sampling.*local law and to licensed professionals/s);
+    expect(r.cautions.slice(0, 3).join(' ')).toMatch(
+      /Tier 1.*site survey or soil sampling.*local law and to licensed professionals/s,
+    );
     const unchecked = r.cautions.filter((c) => c.startsWith('Values not yet checked'));
     expect(unchecked).toHaveLength(1);
     for (const f of r.factors.filter((x) => x.status === 'unconfirmed')) {
@@ -99,7 +118,9 @@ describe('result details', () => {
   it('uses the set-aside F_LU for annual cropland converted to grassland (we7)', () => {
     const r = run('we7-cropland-back-to-grassland-ar6');
     expect(r.factors.map((f) => f.key)).toContain('cropland-stock-factors/f-lu/set-aside/temperate-boreal-dry');
-    expect(r.factors.map((f) => f.key)).not.toContain('grassland-stock-factors/f-lu/all-permanent/temperate-boreal-dry');
+    expect(r.factors.map((f) => f.key)).not.toContain(
+      'grassland-stock-factors/f-lu/all-permanent/temperate-boreal-dry',
+    );
   });
 
   it('mineral trajectory is flat after D when there is no organic soil', () => {

@@ -27,36 +27,100 @@ describe('what breaks the sward', () => {
     expect(swardBroken('tillage', 'harrowing')).toBeNull();
     expect(swardBroken('tillage', null)).toBeNull();
     expect(swardBroken('reseeding', 'overseeding')).toBeNull();
-    for (const grass of ['grassland', 'meadow', 'pasture', 'temporary-grassland', 'rough-grazing']) expect(swardBroken('land-use', grass)).toBeNull();
+    for (const grass of ['grassland', 'meadow', 'pasture', 'temporary-grassland', 'rough-grazing'])
+      expect(swardBroken('land-use', grass)).toBeNull();
   });
 });
 
-const ring = [[-16.5, 28.1], [-16.49, 28.1], [-16.49, 28.11], [-16.5, 28.11], [-16.5, 28.1]];
+const ring = [
+  [-16.5, 28.1],
+  [-16.49, 28.1],
+  [-16.49, 28.11],
+  [-16.5, 28.11],
+  [-16.5, 28.1],
+];
 const credited: RegisterContent = registerContentSchema.parse({
-  kind: 'decision', proposal: { reference: 'P-2024-0042', title: 'Spring cereals', proposedUse: 'cropland', startYear: 2024 },
-  parcels: [{ reference: 'CM-0001', areaHa: 3.2, part: false, geometry: { type: 'MultiPolygon', coordinates: [[ring]] } }], areaHa: 3.2, region: 'fenbrook',
-  outcome: 'approved', reasons: 'Weighed.', conditions: [], figures: { co2eTotal: 900, co2eLow: 700, co2eHigh: 1100, socChangeTotal: -200, runs: 1000, gwp: 'ar5', unit: 't CO2e' },
-  risk: { level: 2, label: 'Moderate' }, factorSet: { id: 'ipcc-2006', version: 1 }, ruleSet: null, assessment: { number: 1 }, meeting: null, votes: null,
-  appealUntil: '2024-02-01', effectiveDate: '2024-02-02', decidedOn: '2024-01-04', recordedAt: '2024-01-04T10:00:00.000Z', supersedes: null, note: null,
+  kind: 'decision',
+  proposal: { reference: 'P-2024-0042', title: 'Spring cereals', proposedUse: 'cropland', startYear: 2024 },
+  parcels: [
+    { reference: 'CM-0001', areaHa: 3.2, part: false, geometry: { type: 'MultiPolygon', coordinates: [[ring]] } },
+  ],
+  areaHa: 3.2,
+  region: 'fenbrook',
+  outcome: 'approved',
+  reasons: 'Weighed.',
+  conditions: [],
+  figures: {
+    co2eTotal: 900,
+    co2eLow: 700,
+    co2eHigh: 1100,
+    socChangeTotal: -200,
+    runs: 1000,
+    gwp: 'ar5',
+    unit: 't CO2e',
+  },
+  risk: { level: 2, label: 'Moderate' },
+  factorSet: { id: 'ipcc-2006', version: 1 },
+  ruleSet: null,
+  assessment: { number: 1 },
+  meeting: null,
+  votes: null,
+  appealUntil: '2024-02-01',
+  effectiveDate: '2024-02-02',
+  decidedOn: '2024-01-04',
+  recordedAt: '2024-01-04T10:00:00.000Z',
+  supersedes: null,
+  note: null,
   compensation: { parcelReference: 'CM-0002', areaHa: 4.1, creditedCo2e: 245.045, permanenceUntil: '2029-02-02' },
 });
 
 describe('the reversal entry', () => {
   const content = reversalContent({
     credited: { seq: 1, content: credited },
-    parcel: { reference: 'CM-0002', areaHa: 4.12345, part: false, geometry: { type: 'MultiPolygon', coordinates: [[ring.map(([x, y]) => [x! + 0.02, y!])]] } },
-    creditedCo2e: 245.0449, creditedSocT: 60.06084, permanenceUntil: '2029-02-02', event: { date: '2025-12-02', what: 'ploughing' }, recordedAt: '2026-12-02T17:00:00.000Z',
+    parcel: {
+      reference: 'CM-0002',
+      areaHa: 4.12345,
+      part: false,
+      geometry: { type: 'MultiPolygon', coordinates: [[ring.map(([x, y]) => [x! + 0.02, y!])]] },
+    },
+    creditedCo2e: 245.0449,
+    creditedSocT: 60.06084,
+    permanenceUntil: '2029-02-02',
+    event: { date: '2025-12-02', what: 'ploughing' },
+    recordedAt: '2026-12-02T17:00:00.000Z',
   });
 
   it('is valid register content naming the entry it reverses, not superseding it', () => {
     expect(registerContentSchema.parse(content)).toEqual(content);
-    expect(content).toMatchObject({ kind: 'compensation-reversed', supersedes: null, outcome: 'approved', meeting: null, votes: null });
-    expect(content.reverses).toEqual({ seq: 1, parcelReference: 'CM-0002', creditedCo2e: 245.045, eventDate: '2025-12-02', permanenceUntil: '2029-02-02', budgetYear: 2025 });
-    expect(content.figures).toMatchObject({ co2eTotal: 245.045, co2eLow: 245.045, co2eHigh: 245.045, socChangeTotal: -60.061, runs: 0 });
+    expect(content).toMatchObject({
+      kind: 'compensation-reversed',
+      supersedes: null,
+      outcome: 'approved',
+      meeting: null,
+      votes: null,
+    });
+    expect(content.reverses).toEqual({
+      seq: 1,
+      parcelReference: 'CM-0002',
+      creditedCo2e: 245.045,
+      eventDate: '2025-12-02',
+      permanenceUntil: '2029-02-02',
+      budgetYear: 2025,
+    });
+    expect(content.figures).toMatchObject({
+      co2eTotal: 245.045,
+      co2eLow: 245.045,
+      co2eHigh: 245.045,
+      socChangeTotal: -60.061,
+      runs: 0,
+    });
     expect(content.parcels.map((p) => p.reference)).toEqual(['CM-0002']);
     // RFC 7946 section 3.1.6: exterior rings counter-clockwise, as in every register entry.
     const r = content.parcels[0]!.geometry.coordinates[0]![0]!;
-    const twiceArea = r.reduce((s, p, i) => { const q = r[(i + 1) % r.length]!; return s + p[0]! * q[1]! - q[0]! * p[1]!; }, 0);
+    const twiceArea = r.reduce((s, p, i) => {
+      const q = r[(i + 1) % r.length]!;
+      return s + p[0]! * q[1]! - q[0]! * p[1]!;
+    }, 0);
     expect(twiceArea).toBeGreaterThan(0);
   });
 

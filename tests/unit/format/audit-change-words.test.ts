@@ -4,7 +4,12 @@ import { changeLines, fieldWords, valueWords } from '~/lib/audit/change-words';
 // The "field: before → after" reading of a change record is common practice for audit trails.
 describe('audit change words', () => {
   it('pairs before and after per field', () => {
-    expect(changeLines({ before: { roles: ['planner'], status: 'active' }, after: { roles: ['planner', 'assessor'], status: 'active' } })).toEqual([
+    expect(
+      changeLines({
+        before: { roles: ['planner'], status: 'active' },
+        after: { roles: ['planner', 'assessor'], status: 'active' },
+      }),
+    ).toEqual([
       { field: 'Roles', before: 'planner', after: 'planner, assessor' },
       { field: 'Status', before: 'active', after: 'active' },
     ]);

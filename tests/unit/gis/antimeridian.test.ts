@@ -19,7 +19,13 @@ function karneyAreaM2(ring: number[][]): number {
 }
 
 // About 2 km × 1.1 km on the antimeridian near 16.5° S (an invented parcel).
-const ring = [[179.99, -16.5], [-179.99, -16.5], [-179.99, -16.49], [179.99, -16.49], [179.99, -16.5]];
+const ring = [
+  [179.99, -16.5],
+  [-179.99, -16.5],
+  [-179.99, -16.49],
+  [179.99, -16.49],
+  [179.99, -16.5],
+];
 
 describe('antimeridian', () => {
   it('cuts a crossing ring into two parts at ±180° with the area kept', () => {
@@ -41,13 +47,30 @@ describe('antimeridian', () => {
       expect(f!.status).toBe('repaired');
       expect(f!.issues[0]!.code).toBe('antimeridian-split');
       expect(f!.geometry!.coordinates).toHaveLength(2);
-      expect(f!.areaHa! * 10_000 / karneyAreaM2(ring)).toBeCloseTo(1, 6);
+      expect((f!.areaHa! * 10_000) / karneyAreaM2(ring)).toBeCloseTo(1, 6);
     }
   });
 
   it('leaves parcels elsewhere alone, including ones near but not across 180°', () => {
-    const near = [[179.9, -16.5], [179.99, -16.5], [179.99, -16.49], [179.9, -16.5]];
+    const near = [
+      [179.9, -16.5],
+      [179.99, -16.5],
+      [179.99, -16.49],
+      [179.9, -16.5],
+    ];
     expect(crossesAntimeridian({ type: 'Polygon', coordinates: [near] })).toBe(false);
-    expect(crossesAntimeridian({ type: 'Polygon', coordinates: [[[-16, 52], [-15.9, 52], [-15.9, 52.1], [-16, 52]]] })).toBe(false);
+    expect(
+      crossesAntimeridian({
+        type: 'Polygon',
+        coordinates: [
+          [
+            [-16, 52],
+            [-15.9, 52],
+            [-15.9, 52.1],
+            [-16, 52],
+          ],
+        ],
+      }),
+    ).toBe(false);
   });
 });

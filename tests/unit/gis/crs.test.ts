@@ -62,7 +62,11 @@ describe('reprojection against proj4 itself', () => {
     );
     const crs = await crsFromPrj(ESRI_BNG_PRJ);
     expect(crs.epsg).toBe(27700);
-    for (const p of [[651409.903, 313177.27], [325000, 673000], [530000, 180000]]) {
+    for (const p of [
+      [651409.903, 313177.27],
+      [325000, 673000],
+      [530000, 180000],
+    ]) {
       const ours = toWgs84(p, crs);
       const theirs = direct.forward(p);
       expect(Math.abs(ours[0]! - theirs[0]!) * 111_320 * Math.cos((ours[1]! * Math.PI) / 180)).toBeLessThan(0.01);
@@ -73,7 +77,12 @@ describe('reprojection against proj4 itself', () => {
   it('UTM zone: a polygon reprojected from EPSG:32628 matches proj4 vertex by vertex', async () => {
     const crs = await crsFromEpsg(32628);
     const direct = proj4('+proj=utm +zone=28 +datum=WGS84 +units=m', 'EPSG:4326');
-    const ring = [[430000, 5805000], [430500, 5805000], [430500, 5805400], [430000, 5805000]];
+    const ring = [
+      [430000, 5805000],
+      [430500, 5805000],
+      [430500, 5805400],
+      [430000, 5805000],
+    ];
     const out = reproject({ type: 'Polygon', coordinates: [ring] }, crs);
     out.coordinates[0]!.forEach((p, i) => {
       const q = direct.forward(ring[i]!);
@@ -110,11 +119,15 @@ describe('crsFromPrj and the EPSG catalogue', () => {
   });
 
   it('rejects an unreadable .prj with a clear message', async () => {
-    await expect(crsFromPrj('this is not WKT')).rejects.toThrow(/coordinate reference system "unnamed CRS from \.prj" cannot be read/);
+    await expect(crsFromPrj('this is not WKT')).rejects.toThrow(
+      /coordinate reference system "unnamed CRS from \.prj" cannot be read/,
+    );
   });
 
   it('rejects unknown EPSG codes and non-2D kinds', async () => {
-    await expect(crsFromEpsg(999999)).rejects.toThrow('EPSG:999999 is not a projected or geographic CRS known to this app.');
+    await expect(crsFromEpsg(999999)).rejects.toThrow(
+      'EPSG:999999 is not a projected or geographic CRS known to this app.',
+    );
     await expect(crsFromEpsg(5701)).rejects.toThrow(/EPSG:5701 is not/); // a vertical CRS
   });
 

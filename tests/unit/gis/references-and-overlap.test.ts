@@ -24,14 +24,22 @@ describe('parcel references', () => {
     expect(referenceProblem('TAR\u200B-0012')).toMatch(/invisible or text-direction control character \(U\+200B\)/);
     expect(referenceProblem('TAR-\u202E2100')).toMatch(/U\+202E/);
     expect(referenceProblem('TAR-\u00AD12')).toMatch(/U\+00AD/); // soft hyphen, category Cf
-    expect(referenceProblem('\u0422AR-0012')).toBe('Parcel reference "\u0422AR-0012" mixes Latin and Cyrillic letters, which look alike; use letters of one alphabet.');
+    expect(referenceProblem('\u0422AR-0012')).toBe(
+      'Parcel reference "\u0422AR-0012" mixes Latin and Cyrillic letters, which look alike; use letters of one alphabet.',
+    );
     expect(referenceProblem('TAR-0012')).toBeNull();
     expect(referenceProblem('\u0422\u0410\u0420-12')).toBeNull(); // one script (Cyrillic) is allowed
   });
 });
 
 describe('land-use values and dates at the mapping step', () => {
-  const m = parcelMappingSchema.parse({ reference: 'ref', landUse: 'use', management: 'man', grassSince: 'grass', lastTillageDate: '2010-04-01' });
+  const m = parcelMappingSchema.parse({
+    reference: 'ref',
+    landUse: 'use',
+    management: 'man',
+    grassSince: 'grass',
+    lastTillageDate: '2010-04-01',
+  });
   const today = '2026-12-02';
 
   it('accepts the values of the events route, or their labels, and refuses anything else', () => {
@@ -40,15 +48,21 @@ describe('land-use values and dates at the mapping step', () => {
     expect(readChoice('grass-ish', 'land-use').bad).toBe(true);
     const r = mapParcelFeature({ ref: 'P-1', use: 'permanent pasture', man: 'burnt' }, m, today);
     expect(r.issues.map((i) => i.code)).toEqual(['bad-land-use', 'bad-management']);
-    expect(r.issues[0]!.message).toMatch(/^Land use "permanent pasture" \(column "use"\) is not on the list; use one of: grassland, /);
+    expect(r.issues[0]!.message).toMatch(
+      /^Land use "permanent pasture" \(column "use"\) is not on the list; use one of: grassland, /,
+    );
   });
 
   it('reads "in grass since" per parcel and one tillage date for the file; refuses future dates and contradictions', () => {
     const r = mapParcelFeature({ ref: 'P-1', use: 'pasture', grass: '2012-05-01' }, m, today);
     expect(r.fields).toMatchObject({ landUse: 'pasture', grassSince: '2012-05-01', lastTillage: '2010-04-01' });
     expect(r.issues).toEqual([]);
-    expect(mapParcelFeature({ ref: 'P-2', grass: '2031-01-01' }, m, today).issues[0]!.message).toBe('In grass since 2031-01-01 (column "grass") lies in the future (today is 2026-12-02).');
-    expect(mapParcelFeature({ ref: 'P-3', use: 'arable', grass: '2012-05-01' }, m, today).issues.map((i) => i.code)).toEqual(['history-contradiction']);
+    expect(mapParcelFeature({ ref: 'P-2', grass: '2031-01-01' }, m, today).issues[0]!.message).toBe(
+      'In grass since 2031-01-01 (column "grass") lies in the future (today is 2026-12-02).',
+    );
+    expect(
+      mapParcelFeature({ ref: 'P-3', use: 'arable', grass: '2012-05-01' }, m, today).issues.map((i) => i.code),
+    ).toEqual(['history-contradiction']);
     const fileDate = parcelMappingSchema.parse({ reference: 'ref', grassSinceDate: '2015-03-01' });
     expect(mapParcelFeature({ ref: 'P-4' }, fileDate, today).fields.grassSince).toBe('2015-03-01');
   });
@@ -58,8 +72,18 @@ describe('overlap rules', () => {
   const t = { maxShare: 0.02, maxM2: 100, nearDuplicateShare: 0.05 };
   // Two 1 ha squares (100 m × 100 m); arithmetic from the definitions in overlap.ts.
   it('a 48 % overlap is an error naming both parcels and the area', () => {
-    const issue = overlapIssue({ areaAM2: 10_000, areaBM2: 10_000, overlapM2: 4_800 }, t, 'Feature 2 (B)', 'feature 1 (A)');
-    expect(issue).toEqual({ code: 'overlap', severity: 'error', message: 'Feature 2 (B) overlaps feature 1 (A) by 4800.0 m² (48.0 % of the smaller parcel), more than the tolerance of 2.0 % and 100.0 m².' });
+    const issue = overlapIssue(
+      { areaAM2: 10_000, areaBM2: 10_000, overlapM2: 4_800 },
+      t,
+      'Feature 2 (B)',
+      'feature 1 (A)',
+    );
+    expect(issue).toEqual({
+      code: 'overlap',
+      severity: 'error',
+      message:
+        'Feature 2 (B) overlaps feature 1 (A) by 4800.0 m² (48.0 % of the smaller parcel), more than the tolerance of 2.0 % and 100.0 m².',
+    });
   });
 
   it('a 15 m shift overlaps by 85 % and is an error; a 0.5 m shift is a near-duplicate', () => {
@@ -70,7 +94,9 @@ describe('overlap rules', () => {
 
   it('a sliver along a shared edge is a warning; touching edges are nothing', () => {
     // 100 m edge digitised 0.5 m apart: 50 m², 0.5 % of the smaller parcel.
-    expect(overlapIssue({ areaAM2: 10_000, areaBM2: 20_000, overlapM2: 50 }, t, 'Feature 2', 'feature 1')!.severity).toBe('warning');
+    expect(
+      overlapIssue({ areaAM2: 10_000, areaBM2: 20_000, overlapM2: 50 }, t, 'Feature 2', 'feature 1')!.severity,
+    ).toBe('warning');
     // Large parcels: 600 m² along a 400 m edge is 0.4 % of 15 ha, still below the share.
     expect(classifyOverlap({ areaAM2: 150_000, areaBM2: 160_000, overlapM2: 600 }, t)!.kind).toBe('overlap-minor');
     expect(classifyOverlap({ areaAM2: 10_000, areaBM2: 10_000, overlapM2: 0.2 }, t)).toBeNull();

@@ -33,10 +33,28 @@ describe('parseShapefileZip: well-formed input', () => {
     expect(layer!.features).toHaveLength(2);
     expect(layer!.features[0]!.geometry).toEqual({
       type: 'Polygon',
-      coordinates: [[[430000, 5805000], [430100, 5805000], [430100, 5805100], [430000, 5805100], [430000, 5805000]]],
+      coordinates: [
+        [
+          [430000, 5805000],
+          [430100, 5805000],
+          [430100, 5805100],
+          [430000, 5805100],
+          [430000, 5805000],
+        ],
+      ],
     });
-    expect(layer!.features[1]!.properties).toEqual({ field_ref: 'T-2', name: 'Søvrinholt', stated_ha: 0.96, last_till: null });
-    expect(layer!.columns.map((c) => [c.name, c.kind])).toEqual([['field_ref', 'text'], ['name', 'text'], ['stated_ha', 'number'], ['last_till', 'date']]);
+    expect(layer!.features[1]!.properties).toEqual({
+      field_ref: 'T-2',
+      name: 'Søvrinholt',
+      stated_ha: 0.96,
+      last_till: null,
+    });
+    expect(layer!.columns.map((c) => [c.name, c.kind])).toEqual([
+      ['field_ref', 'text'],
+      ['name', 'text'],
+      ['stated_ha', 'number'],
+      ['last_till', 'date'],
+    ]);
     expect(layer!.columns[3]!.samples).toEqual(['2019-03-04']);
   });
 
@@ -49,9 +67,15 @@ describe('parseShapefileZip: well-formed input', () => {
   });
 
   it('reads several layers from one zip, sorted by path', async () => {
-    const entries = [...layerEntries('b_second', sampleFiles()), ...layerEntries('a_first', sampleFiles({ prj: null }))];
+    const entries = [
+      ...layerEntries('b_second', sampleFiles()),
+      ...layerEntries('a_first', sampleFiles({ prj: null })),
+    ];
     const layers = await parseShapefileZip(zipOf(entries), LIMITS);
-    expect(layers.map((l) => [l.name, l.prjWkt === null])).toEqual([['a_first', true], ['b_second', false]]);
+    expect(layers.map((l) => [l.name, l.prjWkt === null])).toEqual([
+      ['a_first', true],
+      ['b_second', false],
+    ]);
   });
 
   it('falls back to windows-1252 when there is no .cpg and the DBF is not UTF-8', async () => {
@@ -69,7 +93,9 @@ describe('parseShapefileZip: well-formed input', () => {
   });
 
   it('reads the committed demo zip: 303 features in EPSG:32628', async () => {
-    const bytes = new Uint8Array(readFileSync(new URL('../../../gis/demo/corrowmere-parcels-utm28n.zip', import.meta.url)));
+    const bytes = new Uint8Array(
+      readFileSync(new URL('../../../gis/demo/corrowmere-parcels-utm28n.zip', import.meta.url)),
+    );
     const [layer] = await parseShapefileZip(bytes, { maxUncompressedBytes: 50_000_000, maxEntries: 100 });
     expect(layer!.features).toHaveLength(303);
     expect(layer!.prjWkt).toMatch(/AUTHORITY\["EPSG","32628"\]\]$/);
@@ -80,7 +106,11 @@ describe('parseShapefileZip: hostile and broken files', () => {
   const good = sampleFiles();
 
   it('rejects bytes that are not a zip (wrong magic bytes)', async () => {
-    await rejects(new TextEncoder().encode('{"type":"FeatureCollection","features":[]}'), 'not-a-zip', /not a zip archive \(wrong magic bytes/);
+    await rejects(
+      new TextEncoder().encode('{"type":"FeatureCollection","features":[]}'),
+      'not-a-zip',
+      /not a zip archive \(wrong magic bytes/,
+    );
   });
 
   it('rejects a path-traversal entry name', async () => {
@@ -89,12 +119,20 @@ describe('parseShapefileZip: hostile and broken files', () => {
   });
 
   it('rejects an absolute entry name', async () => {
-    await rejects(zipOf(layerEntries('/tmp/parcels', good)), 'unsafe-entry-name', /unsafe entry name "\/tmp\/parcels\.shp"/);
+    await rejects(
+      zipOf(layerEntries('/tmp/parcels', good)),
+      'unsafe-entry-name',
+      /unsafe entry name "\/tmp\/parcels\.shp"/,
+    );
   });
 
   it('rejects more entries than allowed', async () => {
     const many = Array.from({ length: 25 }, (_, i) => ({ name: `note-${i}.txt`, data: new Uint8Array([65]) }));
-    await rejects(zipOf([...layerEntries('p', good), ...many], false), 'too-many-entries', /holds 30 entries; at most 20 are allowed/);
+    await rejects(
+      zipOf([...layerEntries('p', good), ...many], false),
+      'too-many-entries',
+      /holds 30 entries; at most 20 are allowed/,
+    );
   });
 
   it('stops inflating a zip bomb at the cap, quickly', async () => {
@@ -102,12 +140,19 @@ describe('parseShapefileZip: hostile and broken files', () => {
     const bomb = zipOf([...layerEntries('p', good, { dbf: zeros })]);
     expect(bomb.length).toBeLessThan(200_000);
     const started = performance.now();
-    await rejects(bomb, 'uncompressed-too-large', /expands to more than the allowed 5000000 bytes \(stopped at "p\.dbf"\); it may be a zip bomb/);
+    await rejects(
+      bomb,
+      'uncompressed-too-large',
+      /expands to more than the allowed 5000000 bytes \(stopped at "p\.dbf"\); it may be a zip bomb/,
+    );
     expect(performance.now() - started).toBeLessThan(3_000);
   });
 
   it('counts stored (uncompressed) entries against the same cap', async () => {
-    await rejects(zipOf(layerEntries('p', good), false), 'uncompressed-too-large', /allowed 300 bytes/, { maxUncompressedBytes: 300, maxEntries: 10 });
+    await rejects(zipOf(layerEntries('p', good), false), 'uncompressed-too-large', /allowed 300 bytes/, {
+      maxUncompressedBytes: 300,
+      maxEntries: 10,
+    });
   });
 
   it('rejects damaged compressed data', async () => {
@@ -117,7 +162,11 @@ describe('parseShapefileZip: hostile and broken files', () => {
   });
 
   it('rejects a zip without any .shp, listing what it found', async () => {
-    await rejects(zipOf(layerEntries('parcels', good, { shp: null })), 'no-shapefile', /contains no \.shp file \(found only parcels\.\*\)/);
+    await rejects(
+      zipOf(layerEntries('parcels', good, { shp: null })),
+      'no-shapefile',
+      /contains no \.shp file \(found only parcels\.\*\)/,
+    );
   });
 
   it('rejects a layer without .dbf or .shx', async () => {
@@ -126,12 +175,20 @@ describe('parseShapefileZip: hostile and broken files', () => {
   });
 
   it('rejects a truncated .shp', async () => {
-    await rejects(zipOf(layerEntries('p', good, { shp: good.shp.subarray(0, good.shp.length - 50) })), 'bad-shp', /p\.shp is truncated: the header declares \d+ bytes but only \d+ are present/);
+    await rejects(
+      zipOf(layerEntries('p', good, { shp: good.shp.subarray(0, good.shp.length - 50) })),
+      'bad-shp',
+      /p\.shp is truncated: the header declares \d+ bytes but only \d+ are present/,
+    );
   });
 
   it('rejects a .shp with wrong magic bytes', async () => {
     const shp = withBytes(good.shp, (v) => v.setInt32(0, 1234, false));
-    await rejects(zipOf(layerEntries('p', good, { shp })), 'bad-shp', /p\.shp is not a shapefile component \(wrong magic bytes/);
+    await rejects(
+      zipOf(layerEntries('p', good, { shp })),
+      'bad-shp',
+      /p\.shp is not a shapefile component \(wrong magic bytes/,
+    );
   });
 
   it('rejects a .shp record whose part count does not fit its bytes', async () => {
@@ -142,11 +199,19 @@ describe('parseShapefileZip: hostile and broken files', () => {
   it('rejects a truncated .shx and an .shx that disagrees with the .shp', async () => {
     await rejects(zipOf(layerEntries('p', good, { shx: good.shx.subarray(0, 104) })), 'bad-shx', /p\.shx is truncated/);
     const shx = withBytes(good.shx, (v) => v.setInt32(100, 77, false));
-    await rejects(zipOf(layerEntries('p', good, { shx })), 'inconsistent-parts', /p\.shx entry 1 does not match record 1/);
+    await rejects(
+      zipOf(layerEntries('p', good, { shx })),
+      'inconsistent-parts',
+      /p\.shx entry 1 does not match record 1/,
+    );
   });
 
   it('rejects a truncated .dbf', async () => {
-    await rejects(zipOf(layerEntries('p', good, { dbf: good.dbf.subarray(0, good.dbf.length - 30) })), 'bad-dbf', /p\.dbf is truncated or its header is corrupt: it declares 2 records/);
+    await rejects(
+      zipOf(layerEntries('p', good, { dbf: good.dbf.subarray(0, good.dbf.length - 30) })),
+      'bad-dbf',
+      /p\.dbf is truncated or its header is corrupt: it declares 2 records/,
+    );
   });
 
   it('rejects a corrupt .dbf header with a huge record count, without reading records', async () => {
@@ -158,24 +223,40 @@ describe('parseShapefileZip: hostile and broken files', () => {
 
   it('rejects a .dbf with wrong magic bytes', async () => {
     const dbf = withBytes(good.dbf, (_, b) => (b[0] = 0x99));
-    await rejects(zipOf(layerEntries('p', good, { dbf })), 'bad-dbf', /not a dBase table \(wrong magic bytes: version byte 0x99\)/);
+    await rejects(
+      zipOf(layerEntries('p', good, { dbf })),
+      'bad-dbf',
+      /not a dBase table \(wrong magic bytes: version byte 0x99\)/,
+    );
   });
 
   it('rejects a .dbf whose row count differs from the shape count', async () => {
     const one = sampleFiles();
     const dbf = withBytes(one.dbf, (v) => v.setUint32(4, 1, true));
-    await rejects(zipOf(layerEntries('p', good, { dbf })), 'inconsistent-parts', /p\.shp holds 2 shapes but p\.dbf holds 1 rows/);
+    await rejects(
+      zipOf(layerEntries('p', good, { dbf })),
+      'inconsistent-parts',
+      /p\.shp holds 2 shapes but p\.dbf holds 1 rows/,
+    );
   });
 
   it('rejects a .cpg naming an unknown encoding', async () => {
     const cpg = new TextEncoder().encode('KLINGON-7');
-    await rejects(zipOf(layerEntries('p', good, { cpg })), 'unreadable-encoding', /names the encoding "KLINGON-7", which cannot be read/);
+    await rejects(
+      zipOf(layerEntries('p', good, { cpg })),
+      'unreadable-encoding',
+      /names the encoding "KLINGON-7", which cannot be read/,
+    );
   });
 
   it('rejects a DBF declared UTF-8 whose bytes are not UTF-8', async () => {
     const latin = sampleFiles({ encoding: 'windows-1252', names: ['Müller', 'Ærø'] });
     const cpg = new TextEncoder().encode('UTF-8');
-    await rejects(zipOf(layerEntries('p', latin, { cpg })), 'unreadable-encoding', /p\.dbf is declared UTF-8 by its \.cpg but contains bytes that are not valid UTF-8/);
+    await rejects(
+      zipOf(layerEntries('p', latin, { cpg })),
+      'unreadable-encoding',
+      /p\.dbf is declared UTF-8 by its \.cpg but contains bytes that are not valid UTF-8/,
+    );
   });
 });
 

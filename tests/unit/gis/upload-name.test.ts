@@ -10,7 +10,9 @@ describe('upload names', () => {
     expect(uploadName('.zip')).toBe('.zip');
   });
   it('adds the day it was saved', () => {
-    expect(uploadLabel('corrowmere-parcels-noprj.zip', '2026-12-02T21:25:00Z')).toBe('Corrowmere parcels noprj, uploaded 2 Dec 2026');
+    expect(uploadLabel('corrowmere-parcels-noprj.zip', '2026-12-02T21:25:00Z')).toBe(
+      'Corrowmere parcels noprj, uploaded 2 Dec 2026',
+    );
     expect(uploadLabel('a.zip', null)).toBe('A');
   });
 });

@@ -6,7 +6,13 @@ import { crsFromEpsg } from '~/lib/gis/crs-catalogue.server';
 import { validateFeatures, type FeatureToValidate } from '~/lib/gis/validate';
 
 /** About 111 m × 111 m at 52°N (0.0016° lon × 0.001° lat), anticlockwise and closed. */
-const field = (lon = -16, lat = 52.4): Position[] => [[lon, lat], [lon + 0.0016, lat], [lon + 0.0016, lat + 0.001], [lon, lat + 0.001], [lon, lat]];
+const field = (lon = -16, lat = 52.4): Position[] => [
+  [lon, lat],
+  [lon + 0.0016, lat],
+  [lon + 0.0016, lat + 0.001],
+  [lon, lat + 0.001],
+  [lon, lat],
+];
 const poly = (...rings: Position[][]): Geometry => ({ type: 'Polygon', coordinates: rings });
 const one = (f: FeatureToValidate, options = {}) => validateFeatures([f], options).features[0]!;
 const codes = (f: { issues: { code: string }[] }) => f.issues.map((i) => i.code);
@@ -43,7 +49,13 @@ describe('validateFeatures: geometry', () => {
   });
 
   it('rejects a too-short ring', () => {
-    const r = one({ geometry: poly([[0, 0], [0.001, 0], [0, 0]]) });
+    const r = one({
+      geometry: poly([
+        [0, 0],
+        [0.001, 0],
+        [0, 0],
+      ]),
+    });
     expect(r.status).toBe('rejected');
     expect(r.issues[0]!.message).toBe('The outer ring has 2 distinct points; a ring needs at least 3.');
   });
@@ -71,14 +83,21 @@ describe('validateFeatures: geometry', () => {
   });
 
   it('rejects coordinates outside ±180/±90 and outside the source CRS area of use', async () => {
-    expect(one({ geometry: poly(field(200, 52)) }).issues[0]!.message).toMatch(/Coordinate \(200, 52\) is not a valid longitude\/latitude/);
+    expect(one({ geometry: poly(field(200, 52)) }).issues[0]!.message).toMatch(
+      /Coordinate \(200, 52\) is not a valid longitude\/latitude/,
+    );
     const utm28 = await crsFromEpsg(32628);
     const r = one({ geometry: poly(field(10, 52)) }, { sourceCrs: utm28 });
     expect(r.issues[0]!.message).toMatch(/outside the area of use of WGS 84 \/ UTM zone 28N \(EPSG:32628\)/);
   });
 
   it('rejects slivers below the configured area', () => {
-    const tiny = [[-16, 52.4], [-16 + 0.00005, 52.4], [-16, 52.40004], [-16, 52.4]];
+    const tiny = [
+      [-16, 52.4],
+      [-16 + 0.00005, 52.4],
+      [-16, 52.40004],
+      [-16, 52.4],
+    ];
     expect(codes(one({ geometry: poly(tiny) }))).toEqual(['sliver']);
     expect(one({ geometry: poly(tiny) }, { minAreaM2: 1 }).status).toBe('ok');
   });
@@ -93,9 +112,17 @@ describe('validateFeatures: duplicates and stated area', () => {
       { geometry: poly(rotated), reference: 'CM-3' },
     ]);
     expect(report.features.map((f) => f.status)).toEqual(['ok', 'rejected', 'rejected']);
-    expect(report.features[1]!.issues[0]!.message).toBe('Parcel reference "cm-1" is also used by feature 1 as "CM-1" (the same once case, width and look-alike letters are set aside).');
+    expect(report.features[1]!.issues[0]!.message).toBe(
+      'Parcel reference "cm-1" is also used by feature 1 as "CM-1" (the same once case, width and look-alike letters are set aside).',
+    );
     expect(report.features[2]!.issues[0]!.message).toBe('Same geometry as feature 1.');
-    expect(report.summary).toEqual({ total: 3, ok: 1, repaired: 0, rejected: 2, byCode: { 'duplicate-reference': 1, 'duplicate-geometry': 1 } });
+    expect(report.summary).toEqual({
+      total: 3,
+      ok: 1,
+      repaired: 0,
+      rejected: 2,
+      byCode: { 'duplicate-reference': 1, 'duplicate-geometry': 1 },
+    });
   });
 
   it('tolerance is 1.25 m × perimeter capped at 1 ha (Implementing Reg. (EU) 809/2014 Art. 38(4))', () => {
@@ -116,10 +143,15 @@ describe('validateFeatures: duplicates and stated area', () => {
     const m = measureGeometry(poly(field()) as never);
     const tol = areaToleranceM2(m.perimeterM);
     const inside = one({ geometry: poly(field()), statedArea: { value: (m.areaM2 + 0.9 * tol) / 10_000, unit: 'ha' } });
-    const outside = one({ geometry: poly(field()), statedArea: { value: (m.areaM2 - 1.1 * tol) / 1_000, unit: 'decares' } });
+    const outside = one({
+      geometry: poly(field()),
+      statedArea: { value: (m.areaM2 - 1.1 * tol) / 1_000, unit: 'decares' },
+    });
     expect(inside.status).toBe('ok');
     expect(outside.status).toBe('rejected');
-    expect(outside.issues[0]!.message).toMatch(/^Stated area [\d.]+ decares \([\d.]+ ha\) differs from the measured [\d.]+ ha by more than the tolerance of [\d.]+ ha\.$/);
+    expect(outside.issues[0]!.message).toMatch(
+      /^Stated area [\d.]+ decares \([\d.]+ ha\) differs from the measured [\d.]+ ha by more than the tolerance of [\d.]+ ha\.$/,
+    );
   });
 
   it('can report an area mismatch as a warning instead', () => {

@@ -14,7 +14,10 @@ describe('zip and dbf writers', () => {
   });
 
   it('writes zips that read back byte for byte, and identically each time', async () => {
-    const entries = [{ name: 'a/b.txt', data: new TextEncoder().encode('hello') }, { name: 'c.bin', data: new Uint8Array([0, 1, 2]) }];
+    const entries = [
+      { name: 'a/b.txt', data: new TextEncoder().encode('hello') },
+      { name: 'c.bin', data: new Uint8Array([0, 1, 2]) },
+    ];
     const zip = createZip(entries);
     expect(createZip(entries)).toEqual(zip);
     const read = await readZipEntries(zip, { maxUncompressedBytes: 100, maxEntries: 5 }, () => true);
@@ -28,10 +31,17 @@ describe('zip and dbf writers', () => {
       { name: 'till', type: 'D' as const, length: 8 },
       { name: 'grazed', type: 'L' as const, length: 1 },
     ];
-    const rows = [{ ref: 'Ærø-1', ha: 12.345, till: '2001-12-31', grazed: true }, { ref: null, ha: null, till: null, grazed: null }];
+    const rows = [
+      { ref: 'Ærø-1', ha: 12.345, till: '2001-12-31', grazed: true },
+      { ref: null, ha: null, till: null, grazed: null },
+    ];
     const dbf = writeDbf(fields, rows);
     expect(readDbfRecords(dbf, readDbfHeader(dbf, 't.dbf'), 'utf-8')).toEqual(rows);
-    expect(() => writeDbf([{ name: 'stated_area_ha', type: 'N', length: 5 }], [])).toThrow(/must be 1-10 ASCII letters/);
-    expect(() => writeDbf([{ name: 'ha', type: 'N', length: 3 }], [{ ha: 12345 }])).toThrow('Value 12345 does not fit DBF field ha (3 characters).');
+    expect(() => writeDbf([{ name: 'stated_area_ha', type: 'N', length: 5 }], [])).toThrow(
+      /must be 1-10 ASCII letters/,
+    );
+    expect(() => writeDbf([{ name: 'ha', type: 'N', length: 3 }], [{ ha: 12345 }])).toThrow(
+      'Value 12345 does not fit DBF field ha (3 characters).',
+    );
   });
 });

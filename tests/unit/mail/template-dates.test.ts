@@ -10,7 +10,16 @@ describe('mail dates', () => {
     expect(m.text).not.toMatch(/\d{4}-\d{2}-\d{2}/);
   });
   it('writes effective, appeal and condition dates in the one format', () => {
-    const m = boardDecisionMail({ ...ref, name: 'Tomas', outcome: 'approved-with-conditions', reasons: 'Fine.', conditions: [{ text: 'Hedge kept.', dueDate: '2027-03-01', checkedBy: 'Office' }], appealUntil: '2027-02-12', effectiveDate: '2027-01-15', registerSeq: 3 });
+    const m = boardDecisionMail({
+      ...ref,
+      name: 'Tomas',
+      outcome: 'approved-with-conditions',
+      reasons: 'Fine.',
+      conditions: [{ text: 'Hedge kept.', dueDate: '2027-03-01', checkedBy: 'Office' }],
+      appealUntil: '2027-02-12',
+      effectiveDate: '2027-01-15',
+      registerSeq: 3,
+    });
     expect(m.text).toContain('(due 1 Mar 2027; checked by Office)');
     expect(m.text).toContain('Effective from 15 Jan 2027. An appeal may be lodged until 12 Feb 2027;');
   });

@@ -25,7 +25,10 @@ describe('the baseline facts', () => {
 });
 
 describe('sensitive-grassland (GAEC 9, any area: share > 0)', () => {
-  it('does not fire at share 0', () => expect(fired(facts({ parcels: [parcel({ sensitive: { share: 0, areaHa: 0 } })] }))).not.toContain('sensitive-grassland'));
+  it('does not fire at share 0', () =>
+    expect(fired(facts({ parcels: [parcel({ sensitive: { share: 0, areaHa: 0 } })] }))).not.toContain(
+      'sensitive-grassland',
+    ));
   it('fires just past 0 as a level-4 gate', () => {
     const g = grade(facts({ parcels: [parcel({ sensitive: { share: 0.0001, areaHa: 0.00015 } })] }));
     expect(g.level).toBe(4);
@@ -35,11 +38,14 @@ describe('sensitive-grassland (GAEC 9, any area: share > 0)', () => {
 });
 
 describe('region-ratio-fall (GAEC 1: more than 5 % relative fall)', () => {
-  it('does not fire below 5 %', () => expect(fired(facts({ regions: [region({ relativeFallAfter: 0.049 })] }))).not.toContain('region-ratio-fall'));
+  it('does not fire below 5 %', () =>
+    expect(fired(facts({ regions: [region({ relativeFallAfter: 0.049 })] }))).not.toContain('region-ratio-fall'));
   it('does not fire at exactly 5 %, nor at 5 % with float noise', () => {
     expect(fired(facts({ regions: [region({ relativeFallAfter: 0.05 })] }))).not.toContain('region-ratio-fall');
     // (0.6 - 0.57) / 0.6 in floating point is 0.05000000000000002: still "exactly 5 %".
-    expect(fired(facts({ regions: [region({ ratioAfter: 0.57, relativeFallAfter: (0.6 - 0.57) / 0.6 })] }))).not.toContain('region-ratio-fall');
+    expect(
+      fired(facts({ regions: [region({ ratioAfter: 0.57, relativeFallAfter: (0.6 - 0.57) / 0.6 })] })),
+    ).not.toContain('region-ratio-fall');
   });
   it('fires just past 5 % as a level-4 gate with the region and its figures', () => {
     const g = grade(facts({ regions: [region({ ratioAfter: 0.56994, relativeFallAfter: 0.0501 })] }));
@@ -52,22 +58,36 @@ describe('region-ratio-fall (GAEC 1: more than 5 % relative fall)', () => {
     expect(r.citation).toMatch(/GAEC 1.*2022\/126.*Art\. 5/);
   });
   it('a region without a reference ratio is listed as undecided, not guessed', () => {
-    const g = grade(facts({ regions: [region({ referenceRatio: null, referenceYear: null, relativeFallAfter: null })] }));
+    const g = grade(
+      facts({ regions: [region({ referenceRatio: null, referenceYear: null, relativeFallAfter: null })] }),
+    );
     expect(g.level).toBe(1);
     expect(g.undecided?.map((u) => u.rule)).toContain('region-ratio-fall');
   });
 });
 
 describe('holding-cumulative-2ha (SI 2006/2522: 2 ha or more, added up over 5 years)', () => {
-  it('does not fire at 1.99 ha', () => expect(fired(facts({ holdings: [holding({ cumulativeHa: 1.99, thisProposalHa: 1.99 })] }))).not.toContain('holding-cumulative-2ha'));
+  it('does not fire at 1.99 ha', () =>
+    expect(fired(facts({ holdings: [holding({ cumulativeHa: 1.99, thisProposalHa: 1.99 })] }))).not.toContain(
+      'holding-cumulative-2ha',
+    ));
   it('fires at exactly 2.0 ha, level 3', () => {
     const g = grade(facts({ holdings: [holding({ cumulativeHa: 2, thisProposalHa: 2 })] }));
     expect(g.level).toBe(3);
     expect(g.reasons.map((r) => r.rule)).toEqual(['holding-cumulative-2ha']);
   });
-  it('fires just past 2 ha', () => expect(fired(facts({ holdings: [holding({ cumulativeHa: 2.01, thisProposalHa: 2.01 })] }))).toContain('holding-cumulative-2ha'));
+  it('fires just past 2 ha', () =>
+    expect(fired(facts({ holdings: [holding({ cumulativeHa: 2.01, thisProposalHa: 2.01 })] }))).toContain(
+      'holding-cumulative-2ha',
+    ));
   it('catches a split conversion on the second proposal (1.2 ha earlier + 0.9 ha now)', () => {
-    const g = grade(facts({ holdings: [holding({ thisProposalHa: 0.9, earlierHa: 1.2, cumulativeHa: 2.1, earlierReferences: ['PR-2026-0003'] })] }));
+    const g = grade(
+      facts({
+        holdings: [
+          holding({ thisProposalHa: 0.9, earlierHa: 1.2, cumulativeHa: 2.1, earlierReferences: ['PR-2026-0003'] }),
+        ],
+      }),
+    );
     const r = g.reasons.find((x) => x.rule === 'holding-cumulative-2ha')!;
     expect(r.text).toContain('0.9 ha');
     expect(r.text).toContain('1.2 ha');
@@ -79,22 +99,40 @@ describe('holding-cumulative-2ha (SI 2006/2522: 2 ha or more, added up over 5 ye
 });
 
 describe('never-tilled (level 3)', () => {
-  it('does not fire when neither the flag nor the layer says so', () => expect(fired(facts({ parcels: [parcel({ flags: { permanentGrassland: true, uncultivated: true, neverTilled: null } })] }))).not.toContain('never-tilled'));
+  it('does not fire when neither the flag nor the layer says so', () =>
+    expect(
+      fired(
+        facts({ parcels: [parcel({ flags: { permanentGrassland: true, uncultivated: true, neverTilled: null } })] }),
+      ),
+    ).not.toContain('never-tilled'));
   it('fires on the flag', () => {
-    const g = grade(facts({ parcels: [parcel({ flags: { permanentGrassland: true, uncultivated: true, neverTilled: true } })] }));
+    const g = grade(
+      facts({ parcels: [parcel({ flags: { permanentGrassland: true, uncultivated: true, neverTilled: true } })] }),
+    );
     expect(g.level).toBe(3);
     expect(g.reasons[0]!.text).toContain('CM-0101');
   });
-  it('fires just past a layer share of 0', () => expect(fired(facts({ parcels: [parcel({ neverTilledLayer: { share: 0.0001, areaHa: 0.00015 } })] }))).toContain('never-tilled'));
+  it('fires just past a layer share of 0', () =>
+    expect(fired(facts({ parcels: [parcel({ neverTilledLayer: { share: 0.0001, areaHa: 0.00015 } })] }))).toContain(
+      'never-tilled',
+    ));
 });
 
 describe('steep-slope (class "steep", level 3)', () => {
   it('does not fire on other classes or at share 0', () => {
-    expect(fired(facts({ parcels: [parcel({ slope: { moderate: { share: 1, areaHa: 1.5 } } })] }))).not.toContain('steep-slope');
-    expect(fired(facts({ parcels: [parcel({ slope: { steep: { share: 0, areaHa: 0 } } })] }))).not.toContain('steep-slope');
+    expect(fired(facts({ parcels: [parcel({ slope: { moderate: { share: 1, areaHa: 1.5 } } })] }))).not.toContain(
+      'steep-slope',
+    );
+    expect(fired(facts({ parcels: [parcel({ slope: { steep: { share: 0, areaHa: 0 } } })] }))).not.toContain(
+      'steep-slope',
+    );
   });
   it('fires just past share 0 of a steep class', () => {
-    const g = grade(facts({ parcels: [parcel({ slope: { steep: { share: 0.2, areaHa: 0.3 }, gentle: { share: 0.8, areaHa: 1.2 } } })] }));
+    const g = grade(
+      facts({
+        parcels: [parcel({ slope: { steep: { share: 0.2, areaHa: 0.3 }, gentle: { share: 0.8, areaHa: 1.2 } } })],
+      }),
+    );
     expect(g.level).toBe(3);
     expect(g.reasons[0]!.text).toMatch(/0\.3 ha \(20 %\) of CM-0101 is in slope class "steep"/);
   });

@@ -21,12 +21,28 @@ export function parcel(over: Partial<ParcelFacts> = {}): ParcelFacts {
   };
 }
 
-export function facts(over: { parcels?: ParcelFacts[]; totals?: Partial<GradeFacts['totals']>; regions?: GradeFacts['regions']; holdings?: GradeFacts['holdings']; budget?: Partial<GradeFacts['budget']> } = {}): GradeFacts {
+export function facts(
+  over: {
+    parcels?: ParcelFacts[];
+    totals?: Partial<GradeFacts['totals']>;
+    regions?: GradeFacts['regions'];
+    holdings?: GradeFacts['holdings'];
+    budget?: Partial<GradeFacts['budget']>;
+  } = {},
+): GradeFacts {
   return {
     proposalReference: 'PR-2026-0007',
     converts: true,
     parcels: over.parcels ?? [parcel()],
-    totals: { areaHa: 1.5, socLossPerHa: 5, socLossShare: 0.06, co2eTotal: 30, co2eHigh: 45, permanentGrasslandConvertedHa: 1.5, ...over.totals },
+    totals: {
+      areaHa: 1.5,
+      socLossPerHa: 5,
+      socLossShare: 0.06,
+      co2eTotal: 30,
+      co2eHigh: 45,
+      permanentGrasslandConvertedHa: 1.5,
+      ...over.totals,
+    },
     regions: over.regions ?? [region()],
     holdings: over.holdings ?? [holding()],
     budget: { year: 2026, budgetT: 10_000, committedT: 2_000, proposalShare: 0.003, ...over.budget },
@@ -34,9 +50,29 @@ export function facts(over: { parcels?: ParcelFacts[]; totals?: Partial<GradeFac
 }
 
 export function region(over: Partial<GradeFacts['regions'][number]> = {}): GradeFacts['regions'][number] {
-  return { key: 'north-vale', label: 'North Vale', agriculturalHa: 400, permanentGrasslandHa: 240, ratioNow: 0.6, ratioAfter: 0.59625, referenceRatio: 0.6, referenceYear: 2018, relativeFallAfter: 0.00625, convertedHa: 1.5, ...over };
+  return {
+    key: 'north-vale',
+    label: 'North Vale',
+    agriculturalHa: 400,
+    permanentGrasslandHa: 240,
+    ratioNow: 0.6,
+    ratioAfter: 0.59625,
+    referenceRatio: 0.6,
+    referenceYear: 2018,
+    relativeFallAfter: 0.00625,
+    convertedHa: 1.5,
+    ...over,
+  };
 }
 
 export function holding(over: Partial<GradeFacts['holdings'][number]> = {}): GradeFacts['holdings'][number] {
-  return { ownerRef: OWNER, windowYears: 5, thisProposalHa: 1.5, earlierHa: 0, cumulativeHa: 1.5, earlierReferences: [], ...over };
+  return {
+    ownerRef: OWNER,
+    windowYears: 5,
+    thisProposalHa: 1.5,
+    earlierHa: 0,
+    cumulativeHa: 1.5,
+    earlierReferences: [],
+    ...over,
+  };
 }

@@ -1,13 +1,24 @@
 /** How a grade is formed (gates first, highest level, no averaging), what reasons say, the schema, the levels and the diff. */
 import { describe, expect, it } from 'vitest';
-import { diffRuleSets, gradeProposal, holdingWindowYears, levelInfo, RISK_LEVELS, ruleSetDocumentSchema, TARROW_SCREENING, type RuleSetDocument } from '~/lib/rules';
+import {
+  diffRuleSets,
+  gradeProposal,
+  holdingWindowYears,
+  levelInfo,
+  RISK_LEVELS,
+  ruleSetDocumentSchema,
+  TARROW_SCREENING,
+  type RuleSetDocument,
+} from '~/lib/rules';
 import { facts, holding, OWNER, parcel, region } from './facts-builder';
 
 const REF = { id: 'tarrow-screening', version: 1 };
 
 describe('gates beat averages', () => {
   it('a sliver of sensitive grassland on one parcel of ten sets level 4 although every figure is low', () => {
-    const parcels = Array.from({ length: 10 }, (_, i) => parcel({ parcelId: i + 1, reference: `CM-${String(i + 200)}`, areaHa: 10 }));
+    const parcels = Array.from({ length: 10 }, (_, i) =>
+      parcel({ parcelId: i + 1, reference: `CM-${String(i + 200)}`, areaHa: 10 }),
+    );
     parcels[7] = { ...parcels[7]!, sensitive: { share: 0.002, areaHa: 0.02 } };
     const g = gradeProposal(facts({ parcels, totals: { areaHa: 100, socLossPerHa: 1 } }), TARROW_SCREENING, REF);
     expect(g.level).toBe(4);
@@ -17,14 +28,22 @@ describe('gates beat averages', () => {
   });
 
   it('several level-2 rules do not add up to level 3: the grade is the highest level', () => {
-    const g = gradeProposal(facts({ totals: { socLossPerHa: 12, co2eTotal: 800 }, budget: { proposalShare: 0.2 } }), TARROW_SCREENING, REF);
+    const g = gradeProposal(
+      facts({ totals: { socLossPerHa: 12, co2eTotal: 800 }, budget: { proposalShare: 0.2 } }),
+      TARROW_SCREENING,
+      REF,
+    );
     expect(g.reasons.map((r) => r.rule).sort()).toEqual(['budget-share-10', 'co2e-500', 'soc-loss-10']);
     expect(g.level).toBe(2);
   });
 
   it('gate reasons come first, then threshold rules in set order', () => {
     const g = gradeProposal(
-      facts({ totals: { socLossPerHa: 30 }, parcels: [parcel({ sensitive: { share: 0.5, areaHa: 0.75 } })], regions: [region({ relativeFallAfter: 0.08, ratioAfter: 0.552 })] }),
+      facts({
+        totals: { socLossPerHa: 30 },
+        parcels: [parcel({ sensitive: { share: 0.5, areaHa: 0.75 } })],
+        regions: [region({ relativeFallAfter: 0.08, ratioAfter: 0.552 })],
+      }),
       TARROW_SCREENING,
       REF,
     );
@@ -38,7 +57,11 @@ describe('gates beat averages', () => {
 
   it('gates are evaluated first wherever the set lists them', () => {
     const doc = ruleSetDocumentSchema.parse({ ...TARROW_SCREENING, rules: [...TARROW_SCREENING.rules].reverse() });
-    const g = gradeProposal(facts({ parcels: [parcel({ sensitive: { share: 0.1, areaHa: 0.15 } })], totals: { co2eTotal: 3000 } }), doc, REF);
+    const g = gradeProposal(
+      facts({ parcels: [parcel({ sensitive: { share: 0.1, areaHa: 0.15 } })], totals: { co2eTotal: 3000 } }),
+      doc,
+      REF,
+    );
     expect(g.level).toBe(4);
     expect(g.reasons[0]!.rule).toBe('sensitive-grassland');
   });
@@ -48,8 +71,16 @@ describe('reasons', () => {
   it('carry figures and citations and never the holding reference', () => {
     const g = gradeProposal(
       facts({
-        parcels: [parcel({ sensitive: { share: 0.25, areaHa: 0.375 }, flags: { permanentGrassland: true, uncultivated: true, neverTilled: true }, slope: { steep: { share: 0.4, areaHa: 0.6 } } })],
-        holdings: [holding({ thisProposalHa: 1.5, earlierHa: 0.8, cumulativeHa: 2.3, earlierReferences: ['PR-2026-0002'] })],
+        parcels: [
+          parcel({
+            sensitive: { share: 0.25, areaHa: 0.375 },
+            flags: { permanentGrassland: true, uncultivated: true, neverTilled: true },
+            slope: { steep: { share: 0.4, areaHa: 0.6 } },
+          }),
+        ],
+        holdings: [
+          holding({ thisProposalHa: 1.5, earlierHa: 0.8, cumulativeHa: 2.3, earlierReferences: ['PR-2026-0002'] }),
+        ],
         totals: { socLossPerHa: 31.4, co2eTotal: 2500 },
         budget: { proposalShare: 0.3 },
         regions: [region({ relativeFallAfter: 0.07, ratioAfter: 0.558 })],
@@ -75,7 +106,19 @@ describe('the rule-set document', () => {
   const clone = (): RuleSetDocument => JSON.parse(JSON.stringify(TARROW_SCREENING));
   it('the shipped set has the rule ids the other parts rely on', () => {
     expect(TARROW_SCREENING.id).toBe('tarrow-screening');
-    expect(TARROW_SCREENING.rules.map((r) => r.id)).toEqual(['sensitive-grassland', 'region-ratio-fall', 'holding-cumulative-2ha', 'never-tilled', 'steep-slope', 'soc-loss-10', 'soc-loss-25', 'co2e-500', 'co2e-2000', 'budget-share-10', 'budget-share-25']);
+    expect(TARROW_SCREENING.rules.map((r) => r.id)).toEqual([
+      'sensitive-grassland',
+      'region-ratio-fall',
+      'holding-cumulative-2ha',
+      'never-tilled',
+      'steep-slope',
+      'soc-loss-10',
+      'soc-loss-25',
+      'co2e-500',
+      'co2e-2000',
+      'budget-share-10',
+      'budget-share-25',
+    ]);
     expect(holdingWindowYears(TARROW_SCREENING)).toBe(5);
   });
   it('refuses a gate below level 4', () => {
@@ -113,7 +156,10 @@ describe('diff', () => {
     const b: RuleSetDocument = JSON.parse(JSON.stringify(TARROW_SCREENING));
     const h = b.rules.find((r) => r.id === 'holding-cumulative-2ha')!;
     // Same params with keys in another order: not a change.
-    (b.rules.find((r) => r.id === 'co2e-500') as { params: unknown }).params = { basis: 'central', aboveTonnesCo2e: 500 };
+    (b.rules.find((r) => r.id === 'co2e-500') as { params: unknown }).params = {
+      basis: 'central',
+      aboveTonnesCo2e: 500,
+    };
     (h as { params: unknown }).params = { atLeastHa: 2, windowYears: 7 };
     b.rules = b.rules.filter((r) => r.id !== 'budget-share-25');
     b.rules.push({ ...b.rules[0]!, id: 'sensitive-any-use' });

@@ -23,7 +23,9 @@ describe('regionFacts', () => {
   it('exactly 12 ha converted is exactly 5 %: not past the limit', () => {
     const r = regionFacts(fig, { ratio: 0.6, referenceYear: 2018 }, 12); // 228 / 400 = 0.57; (0.6 - 0.57) / 0.6 = 5 %
     expect(r.relativeFallAfter).toBeCloseTo(0.05, 12);
-    expect(gradeProposal(facts({ regions: [r] }), TARROW_SCREENING, { id: 'tarrow-screening', version: 1 }).level).toBe(1);
+    expect(gradeProposal(facts({ regions: [r] }), TARROW_SCREENING, { id: 'tarrow-screening', version: 1 }).level).toBe(
+      1,
+    );
   });
 
   it('area leaving agriculture shrinks the denominator; no reference gives no fall', () => {

@@ -50,7 +50,8 @@ export function writeDbf(
   encoding: DbfTextEncoding = 'utf-8',
 ): Uint8Array {
   for (const f of fields) {
-    if (!/^[A-Za-z_][A-Za-z0-9_]{0,9}$/.test(f.name)) throw new Error(`DBF field name "${f.name}" must be 1-10 ASCII letters, digits or _.`);
+    if (!/^[A-Za-z_][A-Za-z0-9_]{0,9}$/.test(f.name))
+      throw new Error(`DBF field name "${f.name}" must be 1-10 ASCII letters, digits or _.`);
   }
   const headerLength = 32 + 32 * fields.length + 1;
   const recordLength = 1 + fields.reduce((s, f) => s + f.length, 0);
@@ -77,7 +78,8 @@ export function writeDbf(
     for (const f of fields) {
       out.fill(0x20, at, at + f.length);
       const text = formatValue(f, row[f.name] ?? null);
-      if (f.type === 'N' && text.length > f.length) throw new Error(`Value ${text} does not fit DBF field ${f.name} (${f.length} characters).`);
+      if (f.type === 'N' && text.length > f.length)
+        throw new Error(`Value ${text} does not fit DBF field ${f.name} (${f.length} characters).`);
       const bytes = encodeText(text, encoding, f.length);
       // Numbers are right-aligned, everything else left-aligned (dBASE convention).
       out.set(bytes, f.type === 'N' ? at + f.length - bytes.length : at);

@@ -38,7 +38,7 @@ function partsOf(geometry: Polygon | MultiPolygon): Ring[] {
   const polygons = geometry.type === 'Polygon' ? [geometry.coordinates] : geometry.coordinates;
   // Shapefile winding: exterior clockwise (negative shoelace), holes counter-clockwise.
   return polygons.flatMap((rings) =>
-    rings.map((ring, i) => ((ringSignedArea2(ring) < 0) === (i === 0) ? ring : [...ring].reverse())),
+    rings.map((ring, i) => (ringSignedArea2(ring) < 0 === (i === 0) ? ring : [...ring].reverse())),
   );
 }
 
@@ -89,7 +89,10 @@ function writeMainHeader(v: DataView, lengthBytes: number, box: [number, number,
   box.forEach((n, i) => v.setFloat64(36 + 8 * i, n, true));
 }
 
-export function writePolygonShapefile(features: ShapefileWriteFeature[], options: ShapefileWriteOptions): ShapefileFiles {
+export function writePolygonShapefile(
+  features: ShapefileWriteFeature[],
+  options: ShapefileWriteOptions,
+): ShapefileFiles {
   const contents = features.map((f) => recordContent(f.geometry));
   const shpLength = HEADER_BYTES + contents.reduce((s, c) => s + 8 + c.length, 0);
   const shp = new Uint8Array(shpLength);
@@ -113,7 +116,11 @@ export function writePolygonShapefile(features: ShapefileWriteFeature[], options
   return {
     shp,
     shx,
-    dbf: writeDbf(options.fields, features.map((f) => f.properties), encoding),
+    dbf: writeDbf(
+      options.fields,
+      features.map((f) => f.properties),
+      encoding,
+    ),
     cpg: new TextEncoder().encode(encoding === 'utf-8' ? 'UTF-8' : '1252'),
     prj: options.prjWkt === null ? null : new TextEncoder().encode(options.prjWkt),
   };

@@ -45,7 +45,12 @@ export function createZip(entries: ZipEntryInput[], options: ZipWriteOptions = {
     const deflated = options.deflateRaw?.(entry.data);
     const useDeflate = deflated !== undefined && deflated.length < entry.data.length;
     const body = useDeflate ? deflated : entry.data;
-    const fields = { method: useDeflate ? 8 : 0, crc: crc32(entry.data), size: body.length, rawSize: entry.data.length };
+    const fields = {
+      method: useDeflate ? 8 : 0,
+      crc: crc32(entry.data),
+      size: body.length,
+      rawSize: entry.data.length,
+    };
     const local = new Uint8Array(30 + name.length);
     const lv = new DataView(local.buffer);
     lv.setUint32(0, 0x04034b50, true);

@@ -31,21 +31,31 @@ function isKnownVersion(v: number): boolean {
 
 /** Checks a .dbf header and field list against the file size. Throws GisInputError('bad-dbf'). */
 export function readDbfHeader(bytes: Uint8Array, file: string): DbfHeader {
-  if (bytes.byteLength < 33) throw new GisInputError('bad-dbf', `${file} is truncated: ${bytes.byteLength} bytes, shorter than a dBase header.`);
+  if (bytes.byteLength < 33)
+    throw new GisInputError('bad-dbf', `${file} is truncated: ${bytes.byteLength} bytes, shorter than a dBase header.`);
   const dv = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
   if (!isKnownVersion(bytes[0]!)) {
-    throw new GisInputError('bad-dbf', `${file} is not a dBase table (wrong magic bytes: version byte 0x${bytes[0]!.toString(16)}).`);
+    throw new GisInputError(
+      'bad-dbf',
+      `${file} is not a dBase table (wrong magic bytes: version byte 0x${bytes[0]!.toString(16)}).`,
+    );
   }
   const records = dv.getUint32(4, true);
   const headerLength = dv.getUint16(8, true);
   const recordLength = dv.getUint16(10, true);
   if (headerLength < 33 || headerLength > bytes.byteLength) {
-    throw new GisInputError('bad-dbf', `${file} has a corrupt header: header length ${headerLength} does not fit the ${bytes.byteLength}-byte file.`);
+    throw new GisInputError(
+      'bad-dbf',
+      `${file} has a corrupt header: header length ${headerLength} does not fit the ${bytes.byteLength}-byte file.`,
+    );
   }
   const fields = readFields(bytes, headerLength, file);
   const sum = fields.reduce((s, f) => s + f.length, 1);
   if (sum !== recordLength) {
-    throw new GisInputError('bad-dbf', `${file} has a corrupt header: fields add up to ${sum} bytes per record but the header says ${recordLength}.`);
+    throw new GisInputError(
+      'bad-dbf',
+      `${file} has a corrupt header: fields add up to ${sum} bytes per record but the header says ${recordLength}.`,
+    );
   }
   const needed = headerLength + records * recordLength;
   if (needed > bytes.byteLength) {
@@ -61,13 +71,15 @@ function readFields(bytes: Uint8Array, headerLength: number, file: string): DbfF
   const fields: DbfField[] = [];
   let at = DESCRIPTOR_BYTES;
   while (at < headerLength && bytes[at] !== TERMINATOR) {
-    if (at + DESCRIPTOR_BYTES > headerLength) throw new GisInputError('bad-dbf', `${file} has a field descriptor cut off by the header end.`);
+    if (at + DESCRIPTOR_BYTES > headerLength)
+      throw new GisInputError('bad-dbf', `${file} has a field descriptor cut off by the header end.`);
     const rawName = bytes.subarray(at, at + 11);
     const nul = rawName.indexOf(0);
     const name = String.fromCharCode(...rawName.subarray(0, nul === -1 ? 11 : nul)).trim();
     const type = String.fromCharCode(bytes[at + 11]!);
     const length = bytes[at + 16]!;
-    if (!name || length === 0) throw new GisInputError('bad-dbf', `${file} has a corrupt field descriptor (field ${fields.length + 1}).`);
+    if (!name || length === 0)
+      throw new GisInputError('bad-dbf', `${file} has a corrupt field descriptor (field ${fields.length + 1}).`);
     fields.push({ name, type, length });
     at += DESCRIPTOR_BYTES;
   }
@@ -76,14 +88,21 @@ function readFields(bytes: Uint8Array, headerLength: number, file: string): DbfF
 }
 
 /** Reads all records with the given TextDecoder encoding label. Call readDbfHeader first. */
-export function readDbfRecords(bytes: Uint8Array, header: DbfHeader, encoding: string): Record<string, AttributeValue>[] {
+export function readDbfRecords(
+  bytes: Uint8Array,
+  header: DbfHeader,
+  encoding: string,
+): Record<string, AttributeValue>[] {
   const decoder = new TextDecoder(encoding);
   const rows: Record<string, AttributeValue>[] = [];
   for (let r = 0; r < header.records; r++) {
     let at = header.headerLength + r * header.recordLength + 1; // skip the deletion flag
     const row: Record<string, AttributeValue> = {};
     for (const field of header.fields) {
-      const text = decoder.decode(bytes.subarray(at, at + field.length)).replace(/\0/g, '').trim();
+      const text = decoder
+        .decode(bytes.subarray(at, at + field.length))
+        .replace(/\0/g, '')
+        .trim();
       row[field.name] = decodeValue(field.type, text);
       at += field.length;
     }

@@ -47,7 +47,10 @@ export function resolveDbfEncoding(cpg: string | null, records: Uint8Array, dbfN
   if (cpg !== null && cpg.trim() !== '') {
     const label = labelFromCpg(cpg);
     if (!label) {
-      throw new GisInputError('unreadable-encoding', `The .cpg for ${dbfName} names the encoding "${cpg.trim()}", which cannot be read.`);
+      throw new GisInputError(
+        'unreadable-encoding',
+        `The .cpg for ${dbfName} names the encoding "${cpg.trim()}", which cannot be read.`,
+      );
     }
     const canonical = new TextDecoder(label).encoding;
     if (canonical === 'utf-8' && !isValidUtf8(records)) {

@@ -8,7 +8,9 @@ import type { AttributeValue, ColumnInfo, RawFeature } from '../types';
  * Coordinates are WGS 84 lon/lat per RFC 7946 §4; a legacy (2008 spec) "crs" member naming
  * an EPSG code is honoured and reported so the caller can reproject.
  */
-const position = z.array(z.number().refine(Number.isFinite, 'must be a finite number')).min(2, 'a position needs at least x and y');
+const position = z
+  .array(z.number().refine(Number.isFinite, 'must be a finite number'))
+  .min(2, 'a position needs at least x and y');
 const ring = z.array(position);
 
 const simpleGeometry = z.discriminatedUnion('type', [
@@ -61,7 +63,8 @@ function toAttribute(value: unknown): AttributeValue {
 
 export function parseGeoJson(text: string, maxBytes: number = DEFAULT_GEOJSON_MAX_BYTES): GeoJsonLayer {
   const bytes = new TextEncoder().encode(text).length;
-  if (bytes > maxBytes) throw new GisInputError('file-too-large', `The GeoJSON is ${bytes} bytes; at most ${maxBytes} are allowed.`);
+  if (bytes > maxBytes)
+    throw new GisInputError('file-too-large', `The GeoJSON is ${bytes} bytes; at most ${maxBytes} are allowed.`);
   let json: unknown;
   try {
     json = JSON.parse(text);
@@ -76,10 +79,15 @@ export function parseGeoJson(text: string, maxBytes: number = DEFAULT_GEOJSON_MA
   }
   const doc = parsed.data;
   const rawFeatures =
-    doc.type === 'FeatureCollection' ? doc.features : doc.type === 'Feature' ? [doc] : [{ type: 'Feature' as const, geometry: doc, properties: {} }];
+    doc.type === 'FeatureCollection'
+      ? doc.features
+      : doc.type === 'Feature'
+        ? [doc]
+        : [{ type: 'Feature' as const, geometry: doc, properties: {} }];
   const crsName = 'crs' in doc && doc.crs ? doc.crs.properties.name : undefined;
   const epsg = crsName ? epsgFromLegacyCrsName(String(crsName)) : 4326;
-  if (epsg === null) throw new GisInputError('unknown-crs', `The GeoJSON "crs" member "${String(crsName)}" does not name an EPSG code.`);
+  if (epsg === null)
+    throw new GisInputError('unknown-crs', `The GeoJSON "crs" member "${String(crsName)}" does not name an EPSG code.`);
   if (rawFeatures.length === 0) throw new GisInputError('no-features', 'The GeoJSON contains no features.');
   const features: RawFeature[] = rawFeatures.map((f) => ({
     geometry: f.geometry as Geometry | null,
@@ -103,7 +111,8 @@ export function describeProperties(features: RawFeature[]): ColumnInfo[] {
   }
   return [...columns].map(([name, c]) => {
     const only = c.kinds.size === 1 ? [...c.kinds][0] : 'string';
-    const kind: ColumnInfo['kind'] = only === 'number' ? 'number' : only === 'boolean' ? 'boolean' : only === 'date' ? 'date' : 'text';
+    const kind: ColumnInfo['kind'] =
+      only === 'number' ? 'number' : only === 'boolean' ? 'boolean' : only === 'date' ? 'date' : 'text';
     return { name, kind, samples: [...c.samples] };
   });
 }

@@ -74,8 +74,16 @@ export async function parseShapefileZip(bytes: Uint8Array, limits: ZipLimits): P
 function parseLayer(path: string, files: Partial<Record<Part, Uint8Array>>): ShapefileLayer {
   const name = path.split('/').pop() ?? path;
   const shp = files.shp!;
-  if (!files.dbf) throw new GisInputError('missing-part', `Layer "${name}" has no ${name}.dbf attribute table; a shapefile needs .shp, .shx and .dbf.`);
-  if (!files.shx) throw new GisInputError('missing-part', `Layer "${name}" has no ${name}.shx index; a shapefile needs .shp, .shx and .dbf.`);
+  if (!files.dbf)
+    throw new GisInputError(
+      'missing-part',
+      `Layer "${name}" has no ${name}.dbf attribute table; a shapefile needs .shp, .shx and .dbf.`,
+    );
+  if (!files.shx)
+    throw new GisInputError(
+      'missing-part',
+      `Layer "${name}" has no ${name}.shx index; a shapefile needs .shp, .shx and .dbf.`,
+    );
   const summary = checkShp(shp, `${name}.shp`);
   checkShx(files.shx, `${name}.shx`, summary);
   const header = readDbfHeader(files.dbf, `${name}.dbf`);
@@ -86,16 +94,25 @@ function parseLayer(path: string, files: Partial<Record<Part, Uint8Array>>): Sha
     );
   }
   const cpg = files.cpg ? new TextDecoder().decode(files.cpg).trim() : null;
-  const recordBytes = files.dbf.subarray(header.headerLength, header.headerLength + header.records * header.recordLength);
+  const recordBytes = files.dbf.subarray(
+    header.headerLength,
+    header.headerLength + header.records * header.recordLength,
+  );
   const encoding = resolveDbfEncoding(cpg, recordBytes, `${name}.dbf`);
   const rows = readDbfRecords(files.dbf, header, encoding);
   const geometries = readShapes(shp, name);
   if (geometries.length !== rows.length) {
-    throw new GisInputError('bad-shp', `Layer "${name}": only ${geometries.length} of ${rows.length} shapes in ${name}.shp could be read.`);
+    throw new GisInputError(
+      'bad-shp',
+      `Layer "${name}": only ${geometries.length} of ${rows.length} shapes in ${name}.shp could be read.`,
+    );
   }
   if (geometries.length === 0) throw new GisInputError('no-features', `Layer "${name}" contains no features.`);
   // Shapefile outer rings are clockwise by format; convert to RFC 7946 winding here (not a repair).
-  const features: RawFeature[] = geometries.map((geometry, i) => ({ geometry: rewindGeometry(geometry), properties: rows[i]! }));
+  const features: RawFeature[] = geometries.map((geometry, i) => ({
+    geometry: rewindGeometry(geometry),
+    properties: rows[i]!,
+  }));
   return {
     name,
     path,

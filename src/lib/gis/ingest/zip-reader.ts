@@ -62,7 +62,9 @@ async function inflateCapped(raw: Uint8Array, budget: Budget, entry: string): Pr
     }
   } catch (error) {
     if (error instanceof GisInputError) throw error;
-    throw new GisInputError('corrupt-zip', `Zip entry "${entry}" is damaged and cannot be decompressed.`, { cause: error });
+    throw new GisInputError('corrupt-zip', `Zip entry "${entry}" is damaged and cannot be decompressed.`, {
+      cause: error,
+    });
   }
   budget.remaining -= total;
   const out = new Uint8Array(total);
@@ -92,14 +94,22 @@ export async function readZipEntries(
   try {
     entries = [...iter(bytes, () => new Uint8Array(0))];
   } catch (error) {
-    throw new GisInputError('corrupt-zip', 'The zip archive is damaged: its central directory cannot be read.', { cause: error });
+    throw new GisInputError('corrupt-zip', 'The zip archive is damaged: its central directory cannot be read.', {
+      cause: error,
+    });
   }
   if (entries.length > limits.maxEntries) {
-    throw new GisInputError('too-many-entries', `The zip holds ${entries.length} entries; at most ${limits.maxEntries} are allowed.`);
+    throw new GisInputError(
+      'too-many-entries',
+      `The zip holds ${entries.length} entries; at most ${limits.maxEntries} are allowed.`,
+    );
   }
   const unsafe = entries.find((e) => isUnsafeEntryName(e.filename));
   if (unsafe) {
-    throw new GisInputError('unsafe-entry-name', `The zip contains an unsafe entry name "${unsafe.filename}" (absolute path or ".." segment).`);
+    throw new GisInputError(
+      'unsafe-entry-name',
+      `The zip contains an unsafe entry name "${unsafe.filename}" (absolute path or ".." segment).`,
+    );
   }
   const budget: Budget = { remaining: limits.maxUncompressedBytes, maxBytes: limits.maxUncompressedBytes };
   const state = { name: '', inflated: false };
@@ -136,6 +146,10 @@ async function readEntry(entry: { read: () => Promise<Uint8Array> | Uint8Array }
     return await entry.read();
   } catch (error) {
     if (error instanceof GisInputError) throw error;
-    throw new GisInputError('corrupt-zip', `Zip entry "${name}" uses an unsupported compression method or is damaged.`, { cause: error });
+    throw new GisInputError(
+      'corrupt-zip',
+      `Zip entry "${name}" uses an unsupported compression method or is damaged.`,
+      { cause: error },
+    );
   }
 }

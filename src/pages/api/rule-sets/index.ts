@@ -6,5 +6,12 @@ import { cloneRuleSet as clone } from '~/lib/services/rule-sets';
 export const GET = handle(listRuleSets, async () => ({ items: await listRuleSetSummaries() }));
 
 export const POST = handle(cloneRuleSet, async ({ user, body }) =>
-  clone(user, { fromId: body.from.id, fromVersion: body.from.version, id: body.id, title: body.title, description: body.description, reason: body.reason }),
+  clone(user, {
+    fromId: body.from.id,
+    fromVersion: body.from.version,
+    id: body.id,
+    title: body.title,
+    description: body.description,
+    reason: body.reason,
+  }),
 );

@@ -7,6 +7,12 @@ import { queueRunNow } from '~/lib/jobs/queue';
 
 export const POST = handle(runJobNow, async ({ user, params }) => {
   const jobId = await queueRunNow(params.name, user.id);
-  await recordAudit(db, { actorId: user.id, action: 'job.run-now', entityType: 'job', entityId: params.name, details: { jobId } });
+  await recordAudit(db, {
+    actorId: user.id,
+    action: 'job.run-now',
+    entityType: 'job',
+    entityId: params.name,
+    details: { jobId },
+  });
   return json({ jobId, name: params.name }, 202);
 });

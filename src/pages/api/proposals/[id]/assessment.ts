@@ -13,5 +13,8 @@ export const POST = handle(runAssessment, async ({ user, params, body }) => {
   const result = await run(user, params.id, body, phases);
   const text = assessmentAnswerJson(result);
   phases.mark('json');
-  return new Response(text, { status: 200, headers: { 'content-type': 'application/json; charset=utf-8', 'server-timing': phases.header('assess') } });
+  return new Response(text, {
+    status: 200,
+    headers: { 'content-type': 'application/json; charset=utf-8', 'server-timing': phases.header('assess') },
+  });
 });

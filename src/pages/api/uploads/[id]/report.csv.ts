@@ -4,5 +4,11 @@ import { uploadReportCsv as report } from '~/lib/services/upload-validate';
 
 export const GET = handle(uploadReportCsv, async ({ user, params }) => {
   const { fileName, body } = await report(user, params.id);
-  return new Response(body, { headers: { 'content-type': 'text/csv; charset=utf-8', 'content-disposition': `attachment; filename="${fileName}"`, 'cache-control': 'no-store' } });
+  return new Response(body, {
+    headers: {
+      'content-type': 'text/csv; charset=utf-8',
+      'content-disposition': `attachment; filename="${fileName}"`,
+      'cache-control': 'no-store',
+    },
+  });
 });
