@@ -71,7 +71,13 @@ describe('the board pages', () => {
     // Deferred items left by other tests are carried in first; ours keep the order chosen.
     const ours = async () =>
       (await page.locator('article h2').allTextContents())
-        .map((t) => t.replace(/^\d+\. /, '').slice(0, a.reference.length))
+        .map((t) =>
+          t
+            .replace(/\s+/g, ' ')
+            .trim()
+            .replace(/^\d+\. /, '')
+            .slice(0, a.reference.length),
+        )
         .filter((r) => [a.reference, b.reference].includes(r));
     expect(await ours()).toEqual([b.reference, a.reference]);
 
