@@ -22,7 +22,9 @@ export async function up(knex: Knex): Promise<void> {
   // Cc, Cf (zero-width, soft hyphen, BOM, bidi embeddings/overrides/isolates), line/paragraph separators.
   await knex.raw(
     `alter table parcel add constraint parcel_reference_visible_check
-       check (reference !~ '[\\u0000-\\u001f\\u007f-\\u009f\\u00ad\\u0600-\\u0605\\u061c\\u06dd\\u070f\\u180e\\u200b-\\u200f\\u2028-\\u202e\\u2060-\\u2064\\u2066-\\u206f\\ufeff\\ufff9-\\ufffb]')`,
+       check (reference !~ ` +
+      `'[\\u0000-\\u001f\\u007f-\\u009f\\u00ad\\u0600-\\u0605\\u061c\\u06dd\\u070f\\u180e` +
+      `\\u200b-\\u200f\\u2028-\\u202e\\u2060-\\u2064\\u2066-\\u206f\\ufeff\\ufff9-\\ufffb]')`,
   );
   // Same boundary = same normalised geometry (ST_Normalize orders rings and vertices).
   await knex.raw('create unique index parcel_geom_unique on parcel (md5(st_asbinary(st_normalize(geom))))');

@@ -39,19 +39,24 @@ export async function up(knex: Knex): Promise<void> {
   await knex.raw("create unique index rule_set_one_draft on rule_set_version (set_id) where status = 'draft'");
   // A published version never changes and is never deleted, whoever writes to the database.
   // (ON DELETE SET NULL of the user columns must still work, so only status and document are guarded.)
-  await knex.raw(`
+  await knex.raw(
+    `
     create function rule_set_version_guard() returns trigger language plpgsql as $$
     begin
       if tg_op = 'DELETE' then
-        if old.status = 'published' then raise exception 'rule set % version % is published and cannot be deleted', old.set_id, old.version using errcode = 'integrity_constraint_violation'; end if;
+        if old.status = 'published' then raise exception 'rule set % version % is published and cannot be deleted',` +
+      ` old.set_id, old.version using errcode = 'integrity_constraint_violation'; end if;
         return old;
       end if;
-      if old.status = 'published' and (new.status is distinct from old.status or new.document is distinct from old.document or new.version is distinct from old.version
-          or new.set_id is distinct from old.set_id or new.revision is distinct from old.revision or new.published_at is distinct from old.published_at or new.publish_note is distinct from old.publish_note) then
+      if old.status = 'published' and (new.status is distinct from old.status or new.document is distinct from ` +
+      `old.document or new.version is distinct from old.version
+          or new.set_id is distinct from old.set_id or new.revision is distinct from old.revision or ` +
+      `new.published_at is distinct from old.published_at or new.publish_note is distinct from old.publish_note) then
         raise exception 'rule set % version % is published and cannot be changed', old.set_id, old.version using errcode = 'integrity_constraint_violation';
       end if;
       return new;
-    end $$`);
+    end $$`,
+  );
   await knex.raw(
     'create trigger rule_set_version_immutable before update or delete on rule_set_version for each row execute function rule_set_version_guard()',
   );

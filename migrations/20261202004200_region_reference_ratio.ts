@@ -3,7 +3,8 @@ import type { Knex } from 'knex';
 export async function up(knex: Knex): Promise<void> {
   await knex.schema.createTable('region_reference_ratio', (t) => {
     t.comment(
-      'The permanent-grassland reference ratio of a region, entered by an admin, with its source; used when the land-use history does not cover the reference date. The newest entry per region counts; earlier ones stay as history.',
+      'The permanent-grassland reference ratio of a region, entered by an admin, with its source; used when the ' +
+        'land-use history does not cover the reference date. The newest entry per region counts; earlier ones stay as history.',
     );
     t.bigIncrements('id');
     t.text('region_key').notNullable().comment('class key of the accounting-region (district) layer');

@@ -4,7 +4,8 @@ import type { Knex } from 'knex';
 export async function up(knex: Knex): Promise<void> {
   await knex.schema.createTable('compensation_site', (t) => {
     t.comment(
-      'A parcel restored to grassland as compensation for an approved conversion; its credited CO2e gain holds only while it stays in grass until permanence_until.',
+      'A parcel restored to grassland as compensation for an approved conversion; its credited CO2e gain holds ' +
+        'only while it stays in grass until permanence_until.',
     );
     t.bigIncrements('id');
     t.bigInteger('parcel_id').notNullable().references('id').inTable('parcel').onDelete('RESTRICT');

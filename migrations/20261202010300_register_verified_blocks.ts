@@ -8,7 +8,8 @@ import type { Knex } from 'knex';
 export async function up(knex: Knex): Promise<void> {
   await knex.schema.createTable('register_verified_block', (t) => {
     t.comment(
-      'Blocks of the register chain verified in full, each with a SHA-256 of its stored rows (seq, prev_hash, hash, content as text) at that time. Trusted only while the rows still give the same digest.',
+      'Blocks of the register chain verified in full, each with a SHA-256 of its stored rows (seq, prev_hash, hash,' +
+        ' content as text) at that time. Trusted only while the rows still give the same digest.',
     );
     t.bigInteger('first_seq').notNullable();
     t.bigInteger('last_seq').notNullable();

@@ -2,7 +2,8 @@ import type { Knex } from 'knex';
 
 /**
  * Reference features cut into small pieces (ST_Subdivide, at most 256 vertices each), made once per
- * feature by triggers when features are written (so no insert path can leave a feature without pieces). The overlay tests parcels against the pieces: a test against a
+ * feature by triggers when features are written (so no insert path can leave a feature without pieces). The overlay
+ * tests parcels against the pieces: a test against a
  * small piece is cheap without PostGIS's prepared-geometry cache, and a parcel inside a piece needs no
  * intersection at all, so the overlay stays close to linear in the parcel count. Pieces of one feature
  * do not overlap; pieces of different features may (as the features may).

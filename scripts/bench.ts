@@ -187,10 +187,12 @@ async function healthDuringHugeValidation(cookie: string, vertices = 300_000): P
   await poll;
   await call(cookie, 'DELETE', `/api/uploads/${staged.data.id}`);
   console.log(
-    `huge polygon (${vertices} vertices, ${(bytes.length / 1e6).toFixed(1)} MB): stage + validate ${s(performance.now() - t0)} (server validate ${s(report.data.timings.validateMs)}, ${report.data.summary.rejected} rejected)`,
+    `huge polygon (${vertices} vertices, ${(bytes.length / 1e6).toFixed(1)} MB): stage + ` +
+      `validate ${s(performance.now() - t0)} (server validate ${s(report.data.timings.validateMs)}, ${report.data.summary.rejected} rejected)`,
   );
   console.log(
-    `  /api/health meanwhile: ${times.length} answers, ${failed} failed, p50 ${pct(times, 50).toFixed(1)} ms, p99 ${pct(times, 99).toFixed(1)} ms, max ${Math.max(...times).toFixed(1)} ms (aim: p99 < 200 ms)\n`,
+    `  /api/health meanwhile: ${times.length} answers, ${failed} failed, p50 ${pct(times, 50).toFixed(1)} ms, ` +
+      `p99 ${pct(times, 99).toFixed(1)} ms, max ${Math.max(...times).toFixed(1)} ms (aim: p99 < 200 ms)\n`,
   );
 }
 
@@ -217,7 +219,8 @@ async function ingest(planner: string): Promise<string> {
   );
   console.log(`  upload + parse      ${s(staged.ms)}   (server parse ${s(staged.data.timings.parseMs)})`);
   console.log(
-    `  validate            ${s(report.ms)}   (server: re-parse ${s(report.data.timings.parseMs)}, reproject + validate + stage ${s(report.data.timings.validateMs)})`,
+    `  validate            ${s(report.ms)}   (server: re-parse ${s(report.data.timings.parseMs)}, reproject + ` +
+      `validate + stage ${s(report.data.timings.validateMs)})`,
   );
   console.log(`  store               ${s(saved.data.timings.storeMs)}`);
   console.log(`  overlay             ${s(saved.data.timings.overlayMs)}`);
@@ -226,7 +229,8 @@ async function ingest(planner: string): Promise<string> {
   if (process.env.BENCH_RESULTS)
     appendFileSync(process.env.BENCH_RESULTS, `${COUNT} ${STATE} ${(total / 1000).toFixed(3)} ${peakMb.toFixed(0)}\n`);
   console.log(
-    `  server memory: RSS before ingest ${rssBefore.toFixed(0)} MB, peak ${peakMb.toFixed(0)} MB (VmHWM ${vm('VmHWM').toFixed(0)} MB, process tree sampled ${watched.peakMb.toFixed(0)} MB) ${memoryMark(peakMb)}`,
+    `  server memory: RSS before ingest ${rssBefore.toFixed(0)} MB, peak ${peakMb.toFixed(0)} MB ` +
+      `(VmHWM ${vm('VmHWM').toFixed(0)} MB, process tree sampled ${watched.peakMb.toFixed(0)} MB) ${memoryMark(peakMb)}`,
   );
   console.log(`  ${healthLine(watched.times, watched.failed)}\n`);
   return (saved.data as unknown as { batchId: string }).batchId;

@@ -74,7 +74,8 @@ async function prepareTarget(full: string, name: string, clean: boolean): Promis
   }
   try {
     const r = await client.query(
-      "select count(*)::int as n from information_schema.tables where table_schema in ('public', 'pgboss') and table_type = 'BASE TABLE' and table_name <> 'spatial_ref_sys'",
+      "select count(*)::int as n from information_schema.tables where table_schema in ('public', 'pgboss') and " +
+        "table_type = 'BASE TABLE' and table_name <> 'spatial_ref_sys'",
     );
     if (r.rows[0].n > 0 && !clean)
       fail(
@@ -126,7 +127,8 @@ export async function restore(args: string[], pgBin: Bin): Promise<void> {
   const { full, url, name, password } = target();
   await prepareTarget(full, name, clean);
   const role =
-    "do $$ begin if not exists (select 1 from pg_roles where rolname = 'swardkeep_register_writer') then create role swardkeep_register_writer nologin; end if; end $$";
+    "do $$ begin if not exists (select 1 from pg_roles where rolname = 'swardkeep_register_writer') then create " +
+    'role swardkeep_register_writer nologin; end if; end $$';
   const preamble = [
     role,
     ...(clean

@@ -17,7 +17,8 @@ async function benchParcels(batchId: string): Promise<number[]> {
     if (!done) {
       await knex.raw(
         `insert into land_use_event (parcel_id, event_date, kind, value, evidence, batch_id)
-                      select id, date '2010-04-01', 'land-use', land_use, ?, batch_id from parcel where batch_id = ? and land_use in ('grassland', 'meadow', 'pasture')`,
+                      select id, date '2010-04-01', 'land-use', land_use, ?, batch_id from parcel where batch_id = ` +
+          `? and land_use in ('grassland', 'meadow', 'pasture')`,
         [HISTORY, batchId],
       );
       await knex.raw('analyze land_use_event');
@@ -68,7 +69,8 @@ async function assess(planner: string, assessor: string, ids: number[]): Promise
     const server = Number(/(?:^|,\s*)assess;dur=([\d.]+)/.exec(timing ?? '')?.[1]);
     const a = JSON.parse(body) as { totals: { runs: number; co2eTotal: number } };
     console.log(
-      `\nassessment of a ${ids.length}-parcel proposal (${run}), ${a.totals.runs} joint Monte Carlo runs: server ${s(server)} (aim: < 1 s), request ${s(wall)} with a ${(body.length / 1e6).toFixed(1)} MB answer`,
+      `\nassessment of a ${ids.length}-parcel proposal (${run}), ${a.totals.runs} joint Monte Carlo runs: ` +
+        `server ${s(server)} (aim: < 1 s), request ${s(wall)} with a ${(body.length / 1e6).toFixed(1)} MB answer`,
     );
     console.log(`  server phases: ${phases(timing)}`);
   }
@@ -85,7 +87,8 @@ export async function assessAndScreen(
   if (skipped('screening')) return;
   const screening = await call<{ screened: number; ms: number }>(assessor, 'POST', '/api/screening/recompute');
   console.log(
-    `screening map recomputed over ${count} parcels (${screening.data.screened} permanent grassland): ${s(screening.data.ms)} computing (aim: < 5 s), request ${s(screening.ms)}`,
+    `screening map recomputed over ${count} parcels (${screening.data.screened} permanent ` +
+      `grassland): ${s(screening.data.ms)} computing (aim: < 5 s), request ${s(screening.ms)}`,
   );
   const timing = screening.headers.get('server-timing');
   if (timing) console.log(`  server phases: ${phases(timing)}`);

@@ -132,7 +132,8 @@ function summary(label: string, r: Run): number {
     .map((xs, i) => (xs.length ? `z${ZOOMS[i]} ${f(pct(xs, 95))}` : ''))
     .filter(Boolean);
   console.log(
-    `  ${label.padEnd(34)} ${String(r.times.length).padStart(5)} req, ${f(r.perS).padStart(7)} req/s, p50 ${f(pct(ms, 50))} ms, p95 ${f(pct(ms, 95))} ms${zooms.length ? `  (p95 by zoom: ${zooms.join(', ')})` : ''}`,
+    `  ${label.padEnd(34)} ${String(r.times.length).padStart(5)} req, ${f(r.perS).padStart(7)} req/s, ` +
+      `p50 ${f(pct(ms, 50))} ms, p95 ${f(pct(ms, 95))} ms${zooms.length ? `  (p95 by zoom: ${zooms.join(', ')})` : ''}`,
   );
   return pct(ms, 95);
 }
@@ -195,7 +196,8 @@ export async function compareWithBare(planner: string, extent: number[]): Promis
     summary('app, 1 client, tiles drawn before', await load(app(one!), 1));
     summary('app, 10 clients, tiles drawn before', await load(app(ten!), 10));
     console.log(
-      `  ratio app/bare p95: 1 client ${(app1 / bare1).toFixed(2)}x, 10 clients ${(app10 / bare10).toFixed(2)}x (aim: p95 < 30 ms at every zoom for one client, within 1.2x at 10 clients)`,
+      `  ratio app/bare p95: 1 client ${(app1 / bare1).toFixed(2)}x, 10 clients ${(app10 / bare10).toFixed(2)}x ` +
+        `(aim: p95 < 30 ms at every zoom for one client, within 1.2x at 10 clients)`,
     );
 
     const body = JSON.stringify(ESTIMATE);

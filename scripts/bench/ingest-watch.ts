@@ -71,7 +71,11 @@ export function watchIngest(pid: number) {
 export function healthLine(times: number[], failed: number): string {
   if (times.length === 0) return `/api/health: no answer (${failed} failed)`;
   const p99 = pct(times, 99);
-  return `/api/health during the ingest: ${times.length} answers, ${failed} failed, p50 ${pct(times, 50).toFixed(1)} ms, p99 ${p99.toFixed(1)} ms, max ${Math.max(...times).toFixed(1)} ms (aim: p99 < 200 ms: ${p99 < 200 && failed === 0 ? 'PASS' : 'over'})`;
+  return (
+    `/api/health during the ingest: ${times.length} answers, ${failed} failed, ` +
+    `p50 ${pct(times, 50).toFixed(1)} ms, p99 ${p99.toFixed(1)} ms, max ${Math.max(...times).toFixed(1)} ms (aim: ` +
+    `p99 < 200 ms: ${p99 < 200 && failed === 0 ? 'PASS' : 'over'})`
+  );
 }
 
 /** ogr2ogr's plain load of the same file (min and median seconds), when scripts/bench/reference-loads.ts ran. */
@@ -89,7 +93,10 @@ export function ratioLine(count: number, seconds: number): string {
   const ref = plainLoad(count);
   if (!ref) return '(no plain load to compare with)';
   const ratio = seconds / ref.median;
-  return `${ratio.toFixed(1)}x ogr2ogr's median plain load ${ref.median.toFixed(2)} s (aim: within ${ratioAim(count)}x: ${ratio <= ratioAim(count) ? 'PASS' : 'over'})`;
+  return (
+    `${ratio.toFixed(1)}x ogr2ogr's median plain load ${ref.median.toFixed(2)} s (aim: ` +
+    `within ${ratioAim(count)}x: ${ratio <= ratioAim(count) ? 'PASS' : 'over'})`
+  );
 }
 
 export const memoryMark = (mb: number) => `(aim: < ${MEMORY_AIM_MB} MB: ${mb < MEMORY_AIM_MB ? 'PASS' : 'over'})`;

@@ -66,7 +66,8 @@ async function list(): Promise<void> {
       continue;
     }
     console.log(
-      `  ${path.padEnd(72)} p50 ${pct(times, 50).toFixed(1)} ms, p95 ${pct(times, 95).toFixed(1)} ms, p99 ${pct(times, 99).toFixed(1)} ms, ${rps.toFixed(0)} req/s${bad ? `, ${bad} failed` : ''}`,
+      `  ${path.padEnd(72)} p50 ${pct(times, 50).toFixed(1)} ms, p95 ${pct(times, 95).toFixed(1)} ms, ` +
+        `p99 ${pct(times, 99).toFixed(1)} ms, ${rps.toFixed(0)} req/s${bad ? `, ${bad} failed` : ''}`,
     );
   }
   console.log(
@@ -77,7 +78,8 @@ async function list(): Promise<void> {
   const floor = { times: [...before.times, ...after.times], rps: (before.rps + after.rps) / 2 };
   const ratio = pct(all, 95) / pct(floor.times, 95);
   console.log(
-    `  for comparison, /api/health under the same load: p50 ${pct(floor.times, 50).toFixed(1)} ms, p95 ${pct(floor.times, 95).toFixed(1)} ms, ${floor.rps.toFixed(0)} req/s; list p95 / health p95 = ${ratio.toFixed(2)}`,
+    `  for comparison, /api/health under the same load: p50 ${pct(floor.times, 50).toFixed(1)} ms, ` +
+      `p95 ${pct(floor.times, 95).toFixed(1)} ms, ${floor.rps.toFixed(0)} req/s; list p95 / health p95 = ${ratio.toFixed(2)}`,
   );
   const times: number[] = [];
   for (let i = 0; i < 5; i++) {
@@ -116,7 +118,8 @@ async function csv(server: ReturnType<typeof startServer>): Promise<void> {
   }
   const ms = performance.now() - t0;
   console.log(
-    `  csv export: ${rows - 1} rows, ${(bytes / 1e6).toFixed(1)} MB in ${s(ms)} (aim: < 5 s); server RSS before ${before.toFixed(0)} MB, peak during ${server.vm('VmHWM').toFixed(0)} MB`,
+    `  csv export: ${rows - 1} rows, ${(bytes / 1e6).toFixed(1)} MB in ${s(ms)} (aim: < 5 s); server RSS ` +
+      `before ${before.toFixed(0)} MB, peak during ${server.vm('VmHWM').toFixed(0)} MB`,
   );
 }
 

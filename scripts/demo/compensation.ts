@@ -17,7 +17,10 @@ import { caller } from './region';
 
 const CROP: LandUseState = { landUse: 'cropland', system: 'long-term-cultivated', tillage: 'reduced', input: 'medium' };
 
-/** A demo parcel of the given use that no proposal names yet (last by reference), wholly inside the soil and climate layers; grass not tilled in the last 5 years. */
+/**
+ * A demo parcel of the given use that no proposal names yet (last by reference), wholly inside the soil and climate
+ * layers; grass not tilled in the last 5 years.
+ */
 async function freeParcel(landUse: string): Promise<{ id: number; reference: string }> {
   const r = await db.raw(
     `with cur as (select distinct on (kind) id, kind from reference_layer_version where status = 'published' order by kind, version desc),
@@ -25,7 +28,8 @@ async function freeParcel(landUse: string): Promise<{ id: number; reference: str
                       group by o.parcel_id having count(distinct cur.kind) = 2 and min(o.share) > 0 and sum(o.share) >= 1.98)
      select p.id::int as id, p.reference from parcel p join covered c on c.parcel_id = p.id
      where p.reference like 'CM-%' and p.land_use = ? and not exists (select 1 from proposal_parcel pp where pp.parcel_id = p.id)
-       and (p.land_use <> 'grassland' or not exists (select 1 from land_use_event e where e.parcel_id = p.id and e.kind = 'tillage' and e.event_date > current_date - interval '5 years'))
+       and (p.land_use <> 'grassland' or not exists (select 1 from land_use_event e where e.parcel_id = p.id and ` +
+      `e.kind = 'tillage' and e.event_date > current_date - interval '5 years'))
      order by p.reference desc limit 1`,
     [landUse],
   );
@@ -54,7 +58,9 @@ export async function seedDemoCompensation(emails: {
   const p = await createProposal(planner, {
     title: `Spring cereals on ${field.reference}, ${arable.reference} back to grass`,
     startYear: Number(effective.slice(0, 4)),
-    description: `Grass field ${field.reference} into a spring cereal rotation; the applicant offers to sow arable field ${arable.reference} to permanent grass in return.`,
+    description:
+      `Grass field ${field.reference} into a spring cereal rotation; the applicant offers to sow arable ` +
+      `field ${arable.reference} to permanent grass in return.`,
     parcels: [{ parcelId: field.id }] as never,
     proposed: CROP,
     applicant: { name: 'Edda Thornquist', contact: 'edda.thornquist@fenbrook-farm.example', interest: 'owner' },
@@ -67,7 +73,9 @@ export async function seedDemoCompensation(emails: {
     compensationParcelId: arable.id,
   } as never);
   await signOff(assessor, a.id, {
-    findings: `A typical loss for the district; restoring ${arable.reference} to grass offsets part of it over the transition period, provided it stays in grass.`,
+    findings:
+      `A typical loss for the district; restoring ${arable.reference} to grass offsets part of it over the ` +
+      `transition period, provided it stays in grass.`,
     version: a.version,
   });
   const m = await createMeeting(chair, {
@@ -98,5 +106,8 @@ export async function seedDemoCompensation(emails: {
     evidence: 'Field officer visit: the field has been ploughed and drilled with barley (demo)',
   });
   const reversal = 'compensationReversedBy' in ploughed ? ploughed.compensationReversedBy?.[0] : undefined;
-  return `compensation demo added: ${p.reference} approved (register entry ${d.registerSeq}), compensation parcel ${arable.reference} ploughed, reversed in entry ${reversal ?? 'none'}`;
+  return (
+    `compensation demo added: ${p.reference} approved (register entry ${d.registerSeq}), compensation ` +
+    `parcel ${arable.reference} ploughed, reversed in entry ${reversal ?? 'none'}`
+  );
 }

@@ -59,7 +59,8 @@ const MEETINGS: Meeting[] = [
         title: 'Lower field to winter wheat',
         description: 'A grass field on the valley floor ploughed for winter wheat in a cereal rotation.',
         reasons:
-          'Grassland improved for silage since the 1990s, outside every designated area, with a typical soil-carbon loss; the district keeps its ratio well above the limit.',
+          'Grassland improved for silage since the 1990s, outside every designated area, with a typical ' +
+          'soil-carbon loss; the district keeps its ratio well above the limit.',
       },
       {
         region: 'fenbrook',
@@ -155,7 +156,8 @@ const MEETINGS: Meeting[] = [
         title: 'Old pasture to potatoes',
         description: 'A long-standing pasture ploughed for seed potatoes.',
         reasons:
-          'The pasture has no record of tillage for decades; ploughing it would release old soil carbon for little gain. A rotation on existing arable land is the alternative.',
+          'The pasture has no record of tillage for decades; ploughing it would release old soil carbon for little ' +
+          'gain. A rotation on existing arable land is the alternative.',
       },
       {
         region: 'tembiri',
@@ -268,11 +270,14 @@ async function freeParcels(): Promise<
 > {
   const r = await db.raw(
     `with cur as (select distinct on (kind) id, kind from reference_layer_version where status = 'published' order by kind, version desc)
-     select p.id::int as id, p.reference, p.land_use as "landUse", exists (select 1 from land_use_event e where e.parcel_id = p.id and e.kind = 'tillage') as tilled,
-            (select o.class from parcel_overlay o join cur on cur.id = o.layer_version_id and cur.kind = 'region' where o.parcel_id = p.id order by o.share desc limit 1) as region
+     select p.id::int as id, p.reference, p.land_use as "landUse", exists (select 1 from land_use_event e where ` +
+      `e.parcel_id = p.id and e.kind = 'tillage') as tilled,
+            (select o.class from parcel_overlay o join cur on cur.id = o.layer_version_id and cur.kind = 'region' ` +
+      `where o.parcel_id = p.id order by o.share desc limit 1) as region
      from parcel p
      where not exists (select 1 from proposal_parcel pp where pp.parcel_id = p.id)
-       and not exists (select 1 from parcel_overlay o join cur on cur.id = o.layer_version_id where o.parcel_id = p.id and ((cur.kind = 'sensitive' and o.share > 0) or (cur.kind = 'slope' and o.class = 'steep' and o.share > 0)))
+       and not exists (select 1 from parcel_overlay o join cur on cur.id = o.layer_version_id where o.parcel_id = ` +
+      `p.id and ((cur.kind = 'sensitive' and o.share > 0) or (cur.kind = 'slope' and o.class = 'steep' and o.share > 0)))
        and p.area_ha between 1 and 5.5
      order by p.reference`,
   );
@@ -374,9 +379,13 @@ export async function seedDemoHistory(emails: {
       kind: 'correction',
       note: 'The reasons referred to the farm’s first field as lying in Fenbrook district; both fields lie in Skarrow district. The decision is unchanged.',
       reasons:
-        'With the farm’s first field (approved in 2021, also in Skarrow district), the farm stays below the area added up for screening; the loss is typical.',
+        'With the farm’s first field (approved in 2021, also in Skarrow district), ' +
+        'the farm stays below the area added up for screening; the loss is typical.',
     },
     new Date('2025-03-27T09:00:00Z'),
   );
-  return `demo history added: ${MEETINGS.length} meetings 2021–2026, ${decided.length} register entries and a correction (entry ${fix.seq} replaces ${wrong.seq})`;
+  return (
+    `demo history added: ${MEETINGS.length} meetings 2021–2026, ${decided.length} register entries and a ` +
+    `correction (entry ${fix.seq} replaces ${wrong.seq})`
+  );
 }

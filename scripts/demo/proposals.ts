@@ -39,10 +39,14 @@ async function candidates(): Promise<Candidate[]> {
   const r = await db.raw(
     `with cur as (select distinct on (kind) id, kind from reference_layer_version where status = 'published' order by kind, version desc)
      select p.id::int as id, p.reference, p.owner_ref, p.area_ha, p.land_use,
-            (select o.class from parcel_overlay o join cur on cur.id = o.layer_version_id and cur.kind = 'region' where o.parcel_id = p.id order by o.share desc limit 1) as region,
-            coalesce((select sum(o.share) from parcel_overlay o join cur on cur.id = o.layer_version_id and cur.kind = 'sensitive' where o.parcel_id = p.id), 0) as sensitive,
-            (select o.class from parcel_overlay o join cur on cur.id = o.layer_version_id and cur.kind = 'soil' where o.parcel_id = p.id order by o.share desc limit 1) as soil,
-            coalesce((select sum(o.share) from parcel_overlay o join cur on cur.id = o.layer_version_id and cur.kind = 'slope' where o.parcel_id = p.id and o.class = 'steep'), 0) as steep
+            (select o.class from parcel_overlay o join cur on cur.id = o.layer_version_id and cur.kind = 'region' ` +
+      `where o.parcel_id = p.id order by o.share desc limit 1) as region,
+            coalesce((select sum(o.share) from parcel_overlay o join cur on cur.id = o.layer_version_id and ` +
+      `cur.kind = 'sensitive' where o.parcel_id = p.id), 0) as sensitive,
+            (select o.class from parcel_overlay o join cur on cur.id = o.layer_version_id and cur.kind = 'soil' ` +
+      `where o.parcel_id = p.id order by o.share desc limit 1) as soil,
+            coalesce((select sum(o.share) from parcel_overlay o join cur on cur.id = o.layer_version_id and ` +
+      `cur.kind = 'slope' where o.parcel_id = p.id and o.class = 'steep'), 0) as steep
      from parcel p where p.reference like 'CM-%' order by p.reference`,
   );
   return r.rows.map((x: Candidate) => ({ ...x, sensitive: Number(x.sensitive), steep: Number(x.steep) }));
@@ -53,7 +57,8 @@ async function permanentGrassland(ids: number[]): Promise<Set<number>> {
   const r = await db.raw(
     `select p.id::int as id from parcel p where p.id = any(?::bigint[]) and p.land_use in ('grassland', 'meadow', 'pasture')
        and exists (select 1 from land_use_event e where e.parcel_id = p.id and e.kind = 'land-use' and e.event_date <= current_date - interval '5 years')
-       and not exists (select 1 from land_use_event e where e.parcel_id = p.id and e.event_date > current_date - interval '5 years' and (e.kind = 'tillage' or (e.kind = 'land-use' and e.value = 'arable')))`,
+       and not exists (select 1 from land_use_event e where e.parcel_id = p.id and e.event_date > current_date - ` +
+      `interval '5 years' and (e.kind = 'tillage' or (e.kind = 'land-use' and e.value = 'arable')))`,
     [ids],
   );
   return new Set(r.rows.map((x: { id: number }) => x.id));
@@ -62,7 +67,8 @@ async function permanentGrassland(ids: number[]): Promise<Set<number>> {
 /** A square part of about `sideM` metres around the parcel's centre, clipped to the parcel (UTM 28N for the metres). */
 export async function partOf(parcelId: number, sideM: number): Promise<Polygon> {
   const r = await db.raw(
-    `select st_asgeojson(st_geometryn(st_intersection(p.geom, st_transform(st_expand(st_transform(st_centroid(p.geom), 32628), ?), 4326)), 1), 8)::json as g from parcel p where p.id = ?`,
+    `select st_asgeojson(st_geometryn(st_intersection(p.geom, ` +
+      `st_transform(st_expand(st_transform(st_centroid(p.geom), 32628), ?), 4326)), 1), 8)::json as g from parcel p where p.id = ?`,
     [sideM / 2, parcelId],
   );
   return r.rows[0].g as Polygon;
@@ -137,7 +143,8 @@ export async function seedDemoProposals(plannerEmail: string, assessorEmail: str
   await move(planner, p1.id, 'submitted');
   await assess(
     p1.id,
-    'Most of the field lies in the Skarrowen Head designated grassland, which may be neither converted nor ploughed. The soil-carbon loss is typical for the region. Recommend refusal.',
+    'Most of the field lies in the Skarrowen Head designated grassland, which may be neither converted nor ' +
+      'ploughed. The soil-carbon loss is typical for the region. Recommend refusal.',
   );
   made.push(`${p1.reference} (sensitive, assessed)`);
 
@@ -157,7 +164,8 @@ export async function seedDemoProposals(plannerEmail: string, assessorEmail: str
   await move(planner, p2.id, 'submitted');
   await assess(
     p2.id,
-    'A small paddock below the 2 ha screening threshold on its own; the loss per hectare is typical. No objection on carbon grounds beyond the usual conditions.',
+    'A small paddock below the 2 ha screening threshold on its own; the loss per hectare is typical. No objection ' +
+      'on carbon grounds beyond the usual conditions.',
   );
   const p3 = await file(
     planner,

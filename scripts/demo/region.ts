@@ -66,7 +66,8 @@ async function addHistories(by: Caller): Promise<number> {
      cross join lateral (
        select date '2003-05-01' as date, 'grassland' as value where till.t is null and p.land_use in ('grassland', 'meadow')
        union all select till.t, 'arable' where till.t is not null
-       union all select (till.t + interval '1 year')::date, p.land_use where till.t is not null and p.land_use <> 'arable' and till.t + interval '1 year' < current_date
+       union all select (till.t + interval '1 year')::date, p.land_use where till.t is not null and p.land_use <> ` +
+      `'arable' and till.t + interval '1 year' < current_date
        union all select date '1998-04-01', 'grassland' where till.t is not null and p.id % 3 = 0
      ) d`,
     [evidence, by.id],
@@ -115,5 +116,9 @@ export async function seedDemoRegion(adminEmail: string, plannerEmail: string): 
   const vm = await importFile(planner, 'parcels', 'velomari-parcels.geojson', PARCEL_MAPPING);
   const events = await addHistories(planner);
   await addReferenceRatios(admin);
-  return `demo region added: ${LAYERS.length} reference layers; Corrowmere ${cm.saved.saved} parcels from EPSG:${cm.crs.epsg} (${cm.saved.rejected} rejected by validation), Velomari ${vm.saved.saved} (${vm.saved.rejected} rejected); ${events} history events; reference ratios of ${Object.keys(DEMO_REFERENCE_RATIOS).length} districts`;
+  return (
+    `demo region added: ${LAYERS.length} reference layers; Corrowmere ${cm.saved.saved} parcels from ` +
+    `EPSG:${cm.crs.epsg} (${cm.saved.rejected} rejected by validation), Velomari ${vm.saved.saved} ` +
+    `(${vm.saved.rejected} rejected); ${events} history events; reference ratios of ${Object.keys(DEMO_REFERENCE_RATIOS).length} districts`
+  );
 }

@@ -32,10 +32,28 @@ const metres = (a: Position, b: Position) =>
   Math.hypot((a[0]! - b[0]!) * 111_320 * Math.cos((a[1]! * Math.PI) / 180), (a[1]! - b[1]!) * 110_540);
 
 const ESRI = {
-  rd: 'PROJCS["RD_New",GEOGCS["GCS_Amersfoort",DATUM["D_Amersfoort",SPHEROID["Bessel_1841",6377397.155,299.1528128]],PRIMEM["Greenwich",0.0],UNIT["Degree",0.0174532925199433]],PROJECTION["Double_Stereographic"],PARAMETER["False_Easting",155000.0],PARAMETER["False_Northing",463000.0],PARAMETER["Central_Meridian",5.38763888888889],PARAMETER["Scale_Factor",0.9999079],PARAMETER["Latitude_Of_Origin",52.15616055555555],UNIT["Meter",1.0]]',
-  be: 'PROJCS["Belge_Lambert_1972",GEOGCS["GCS_Belge_1972",DATUM["D_Belge_1972",SPHEROID["International_1924",6378388.0,297.0]],PRIMEM["Greenwich",0.0],UNIT["Degree",0.0174532925199433]],PROJECTION["Lambert_Conformal_Conic"],PARAMETER["False_Easting",150000.013],PARAMETER["False_Northing",5400088.438],PARAMETER["Central_Meridian",4.367486666666666],PARAMETER["Standard_Parallel_1",49.8333339],PARAMETER["Standard_Parallel_2",51.16666723333333],PARAMETER["Latitude_Of_Origin",90.0],UNIT["Meter",1.0]]',
-  de: 'PROJCS["DHDN_3_Degree_Gauss_Zone_3",GEOGCS["GCS_Deutsches_Hauptdreiecksnetz",DATUM["D_Deutsches_Hauptdreiecksnetz",SPHEROID["Bessel_1841",6377397.155,299.1528128]],PRIMEM["Greenwich",0.0],UNIT["Degree",0.0174532925199433]],PROJECTION["Gauss_Kruger"],PARAMETER["False_Easting",3500000.0],PARAMETER["False_Northing",0.0],PARAMETER["Central_Meridian",9.0],PARAMETER["Scale_Factor",1.0],PARAMETER["Latitude_Of_Origin",0.0],UNIT["Meter",1.0]]',
-  ie: 'PROJCS["TM75_Irish_Grid",GEOGCS["GCS_TM75",DATUM["D_TM75",SPHEROID["Airy_Modified",6377340.189,299.3249646]],PRIMEM["Greenwich",0.0],UNIT["Degree",0.0174532925199433]],PROJECTION["Transverse_Mercator"],PARAMETER["False_Easting",200000.0],PARAMETER["False_Northing",250000.0],PARAMETER["Central_Meridian",-8.0],PARAMETER["Scale_Factor",1.000035],PARAMETER["Latitude_Of_Origin",53.5],UNIT["Meter",1.0]]',
+  rd:
+    'PROJCS["RD_New",GEOGCS["GCS_Amersfoort",DATUM["D_Amersfoort",SPHEROID["Bessel_1841",6377397.155,' +
+    '299.1528128]],PRIMEM["Greenwich",0.0],UNIT["Degree",0.0174532925199433]],PROJECTION["Double_Stereographic"],' +
+    'PARAMETER["False_Easting",155000.0],PARAMETER["False_Northing",463000.0],PARAMETER["Central_Meridian",' +
+    '5.38763888888889],PARAMETER["Scale_Factor",0.9999079],PARAMETER["Latitude_Of_Origin",52.15616055555555],UNIT["Meter",1.0]]',
+  be:
+    'PROJCS["Belge_Lambert_1972",GEOGCS["GCS_Belge_1972",DATUM["D_Belge_1972",SPHEROID["International_1924",' +
+    '6378388.0,297.0]],PRIMEM["Greenwich",0.0],UNIT["Degree",0.0174532925199433]],' +
+    'PROJECTION["Lambert_Conformal_Conic"],PARAMETER["False_Easting",150000.013],PARAMETER["False_Northing",' +
+    '5400088.438],PARAMETER["Central_Meridian",4.367486666666666],PARAMETER["Standard_Parallel_1",49.8333339],' +
+    'PARAMETER["Standard_Parallel_2",51.16666723333333],PARAMETER["Latitude_Of_Origin",90.0],UNIT["Meter",1.0]]',
+  de:
+    'PROJCS["DHDN_3_Degree_Gauss_Zone_3",GEOGCS["GCS_Deutsches_Hauptdreiecksnetz",' +
+    'DATUM["D_Deutsches_Hauptdreiecksnetz",SPHEROID["Bessel_1841",6377397.155,299.1528128]],PRIMEM["Greenwich",' +
+    '0.0],UNIT["Degree",0.0174532925199433]],PROJECTION["Gauss_Kruger"],PARAMETER["False_Easting",3500000.0],' +
+    'PARAMETER["False_Northing",0.0],PARAMETER["Central_Meridian",9.0],PARAMETER["Scale_Factor",1.0],' +
+    'PARAMETER["Latitude_Of_Origin",0.0],UNIT["Meter",1.0]]',
+  ie:
+    'PROJCS["TM75_Irish_Grid",GEOGCS["GCS_TM75",DATUM["D_TM75",SPHEROID["Airy_Modified",6377340.189,' +
+    '299.3249646]],PRIMEM["Greenwich",0.0],UNIT["Degree",0.0174532925199433]],PROJECTION["Transverse_Mercator"],' +
+    'PARAMETER["False_Easting",200000.0],PARAMETER["False_Northing",250000.0],PARAMETER["Central_Meridian",-8.0],' +
+    'PARAMETER["Scale_Factor",1.000035],PARAMETER["Latitude_Of_Origin",53.5],UNIT["Meter",1.0]]',
 };
 
 const viaHelmert = (def: string, p: Position) => proj4(def, WGS84).forward([p[0]!, p[1]!]);
@@ -58,7 +76,8 @@ const GRIDS = [
     // EPSG transformation 15929 "BD72 to WGS 84 (3)", coordinate frame: tx -106.8686, ty 52.2978, tz -103.7239 m,
     // rx -0.3366, ry 0.457, rz -1.8422", ds -1.2747 ppm (from memory); rotations negated for proj4.
     expected: viaHelmert(
-      '+proj=lcc +lat_0=90 +lon_0=4.36748666666667 +lat_1=51.1666672333333 +lat_2=49.8333339 +x_0=150000.013 +y_0=5400088.438 +ellps=intl +towgs84=-106.8686,52.2978,-103.7239,0.3366,-0.457,1.8422,-1.2747 +units=m',
+      '+proj=lcc +lat_0=90 +lon_0=4.36748666666667 +lat_1=51.1666672333333 +lat_2=49.8333339 +x_0=150000.013 ' +
+        '+y_0=5400088.438 +ellps=intl +towgs84=-106.8686,52.2978,-103.7239,0.3366,-0.457,1.8422,-1.2747 +units=m',
       [150000, 170000],
     ),
   },
@@ -81,7 +100,8 @@ const GRIDS = [
     point: [200000, 250000],
     // EPSG transformation 1954 "TM75 to WGS 84 (2)", position vector: 482.5, -130.6, 564.6 m, -1.042, -0.214, -0.631", 8.15 ppm (from memory).
     expected: viaHelmert(
-      '+proj=tmerc +lat_0=53.5 +lon_0=-8 +k=1.000035 +x_0=200000 +y_0=250000 +a=6377340.189 +rf=299.3249646 +towgs84=482.5,-130.6,564.6,-1.042,-0.214,-0.631,8.15 +units=m',
+      '+proj=tmerc +lat_0=53.5 +lon_0=-8 +k=1.000035 +x_0=200000 +y_0=250000 +a=6377340.189 +rf=299.3249646 ' +
+        '+towgs84=482.5,-130.6,564.6,-1.042,-0.214,-0.631,8.15 +units=m',
       [200000, 250000],
     ),
   },
@@ -135,7 +155,8 @@ describe('national grids as ESRI WKT without an EPSG code', () => {
       expect(report.body.summary).toMatchObject({ total: 1, rejected: 0 });
     });
     const row = await testDb.raw(
-      'select st_x(st_startpoint(st_exteriorring(st_geometryn(geom, 1)))) x, st_y(st_startpoint(st_exteriorring(st_geometryn(geom, 1)))) y from upload_staging_feature where staging_id = ?',
+      'select st_x(st_startpoint(st_exteriorring(st_geometryn(geom, 1)))) x, ' +
+        'st_y(st_startpoint(st_exteriorring(st_geometryn(geom, 1)))) y from upload_staging_feature where staging_id = ?',
       [staged.body.id],
     );
     expect(metres([row.rows[0].x, row.rows[0].y], GRIDS[0]!.expected)).toBeLessThan(1);
@@ -150,7 +171,9 @@ describe('national grids as ESRI WKT without an EPSG code', () => {
       .replace('"Airy_Modified",6377340.189,299.3249646', '"Clarke_1880",6378249.145,293.465')
       .replace('-8.0', '-7.25');
     await expect(crsFromPrj(invented)).rejects.toThrow(
-      'The .prj "Tarrow_Estate_Grid" is on a datum for which no transformation to WGS 84 is known, so its coordinates cannot be placed to the metre. Choose the coordinate reference system by EPSG code (one with a known transformation), or add TOWGS84 parameters to the .prj.',
+      'The .prj "Tarrow_Estate_Grid" is on a datum for which no transformation to WGS 84 is known, so its ' +
+        'coordinates cannot be placed to the metre. Choose the coordinate reference system by EPSG code (one with ' +
+        'a known transformation), or add TOWGS84 parameters to the .prj.',
     );
     const files = writePolygonShapefile(
       [

@@ -34,7 +34,8 @@ async function fingerprint(url: string): Promise<Record<string, string>> {
   await client.connect();
   try {
     const tables = await client.query<{ s: string; t: string }>(
-      "select table_schema as s, table_name as t from information_schema.tables where table_schema in ('public', 'pgboss') and table_type = 'BASE TABLE' order by 1, 2",
+      "select table_schema as s, table_name as t from information_schema.tables where table_schema in ('public', " +
+        "'pgboss') and table_type = 'BASE TABLE' order by 1, 2",
     );
     const out: Record<string, string> = {};
     for (const { s, t } of tables.rows) {
@@ -123,7 +124,8 @@ describe('db backup and restore', () => {
     // The register stays insert-only for its writer role (grants are restored).
     const grants = await withClient(scratchUrl, (c) =>
       c.query(
-        "select has_table_privilege('swardkeep_register_writer', 'register_entry', 'INSERT') as ins, has_table_privilege('swardkeep_register_writer', 'register_entry', 'UPDATE') as upd",
+        "select has_table_privilege('swardkeep_register_writer', 'register_entry', 'INSERT') as ins, " +
+          "has_table_privilege('swardkeep_register_writer', 'register_entry', 'UPDATE') as upd",
       ),
     );
     expect(grants.rows[0]).toEqual({ ins: true, upd: false });

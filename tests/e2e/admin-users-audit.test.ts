@@ -1,4 +1,7 @@
-/** Admin pages in words: role changes wait for Save (Cancel, Undo, 409 said), the only role says why it is locked, the audit log filters and reads as before → after. */
+/**
+ * Admin pages in words: role changes wait for Save (Cancel, Undo, 409 said), the only role says why it is locked, the
+ * audit log filters and reads as before → after.
+ */
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { BASE_URL } from '../support/env';

@@ -1,4 +1,7 @@
-/** The follow-ups page as an assessor uses it: overdue first and flagged in words, outcome (no script), evidence (island), 409 shown; screenshots at 1280 and 390 px. */
+/**
+ * The follow-ups page as an assessor uses it: overdue first and flagged in words, outcome (no script), evidence
+ * (island), 409 shown; screenshots at 1280 and 390 px.
+ */
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { addDays } from '~/lib/proposals/states';

@@ -1,4 +1,7 @@
-/** The header as an admin (the longest menu) sees it: every item reachable on a phone through the menu, none hidden sideways; screenshots at 1280 and 390 px. */
+/**
+ * The header as an admin (the longest menu) sees it: every item reachable on a phone through the menu, none hidden
+ * sideways; screenshots at 1280 and 390 px.
+ */
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { NAV } from '../../src/lib/nav';

@@ -59,7 +59,8 @@ export function DecisionForm({ meetingId, itemId, reference, eligible, quorum, a
       <p className={reached ? 'notice text-sm' : 'notice notice-warn text-sm'} data-testid={`quorum-${itemId}`}>
         {reached
           ? `Quorum reached: ${eligible} eligible vote${eligible === 1 ? '' : 's'}, ${quorum} needed.`
-          : `No quorum yet: ${eligible} eligible vote${eligible === 1 ? '' : 's'} of the ${quorum} needed (members who declared a conflict do not count). Until the votes are in, only a deferral can be recorded.`}
+          : `No quorum yet: ${eligible} eligible vote${eligible === 1 ? '' : 's'} of the ${quorum} needed ` +
+            '(members who declared a conflict do not count). Until the votes are in, only a deferral can be recorded.'}
       </p>
       <label className="field" htmlFor={`outcome-${itemId}`}>
         <span>Outcome</span>

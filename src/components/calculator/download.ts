@@ -10,7 +10,8 @@ export function estimateDocument(inputs: [string, string][], request: unknown, r
     request,
     result,
     caution:
-      'Tier 1 estimates use international default values and are uncertain by tens of percent. They support, and never replace, site survey, soil sampling, local law and the judgement of licensed professionals.',
+      'Tier 1 estimates use international default values and are uncertain by tens of percent. They support, and ' +
+      'never replace, site survey, soil sampling, local law and the judgement of licensed professionals.',
   };
 }
 

@@ -42,7 +42,9 @@ export function ReferenceLayersAdmin() {
       });
       setNote({
         ok: true,
-        text: `Version ${v.version} of ${k.label.toLowerCase()} is now current; every parcel was overlaid with it (${(r.timings.overlayMs / 1000).toFixed(1)} s).`,
+        text:
+          `Version ${v.version} of ${k.label.toLowerCase()} is now current; ` +
+          `every parcel was overlaid with it (${(r.timings.overlayMs / 1000).toFixed(1)} s).`,
       });
       await load();
     } catch (e) {

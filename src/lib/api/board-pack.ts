@@ -125,7 +125,8 @@ export const getItemPack = defineSpec({
   path: '/api/meetings/{id}/items/{itemId}/pack',
   tag: 'Board',
   summary:
-    'The board pack of an agenda item: parcels and their facts, figures with their range, risk with reasons, alternatives, findings, the statutory clock and the impact of approving (no applicant or owner data)',
+    'The board pack of an agenda item: parcels and their facts, figures with their range, risk with reasons, ' +
+    'alternatives, findings, the statutory clock and the impact of approving (no applicant or owner data)',
   access: ['board', 'chair', 'admin'],
   params: z.object({ id, itemId: id }),
   response: packSchema,

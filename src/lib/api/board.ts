@@ -72,7 +72,8 @@ export const createMeeting = defineSpec({
   path: '/api/meetings',
   tag: 'Board',
   summary:
-    'Build a meeting: date, place and the assessed proposals on its agenda in order (they become on-agenda); deferred items waiting for a meeting are carried in first',
+    'Build a meeting: date, place and the assessed proposals on its agenda in order (they become on-agenda); ' +
+    'deferred items waiting for a meeting are carried in first',
   access: ['chair', 'admin'],
   body: z.object({
     date: z.iso.date('Give the meeting date as YYYY-MM-DD.'),
@@ -150,7 +151,8 @@ export const recordDecision = defineSpec({
   path: '/api/meetings/{id}/items/{itemId}/decision',
   tag: 'Board',
   summary:
-    'Record the decision on an item (once): approvals and refusals go to the register and the proposal becomes decided; a deferral carries it to the next meeting',
+    'Record the decision on an item (once): approvals and refusals go to the register and the proposal becomes ' +
+    'decided; a deferral carries it to the next meeting',
   access: ['chair', 'admin'],
   params: itemParams,
   body: z.object({

@@ -17,7 +17,8 @@ export const getDashboard = defineSpec({
   path: '/api/dashboard',
   tag: 'Register',
   summary:
-    'Staff dashboard: grassland converted and restored per year, CO2e committed against the yearly budget, each region’s ratio and headroom, conditions and overdue proposals',
+    'Staff dashboard: grassland converted and restored per year, CO2e committed against the yearly budget, each ' +
+    'region’s ratio and headroom, conditions and overdue proposals',
   access: [...DASHBOARD_READERS],
   response: z.object({
     asOf: z.string(),

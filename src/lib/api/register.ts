@@ -183,7 +183,8 @@ export const registerTile = defineSpec({
   path: '/api/register/tiles/{z}/{x}/{y}.mvt',
   tag: 'Register',
   summary:
-    'Public vector tile (Mapbox Vector Tile) of the register: layer "register" with the parcels of entries in force (seq, outcome, year, risk_level, area_ha; no personal data); ETag = register head',
+    'Public vector tile (Mapbox Vector Tile) of the register: layer "register" with the parcels of entries in ' +
+    'force (seq, outcome, year, risk_level, area_ha; no personal data); ETag = register head',
   access: 'public',
   params: z.object({ z: tileInt(22, 'Zoom'), x: tileInt(2 ** 22 - 1, 'x'), y: tileInt(2 ** 22 - 1, 'y') }),
   query: z.object({

@@ -51,7 +51,13 @@ export function parcelFacts(p: PackParcel): [string, string][] {
     ['Area', `${ha(p.areaHa)}${p.part ? ` (drawn part of ${ha(p.parcelAreaHa)})` : ''}`],
     [
       'Use now',
-      `${useText(p.currentState)}${p.stateSource ? ` (${p.stateSource.source === 'assessor' ? 'chosen by the assessor' : 'from the parcel record'}: ${p.stateSource.note})` : ''}`,
+      `${useText(p.currentState)}${
+        p.stateSource
+          ? ` (${
+              p.stateSource.source === 'assessor' ? 'chosen by the ' + 'assessor' : 'from the parcel record'
+            }: ${p.stateSource.note})`
+          : ''
+      }`,
     ],
     ['Climate, soil', `${climateText(p.climate)}; ${soilText(p.soils)}`],
     ['Permanent grassland', yesNo(p.permanentGrassland, 'yes, by its recorded history', 'no')],
@@ -83,7 +89,10 @@ export function regionText(r: Region): string {
       : r.relativeFallAfter > 0
         ? `; ${pct(r.relativeFallAfter)} below the reference after approval`
         : '; still at or above the reference after approval';
-  return `${r.label}: permanent-grassland ratio ${pct(r.ratioNow)} now, ${pct(r.ratioAfter)} if approved (${ha(r.convertedHa)} of permanent grassland converted); ${ref}${fall}.`;
+  return (
+    `${r.label}: permanent-grassland ratio ${pct(r.ratioNow)} now, ${pct(r.ratioAfter)} if approved ` +
+    `(${ha(r.convertedHa)} of permanent grassland converted); ${ref}${fall}.`
+  );
 }
 
 type Budget = {
@@ -98,6 +107,12 @@ type Budget = {
 
 export function budgetText(b: Budget): string {
   if (b.budgetT === null)
-    return `Approvals for ${b.year} commit ${t(b.committedT)}; approving this adds ${t(b.proposalT)} (${t(b.afterT)} in all). The authority has set no yearly budget.`;
-  return `Approvals for ${b.year} commit ${t(b.committedT)} of the ${t(b.budgetT)} budget; approving this adds ${t(b.proposalT)}: ${t(b.afterT)}, ${pct(b.shareAfter)} of the budget${b.overBudget ? ' — OVER the budget' : ''}.`;
+    return (
+      `Approvals for ${b.year} commit ${t(b.committedT)}; approving this adds ${t(b.proposalT)} ` +
+      `(${t(b.afterT)} in all). The authority has set no yearly budget.`
+    );
+  return (
+    `Approvals for ${b.year} commit ${t(b.committedT)} of the ${t(b.budgetT)} budget; approving this ` +
+    `adds ${t(b.proposalT)}: ${t(b.afterT)}, ${pct(b.shareAfter)} of the budget${b.overBudget ? ' — OVER the budget' : ''}.`
+  );
 }

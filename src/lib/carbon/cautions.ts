@@ -5,7 +5,8 @@ import type { UsedFactor } from './types';
 
 /** Cautions shown with every estimate. */
 export const STANDARD_CAUTIONS = [
-  'Tier 1 estimate: IPCC default factors carry wide uncertainty (reference soil stocks alone are ±90%); use the figures for screening, not as a measured result.',
+  'Tier 1 estimate: IPCC default factors carry wide uncertainty (reference soil stocks alone are ±90%); use the ' +
+    'figures for screening, not as a measured result.',
   'Not a substitute for a site survey or soil sampling: local soil carbon, drainage and history can differ widely from the defaults.',
   'Defer to local law and to licensed professionals: this estimate informs a decision, it does not make one.',
 ] as const;
@@ -24,15 +25,23 @@ export function cautionsFor(req: EstimateRequest, plan: Plan, used: UsedFactor[]
   }
   if (unchecked.size)
     out.push(
-      `Values not yet checked by this authority against the published tables, so fine for exploration but not for a signed assessment: ${[...unchecked].map(([table, fs]) => `${table}: ${fs.map((f) => `${f.role} ${fmt(f.value)} ${f.unit}`).join('; ')}`).join('. ')}.`,
+      `Values not yet checked by this authority against the published tables, so fine for exploration but not for ` +
+        `a signed assessment: ${[...unchecked]
+          .map(([table, fs]) => `${table}: ${fs.map((f) => `${f.role} ${fmt(f.value)} ${f.unit}`).join('; ')}`)
+          .join('. ')}.`,
     );
   if (plan.organic)
     out.push(
-      `Organic soil (${fmt(plan.organic.fraction * 100)}% of the area): counted with drained-organic-soil emission factors (t C/ha for each year drained), assuming the land is drained under both the current and the proposed use, over the ${req.transitionYears}-year horizon; emissions continue for as long as it stays drained. If the land is not drained today the emission is understated. N2O from drained organic soils (EF2) is not counted: Tier 1 gives cropland and grassland the same EF2.`,
+      `Organic soil (${fmt(plan.organic.fraction * 100)}% of the area): counted with drained-organic-soil emission ` +
+        `factors (t C/ha for each year drained), assuming the land is drained under both the current and the ` +
+        `proposed use, over the ${req.transitionYears}-year horizon; emissions continue for as long as it stays ` +
+        `drained. If the land is not drained today the emission is understated. N2O from drained organic soils ` +
+        `(EF2) is not counted: Tier 1 gives cropland and grassland the same EF2.`,
     );
   if (plan.setAsideRule)
     out.push(
-      'Annual cropland converted to grassland: the set-aside F_LU (Table 5.5) is used for the transition period, as IPCC good practice asks until the land counts as grassland remaining grassland; any further gain after that is not credited.',
+      'Annual cropland converted to grassland: the set-aside F_LU (Table 5.5) is used for the transition period, ' +
+        'as IPCC good practice asks until the land counts as grassland remaining grassland; any further gain after that is not credited.',
     );
   if (req.biomass && req.before.landUse === req.after.landUse)
     out.push(
@@ -42,7 +51,8 @@ export function cautionsFor(req: EstimateRequest, plan: Plan, used: UsedFactor[]
   if (!req.n2o) out.push("N2O from mineralised nitrogen was left out at the request's choice.");
   if (plan.n2o && !plan.n2o.leach)
     out.push(
-      'Dry climate: indirect N2O from leaching is not counted (Frac_LEACH applies only where leaching occurs); if the land is irrigated, leaching should be added.',
+      'Dry climate: indirect N2O from leaching is not counted (Frac_LEACH applies only where leaching occurs); if ' +
+        'the land is irrigated, leaching should be added.',
     );
   if (
     (req.after.landUse === 'cropland' && req.after.system === 'paddy-rice') ||

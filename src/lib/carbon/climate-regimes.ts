@@ -74,7 +74,8 @@ const r = (
   n2oMoisture: N2oMoisture,
 ): ClimateRegime => ({ socRefRow, factorRegime, grassBiomassRow, cropBiomassRow, organicRow, n2oMoisture });
 
-//                                          Table 2.3               Tables 5.5/6.2            Table 6.4               Table 5.9 perennial  Tables 5.6/6.3          N2O
+// Arguments of r(), in order: Table 2.3 (socRefRow), Tables 5.5/6.2 (factorRegime), Table 6.4 (grassBiomassRow),
+// Table 5.9 perennial (cropBiomassRow), Tables 5.6/6.3 (organicRow), N2O (n2oMoisture).
 export const CLIMATE_REGIMES: Readonly<Record<ClimateRegion, ClimateRegime>> = {
   // Tropical montane has no moisture criterion in Annex 3A.5; treated as wet for N2O
   // (leaching counted, wet EF1): the larger-emission choice (engine choice, no source).

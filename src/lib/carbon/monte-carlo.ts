@@ -81,7 +81,8 @@ export function runJointMonteCarlo(items: JointItem[], years: number, runs: numb
   const sorted = [...samples].sort((a, b) => a - b);
 
   const cautions = [
-    `Uncertainty: 95% range (2.5th to 97.5th percentile) of ${runs} Monte Carlo runs, seed ${seed}, over ${sampled.length} sampled values; it reflects the published default ranges only, not site conditions.`,
+    `Uncertainty: 95% range (2.5th to 97.5th percentile) of ${runs} Monte Carlo runs, seed ${seed}, ` +
+      `over ${sampled.length} sampled values; it reflects the published default ranges only, not site conditions.`,
   ];
   if (items.length > 1)
     cautions.push(

@@ -51,8 +51,10 @@ export async function draftOf(
 /** Everything but the inputs and the result. */
 export async function getAssessmentMeta(db: Db, id: number): Promise<Omit<AssessmentRow, 'inputs' | 'result'> | null> {
   const r = await db.raw(
-    `select a.id::int as id, a.proposal_id::int as proposal_id, a.number, a.status, a.version, a.factor_set_id, a.factor_set_version, a.rule_set_id, a.rule_set_version,
-            a.grade_level, a.grade_label, a.co2e_total, a.findings, a.signed_at, a.created_at, a.updated_at, s.name as signed_by_name, c.name as created_by_name ${FROM} where a.id = ?`,
+    `select a.id::int as id, a.proposal_id::int as proposal_id, a.number, a.status, a.version, a.factor_set_id, ` +
+      `a.factor_set_version, a.rule_set_id, a.rule_set_version,
+            a.grade_level, a.grade_label, a.co2e_total, a.findings, a.signed_at, a.created_at, a.updated_at, ` +
+      `s.name as signed_by_name, c.name as created_by_name ${FROM} where a.id = ?`,
     [id],
   );
   return r.rows[0] ?? null;
@@ -60,8 +62,10 @@ export async function getAssessmentMeta(db: Db, id: number): Promise<Omit<Assess
 
 export async function listForProposal(db: Db, proposalId: number): Promise<Omit<AssessmentRow, 'inputs' | 'result'>[]> {
   const r = await db.raw(
-    `select a.id::int as id, a.proposal_id::int as proposal_id, a.number, a.status, a.version, a.factor_set_id, a.factor_set_version, a.rule_set_id, a.rule_set_version,
-            a.grade_level, a.grade_label, a.co2e_total, a.findings, a.signed_at, a.created_at, a.updated_at, s.name as signed_by_name, c.name as created_by_name ${FROM} where a.proposal_id = ? order by a.number desc`,
+    `select a.id::int as id, a.proposal_id::int as proposal_id, a.number, a.status, a.version, a.factor_set_id, ` +
+      `a.factor_set_version, a.rule_set_id, a.rule_set_version,
+            a.grade_level, a.grade_label, a.co2e_total, a.findings, a.signed_at, a.created_at, a.updated_at, ` +
+      `s.name as signed_by_name, c.name as created_by_name ${FROM} where a.proposal_id = ? order by a.number desc`,
     [proposalId],
   );
   return r.rows;
@@ -187,7 +191,8 @@ export async function overlayOfProposal(db: Db, proposalId: number, extra: numbe
 /** Land-use events of many parcels at once, for the status flags. */
 export async function eventsOfParcels(db: Db, ids: number[]) {
   const r = await db.raw(
-    `select parcel_id::int as parcel_id, to_char(event_date, 'YYYY-MM-DD') as date, kind, value, cultivation from land_use_event where parcel_id = any(?::bigint[]) order by parcel_id, event_date, id`,
+    `select parcel_id::int as parcel_id, to_char(event_date, 'YYYY-MM-DD') as date, kind, value, cultivation from ` +
+      `land_use_event where parcel_id = any(?::bigint[]) order by parcel_id, event_date, id`,
     [ids],
   );
   return r.rows as {
@@ -210,7 +215,8 @@ export async function earlierOnHoldings(db: Db, proposalId: number, ownerRefs: s
      from proposal p join proposal_parcel pp on pp.proposal_id = p.id join parcel pr on pr.id = pp.parcel_id
      where p.id <> ? and pr.owner_ref = any(?::text[])
        and (p.state in ('submitted', 'in-assessment', 'assessed', 'on-agenda')
-            or (p.state = 'decided' and exists (select 1 from board_decision d where d.proposal_id = p.id and d.outcome in ('approved', 'approved-with-conditions'))))
+            or (p.state = 'decided' and exists (select 1 from board_decision d where d.proposal_id = p.id and ` +
+      `d.outcome in ('approved', 'approved-with-conditions'))))
        and p.proposed->>'landUse' = 'cropland'
        and p.submitted_at >= now() - make_interval(years => ?)
        and p.submitted_at <= coalesce((select submitted_at from proposal where id = ?), now())

@@ -26,7 +26,8 @@ export async function approvedParcels(conn: Db): Promise<ApprovedParcelRow[]> {
   const r = await conn.raw(
     `select e.seq::float8 as seq, e.decided_year as year, e.content->>'decidedOn' as "decidedOn", e.region, x.ref as reference, x.area::float8 as "areaHa",
             trim(split_part(e.content->'proposal'->>'proposedUse', ',', 1)) as "proposedLandUse",
-            coalesce((select le.value from land_use_event le where le.parcel_id = p.id and le.kind = 'land-use' and le.event_date < (e.content->>'decidedOn')::date
+            coalesce((select le.value from land_use_event le where le.parcel_id = p.id and le.kind = 'land-use' ` +
+      `and le.event_date < (e.content->>'decidedOn')::date
                       order by le.event_date desc, le.id desc limit 1), p.land_use) as "priorLandUse",
             (select le.value from land_use_event le where le.parcel_id = p.id and le.kind = 'land-use' and le.event_date >= (e.content->>'decidedOn')::date
              order by le.event_date desc, le.id desc limit 1) as "laterLandUse"
@@ -60,7 +61,8 @@ export async function conditionsWithDueDates(conn: Db): Promise<ConditionRow[]> 
   // Open follow-up tasks of conditions (src/lib/services/follow-ups.ts): a condition whose outcome
   // staff recorded as done leaves the list; "partly" and "not done" stay until it is met.
   const r = await conn.raw(
-    `select coalesce(d.register_seq, 0)::float8 as seq, p.reference, t.title as text, to_char(t.due_date, 'YYYY-MM-DD') as "dueDate", t.checked_by as "checkedBy"
+    `select coalesce(d.register_seq, 0)::float8 as seq, p.reference, t.title as text, to_char(t.due_date, ` +
+      `'YYYY-MM-DD') as "dueDate", t.checked_by as "checkedBy"
      from follow_up_task t join proposal p on p.id = t.proposal_id left join board_decision d on d.id = t.decision_id
      where t.kind = 'condition' and t.status <> 'done' order by t.due_date, t.id`,
   );

@@ -238,9 +238,12 @@ export async function publishedStamp(
   const r = await db.raw(
     `with s as (select coalesce(?::text, (select value #>> '{}' from app_setting where key = 'default-factor-set'), ?::text) as id)
      select s.id as set_id, v.version,
-            coalesce((select json_agg(json_build_object('table_key', c.table_key, 'confirmed_by_name', u.name, 'confirmed_at', c.confirmed_at, 'document', c.document, 'page', c.page) order by c.table_key)
-                      from factor_table_confirmation c left join "user" u on u.id = c.confirmed_by where c.set_id = v.set_id and c.version = v.version), '[]'::json) as confirmations
-     from s left join lateral (select set_id, version from factor_set_version where set_id = s.id and status = 'published' and (?::int is null or version = ?::int) order by version desc limit 1) v on true`,
+            coalesce((select json_agg(json_build_object('table_key', c.table_key, 'confirmed_by_name', u.name, ` +
+      `'confirmed_at', c.confirmed_at, 'document', c.document, 'page', c.page) order by c.table_key)
+                      from factor_table_confirmation c left join "user" u on u.id = c.confirmed_by where c.set_id ` +
+      `= v.set_id and c.version = v.version), '[]'::json) as confirmations
+     from s left join lateral (select set_id, version from factor_set_version where set_id = s.id and status = ` +
+      `'published' and (?::int is null or version = ?::int) order by version desc limit 1) v on true`,
     [setId, fallbackId, version ?? null, version ?? null],
   );
   const row = r.rows[0] as {

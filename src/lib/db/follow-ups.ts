@@ -62,8 +62,11 @@ export type TaskRow = {
   evidence_count: number;
 };
 
-const SELECT = `select t.id::int as id, t.proposal_id::int as proposal_id, p.reference, p.title as proposal_title, t.decision_id::int as decision_id, d.register_seq::int as register_seq,
-  t.kind, t.condition_index, t.title, to_char(t.due_date, 'YYYY-MM-DD') as due_date, t.checked_by, t.assignee_role, t.status, t.outcome_note, u.name as outcome_by_name,
+const SELECT =
+  `select t.id::int as id, t.proposal_id::int as proposal_id, p.reference, p.title as proposal_title, ` +
+  `t.decision_id::int as decision_id, d.register_seq::int as register_seq,
+  t.kind, t.condition_index, t.title, to_char(t.due_date, 'YYYY-MM-DD') as due_date, t.checked_by, t.assignee_role,` +
+  ` t.status, t.outcome_note, u.name as outcome_by_name,
   t.outcome_at, t.version, t.created_at, (select count(*)::int from follow_up_evidence e where e.task_id = t.id) as evidence_count
   from follow_up_task t join proposal p on p.id = t.proposal_id left join board_decision d on d.id = t.decision_id left join "user" u on u.id = t.outcome_by`;
 

@@ -53,7 +53,9 @@ export async function nextMeetingAfter(db: Db, date: string): Promise<MeetingRow
   return r.rows[0] ?? null;
 }
 
-const ITEM_SELECT = `select i.id::int as id, i.meeting_id::int as meeting_id, i.proposal_id::int as proposal_id, i.assessment_id::int as assessment_id, i.position, i.status,
+const ITEM_SELECT =
+  `select i.id::int as id, i.meeting_id::int as meeting_id, i.proposal_id::int as proposal_id, ` +
+  `i.assessment_id::int as assessment_id, i.position, i.status,
   i.carried_from::int as carried_from, p.reference, p.title, p.state as proposal_state, to_char(m.meeting_date, 'YYYY-MM-DD') as meeting_date, m.place
   from meeting_item i join proposal p on p.id = i.proposal_id join meeting m on m.id = i.meeting_id`;
 
@@ -192,7 +194,8 @@ export async function insertDecision(db: Db, d: DecisionInsert): Promise<number>
 
 export async function decisionsOf(db: Db, itemIds: number[]) {
   const r = await db.raw(
-    `select d.id::int as id, d.item_id::int as item_id, d.outcome, d.reasons, d.conditions, d.appeal_days, to_char(d.effective_date, 'YYYY-MM-DD') as effective_date,
+    `select d.id::int as id, d.item_id::int as item_id, d.outcome, d.reasons, d.conditions, d.appeal_days, ` +
+      `to_char(d.effective_date, 'YYYY-MM-DD') as effective_date,
             d.register_seq::int as register_seq, u.name as decided_by, d.decided_at
      from board_decision d left join "user" u on u.id = d.decided_by where d.item_id = any(?::bigint[])`,
     [itemIds],

@@ -55,7 +55,8 @@ export async function stagedRegisterTwins(
   stagingId: string,
 ): Promise<{ idx: number; reference: string | null; parcel: string; why: 'reference' | 'boundary' }[]> {
   const r = await db.raw(
-    `select f.idx, f.reference, p.reference as parcel, 'reference' as why from upload_staging_feature f join parcel p on p.reference_key = f.fields->>'referenceKey'
+    `select f.idx, f.reference, p.reference as parcel, 'reference' as why from upload_staging_feature f join ` +
+      `parcel p on p.reference_key = f.fields->>'referenceKey'
      where f.staging_id = ? and f.status <> 'rejected'
      union all
      select f.idx, f.reference, p.reference, 'boundary' from upload_staging_feature f join parcel p on p.geom && f.geom and st_equals(p.geom, f.geom)

@@ -42,7 +42,8 @@ export async function insertParcelsFromStaging(
 ): Promise<number> {
   const r = await db.raw(
     `insert into parcel (reference, reference_key, name, land_use, management, owner_ref, stated_area_ha, area_ha, geom, batch_id, created_by, updated_by)
-     select f.reference, f.fields->>'referenceKey', f.fields->>'name', f.fields->>'landUse', f.fields->>'management', f.fields->>'ownerRef', (f.fields->>'statedAreaHa')::float8,
+     select f.reference, f.fields->>'referenceKey', f.fields->>'name', f.fields->>'landUse', ` +
+      `f.fields->>'management', f.fields->>'ownerRef', (f.fields->>'statedAreaHa')::float8,
             st_area(f.geom::geography) / 10000, f.geom, ?, ?, ?
      from upload_staging_feature f where f.staging_id = ? and f.status <> 'rejected' order by f.idx`,
     [batchId, by, by, stagingId],
@@ -51,7 +52,10 @@ export async function insertParcelsFromStaging(
   return r.rowCount ?? 0;
 }
 
-/** Land-use history from the mapped columns: current use and management as recorded today, plus dated tillage/reseeding and "in grass since" (a dated grassland event). */
+/**
+ * Land-use history from the mapped columns: current use and management as recorded today, plus dated
+ * tillage/reseeding and "in grass since" (a dated grassland event).
+ */
 export async function insertEventsFromStaging(
   db: Db,
   stagingId: string,
@@ -133,7 +137,8 @@ export async function refreshCurrentState(db: Db, parcelId: number, by: string):
   const newest = (kind: string) =>
     `(select value from land_use_event where parcel_id = p.id and kind = '${kind}' order by event_date desc, id desc limit 1)`;
   await db.raw(
-    `update parcel p set land_use = ${newest('land-use')}, management = ${newest('management')}, version = version + 1, updated_by = ?, updated_at = now() where id = ?`,
+    `update parcel p set land_use = ${newest('land-use')}, management = ${newest('management')}, version = version ` +
+      `+ 1, updated_by = ?, updated_at = now() where id = ?`,
     [by, parcelId],
   );
 }
@@ -168,7 +173,8 @@ export async function insertDrawnParcel(
 
 export async function updateBoundary(db: Db, id: number, geometry: MultiPolygon, by: string): Promise<void> {
   await db.raw(
-    `update parcel set geom = st_geomfromgeojson(?), area_ha = st_area(st_geomfromgeojson(?)::geography) / 10000, version = version + 1, updated_by = ?, updated_at = now() where id = ?`,
+    `update parcel set geom = st_geomfromgeojson(?), area_ha = st_area(st_geomfromgeojson(?)::geography) / 10000, ` +
+      `version = version + 1, updated_by = ?, updated_at = now() where id = ?`,
     [JSON.stringify(geometry), JSON.stringify(geometry), by, id],
   );
 }
@@ -189,7 +195,9 @@ export async function parcelsInBox(db: Db, box: [number, number, number, number]
  * a hair narrower) from moving an ordinary area to longitudes past 180°.
  */
 const width = (g: string) => `(st_xmax(st_extent(${g})) - st_xmin(st_extent(${g})))`;
-const LOCAL_EXTENT = `case when ${width('st_shiftlongitude(p.geom)')} + 1 < ${width('p.geom')} then st_extent(st_shiftlongitude(p.geom)) else st_extent(p.geom) end::geometry`;
+const LOCAL_EXTENT =
+  `case when ${width('st_shiftlongitude(p.geom)')} + 1 < ${width('p.geom')} then ` +
+  `st_extent(st_shiftlongitude(p.geom)) else st_extent(p.geom) end::geometry`;
 
 /** Where parcels are: one lon/lat extent per upload batch (drawn parcels together), largest first. */
 export type ParcelArea = {

@@ -189,7 +189,8 @@ export async function listParcels(db: Db, proposalId: number): Promise<ProposalP
 
 export async function listEvents(db: Db, proposalId: number) {
   const r = await db.raw(
-    `select e.from_state, e.to_state, e.reason, u.name as by_name, e.at from proposal_event e left join "user" u on u.id = e.by where e.proposal_id = ? order by e.id`,
+    `select e.from_state, e.to_state, e.reason, u.name as by_name, e.at from proposal_event e left join "user" u ` +
+      `on u.id = e.by where e.proposal_id = ? order by e.id`,
     [proposalId],
   );
   return r.rows as {

@@ -66,7 +66,8 @@ export async function insertVersionFromStaging(
   const next =
     Number((await db('reference_layer_version').where({ kind: v.kind }).max('version as m').first())?.m ?? 0) + 1;
   const classes = await db.raw(
-    `select coalesce(array_agg(distinct fields->>'class' order by fields->>'class'), '{}') as c from upload_staging_feature where staging_id = ? and status <> 'rejected'`,
+    `select coalesce(array_agg(distinct fields->>'class' order by fields->>'class'), '{}') as c from ` +
+      `upload_staging_feature where staging_id = ? and status <> 'rejected'`,
     [v.stagingId],
   );
   const [row] = await db('reference_layer_version')

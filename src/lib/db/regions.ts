@@ -71,9 +71,11 @@ export async function regionStatsAt(conn: Db, dates: string[], keys?: string[]):
   if (!wanted.length) return dates.map(() => []);
   const latest = dates.reduce((a, b) => (b > a ? b : a));
   const assigned = await conn.raw(
-    `with a as (select distinct on (o.parcel_id) o.parcel_id, o.class from parcel_overlay o where o.layer_version_id = ? order by o.parcel_id, o.share desc, o.class)
+    `with a as (select distinct on (o.parcel_id) o.parcel_id, o.class from parcel_overlay o where ` +
+      `o.layer_version_id = ? order by o.parcel_id, o.share desc, o.class)
      select a.class as region_key, p.area_ha,
-            coalesce((select json_agg(json_build_object('date', to_char(e.event_date, 'YYYY-MM-DD'), 'kind', e.kind, 'value', e.value, 'cultivation', e.cultivation) order by e.event_date, e.id)
+            coalesce((select json_agg(json_build_object('date', to_char(e.event_date, 'YYYY-MM-DD'), 'kind', ` +
+      `e.kind, 'value', e.value, 'cultivation', e.cultivation) order by e.event_date, e.id)
                       from land_use_event e where e.parcel_id = p.id and e.event_date <= ?::date), '[]') as events
      from a join parcel p on p.id = a.parcel_id where a.class = any(?::text[])`,
     [v.id, latest, wanted.map((r) => r.key)],

@@ -11,7 +11,9 @@ import type { Db } from './client';
 export type BlockDigest = { first: number; last: number; n: number; lastHash: string; digest: string };
 
 /** The text every digest is taken of: one line per entry (seq, hashes, row version), in seq order. */
-const DIGEST = `encode(sha256(convert_to(string_agg(seq::text || ' ' || prev_hash || ' ' || hash || ' ' || xmin::text || ' ' || ctid::text, E'\\n' order by seq), 'UTF8')), 'hex')`;
+const DIGEST =
+  `encode(sha256(convert_to(string_agg(seq::text || ' ' || prev_hash || ' ' || hash || ' ' || ` +
+  `xmin::text || ' ' || ctid::text, E'\\n' order by seq), 'UTF8')), 'hex')`;
 
 /** Stored blocks of `size` entries aligned on multiples of it (1..size, size+1..2 size, ...), in order. */
 export async function storedBlocks(db: Db, size: number): Promise<BlockDigest[]> {

@@ -79,17 +79,20 @@ export async function csvBatchAfter(
   // jsonb_to_record reads the stored content once per row (each -> on the column itself would read the whole value again).
   const r = await db.raw(
     `select e.seq::float8 as seq, e.hash, c.kind, c.proposal->>'reference' as reference, c.proposal->>'title' as title,
-            c.proposal->>'proposedUse' as proposed_use, c.outcome, c."decidedOn" as decided_on, c."effectiveDate" as effective_date, c."appealUntil" as appeal_until,
+            c.proposal->>'proposedUse' as proposed_use, c.outcome, c."decidedOn" as decided_on, c."effectiveDate" ` +
+      `as effective_date, c."appealUntil" as appeal_until,
             (select string_agg(p->>'reference', ' ' order by o) from jsonb_array_elements(c.parcels) with ordinality x(p, o)) as parcels,
             c."areaHa" as area_ha, c.region, (c.risk->>'level')::int as risk_level, c.risk->>'label' as risk_label,
             (c.figures->>'co2eTotal')::float8 as co2e_t, (c.figures->>'co2eLow')::float8 as co2e_low_t, (c.figures->>'co2eHigh')::float8 as co2e_high_t,
             c.figures->>'gwp' as gwp, (c."factorSet"->>'id') || '@' || (c."factorSet"->>'version') as factor_set,
             (c."ruleSet"->>'id') || '@' || (c."ruleSet"->>'version') as rule_set, c.meeting->>'date' as meeting_date,
-            (select string_agg(format('%s (due %s; checked by %s)', k->>'text', k->>'dueDate', k->>'checkedBy'), ' | ' order by o) from jsonb_array_elements(c.conditions) with ordinality y(k, o)) as conditions,
+            (select string_agg(format('%s (due %s; checked by %s)', k->>'text', k->>'dueDate', k->>'checkedBy'), ' ` +
+      `| ' order by o) from jsonb_array_elements(c.conditions) with ordinality y(k, o)) as conditions,
             c.reasons, e.supersedes_seq::float8 as supersedes_seq,
             (select min(s.seq)::float8 from register_entry s where s.supersedes_seq = e.seq) as superseded_by
      from register_entry e
-     cross join lateral jsonb_to_record(e.content) as c(kind text, proposal jsonb, outcome text, "decidedOn" text, "effectiveDate" text, "appealUntil" text, parcels jsonb,
+     cross join lateral jsonb_to_record(e.content) as c(kind text, proposal jsonb, outcome text, "decidedOn" text, ` +
+      `"effectiveDate" text, "appealUntil" text, parcels jsonb,
        "areaHa" float8, region text, risk jsonb, figures jsonb, "factorSet" jsonb, "ruleSet" jsonb, meeting jsonb, conditions jsonb, reasons text)
      where e.seq > ? and ${where} order by e.seq limit ?`,
     [afterSeq, ...args, limit],
@@ -139,7 +142,8 @@ export function filterSql(f: RegisterFilter, headSeq?: number): { where: string;
   if (f.q) {
     const like = `%${f.q.replace(/[%_\\]/g, '\\$&')}%`;
     where.push(
-      "(e.reference ilike ? or e.content->'proposal'->>'title' ilike ? or exists (select 1 from jsonb_array_elements(e.content->'parcels') p where p->>'reference' ilike ?))",
+      "(e.reference ilike ? or e.content->'proposal'->>'title' ilike ? or exists (select 1 from " +
+        "jsonb_array_elements(e.content->'parcels') p where p->>'reference' ilike ?))",
     );
     args.push(like, like, like);
   }
@@ -188,7 +192,8 @@ export async function listEntries(
   const r = await db.raw(
     `select e.seq::float8 as seq, e.hash, e.supersedes_seq::float8 as supersedes_seq, e.created_at,
             (select min(s.seq)::float8 from register_entry s where s.supersedes_seq = e.seq and s.seq <= ?) as superseded_by,
-            e.content - 'parcels' || jsonb_build_object('parcelReferences', (select coalesce(jsonb_agg(p->'reference'), '[]') from jsonb_array_elements(e.content->'parcels') p)) as summary
+            e.content - 'parcels' || jsonb_build_object('parcelReferences', (select ` +
+      `coalesce(jsonb_agg(p->'reference'), '[]') from jsonb_array_elements(e.content->'parcels') p)) as summary
      from register_entry e where ${where} order by ${order} limit ? offset ?`,
     [headSeq, ...args, f.pageSize, (f.page - 1) * f.pageSize],
   );

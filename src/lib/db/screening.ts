@@ -34,7 +34,8 @@ export async function screeningInputs(db: Db): Promise<ScreeningInputRow[]> {
               (array_agg(o.class order by o.share desc, o.class) filter (where cur.kind = 'region'))[1] as region
        from parcel_overlay o join cur on cur.id = o.layer_version_id group by o.parcel_id),
      runs as (
-       select run.parcel_id, max(run.covered_share) filter (where cur.kind = 'climate') as climate_cover, max(run.covered_share) filter (where cur.kind = 'soil') as soil_cover
+       select run.parcel_id, max(run.covered_share) filter (where cur.kind = 'climate') as climate_cover, ` +
+      `max(run.covered_share) filter (where cur.kind = 'soil') as soil_cover
        from parcel_overlay_run run join cur on cur.id = run.layer_version_id where cur.kind in ('climate', 'soil') group by run.parcel_id)
      select p.id::int as id, p.reference, p.area_ha, p.owner_ref, a.climate, r.climate_cover, coalesce(a.soils, '[]') as soils, r.soil_cover,
             coalesce(a.sensitive, 0) as sensitive, coalesce(a.never_tilled, 0) as never_tilled, coalesce(a.slope, '[]') as slope, a.region
@@ -45,7 +46,8 @@ export async function screeningInputs(db: Db): Promise<ScreeningInputRow[]> {
 
 export async function allEvents(db: Db) {
   const r = await db.raw(
-    `select parcel_id::int as parcel_id, to_char(event_date, 'YYYY-MM-DD') as date, kind, value, cultivation from land_use_event order by parcel_id, event_date, id`,
+    `select parcel_id::int as parcel_id, to_char(event_date, 'YYYY-MM-DD') as date, kind, value, cultivation from ` +
+      `land_use_event order by parcel_id, event_date, id`,
   );
   return r.rows as {
     parcel_id: number;
@@ -103,18 +105,16 @@ export async function insertRun(
 export async function replaceResults(db: Db, runId: number, results: ScreeningResult[]): Promise<void> {
   await db('screening_result').delete();
   for (let at = 0; at < results.length; at += 5000) {
-    const rows = results
-      .slice(at, at + 5000)
-      .map((r) => ({
-        p: r.parcelId,
-        l: r.level,
-        lb: r.label,
-        c: r.co2eTotal,
-        h: r.co2eHigh,
-        s: r.socLossPerHa,
-        r: r.rules,
-        pr: r.problem,
-      }));
+    const rows = results.slice(at, at + 5000).map((r) => ({
+      p: r.parcelId,
+      l: r.level,
+      lb: r.label,
+      c: r.co2eTotal,
+      h: r.co2eHigh,
+      s: r.socLossPerHa,
+      r: r.rules,
+      pr: r.problem,
+    }));
     await db.raw(
       `insert into screening_result (parcel_id, run_id, level, label, co2e_total, co2e_high, soc_loss_per_ha, rules, problem)
        select x.p, ?, x.l, x.lb, x.c, x.h, x.s, array(select jsonb_array_elements_text(x.r)), x.pr
@@ -153,7 +153,8 @@ export async function listResults(
   if (q.level) where.push('s.level = ?') && args.push(q.level);
   if (q.region) {
     where.push(
-      `exists (select 1 from parcel_overlay o join reference_layer_version v on v.id = o.layer_version_id and v.kind = 'region' and v.status = 'published' where o.parcel_id = p.id and o.class = ? and o.share >= 0.5)`,
+      `exists (select 1 from parcel_overlay o join reference_layer_version v on v.id = o.layer_version_id and ` +
+        `v.kind = 'region' and v.status = 'published' where o.parcel_id = p.id and o.class = ? and o.share >= 0.5)`,
     );
     args.push(q.region);
   }

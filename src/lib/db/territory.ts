@@ -73,7 +73,8 @@ export async function geometryOutside(
 ): Promise<{ outsideShare: number; swappedInside: boolean }> {
   const r = await db.raw(
     `with t as (select st_geomfromgeojson(?) as g), p as (select st_geomfromgeojson(?) as g)
-     select case when st_coveredby(p.g, t.g) then 0 else ${OUTSIDE('p.g')} end as "outsideShare", st_coveredby(st_flipcoordinates(p.g), t.g) as "swappedInside" from p, t`,
+     select case when st_coveredby(p.g, t.g) then 0 else ${OUTSIDE('p.g')} end as "outsideShare", ` +
+      `st_coveredby(st_flipcoordinates(p.g), t.g) as "swappedInside" from p, t`,
     [JSON.stringify(territory), JSON.stringify(geometry)],
   );
   return r.rows[0];

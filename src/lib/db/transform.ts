@@ -32,7 +32,8 @@ export async function transformPositions(
       .map((p) => (Number.isFinite(p[0]) && Number.isFinite(p[1]) ? [p[0], p[1]] : null));
     try {
       const r = await db.raw(
-        `select case when p is null or jsonb_typeof(p) = 'null' then null else st_asbinary(st_transform(st_setsrid(st_makepoint((p->>0)::float8, (p->>1)::float8), ?), 4326)) end as g, i
+        `select case when p is null or jsonb_typeof(p) = 'null' then null else ` +
+          `st_asbinary(st_transform(st_setsrid(st_makepoint((p->>0)::float8, (p->>1)::float8), ?), 4326)) end as g, i
          from jsonb_array_elements(?::jsonb) with ordinality as t(p, i) order by i`,
         [srid, JSON.stringify(chunk)],
       );

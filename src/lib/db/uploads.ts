@@ -126,7 +126,11 @@ const push = (code: string, message: string) =>
 export async function rejectRegisterDuplicates(db: Db, stagingId: string): Promise<void> {
   await db.raw(
     `update upload_staging_feature f set status = 'rejected',
-       issues = ${push('reference-in-register', `'Parcel reference "' || f.reference || '" is already in the register' || case when p.reference <> f.reference then ' as "' || p.reference || '"' else '' end || '.'`)}
+       issues = ${push(
+         'reference-in-register',
+         `'Parcel reference "' || f.reference || '" is already in the ` +
+           `register' || case when p.reference <> f.reference then ' as "' || p.reference || '"' else '' end || '.'`,
+       )}
      from parcel p
      where f.staging_id = ? and f.reference is not null and p.reference_key = f.fields->>'referenceKey'`,
     [stagingId],
@@ -155,7 +159,8 @@ export async function repairWithMakeValid(db: Db, stagingId: string, minAreaM2: 
      update upload_staging_feature f set status = 'repaired', geom = st_multi(fixed.g), raw_geom = null,
        issues = (select coalesce(jsonb_agg(i), '[]'::jsonb) from jsonb_array_elements(f.issues) i where i->>'code' <> 'self-intersection')
          || jsonb_build_array(jsonb_build_object('code', 'made-valid', 'severity', 'repaired',
-              'message', 'The boundary touched or crossed itself; PostGIS ST_MakeValid rebuilt it as one polygon of ' || round((st_area(fixed.g::geography) / 10000)::numeric, 4) || ' ha.'))
+              'message', 'The boundary touched or crossed itself; PostGIS ST_MakeValid rebuilt it as one polygon ` +
+      `of ' || round((st_area(fixed.g::geography) / 10000)::numeric, 4) || ' ha.'))
      from fixed
      where f.staging_id = ? and f.idx = fixed.idx and st_numgeometries(fixed.g) = 1 and st_area(fixed.g::geography) >= ?`,
     [stagingId, stagingId, minAreaM2],
@@ -249,7 +254,8 @@ export async function insertBatchFromStaging(
   savedCount: number,
 ): Promise<void> {
   await db.raw(
-    `insert into upload_batch (id, purpose, file_name, format, size_bytes, sha256, file_bytes, layer_name, source_crs, column_mapping, feature_count, saved_count, uploaded_by, uploaded_at)
+    `insert into upload_batch (id, purpose, file_name, format, size_bytes, sha256, file_bytes, layer_name, ` +
+      `source_crs, column_mapping, feature_count, saved_count, uploaded_by, uploaded_at)
      select ?, purpose, file_name, format, size_bytes, sha256, file_bytes, layer_name, source_crs, column_mapping,
             (select count(*) from upload_staging_feature where staging_id = s.id), ?, created_by, created_at
      from upload_staging s where id = ?`,

@@ -54,7 +54,10 @@ export function overlapIssue(
   if (c.kind === 'near-duplicate') {
     return {
       code: 'near-duplicate',
-      message: `${self} is almost the same boundary as ${other}: they differ by ${m2(c.differenceM2)} (${pct(c.differenceM2 / Math.max(m.areaAM2, m.areaBM2))} of the larger), within the near-duplicate tolerance of ${pct(t.nearDuplicateShare)}. It is a duplicate.`,
+      message:
+        `${self} is almost the same boundary as ${other}: they differ by ${m2(c.differenceM2)} ` +
+        `(${pct(c.differenceM2 / Math.max(m.areaAM2, m.areaBM2))} of the larger), within the near-duplicate ` +
+        `tolerance of ${pct(t.nearDuplicateShare)}. It is a duplicate.`,
       severity: 'error',
     };
   }

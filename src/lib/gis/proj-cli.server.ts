@@ -59,6 +59,7 @@ export async function transformationsToWgs84(code: number): Promise<string[]> {
 export function unknownDatumError(what: string): GisInputError {
   return new GisInputError(
     'unknown-datum',
-    `${what} is on a datum for which no transformation to WGS 84 is known, so its coordinates cannot be placed to the metre. Choose the coordinate reference system by EPSG code (one with a known transformation), or add TOWGS84 parameters to the .prj.`,
+    `${what} is on a datum for which no transformation to WGS 84 is known, so its coordinates cannot be placed to ` +
+      `the metre. Choose the coordinate reference system by EPSG code (one with a known transformation), or add TOWGS84 parameters to the .prj.`,
   );
 }

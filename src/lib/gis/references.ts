@@ -27,7 +27,10 @@ const codePoint = (c: string) => `U+${c.codePointAt(0)!.toString(16).toUpperCase
 export function referenceProblem(reference: string): string | null {
   const hidden = INVISIBLE.exec(reference);
   if (hidden) {
-    return `Parcel reference "${reference.replace(INVISIBLE, '')}" contains an invisible or text-direction control character (${codePoint(hidden[0])}); type the reference again without it.`;
+    return (
+      `Parcel reference "${reference.replace(INVISIBLE, '')}" contains an invisible or text-direction control ` +
+      `character (${codePoint(hidden[0])}); type the reference again without it.`
+    );
   }
   const scripts = SCRIPTS.filter(([, re]) => [...reference].some((c) => re.test(c))).map(([name]) => name);
   if (scripts.length > 1) {

@@ -80,7 +80,9 @@ function checkRanges(geometry: MultiPolygon, options: ValidationOptions): Valida
   if (crs && far) {
     return {
       code: 'outside-crs-area',
-      message: `Point (${far[0]!.toFixed(5)}, ${far[1]!.toFixed(5)}) lies outside the area of use of ${crs.name}${crs.epsg ? ` (EPSG:${crs.epsg})` : ''}; the CRS is probably wrong.`,
+      message:
+        `Point (${far[0]!.toFixed(5)}, ${far[1]!.toFixed(5)}) lies outside the area of use ` +
+        `of ${crs.name}${crs.epsg ? ` (EPSG:${crs.epsg})` : ''}; the CRS is probably wrong.`,
       severity: 'error',
     };
   }
@@ -103,7 +105,9 @@ function checkStatedArea(
   if (Math.abs(statedM2 - areaM2) <= toleranceM2) return null;
   return {
     code: 'area-mismatch',
-    message: `Stated area ${f.statedArea.value} ${f.statedArea.unit} (${(statedM2 / 1e4).toFixed(4)} ha) differs from the measured ${(areaM2 / 1e4).toFixed(4)} ha by more than the tolerance of ${(toleranceM2 / 1e4).toFixed(4)} ha.`,
+    message:
+      `Stated area ${f.statedArea.value} ${f.statedArea.unit} (${(statedM2 / 1e4).toFixed(4)} ha) differs ` +
+      `from the measured ${(areaM2 / 1e4).toFixed(4)} ha by more than the tolerance of ${(toleranceM2 / 1e4).toFixed(4)} ha.`,
     severity: o.areaMismatch === 'warn' ? 'warning' : 'error',
   };
 }
@@ -141,7 +145,9 @@ export function validateFeatures(
     if (cut) {
       issues.unshift({
         code: 'antimeridian-split',
-        message: `The boundary crosses the antimeridian (180°); it was cut there into ${cut.coordinates.length} parts, one on each side (RFC 7946 §3.1.9). The area is unchanged.`,
+        message:
+          `The boundary crosses the antimeridian (180°); it was cut there into ${cut.coordinates.length} ` +
+          `parts, one on each side (RFC 7946 §3.1.9). The area is unchanged.`,
         severity: 'repaired',
       });
     }

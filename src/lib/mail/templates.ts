@@ -111,7 +111,9 @@ export function boardDecisionMail(
       ...p.conditions.map(
         (c, i) => `Condition ${i + 1}: ${c.text} (due ${formatDate(c.dueDate)}; checked by ${c.checkedBy}).`,
       ),
-      `Effective from ${formatDate(p.effectiveDate)}.${p.appealUntil ? ` An appeal may be lodged until ${formatDate(p.appealUntil)}; local law sets how.` : ''}`,
+      `Effective from ${formatDate(p.effectiveDate)}.${
+        p.appealUntil ? ` An appeal may be lodged ` + `until ${formatDate(p.appealUntil)}; local law sets how.` : ''
+      }`,
       `The decision is entry ${p.registerSeq} of the public register.`,
     ],
     { url: p.url, label: 'Open the proposal' },
@@ -141,7 +143,8 @@ export function decisionOverdueMail(
     `Decision on ${p.reference} is overdue`,
     [
       `Hello ${p.name},`,
-      `The decision on proposal ${p.reference}, "${p.title}", was due on ${formatDate(p.decisionDue)}, ${p.daysOver} day${p.daysOver === 1 ? '' : 's'} ago. The proposal is still "${p.state}".`,
+      `The decision on proposal ${p.reference}, "${p.title}", was due on ${formatDate(p.decisionDue)},` +
+        ` ${p.daysOver} day${p.daysOver === 1 ? '' : 's'} ago. The proposal is still "${p.state}".`,
       'Local law says what follows from a missed decision period; check it with your legal adviser.',
     ],
     { url: p.url, label: 'Open the proposal' },
@@ -178,10 +181,13 @@ export function compensationReversedMail(
     `Compensation for ${p.reference} reversed: parcel ${p.parcel} ploughed`,
     [
       `Hello ${p.name},`,
-      `Parcel ${p.parcel} was restored to grassland as compensation for proposal ${p.reference}, "${p.title}", and had to stay in grass until ${formatDate(p.permanenceUntil)}.`,
+      `Parcel ${p.parcel} was restored to grassland as compensation for proposal ${p.reference}, "${p.title}", and ` +
+        `had to stay in grass until ${formatDate(p.permanenceUntil)}.`,
       p.creditedCo2e
-        ? `The land-use record now shows ${p.event} on ${formatDate(p.eventDate)}. The ${p.creditedCo2e} credited for it has been taken back in register entry ${p.registerSeq} and counts again in the year's committed emissions.`
-        : `The land-use record now shows ${p.event} on ${formatDate(p.eventDate)}. A condition of register entry ${p.registerSeq} required the parcel restored; no gain was credited for it, so the register is unchanged.`,
+        ? `The land-use record now shows ${p.event} on ${formatDate(p.eventDate)}. The ${p.creditedCo2e} credited ` +
+          `for it has been taken back in register entry ${p.registerSeq} and counts again in the year's committed emissions.`
+        : `The land-use record now shows ${p.event} on ${formatDate(p.eventDate)}. A condition of register ` +
+          `entry ${p.registerSeq} required the parcel restored; no gain was credited for it, so the register is unchanged.`,
       'A follow-up task asks you to put this before the board. What the authority can require of the holder is a matter for local law.',
     ],
     { url: p.url, label: 'Open the follow-ups' },

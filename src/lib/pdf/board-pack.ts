@@ -19,7 +19,8 @@ function itemSection(doc: Pdf, p: ItemPack, first: boolean): void {
   );
   para(
     doc,
-    `Outlines from the stored boundaries (WGS 84, drawn north up). ${p.parcels.length} parcel${p.parcels.length === 1 ? '' : 's'}, ${p.assessment.totals.areaHa.toFixed(2)} ha in all.`,
+    `Outlines from the stored boundaries (WGS 84, drawn north up). ${p.parcels.length} ` +
+      `parcel${p.parcels.length === 1 ? '' : 's'}, ${p.assessment.totals.areaHa.toFixed(2)} ha in all.`,
     { size: 8, color: MUTED },
   );
 
@@ -57,7 +58,15 @@ function itemSection(doc: Pdf, p: ItemPack, first: boolean): void {
     doc,
     p.alternatives.map(
       (a) =>
-        `${a.label} (${a.areaHa.toFixed(2)} ha): ${a.available ? `${t(a.co2eTotal)}${a.co2eLow !== null ? `, 95 % range ${t(a.co2eLow)} to ${t(a.co2eHigh)}` : ''}${a.key !== 'proposal' && a.differenceFromProposal !== null ? `; ${a.differenceFromProposal > 0 ? '+' : ''}${a.differenceFromProposal.toFixed(1)} t CO2e against the proposal` : ''}` : 'not available'}${a.note ? `. ${a.note}` : ''}`,
+        `${a.label} (${a.areaHa.toFixed(2)} ha): ${
+          a.available
+            ? `${t(a.co2eTotal)}${a.co2eLow !== null ? `, 95 % range ${t(a.co2eLow)} to ${t(a.co2eHigh)}` : ''}${
+                a.key !== 'proposal' && a.differenceFromProposal !== null
+                  ? `; ${a.differenceFromProposal > 0 ? '+' : ''}${a.differenceFromProposal.toFixed(1)} t CO2e against the proposal`
+                  : ''
+              }`
+            : 'not available'
+        }${a.note ? `. ${a.note}` : ''}`,
     ),
     9,
   );
@@ -79,7 +88,8 @@ function itemSection(doc: Pdf, p: ItemPack, first: boolean): void {
   ]);
   para(
     doc,
-    `Figures as of today; the budget counts current approvals in the register for proposals starting in ${p.impact.budget.year}. Share of the budget after approval: ${pct(p.impact.budget.shareAfter)}.`,
+    `Figures as of today; the budget counts current approvals in the register for proposals starting ` +
+      `in ${p.impact.budget.year}. Share of the budget after approval: ${pct(p.impact.budget.shareAfter)}.`,
     { size: 8, color: MUTED },
   );
 
@@ -104,7 +114,8 @@ export async function boardPackPdf(
   packs.forEach((p, i) => itemSection(doc, p, i === 0));
   footers(
     doc,
-    `Swardkeep board pack, meeting of ${formatDate(meeting.date)}. Tier 1 estimates; not a substitute for survey; defer to local law and licensed professionals`,
+    `Swardkeep board pack, meeting of ${formatDate(meeting.date)}. Tier 1 estimates; not a substitute for survey; ` +
+      `defer to local law and licensed professionals`,
   );
   doc.end();
   return done;

@@ -39,7 +39,8 @@ export async function decisionNoticePdf(e: Entry): Promise<Buffer> {
     ['Parcels', c.parcels.map((p) => `${p.reference} (${p.areaHa.toFixed(2)} ha${p.part ? ', part' : ''})`).join(', ')],
     [
       'Emissions',
-      `${t(c.figures.co2eTotal)} (95 % range ${t(c.figures.co2eLow)} to ${t(c.figures.co2eHigh)}; ${c.figures.gwp.toUpperCase()} GWP; ${c.figures.runs.toLocaleString('en')} joint runs)`,
+      `${t(c.figures.co2eTotal)} (95 % range ${t(c.figures.co2eLow)} ` +
+        `to ${t(c.figures.co2eHigh)}; ${c.figures.gwp.toUpperCase()} GWP; ${c.figures.runs.toLocaleString('en')} joint runs)`,
     ],
     ['Soil carbon', `${c.figures.socChangeTotal.toFixed(1)} t C over the transition period`],
     [
@@ -50,7 +51,8 @@ export async function decisionNoticePdf(e: Entry): Promise<Buffer> {
       ? [
           [
             'Votes',
-            `${c.votes.approve} approve, ${c.votes.approveWithConditions} with conditions, ${c.votes.refuse} refuse, ${c.votes.defer} defer, ${c.votes.abstain} abstain; ${c.votes.declaredConflicts} declared a conflict`,
+            `${c.votes.approve} approve, ${c.votes.approveWithConditions} with conditions, ${c.votes.refuse} ` +
+              `refuse, ${c.votes.defer} defer, ${c.votes.abstain} abstain; ${c.votes.declaredConflicts} declared a conflict`,
           ] as [string, string],
         ]
       : []),

@@ -19,18 +19,24 @@ export function stateFromRecord(landUse: string | null, management: string | nul
     if (!GRAZING_OR_CUTTING.includes(mg)) {
       return {
         state: null,
-        note: `Recorded as ${use} with "${mg}"; the record does not say whether the grassland is improved, nominal or degraded (IPCC 2006 Vol 4 Ch 6 Table 6.2). Choose its state.`,
+        note:
+          `Recorded as ${use} with "${mg}"; the record does not say whether the grassland is improved, nominal ` +
+          `or degraded (IPCC 2006 Vol 4 Ch 6 Table 6.2). Choose its state.`,
       };
     }
     return {
       state: { landUse: 'grassland', management: 'nominal', input: 'medium' },
-      note: `Recorded as ${use}${mg ? ` (${mg})` : ''}: taken as nominally managed, non-degraded grassland (IPCC 2006 Vol 4 Ch 6 Table 6.2), as the record names no improvement or degradation.`,
+      note:
+        `Recorded as ${use}${mg ? ` (${mg})` : ''}: taken as nominally managed, non-degraded grassland (IPCC ` +
+        `2006 Vol 4 Ch 6 Table 6.2), as the record names no improvement or degradation.`,
     };
   }
   if (use === 'arable') {
     return {
       state: { landUse: 'cropland', system: 'long-term-cultivated', tillage: 'full', input: 'medium' },
-      note: 'Recorded as arable: taken as long-term cultivated cropland, full tillage, medium input (IPCC 2006 Vol 4 Ch 5 Table 5.5 defaults), as the record names no other tillage or input.',
+      note:
+        'Recorded as arable: taken as long-term cultivated cropland, full tillage, medium input (IPCC 2006 Vol ' +
+        '4 Ch 5 Table 5.5 defaults), as the record names no other tillage or input.',
     };
   }
   if (!use) return { state: null, note: 'The register has no land use for this parcel. Choose its current state.' };

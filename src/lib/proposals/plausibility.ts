@@ -40,7 +40,10 @@ export function checkPlausibility(converts: boolean, socBefore: number, socAfter
     lossShare: loss,
     inBand,
     message: inBand
-      ? `The estimate loses ${pct(loss)} of the starting topsoil carbon, inside the ${pct(FIELD_STUDY_BAND.low)}-${pct(FIELD_STUDY_BAND.high)} reported by field studies.`
-      : `Check this: the estimate loses ${pct(loss)} of the starting topsoil carbon, outside the ${pct(FIELD_STUDY_BAND.low)}-${pct(FIELD_STUDY_BAND.high)} reported by field studies. Look at the soil classes, the climate region and the states chosen.`,
+      ? `The estimate loses ${pct(loss)} of the starting topsoil carbon, inside ` +
+        `the ${pct(FIELD_STUDY_BAND.low)}-${pct(FIELD_STUDY_BAND.high)} reported by field studies.`
+      : `Check this: the estimate loses ${pct(loss)} of the starting topsoil carbon, outside ` +
+        `the ${pct(FIELD_STUDY_BAND.low)}-${pct(FIELD_STUDY_BAND.high)} reported by field studies. Look at the ` +
+        `soil classes, the climate region and the states chosen.`,
   };
 }

@@ -4,7 +4,10 @@
 import { z } from 'zod';
 
 export const proposalSettingsSchema = z.object({
-  /** Days from a valid submission to the decision deadline. 35 days: the screening-decision period of the England EIA (Agriculture) (No.2) Regulations 2006, reg. 8(5). */
+  /**
+   * Days from a valid submission to the decision deadline. 35 days: the screening-decision period of the England EIA
+   * (Agriculture) (No.2) Regulations 2006, reg. 8(5).
+   */
   'proposal.decision-days': z.number().int().positive().default(35),
   /** Largest attachment, bytes. */
   'proposal.attachment-max-bytes': z

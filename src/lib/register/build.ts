@@ -158,7 +158,9 @@ export function reversalContent(f: ReversalFacts): RegisterContent {
     areaHa: round(f.parcel.areaHa, 4),
     region: c.region,
     outcome: c.outcome,
-    reasons: `Parcel ${f.parcel.reference} was credited as compensation in entry ${f.credited.seq} and had to stay in grass until ${f.permanenceUntil}; the land-use record shows ${f.event.what} on ${f.event.date}.`,
+    reasons:
+      `Parcel ${f.parcel.reference} was credited as compensation in entry ${f.credited.seq} and had to stay ` +
+      `in grass until ${f.permanenceUntil}; the land-use record shows ${f.event.what} on ${f.event.date}.`,
     conditions: [],
     figures: {
       co2eTotal: gain,
@@ -180,7 +182,9 @@ export function reversalContent(f: ReversalFacts): RegisterContent {
     decidedOn: f.recordedAt.slice(0, 10),
     recordedAt: f.recordedAt,
     supersedes: null,
-    note: `The compensation credited in entry ${f.credited.seq} is reversed: ${gain} t CO2e count again in the committed emissions of ${f.event.date.slice(0, 4)}.`,
+    note:
+      `The compensation credited in entry ${f.credited.seq} is reversed: ${gain} t CO2e count again in the ` +
+      `committed emissions of ${f.event.date.slice(0, 4)}.`,
     reverses: {
       seq: f.credited.seq,
       parcelReference: f.parcel.reference,

@@ -7,11 +7,20 @@ export function thresholdText(r: Rule): string {
     case 'sensitive-share':
       return `Any parcel with more than ${fmtPct(r.params.aboveShare)} of its assessed area in designated sensitive grassland.`;
     case 'region-ratio-fall':
-      return `The region's permanent-grassland ratio after the proposal falls more than ${fmtPct(r.params.aboveRelativeFall)} (relative) below its reference ratio.`;
+      return (
+        `The region's permanent-grassland ratio after the proposal falls more ` +
+        `than ${fmtPct(r.params.aboveRelativeFall)} (relative) below its reference ratio.`
+      );
     case 'holding-cumulative-area':
-      return `Permanent grassland converted on one holding reaches ${fmtHa(r.params.atLeastHa)} or more, this proposal and earlier ones within ${r.params.windowYears} years added together.`;
+      return (
+        `Permanent grassland converted on one holding reaches ${fmtHa(r.params.atLeastHa)} or more, this ` +
+        `proposal and earlier ones within ${r.params.windowYears} years added together.`
+      );
     case 'never-tilled':
-      return `${r.params.useFlag ? 'The recorded history shows no tillage or arable use, or m' : 'M'}ore than ${fmtPct(r.params.aboveShare)} of a parcel lies in mapped never-tilled grassland.`;
+      return (
+        `${r.params.useFlag ? 'The recorded history shows no tillage or arable use, or m' : 'M'}ore ` +
+        `than ${fmtPct(r.params.aboveShare)} of a parcel lies in mapped never-tilled grassland.`
+      );
     case 'slope-class':
       return `More than ${fmtPct(r.params.aboveShare)} of a parcel lies in slope class ${r.params.classes.map((c) => `"${c}"`).join(' or ')}.`;
     case 'soc-loss-per-ha':

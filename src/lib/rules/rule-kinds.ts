@@ -70,7 +70,9 @@ const regionFall: Evaluator<'region-ratio-fall'> = (p, f) => {
   if (hits.length > 0) {
     const parts = hits.map(
       (r) =>
-        `in ${r.label} the permanent-grassland ratio would be ${fmtRatio(r.ratioAfter!)} after converting ${fmtHa(r.convertedHa)}, ${fmtPct(r.relativeFallAfter!)} below its reference ratio ${fmtRatio(r.referenceRatio!)}${r.referenceYear ? ` of ${r.referenceYear}` : ''}`,
+        `in ${r.label} the permanent-grassland ratio would be ${fmtRatio(r.ratioAfter!)} after ` +
+        `converting ${fmtHa(r.convertedHa)}, ${fmtPct(r.relativeFallAfter!)} below its reference ` +
+        `ratio ${fmtRatio(r.referenceRatio!)}${r.referenceYear ? ` of ${r.referenceYear}` : ''}`,
     );
     return {
       fired: true,
@@ -92,7 +94,8 @@ const holding: Evaluator<'holding-cumulative-area'> = (p, f) => {
   // Never the holding reference (personal data): only areas and public proposal references.
   const parts = hits.map((h) =>
     h.earlierHa > 0
-      ? `on one holding this proposal converts ${fmtHa(h.thisProposalHa)} of permanent grassland and earlier proposals within ${h.windowYears} years (${listWords(h.earlierReferences)}) converted ${fmtHa(h.earlierHa)}, together ${fmtHa(h.cumulativeHa)}`
+      ? `on one holding this proposal converts ${fmtHa(h.thisProposalHa)} of permanent grassland and earlier ` +
+        `proposals within ${h.windowYears} years (${listWords(h.earlierReferences)}) converted ${fmtHa(h.earlierHa)}, together ${fmtHa(h.cumulativeHa)}`
       : `on one holding this proposal converts ${fmtHa(h.cumulativeHa)} of permanent grassland`,
   );
   return {
@@ -110,7 +113,11 @@ const neverTilled: Evaluator<'never-tilled'> = (p, f) => {
     parts.push(`the recorded history shows no tillage or arable use on ${listWords(byFlag.map((x) => x.reference))}`);
   if (byLayer.length)
     parts.push(
-      `the never-tilled grassland layer covers ${listWords(byLayer.map((x) => `${fmtHa(x.neverTilledLayer.areaHa)} (${fmtPct(x.neverTilledLayer.share)}) of ${x.reference}`))}`,
+      `the never-tilled grassland layer covers ${listWords(
+        byLayer.map(
+          (x) => `${fmtHa(x.neverTilledLayer.areaHa)} ` + `(${fmtPct(x.neverTilledLayer.share)}) of ${x.reference}`,
+        ),
+      )}`,
     );
   return { fired: true, text: `${capitalise(parts.join('; '))}.` };
 };
@@ -135,7 +142,9 @@ const socPerHa: Evaluator<'soc-loss-per-ha'> = (p, f) => {
   if (!moreThan(f.totals.socLossPerHa, p.aboveTonnesCPerHa)) return { fired: false };
   return {
     fired: true,
-    text: `The soil-carbon loss averages ${fmtT1(f.totals.socLossPerHa)} t C/ha over the ${fmtHa(f.totals.areaHa)} assessed, more than ${fmtT1(p.aboveTonnesCPerHa)} t C/ha.`,
+    text:
+      `The soil-carbon loss averages ${fmtT1(f.totals.socLossPerHa)} t C/ha over the ${fmtHa(f.totals.areaHa)} ` +
+      `assessed, more than ${fmtT1(p.aboveTonnesCPerHa)} t C/ha.`,
   };
 };
 
@@ -156,7 +165,9 @@ const budget: Evaluator<'budget-share'> = (p, f) => {
   if (!moreThan(b.proposalShare, p.aboveShare)) return { fired: false };
   return {
     fired: true,
-    text: `The proposal would use ${fmtPct(b.proposalShare)} of the ${b.year} carbon budget of ${fmtT(b.budgetT)} t CO2e (${fmtT(b.committedT)} t already committed); the rule fires above ${fmtPct(p.aboveShare)}.`,
+    text:
+      `The proposal would use ${fmtPct(b.proposalShare)} of the ${b.year} carbon budget of ${fmtT(b.budgetT)} ` +
+      `t CO2e (${fmtT(b.committedT)} t already committed); the rule fires above ${fmtPct(p.aboveShare)}.`,
   };
 };
 

@@ -328,7 +328,8 @@ function resultOf(c: Computed) {
   if (!figures.estimates.some((e) => e)) blocking.push('No parcel of the proposal could be estimated.');
   if (unconfirmed.length && !c.settings['assessment.allow-unconfirmed-sign-off']) {
     blocking.push(
-      `Factor tables not yet confirmed by this authority: ${unconfirmed.join(', ')}. An administrator confirms them against the published document on the factor-set page (or allows sign-off with unconfirmed tables in the settings).`,
+      `Factor tables not yet confirmed by this authority: ${unconfirmed.join(', ')}. An administrator confirms ` +
+        `them against the published document on the factor-set page (or allows sign-off with unconfirmed tables in the settings).`,
     );
   }
   const first = figures.estimates.find((e) => e);
@@ -415,7 +416,8 @@ export async function runAssessment(by: Caller, proposalId: number, input: Input
     if (draft && input.version !== undefined && draft.version !== input.version) {
       throw new HttpError(
         'CONFLICT',
-        `Someone else re-ran or edited this assessment after you opened it (it is at version ${draft.version}, you sent ${input.version}). Reload it; nothing was saved.`,
+        `Someone else re-ran or edited this assessment after you opened it (it is at version ${draft.version}, you ` +
+          `sent ${input.version}). Reload it; nothing was saved.`,
       );
     }
     if (p.state === 'submitted') await applyTransition(trx, by, p, 'in-assessment', undefined);
@@ -546,7 +548,9 @@ export async function signOff(by: Caller, id: number, input: { findings: string;
         by: by.name,
         number: a.number,
         level: `${result.grade.label} (level ${result.grade.level} of 4)`,
-        co2e: `${Math.round(result.totals.co2eTotal).toLocaleString('en')} t CO2e (95 % range ${Math.round(result.totals.co2eLow).toLocaleString('en')} to ${Math.round(result.totals.co2eHigh).toLocaleString('en')})`,
+        co2e:
+          `${Math.round(result.totals.co2eTotal).toLocaleString('en')} t CO2e (95 % ` +
+          `range ${Math.round(result.totals.co2eLow).toLocaleString('en')} to ${Math.round(result.totals.co2eHigh).toLocaleString('en')})`,
         forChair,
       });
     if (p!.created_by) {

@@ -12,7 +12,8 @@ export async function reorderAgenda(by: Caller, meetingId: number, input: { item
     if (meeting.version !== input.version) {
       throw new HttpError(
         'CONFLICT',
-        `The agenda was changed by someone else after you opened it (it is at version ${meeting.version}, you sent ${input.version}). Reload the page and order it again; nothing was saved.`,
+        `The agenda was changed by someone else after you opened it (it is at version ${meeting.version}, you ` +
+          `sent ${input.version}). Reload the page and order it again; nothing was saved.`,
       );
     }
     const items = await store.listItems(trx, meetingId);

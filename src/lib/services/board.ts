@@ -287,7 +287,11 @@ async function deferItem(trx: Db, by: Caller, item: store.ItemRow, input: Decisi
   await proposals.setState(trx, p.id, {
     from: p.state,
     to: 'on-agenda',
-    reason: `Deferred by the board on ${formatDate(item.meeting_date)}: ${input.reasons}${carriedTo ? ` Listed for the meeting of ${formatDate(next!.meeting_date)}.` : ' It goes on the next meeting’s agenda.'}`,
+    reason: `Deferred by the board on ${formatDate(item.meeting_date)}: ${input.reasons}${
+      carriedTo
+        ? ` Listed for ` + `the meeting of ${formatDate(next!.meeting_date)}.`
+        : ' It goes on the next meeting’s agenda.'
+    }`,
     by: by.id,
   });
   await recordAudit(trx, {
@@ -478,7 +482,8 @@ export async function recordDecision(
       if (t.eligible < settings['board.quorum']) {
         throw new HttpError(
           'CONFLICT',
-          `No quorum on ${item.reference}: ${t.eligible} eligible vote${t.eligible === 1 ? '' : 's'} (members without a declared conflict), ${settings['board.quorum']} needed. Nothing was recorded; defer the item or collect the votes.`,
+          `No quorum on ${item.reference}: ${t.eligible} eligible vote${t.eligible === 1 ? '' : 's'} (members ` +
+            `without a declared conflict), ${settings['board.quorum']} needed. Nothing was recorded; defer the item or collect the votes.`,
         );
       }
       return decide(trx, by, item, { ...input, outcome: input.outcome }, t, now);

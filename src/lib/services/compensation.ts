@@ -136,7 +136,8 @@ export async function reverseBrokenCompensation(
   if (!what) return [];
   const sites: SiteRow[] = (
     await trx.raw(
-      `select id::int as id, parcel_id::int as parcel_id, proposal_id::int as proposal_id, register_seq::int as register_seq, credited_co2e_t, credited_soc_t, to_char(permanence_until, 'YYYY-MM-DD') as permanence_until
+      `select id::int as id, parcel_id::int as parcel_id, proposal_id::int as proposal_id, register_seq::int as ` +
+        `register_seq, credited_co2e_t, credited_soc_t, to_char(permanence_until, 'YYYY-MM-DD') as permanence_until
      from compensation_site where parcel_id = ? and status = 'held' and effective_date <= ?::date and permanence_until >= ?::date order by id for update`,
       [e.parcelId, e.date, e.date],
     )
@@ -196,7 +197,9 @@ async function reverseOne(
     assigneeRole: 'chair',
     checkedBy: 'Board chair',
     dueDate: addDays(new Date().toISOString().slice(0, 10), settings['follow-up.reversal-review-days']),
-    title: `Put before the board: compensation parcel ${p.reference} of ${ref.reference} was broken (${e.what} on ${formatDate(e.date)}) before ${formatDate(s.permanence_until)}; ${consequence}.`,
+    title:
+      `Put before the board: compensation parcel ${p.reference} of ${ref.reference} was broken (${e.what} ` +
+      `on ${formatDate(e.date)}) before ${formatDate(s.permanence_until)}; ${consequence}.`,
   });
   await mailRole(trx, 'chair', (u) =>
     compensationReversedMail({

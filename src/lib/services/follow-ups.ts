@@ -58,7 +58,9 @@ export async function createDecisionTasks(trx: Db, f: DecisionTaskFacts): Promis
       dueDate: siteDue,
       checkedBy: 'Field officer',
       assigneeRole: 'assessor',
-      title: `Confirm on site that the conversion of ${f.parcelReferences.length === 1 ? 'parcel' : 'parcels'} ${parcels} follows the decision (effective ${formatDate(f.effectiveDate)}).`,
+      title:
+        `Confirm on site that the conversion ` +
+        `of ${f.parcelReferences.length === 1 ? 'parcel' : 'parcels'} ${parcels} follows the decision (effective ${formatDate(f.effectiveDate)}).`,
     }),
   );
   if (f.compensationParcel) {
@@ -151,7 +153,8 @@ export async function recordOutcome(
     if (t.version !== input.version) {
       throw new HttpError(
         'CONFLICT',
-        `Someone else recorded an outcome for this task after you opened it (it is at version ${t.version}, you sent ${input.version}). Reload it; nothing was saved.`,
+        `Someone else recorded an outcome for this task after you opened it (it is at version ${t.version}, you ` +
+          `sent ${input.version}). Reload it; nothing was saved.`,
       );
     }
     if (input.outcome !== 'done' && !input.note.trim())

@@ -95,7 +95,8 @@ export async function lockProposal(trx: Db, id: number, version: number): Promis
   if (p.version !== version) {
     throw new HttpError(
       'CONFLICT',
-      `Someone else changed proposal ${p.reference} after you opened it (it is at version ${p.version}, you sent ${version}). Reload it to see their change; nothing was saved.`,
+      `Someone else changed proposal ${p.reference} after you opened it (it is at version ${p.version}, you ` +
+        `sent ${version}). Reload it to see their change; nothing was saved.`,
     );
   }
   return p;
@@ -241,7 +242,8 @@ export async function proposalDetail(by: Caller, id: number) {
     store.listEvents(db, id),
     store.listAttachments(db, id),
     db.raw(
-      `select a.id::int as id, a.number, a.status, a.version, a.grade_level, a.co2e_total, a.signed_at, u.name as signed_by_name from assessment a left join "user" u on u.id = a.signed_by where a.proposal_id = ? order by a.number desc`,
+      `select a.id::int as id, a.number, a.status, a.version, a.grade_level, a.co2e_total, a.signed_at, u.name as ` +
+        `signed_by_name from assessment a left join "user" u on u.id = a.signed_by where a.proposal_id = ? order by a.number desc`,
       [id],
     ),
   ]);

@@ -196,7 +196,8 @@ const bodies = new Map<string, Promise<string>>();
  */
 export async function listRegisterJson(query: ListQuery): Promise<string> {
   const state = await store.listState(db);
-  const key = `${state.head?.hash ?? '-'}|${state.regionVersionId ?? '-'}|${JSON.stringify([...filterKey(query), query.sort, query.dir, query.page, query.pageSize])}`;
+  const filters = [...filterKey(query), query.sort, query.dir, query.page, query.pageSize];
+  const key = `${state.head?.hash ?? '-'}|${state.regionVersionId ?? '-'}|${JSON.stringify(filters)}`;
   return remember(bodies, BODY_CACHE_MAX, key, async () => JSON.stringify(await listAt(query, state)));
 }
 

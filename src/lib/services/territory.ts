@@ -19,7 +19,9 @@ export function territoryIssue(row: { outsideShare: number; swappedInside: boole
   return row.swappedInside
     ? {
         code: 'axes-swapped',
-        message: `${self} ${where} the authority's territory, but with longitude and latitude swapped it lies inside: the axes look swapped (latitude given first). Fix the column order or the CRS axis order and upload again.`,
+        message:
+          `${self} ${where} the authority's territory, but with longitude and latitude swapped it lies ` +
+          `inside: the axes look swapped (latitude given first). Fix the column order or the CRS axis order and upload again.`,
         severity: 'error',
       }
     : {

@@ -61,7 +61,10 @@ export const tasks = {
   /** The file's layers without their features (columns, counts, CRS hints, extent): cheap to send back to the request thread. */
   inspect: (i: { bytes: Uint8Array; format: UploadFormat; fileName: string; settings: GisSettings }) =>
     guarded(async () => (await parseUpload(i.bytes, i.format, i.fileName, i.settings)).map(layerInfo)),
-  /** Reprojects with proj4 when `proj4Crs` is given (else the features are in EPSG:4326 already), then maps and validates; returns the staging insert's JSON chunks. */
+  /**
+   * Reprojects with proj4 when `proj4Crs` is given (else the features are in EPSG:4326 already), then maps and
+   * validates; returns the staging insert's JSON chunks.
+   */
   stage: (i: {
     features: RawFeature[];
     proj4Crs: CrsDefinition | null;

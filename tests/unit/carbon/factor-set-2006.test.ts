@@ -179,78 +179,90 @@ describe('Cropland biomass: 2006 Vol 4 Ch 5 Table 5.9, page not recorded; from m
   });
 });
 
-describe('Drained organic soils: 2006 Vol 4 Ch 5 Table 5.6 (cropland) and Ch 6 Table 6.3 (grassland), pages not recorded; from memory [M-H]; unconfirmed; ±90%', () => {
-  it('t C/ha/yr by land use and climate; polar NA; each entry names its own table', () => {
-    const u = pct(90, 'ci95');
-    const crop = [
-      ['boreal-cold-temperate', 5.0],
-      ['warm-temperate', 10.0],
-      ['tropical', 20.0],
-    ] as const;
-    const grass = [
-      ['boreal-cold-temperate', 0.25],
-      ['warm-temperate', 2.5],
-      ['tropical', 5.0],
-    ] as const;
-    for (const [row, v] of crop)
-      expect(c.value('organic-soil-ef', `cropland/${row}`, v, 't C/ha/yr', u, 'unconfirmed').source?.table).toBe(
-        'Table 5.6',
-      );
-    for (const [row, v] of grass)
-      expect(c.value('organic-soil-ef', `grassland/${row}`, v, 't C/ha/yr', u, 'unconfirmed').source?.table).toBe(
-        'Table 6.3',
-      );
-    c.na('organic-soil-ef', 'cropland/polar');
-    c.na('organic-soil-ef', 'grassland/polar');
-  });
-});
+describe(
+  'Drained organic soils: 2006 Vol 4 Ch 5 Table 5.6 (cropland) and Ch 6 Table 6.3 (grassland), pages not ' +
+    'recorded; from memory [M-H]; unconfirmed; ±90%',
+  () => {
+    it('t C/ha/yr by land use and climate; polar NA; each entry names its own table', () => {
+      const u = pct(90, 'ci95');
+      const crop = [
+        ['boreal-cold-temperate', 5.0],
+        ['warm-temperate', 10.0],
+        ['tropical', 20.0],
+      ] as const;
+      const grass = [
+        ['boreal-cold-temperate', 0.25],
+        ['warm-temperate', 2.5],
+        ['tropical', 5.0],
+      ] as const;
+      for (const [row, v] of crop)
+        expect(c.value('organic-soil-ef', `cropland/${row}`, v, 't C/ha/yr', u, 'unconfirmed').source?.table).toBe(
+          'Table 5.6',
+        );
+      for (const [row, v] of grass)
+        expect(c.value('organic-soil-ef', `grassland/${row}`, v, 't C/ha/yr', u, 'unconfirmed').source?.table).toBe(
+          'Table 6.3',
+        );
+      c.na('organic-soil-ef', 'cropland/polar');
+      c.na('organic-soil-ef', 'grassland/polar');
+    });
+  },
+);
 
 describe('N2O from mineralisation: 2006 Vol 4 Ch 11 Eq 11.8, Tables 11.1 and 11.3, pages not recorded', () => {
   it('R = 15 (10-30) and 10 (8-15): read in S2 (R package docs quoting IPCC 2006) -> confirmed', () => {
     c.value('n2o-mineralisation', 'cn-ratio/land-use-change', 15, 't C/t N', range(10, 30), 'confirmed');
     c.value('n2o-mineralisation', 'cn-ratio/cropland-management', 10, 't C/t N', range(8, 15), 'confirmed');
   });
-  it('EF1 0.01 (0.003-0.03) and EF1_FR 0.003 (0-0.006), Table 11.1; Frac_LEACH 0.30 (0.1-0.8), EF5 0.0075 (0.0005-0.025), Table 11.3: from memory [M-H]', () => {
-    c.value('n2o-mineralisation', 'ef1/wet', 0.01, 'kg N2O-N/kg N', range(0.003, 0.03), 'unconfirmed');
-    c.value('n2o-mineralisation', 'ef1/dry', 0.01, 'kg N2O-N/kg N', range(0.003, 0.03), 'unconfirmed');
-    c.value('n2o-mineralisation', 'ef1/flooded-rice', 0.003, 'kg N2O-N/kg N', range(0, 0.006), 'unconfirmed');
-    c.value('n2o-mineralisation', 'frac-leach', 0.3, 'kg N/kg N added', range(0.1, 0.8), 'unconfirmed');
-    c.value('n2o-mineralisation', 'ef5', 0.0075, 'kg N2O-N/kg N leached', range(0.0005, 0.025), 'unconfirmed');
-  });
+  it(
+    'EF1 0.01 (0.003-0.03) and EF1_FR 0.003 (0-0.006), Table 11.1; Frac_LEACH 0.30 (0.1-0.8), EF5 0.0075 ' +
+      '(0.0005-0.025), Table 11.3: from memory [M-H]',
+    () => {
+      c.value('n2o-mineralisation', 'ef1/wet', 0.01, 'kg N2O-N/kg N', range(0.003, 0.03), 'unconfirmed');
+      c.value('n2o-mineralisation', 'ef1/dry', 0.01, 'kg N2O-N/kg N', range(0.003, 0.03), 'unconfirmed');
+      c.value('n2o-mineralisation', 'ef1/flooded-rice', 0.003, 'kg N2O-N/kg N', range(0, 0.006), 'unconfirmed');
+      c.value('n2o-mineralisation', 'frac-leach', 0.3, 'kg N/kg N added', range(0.1, 0.8), 'unconfirmed');
+      c.value('n2o-mineralisation', 'ef5', 0.0075, 'kg N2O-N/kg N leached', range(0.0005, 0.025), 'unconfirmed');
+    },
+  );
 });
 
-describe('GWP-100: AR4 WG1 Table 2.14, AR5 WG1 Table 8.7/8.A.1, AR6 WG1 Table 7.15 (pages not recorded); cross-checked in S6 [X], AR6 CH4 read in S9 [V] -> confirmed', () => {
-  it('AR4 25/298, AR5 (no feedback) 28/265, AR6 CH4 non-fossil 27.0 / fossil 29.8 (±11), N2O 273 (±130)', () => {
-    c.value('gwp', 'ar4/ch4', 25, 't CO2e/t CH4', NONE, 'confirmed');
-    c.value('gwp', 'ar4/n2o', 298, 't CO2e/t N2O', NONE, 'confirmed');
-    c.value('gwp', 'ar5/ch4', 28, 't CO2e/t CH4', NONE, 'confirmed');
-    c.value('gwp', 'ar5/n2o', 265, 't CO2e/t N2O', NONE, 'confirmed');
-    c.value(
-      'gwp',
-      'ar6/ch4-non-fossil',
-      27.0,
-      't CO2e/t CH4',
-      { kind: 'plus-minus', plusMinus: 11, basis: 'unstated' },
-      'confirmed',
-    );
-    c.value(
-      'gwp',
-      'ar6/ch4-fossil',
-      29.8,
-      't CO2e/t CH4',
-      { kind: 'plus-minus', plusMinus: 11, basis: 'unstated' },
-      'confirmed',
-    );
-    c.value(
-      'gwp',
-      'ar6/n2o',
-      273,
-      't CO2e/t N2O',
-      { kind: 'plus-minus', plusMinus: 130, basis: 'unstated' },
-      'confirmed',
-    );
-  });
-});
+describe(
+  'GWP-100: AR4 WG1 Table 2.14, AR5 WG1 Table 8.7/8.A.1, AR6 WG1 Table 7.15 (pages not recorded); ' +
+    'cross-checked in S6 [X], AR6 CH4 read in S9 [V] -> confirmed',
+  () => {
+    it('AR4 25/298, AR5 (no feedback) 28/265, AR6 CH4 non-fossil 27.0 / fossil 29.8 (±11), N2O 273 (±130)', () => {
+      c.value('gwp', 'ar4/ch4', 25, 't CO2e/t CH4', NONE, 'confirmed');
+      c.value('gwp', 'ar4/n2o', 298, 't CO2e/t N2O', NONE, 'confirmed');
+      c.value('gwp', 'ar5/ch4', 28, 't CO2e/t CH4', NONE, 'confirmed');
+      c.value('gwp', 'ar5/n2o', 265, 't CO2e/t N2O', NONE, 'confirmed');
+      c.value(
+        'gwp',
+        'ar6/ch4-non-fossil',
+        27.0,
+        't CO2e/t CH4',
+        { kind: 'plus-minus', plusMinus: 11, basis: 'unstated' },
+        'confirmed',
+      );
+      c.value(
+        'gwp',
+        'ar6/ch4-fossil',
+        29.8,
+        't CO2e/t CH4',
+        { kind: 'plus-minus', plusMinus: 11, basis: 'unstated' },
+        'confirmed',
+      );
+      c.value(
+        'gwp',
+        'ar6/n2o',
+        273,
+        't CO2e/t N2O',
+        { kind: 'plus-minus', plusMinus: 130, basis: 'unstated' },
+        'confirmed',
+      );
+    });
+  },
+);
 
 describe('coverage', () => {
   it('every entry shipped in ipcc-2006.json was checked above', () => {

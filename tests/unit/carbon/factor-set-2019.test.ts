@@ -93,33 +93,37 @@ describe('Cropland factors: 2019 Refinement Vol 4 Ch 5 Table 5.5 (Updated), page
   });
 });
 
-describe('Grassland factors: 2019 Refinement Vol 4 Ch 6 Table 6.2 (Updated), page not recorded; no update recalled [M-L]: 2006 values kept; unconfirmed', () => {
-  const T62: [string, string, number[], number[] | null][] = [
-    ['f-lu', 'all-permanent', [1, 1, 1, 1, 1], null],
-    ['f-mg', 'nominal', [1, 1, 1, 1, 1], null],
-    ['f-mg', 'moderately-degraded', [0.95, 0.95, 0.97, 0.97, 0.96], [13, 13, 11, 11, 40]],
-    ['f-mg', 'severely-degraded', [0.7, 0.7, 0.7, 0.7, 0.7], [40, 40, 40, 40, 40]],
-    ['f-mg', 'improved', [1.14, 1.14, 1.17, 1.17, 1.16], [11, 11, 9, 9, 40]],
-    ['f-i', 'medium', [1, 1, 1, 1, 1], null],
-    ['f-i', 'high', [1.11, 1.11, 1.11, 1.11, 1.11], [7, 7, 7, 7, 7]],
-  ];
-  it('every factor and regime (all unconfirmed, including the reference levels)', () => {
-    for (const [f, level, vals, errs] of T62) {
-      REGIMES.forEach((g, i) =>
-        c.value(
-          'grassland-stock-factors',
-          `${f}/${level}/${g}`,
-          vals[i]!,
-          'dimensionless',
-          errs ? pct(errs[i]!, 'ci95') : NONE,
-          'unconfirmed',
-        ),
-      );
-      c.na('grassland-stock-factors', `${f}/${level}/polar`);
-    }
-    expect(note('grassland-stock-factors')).toMatch(/keeps every 2006 Table 6.2 value/);
-  });
-});
+describe(
+  'Grassland factors: 2019 Refinement Vol 4 Ch 6 Table 6.2 (Updated), page not recorded; no update recalled ' +
+    '[M-L]: 2006 values kept; unconfirmed',
+  () => {
+    const T62: [string, string, number[], number[] | null][] = [
+      ['f-lu', 'all-permanent', [1, 1, 1, 1, 1], null],
+      ['f-mg', 'nominal', [1, 1, 1, 1, 1], null],
+      ['f-mg', 'moderately-degraded', [0.95, 0.95, 0.97, 0.97, 0.96], [13, 13, 11, 11, 40]],
+      ['f-mg', 'severely-degraded', [0.7, 0.7, 0.7, 0.7, 0.7], [40, 40, 40, 40, 40]],
+      ['f-mg', 'improved', [1.14, 1.14, 1.17, 1.17, 1.16], [11, 11, 9, 9, 40]],
+      ['f-i', 'medium', [1, 1, 1, 1, 1], null],
+      ['f-i', 'high', [1.11, 1.11, 1.11, 1.11, 1.11], [7, 7, 7, 7, 7]],
+    ];
+    it('every factor and regime (all unconfirmed, including the reference levels)', () => {
+      for (const [f, level, vals, errs] of T62) {
+        REGIMES.forEach((g, i) =>
+          c.value(
+            'grassland-stock-factors',
+            `${f}/${level}/${g}`,
+            vals[i]!,
+            'dimensionless',
+            errs ? pct(errs[i]!, 'ci95') : NONE,
+            'unconfirmed',
+          ),
+        );
+        c.na('grassland-stock-factors', `${f}/${level}/polar`);
+      }
+      expect(note('grassland-stock-factors')).toMatch(/keeps every 2006 Table 6.2 value/);
+    });
+  },
+);
 
 describe('Tables with no recalled 2019 update keep the 2006 values (from memory [M-H]); unconfirmed; the note says which', () => {
   it('grassland biomass, 2006 Vol 4 Ch 6 Table 6.4 (±75%)', () => {
@@ -177,13 +181,17 @@ describe('N2O: 2019 Refinement Vol 4 Ch 11 Eq 11.8 (Updated), Tables 11.1 and 11
     c.value('n2o-mineralisation', 'cn-ratio/land-use-change', 15, 't C/t N', range(10, 30), 'unconfirmed');
     c.value('n2o-mineralisation', 'cn-ratio/cropland-management', 10, 't C/t N', range(8, 15), 'unconfirmed');
   });
-  it('EF1 disaggregated (from memory [M-H]): other inputs wet 0.006 (0.001-0.011), dry 0.005 (0-0.011); aggregated 0.010 (0.001-0.018); synthetic wet 0.016 (0.013-0.019); flooded rice 0.004 (0-0.029) [M-L]', () => {
-    c.value('n2o-mineralisation', 'ef1/wet', 0.006, 'kg N2O-N/kg N', range(0.001, 0.011), 'unconfirmed');
-    c.value('n2o-mineralisation', 'ef1/dry', 0.005, 'kg N2O-N/kg N', range(0, 0.011), 'unconfirmed');
-    c.value('n2o-mineralisation', 'ef1/aggregated', 0.01, 'kg N2O-N/kg N', range(0.001, 0.018), 'unconfirmed');
-    c.value('n2o-mineralisation', 'ef1/synthetic-wet', 0.016, 'kg N2O-N/kg N', range(0.013, 0.019), 'unconfirmed');
-    c.value('n2o-mineralisation', 'ef1/flooded-rice', 0.004, 'kg N2O-N/kg N', range(0, 0.029), 'unconfirmed');
-  });
+  it(
+    'EF1 disaggregated (from memory [M-H]): other inputs wet 0.006 (0.001-0.011), dry 0.005 (0-0.011); aggregated ' +
+      '0.010 (0.001-0.018); synthetic wet 0.016 (0.013-0.019); flooded rice 0.004 (0-0.029) [M-L]',
+    () => {
+      c.value('n2o-mineralisation', 'ef1/wet', 0.006, 'kg N2O-N/kg N', range(0.001, 0.011), 'unconfirmed');
+      c.value('n2o-mineralisation', 'ef1/dry', 0.005, 'kg N2O-N/kg N', range(0, 0.011), 'unconfirmed');
+      c.value('n2o-mineralisation', 'ef1/aggregated', 0.01, 'kg N2O-N/kg N', range(0.001, 0.018), 'unconfirmed');
+      c.value('n2o-mineralisation', 'ef1/synthetic-wet', 0.016, 'kg N2O-N/kg N', range(0.013, 0.019), 'unconfirmed');
+      c.value('n2o-mineralisation', 'ef1/flooded-rice', 0.004, 'kg N2O-N/kg N', range(0, 0.029), 'unconfirmed');
+    },
+  );
   it('Frac_LEACH 0.24 (0.01-0.73), EF5 0.011 (0-0.020): from memory [M-H]', () => {
     c.value('n2o-mineralisation', 'frac-leach', 0.24, 'kg N/kg N added', range(0.01, 0.73), 'unconfirmed');
     c.value('n2o-mineralisation', 'ef5', 0.011, 'kg N2O-N/kg N leached', range(0, 0.02), 'unconfirmed');

@@ -27,7 +27,8 @@ export function layerToWgs84(features: RawFeature[], crs: CrsDefinition | null, 
       const span = `x ${box[0].toFixed(0)} to ${box[2].toFixed(0)}, y ${box[1].toFixed(0)} to ${box[3].toFixed(0)}`;
       throw new GisInputError(
         'coordinates-not-degrees',
-        `Layer "${layerName}" has no .prj and its coordinates (${span}) are not longitude/latitude degrees; choose its coordinate reference system by EPSG code.`,
+        `Layer "${layerName}" has no .prj and its coordinates (${span}) are not longitude/latitude degrees; choose ` +
+          `its coordinate reference system by EPSG code.`,
       );
     }
     return features;
