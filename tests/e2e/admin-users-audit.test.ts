@@ -80,7 +80,7 @@ describe('users page', () => {
 
     await page.goto(`${BASE_URL}/admin/audit?entityType=user&entityId=${id}`);
     await page.getByTestId('audit-count').getByText('4 entries; page 1 of 1.').waitFor();
-    const text = await page.locator('table').textContent();
+    const text = (await page.locator('table').textContent())!.replace(/\s+/g, ' ');
     expect(text).toContain('Roles: planner → planner, board');
     expect(text).not.toContain('{"');
     await screenshotBoth(page, 'admin-audit-filtered');

@@ -45,7 +45,7 @@ describe('public register pages', () => {
     await page.getByRole('link', { name: reference }).click();
     await page.waitForURL(`${BASE_URL}/register/${seq}`);
     // The map over the public register tiles replaces the outline once it has drawn.
-    await page.locator('div[role="img"][data-ready="true"] canvas').first().waitFor();
+    await page.locator('div[role="region"][data-ready="true"] canvas').first().waitFor();
     await expect(page.locator('#entry-outline').isHidden()).resolves.toBe(true);
     await expect(page.getByText('Keep a 6 m grass margin along the watercourse.').count()).resolves.toBe(1);
     // This entry is the head: its hash shows in its own hashes and in the head panel.
