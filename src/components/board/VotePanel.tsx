@@ -1,6 +1,6 @@
 /** A member's part on an item: declare a conflict of interest, or vote with an optional comment. */
 import { useState } from 'react';
-import { VOTE_CHOICES, VOTE_LABELS, type VoteChoice } from '~/lib/board/settings';
+import { VOTE_CHOICES, VOTE_LABELS, type VoteChoice } from '~/lib/board/vote-choices';
 import { apiFetch } from '../ui/api-client';
 import { problemText } from './errors';
 

@@ -25,15 +25,8 @@ export function readBoardSettings(rows: { key: string; value: unknown }[]): Boar
   return parsed.data;
 }
 
-export const VOTE_CHOICES = ['approve', 'approve-with-conditions', 'refuse', 'defer', 'abstain'] as const;
-export type VoteChoice = (typeof VOTE_CHOICES)[number];
-export const VOTE_LABELS: Record<VoteChoice, string> = {
-  approve: 'Approve',
-  'approve-with-conditions': 'Approve with conditions',
-  refuse: 'Refuse',
-  defer: 'Defer',
-  abstain: 'Abstain',
-};
+export { VOTE_CHOICES, VOTE_LABELS, type VoteChoice } from './vote-choices';
+import type { VoteChoice } from './vote-choices';
 export const DECISION_OUTCOMES = ['approved', 'approved-with-conditions', 'refused', 'deferred'] as const;
 export type DecisionOutcome = (typeof DECISION_OUTCOMES)[number];
 
