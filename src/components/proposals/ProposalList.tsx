@@ -1,12 +1,12 @@
 /** The proposals list: a headless table (@tanstack/react-table) over the paged, sorted, filtered GET /api/proposals. */
 import { formatDate } from '~/lib/format/dates';
-import { useEffect, useMemo, useRef, useState } from 'react';
-import { createColumnHelper, getCoreRowModel, useReactTable, type SortingState } from '@tanstack/react-table';
+import { createColumnHelper } from '@tanstack/react-table';
 import { Pager, ServerTable } from '../table/ServerTable';
 import { PROPOSAL_STATES } from '~/lib/proposals/states';
-import { LEVELS, RISK_LEVELS, type RiskLevel } from '~/lib/rules/levels';
+import { type RiskLevel } from '~/lib/rules/levels';
+import { LevelFilter, ListCount, ListError, SortChoice } from '../table/ListControls';
 import { RiskBadge } from '../ui/RiskBadge';
-import { ApiError, apiFetch } from '../ui/api-client';
+import { useServerList, type ServerPage } from '../table/useServerList';
 import { toParams, type ListQuery } from './list-query';
 import { clockWords, hectares, stateLabel, tonnes } from './words';
 
@@ -25,7 +25,7 @@ export type ProposalRow = {
   co2eTotal: number | null;
   updatedAt: string;
 };
-type Page = { items: ProposalRow[]; total: number; page: number; pageSize: number };
+type Page = ServerPage<ProposalRow>;
 
 const col = createColumnHelper<ProposalRow>();
 const parcelsText = (r: ProposalRow) =>
@@ -65,54 +65,16 @@ export function ProposalList({
   initialQuery: ListQuery;
   canFile: boolean;
 }) {
-  const [query, setQuery] = useState<ListQuery>(initialQuery);
-  const [data, setData] = useState<Page>(initial);
-  const [error, setError] = useState<string | null>(null);
-  const [loading, setLoading] = useState(false);
-  const first = useRef(true);
-
-  useEffect(() => {
-    if (first.current) return void (first.current = false);
-    const params = toParams(query);
-    window.history.replaceState(null, '', `${window.location.pathname}${params.size ? `?${params}` : ''}`);
-    const t = setTimeout(() => {
-      setLoading(true);
-      apiFetch<Page>(`/api/proposals?${params}`)
-        .then(
-          (d) => (setData(d), setError(null)),
-          (e) => setError(e instanceof ApiError ? e.message : 'The list could not be loaded.'),
-        )
-        .finally(() => setLoading(false));
-    }, 200);
-    return () => clearTimeout(t);
-  }, [query]);
-
-  const sorting: SortingState = useMemo(
-    () => [{ id: query.sort, desc: query.dir === 'desc' }],
-    [query.sort, query.dir],
-  );
-  const pageCount = Math.max(1, Math.ceil(data.total / query.pageSize));
-  const table = useReactTable({
-    data: data.items,
+  const { query, set, data, error, loading, table, pageCount, from } = useServerList<ProposalRow, ListQuery>({
+    endpoint: '/api/proposals',
+    initial,
+    initialQuery,
+    toParams,
     columns: COLUMNS,
-    getCoreRowModel: getCoreRowModel(),
-    getRowId: (r) => String(r.id),
-    manualSorting: true,
-    manualPagination: true,
-    pageCount,
-    enableSortingRemoval: false,
-    state: { sorting, pagination: { pageIndex: query.page - 1, pageSize: query.pageSize } },
-    onSortingChange: (u) => {
-      const next = (typeof u === 'function' ? u(sorting) : u)[0];
-      if (next) setQuery({ ...query, sort: next.id, dir: next.desc ? 'desc' : 'asc', page: 1 });
-    },
-    onPaginationChange: (u) => {
-      const next = typeof u === 'function' ? u({ pageIndex: query.page - 1, pageSize: query.pageSize }) : u;
-      setQuery({ ...query, page: next.pageIndex + 1, pageSize: next.pageSize });
-    },
+    rowId: (r) => String(r.id),
+    debounceMs: 200,
+    failure: 'The list could not be loaded.',
   });
-  const set = (patch: Partial<ListQuery>) => setQuery({ ...query, ...patch, page: 1 });
-  const from = data.total === 0 ? 0 : (query.page - 1) * query.pageSize + 1;
 
   return (
     <div className="flex flex-col gap-3">
@@ -158,19 +120,7 @@ export function ProposalList({
             onChange={(e) => set({ parcel: e.target.value })}
           />
         </div>
-        <div className="field">
-          <label htmlFor="f-risk" className="text-sm font-medium text-muted">
-            Risk level
-          </label>
-          <select id="f-risk" className="input" value={query.risk} onChange={(e) => set({ risk: e.target.value })}>
-            <option value="">Any level</option>
-            {RISK_LEVELS.map((l) => (
-              <option key={l} value={l}>
-                {l} · {LEVELS[l].label}
-              </option>
-            ))}
-          </select>
-        </div>
+        <LevelFilter id="f-risk" label="Risk level" value={query.risk} onChange={(risk) => set({ risk })} />
         {canFile && (
           <a className="btn self-end justify-center" href="/proposals/new">
             File a proposal
@@ -179,45 +129,25 @@ export function ProposalList({
       </form>
 
       <div className="flex flex-wrap items-center justify-between gap-2 text-sm">
-        <p aria-live="polite">
-          {loading
-            ? 'Loading…'
-            : data.total === 0
-              ? 'No proposals match.'
-              : `Proposals ${from}–${from + data.items.length - 1} of ${data.total}`}
-        </p>
+        <ListCount loading={loading} total={data.total} from={from} shown={data.items.length} things="Proposals" />
         <div className="flex items-center gap-2 md:hidden">
-          <label htmlFor="m-sort" className="text-muted">
-            Sort by
-          </label>
-          <select
+          <SortChoice
             id="m-sort"
-            className="input"
-            value={`${query.sort}:${query.dir}`}
-            onChange={(e) => {
-              const [sort, dir] = e.target.value.split(':');
-              set({ sort, dir: dir as 'asc' | 'desc' });
-            }}
-          >
-            {[
+            labelClassName="text-muted"
+            sort={query.sort}
+            dir={query.dir}
+            choices={[
               ['updated', 'desc', 'Recently updated'],
               ['deadline', 'asc', 'Decision due soonest'],
               ['risk', 'desc', 'Highest risk'],
               ['co2e', 'desc', 'Largest CO2e'],
               ['reference', 'asc', 'Reference'],
-            ].map(([s, d, l]) => (
-              <option key={s} value={`${s}:${d}`}>
-                {l}
-              </option>
-            ))}
-          </select>
+            ]}
+            onChange={(sort, dir) => set({ sort, dir })}
+          />
         </div>
       </div>
-      {error && (
-        <p className="notice notice-warn" role="alert">
-          ⚠ {error}
-        </p>
-      )}
+      <ListError error={error} />
 
       <ServerTable table={table} sortable={(id) => id !== 'parcels' && table.getColumn(id)?.getCanSort() === true} />
 
