@@ -1,25 +1,10 @@
 /** Factor sets, their versions, confirmations and edits (server-only). */
 import type { FactorSetDocument } from '../carbon';
 import type { Db } from './client';
+import { versionedSetTables, type BaseVersionRow, type SetRow } from './versioned-sets';
 
-export type FactorSetRow = {
-  id: string;
-  title: string;
-  description: string;
-  origin: 'shipped' | 'custom';
-  based_on_id: string | null;
-  based_on_version: number | null;
-  created_at: Date;
-};
-export type VersionRow = {
-  set_id: string;
-  version: number;
-  status: 'draft' | 'published';
-  document: FactorSetDocument;
-  publish_note: string | null;
-  published_at: Date | null;
-  published_by_name: string | null;
-};
+export type FactorSetRow = SetRow;
+export type VersionRow = BaseVersionRow<FactorSetDocument>;
 export type ConfirmationRow = {
   table_key: string;
   confirmed_by_name: string | null;
@@ -28,56 +13,8 @@ export type ConfirmationRow = {
   page: string;
 };
 
-export async function listSets(db: Db): Promise<FactorSetRow[]> {
-  return db('factor_set').select('*').orderByRaw("origin = 'custom', id");
-}
-
-export async function getSet(db: Db, id: string): Promise<FactorSetRow | null> {
-  return (await db('factor_set').where({ id }).first()) ?? null;
-}
-
-export async function listVersions(db: Db, setId?: string): Promise<VersionRow[]> {
-  const q = db('factor_set_version as v')
-    .leftJoin('user as u', 'u.id', 'v.published_by')
-    .select(
-      'v.set_id',
-      'v.version',
-      'v.status',
-      'v.document',
-      'v.publish_note',
-      'v.published_at',
-      'u.name as published_by_name',
-    )
-    .orderBy([{ column: 'v.set_id' }, { column: 'v.version', order: 'desc' }]);
-  if (setId) q.where('v.set_id', setId);
-  return q;
-}
-
-/** A version by number, or the newest published one (version undefined), or the draft. */
-export async function getVersion(
-  db: Db,
-  setId: string,
-  which: number | 'latest' | 'draft',
-  opts: { lock?: boolean } = {},
-): Promise<VersionRow | null> {
-  const q = db('factor_set_version as v')
-    .leftJoin('user as u', 'u.id', 'v.published_by')
-    .select(
-      'v.set_id',
-      'v.version',
-      'v.status',
-      'v.document',
-      'v.publish_note',
-      'v.published_at',
-      'u.name as published_by_name',
-    )
-    .where('v.set_id', setId);
-  if (which === 'draft') q.where('v.status', 'draft');
-  else if (which === 'latest') q.where('v.status', 'published').orderBy('v.version', 'desc');
-  else q.where('v.version', which);
-  if (opts.lock) q.forUpdate('v');
-  return (await q.first()) ?? null;
-}
+const tables = versionedSetTables<FactorSetDocument, VersionRow>({ set: 'factor_set', version: 'factor_set_version' });
+export const { listSets, getSet, listVersions, getVersion, insertSet, insertVersion, markPublished } = tables;
 
 export async function listConfirmations(db: Db, setId: string, version: number): Promise<ConfirmationRow[]> {
   return db('factor_table_confirmation as c')
@@ -86,60 +23,10 @@ export async function listConfirmations(db: Db, setId: string, version: number):
     .where({ 'c.set_id': setId, 'c.version': version });
 }
 
-export async function insertSet(
-  db: Db,
-  s: {
-    id: string;
-    title: string;
-    description: string;
-    origin: 'shipped' | 'custom';
-    basedOn?: { id: string; version: number };
-    createdBy: string | null;
-  },
-): Promise<void> {
-  await db('factor_set').insert({
-    id: s.id,
-    title: s.title,
-    description: s.description,
-    origin: s.origin,
-    based_on_id: s.basedOn?.id ?? null,
-    based_on_version: s.basedOn?.version ?? null,
-    created_by: s.createdBy,
-  });
-}
-
-export async function insertVersion(
-  db: Db,
-  v: {
-    setId: string;
-    version: number;
-    status: 'draft' | 'published';
-    document: FactorSetDocument;
-    note?: string;
-    by: string | null;
-  },
-): Promise<void> {
-  await db('factor_set_version').insert({
-    set_id: v.setId,
-    version: v.version,
-    status: v.status,
-    document: JSON.stringify(v.document),
-    publish_note: v.status === 'published' ? (v.note ?? null) : null,
-    published_by: v.status === 'published' ? v.by : null,
-    published_at: v.status === 'published' ? db.fn.now() : null,
-  });
-}
-
 export async function updateDraftDocument(db: Db, setId: string, document: FactorSetDocument): Promise<void> {
   await db('factor_set_version')
     .where({ set_id: setId, status: 'draft' })
     .update({ document: JSON.stringify(document) });
-}
-
-export async function markPublished(db: Db, setId: string, version: number, by: string, note: string): Promise<void> {
-  await db('factor_set_version')
-    .where({ set_id: setId, version })
-    .update({ status: 'published', published_by: by, published_at: db.fn.now(), publish_note: note });
 }
 
 export async function insertConfirmation(

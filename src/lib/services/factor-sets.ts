@@ -12,60 +12,40 @@ import { db, withTransaction, type Db } from '../db/client';
 import * as sets from '../db/factor-sets';
 import { HttpError } from '../http/errors';
 import type { Caller } from '../http/handle';
-import { recomputeScreening } from './screening';
+import {
+  copySet,
+  customSet,
+  defaultId,
+  publish,
+  setDefault,
+  startDraft as startSetDraft,
+  syncShipped,
+  type SetKind,
+} from './versioned-sets';
 import { cloneDocument, sameDocument, withConfirmations, withEditedEntry } from './factor-set-documents';
 
 export const DEFAULT_SET_KEY = 'default-factor-set';
 
-/**
- * Puts each shipped set's version into the database when it is missing. A shipped file whose
- * content changed without a new version number is refused: old estimates name that version.
- */
+const FACTOR_SETS: SetKind<FactorSetDocument, sets.VersionRow> = {
+  entity: 'factor-set',
+  noun: 'factor set',
+  tables: sets,
+  defaultKey: DEFAULT_SET_KEY,
+  fallbackId: DEFAULT_FACTOR_SET_ID,
+  same: sameDocument,
+  copy: cloneDocument,
+};
+
+/** Puts each shipped set's missing versions into the database (versioned-sets.ts). */
 export async function syncShippedSets(
   conn: Db = db,
   shipped: readonly FactorSetDocument[] = BUILT_IN_FACTOR_SETS,
 ): Promise<string[]> {
-  const added: string[] = [];
-  await withTransaction(conn, async (trx) => {
-    for (const doc of shipped) {
-      if (!(await sets.getSet(trx, doc.id)))
-        await sets.insertSet(trx, {
-          id: doc.id,
-          title: doc.title,
-          description: doc.description,
-          origin: 'shipped',
-          createdBy: null,
-        });
-      const stored = await sets.getVersion(trx, doc.id, doc.version);
-      if (stored && !sameDocument(stored.document, doc)) {
-        throw new Error(
-          `shipped factor set ${doc.id} version ${doc.version} differs from the stored one; give the changed file a new version number`,
-        );
-      }
-      if (!stored) {
-        await sets.insertVersion(trx, {
-          setId: doc.id,
-          version: doc.version,
-          status: 'published',
-          document: doc,
-          note: 'Shipped with Swardkeep',
-          by: null,
-        });
-        await recordAudit(trx, {
-          actorId: null,
-          action: 'factor-set.ship',
-          entityType: 'factor-set',
-          entityId: `${doc.id}@${doc.version}`,
-        });
-        added.push(`${doc.id}@${doc.version}`);
-      }
-    }
-  });
-  return added;
+  return syncShipped(FACTOR_SETS, shipped, conn);
 }
 
 export async function defaultSetId(conn: Db = db): Promise<string> {
-  return (await sets.getSetting<string>(conn, DEFAULT_SET_KEY)) ?? DEFAULT_FACTOR_SET_ID;
+  return defaultId(FACTOR_SETS, conn);
 }
 
 /**
@@ -137,38 +117,16 @@ export async function cloneSet(
   by: Caller,
   input: { fromId: string; fromVersion?: number; id: string; title: string; description: string; reason: string },
 ): Promise<{ id: string; version: number }> {
-  return withTransaction(db, async (trx) => {
-    if (await sets.getSet(trx, input.id))
-      throw new HttpError('CONFLICT', `A factor set with the id "${input.id}" already exists.`);
-    const source = await sets.getVersion(trx, input.fromId, input.fromVersion ?? 'latest');
-    if (!source || source.status !== 'published')
-      throw new HttpError('NOT_FOUND', `No published version of "${input.fromId}" to copy.`);
-    const document = cloneDocument(source.document, input.id, input.title, input.description);
-    await sets.insertSet(trx, {
-      id: input.id,
-      title: input.title,
-      description: input.description,
-      origin: 'custom',
-      basedOn: { id: source.set_id, version: source.version },
-      createdBy: by.id,
-    });
-    await sets.insertVersion(trx, { setId: input.id, version: 1, status: 'draft', document, by: by.id });
-    await recordAudit(trx, {
-      actorId: by.id,
-      action: 'factor-set.clone',
-      entityType: 'factor-set',
-      entityId: input.id,
-      details: { from: `${source.set_id}@${source.version}`, reason: input.reason },
-    });
-    return { id: input.id, version: 1 };
-  });
+  return copySet(FACTOR_SETS, by, input);
 }
 
 async function lockDraft(trx: Db, setId: string) {
-  const set = await sets.getSet(trx, setId);
-  if (!set) throw new HttpError('NOT_FOUND', `No factor set "${setId}".`);
-  if (set.origin === 'shipped')
-    throw new HttpError('CONFLICT', 'Shipped factor sets are read-only. Copy one to make a country-specific set.');
+  await customSet(
+    FACTOR_SETS,
+    trx,
+    setId,
+    'Shipped factor sets are read-only. Copy one to make a country-specific set.',
+  );
   const draft = await sets.getVersion(trx, setId, 'draft', { lock: true });
   if (!draft)
     throw new HttpError('CONFLICT', 'This set has no draft. Start a new draft from its latest version first.');
@@ -212,45 +170,14 @@ export async function editDraftEntry(
 }
 
 export async function startDraft(by: Caller, setId: string): Promise<{ version: number }> {
-  return withTransaction(db, async (trx) => {
-    const set = await sets.getSet(trx, setId);
-    if (!set) throw new HttpError('NOT_FOUND', `No factor set "${setId}".`);
-    if (set.origin === 'shipped') throw new HttpError('CONFLICT', 'Shipped factor sets are read-only.');
-    if (await sets.getVersion(trx, setId, 'draft')) throw new HttpError('CONFLICT', 'This set already has a draft.');
-    const latest = await sets.getVersion(trx, setId, 'latest');
-    if (!latest) throw new HttpError('CONFLICT', 'This set has no published version to start from.');
-    const version = latest.version + 1;
-    await sets.insertVersion(trx, {
-      setId,
-      version,
-      status: 'draft',
-      document: { ...latest.document, version },
-      by: by.id,
-    });
-    await recordAudit(trx, {
-      actorId: by.id,
-      action: 'factor-set.draft',
-      entityType: 'factor-set',
-      entityId: `${setId}@${version}`,
-    });
-    return { version };
-  });
+  return startSetDraft(FACTOR_SETS, by, setId);
 }
 
 export async function publishDraft(by: Caller, setId: string, note: string): Promise<{ version: number }> {
   return withTransaction(db, async (trx) => {
     const draft = await lockDraft(trx, setId);
     factorSetDocumentSchema.parse(draft.document);
-    await sets.markPublished(trx, setId, draft.version, by.id, note);
-    await recordAudit(trx, {
-      actorId: by.id,
-      action: 'factor-set.publish',
-      entityType: 'factor-set',
-      entityId: `${setId}@${draft.version}`,
-      details: { note },
-    });
-    if ((await defaultSetId(trx)) === setId)
-      await recomputeScreening(trx, by.id, `Factor set ${setId} version ${draft.version} published`);
+    await publish(FACTOR_SETS, trx, by, draft, note);
     return { version: draft.version };
   });
 }
@@ -292,20 +219,5 @@ export async function confirmTable(
 }
 
 export async function setDefaultSet(by: Caller, setId: string): Promise<void> {
-  await withTransaction(db, async (trx) => {
-    if (!(await sets.getVersion(trx, setId, 'latest')))
-      throw new HttpError('UNPROCESSABLE_CONTENT', `Factor set "${setId}" has no published version.`, [
-        { path: ['id'], message: 'Not published.' },
-      ]);
-    const before = await defaultSetId(trx);
-    await sets.putSetting(trx, DEFAULT_SET_KEY, setId, by.id);
-    await recordAudit(trx, {
-      actorId: by.id,
-      action: 'setting.default-factor-set',
-      entityType: 'setting',
-      entityId: DEFAULT_SET_KEY,
-      details: { before, after: setId },
-    });
-    if (before !== setId) await recomputeScreening(trx, by.id, `Default factor set changed to ${setId}`);
-  });
+  await setDefault(FACTOR_SETS, by, setId);
 }
