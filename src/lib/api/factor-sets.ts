@@ -2,13 +2,13 @@
 import { z } from 'zod';
 import { factorSetDocumentSchema, uncertaintySchema } from '../carbon';
 import { defineSpec } from '../http/spec';
+import { copyBody, diffResponse, publishNote, setIdParams, setSummarySchema, versionQuery } from './versioned-sets';
 
 const setId = z
   .string()
   .regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, 'Use lower-case letters, digits and hyphens, e.g. "national-2027".')
   .min(3)
   .max(60);
-const idParams = z.object({ id: z.string().min(1).max(60) });
 
 const versionSummary = z.object({
   version: z.number().int(),
@@ -19,17 +19,7 @@ const versionSummary = z.object({
   unconfirmedTables: z.array(z.string()),
 });
 
-export const factorSetSummarySchema = z
-  .object({
-    id: z.string(),
-    title: z.string(),
-    description: z.string(),
-    origin: z.enum(['shipped', 'custom']),
-    basedOn: z.object({ id: z.string(), version: z.number().int() }).nullable(),
-    isDefault: z.boolean(),
-    versions: z.array(versionSummary),
-  })
-  .meta({ id: 'FactorSetSummary' });
+export const factorSetSummarySchema = setSummarySchema(versionSummary, 'FactorSetSummary');
 
 export const listFactorSets = defineSpec({
   method: 'GET',
@@ -47,8 +37,8 @@ export const getFactorSet = defineSpec({
   summary:
     'One version of a factor set (newest published unless ?version= or ?version=draft), with confirmations and edit history',
   access: 'signed-in',
-  params: idParams,
-  query: z.object({ version: z.union([z.literal('draft'), z.coerce.number().int().positive()]).optional() }),
+  params: setIdParams,
+  query: versionQuery,
   response: z.object({
     summary: factorSetSummarySchema,
     version: z.number().int(),
@@ -77,20 +67,7 @@ export const diffFactorSets = defineSpec({
   summary: 'What differs between two published versions (a=id@version, b=id@version)',
   access: 'signed-in',
   query: z.object({ a: versionRef, b: versionRef }),
-  response: z.object({
-    a: z.string(),
-    b: z.string(),
-    items: z.array(
-      z.object({
-        table: z.string(),
-        entry: z.string(),
-        presence: z.enum(['both', 'only-a', 'only-b']),
-        changed: z.array(z.string()),
-        a: z.unknown(),
-        b: z.unknown(),
-      }),
-    ),
-  }),
+  response: diffResponse({ table: z.string(), entry: z.string() }),
 });
 
 export const cloneFactorSet = defineSpec({
@@ -99,13 +76,7 @@ export const cloneFactorSet = defineSpec({
   tag: 'Factor sets',
   summary: 'Copy a published set into a new country-specific (Tier 2) set, as an editable draft',
   access: ['admin'],
-  body: z.object({
-    from: z.object({ id: z.string().min(1), version: z.number().int().positive().optional() }),
-    id: setId.refine((v) => v !== 'diff', 'This id is reserved.'),
-    title: z.string().trim().min(3).max(120),
-    description: z.string().trim().min(3).max(1000),
-    reason: z.string().trim().min(10, 'Say why this set is needed (at least 10 characters).').max(2000),
-  }),
+  body: copyBody(setId, 'set', 1000),
   response: z.object({ id: z.string(), version: z.number().int() }),
   status: 201,
 });
@@ -116,7 +87,7 @@ export const startDraft = defineSpec({
   tag: 'Factor sets',
   summary: 'Start a new draft from the newest published version',
   access: ['admin'],
-  params: idParams,
+  params: setIdParams,
   response: z.object({ version: z.number().int() }),
   status: 201,
 });
@@ -127,7 +98,7 @@ export const editDraft = defineSpec({
   tag: 'Factor sets',
   summary: 'Change one value of the draft, with a reason',
   access: ['admin'],
-  params: idParams,
+  params: setIdParams,
   body: z.object({
     tableKey: z.string().min(1),
     entryKey: z.string().min(1),
@@ -149,8 +120,8 @@ export const publishDraft = defineSpec({
   tag: 'Factor sets',
   summary: 'Publish the draft as a new immutable version',
   access: ['admin'],
-  params: idParams,
-  body: z.object({ note: z.string().trim().min(5, 'Describe what this version changes.').max(2000) }),
+  params: setIdParams,
+  body: z.object({ note: publishNote }),
   response: z.object({ version: z.number().int() }),
 });
 

@@ -2,10 +2,10 @@
 import { z } from 'zod';
 import type { Role } from '../auth/roles';
 import { defineSpec } from '../http/spec';
+import { copyBody, diffResponse, publishNote, setIdParams, setSummarySchema, versionQuery } from './versioned-sets';
 import { ruleSchema, ruleSetDocumentSchema, ruleSetIdSchema } from '../rules';
 
 export const RULE_READERS: readonly Role[] = ['assessor', 'board', 'chair', 'admin'];
-const idParams = z.object({ id: z.string().min(1).max(60) });
 const revision = z.number().int().positive();
 
 const versionSummary = z.object({
@@ -18,17 +18,7 @@ const versionSummary = z.object({
   note: z.string().nullable(),
 });
 
-export const ruleSetSummarySchema = z
-  .object({
-    id: z.string(),
-    title: z.string(),
-    description: z.string(),
-    origin: z.enum(['shipped', 'custom']),
-    basedOn: z.object({ id: z.string(), version: z.number().int() }).nullable(),
-    isDefault: z.boolean(),
-    versions: z.array(versionSummary),
-  })
-  .meta({ id: 'RuleSetSummary' });
+export const ruleSetSummarySchema = setSummarySchema(versionSummary, 'RuleSetSummary');
 
 export const listRuleSets = defineSpec({
   method: 'GET',
@@ -45,8 +35,8 @@ export const getRuleSet = defineSpec({
   tag: 'Rule sets',
   summary: 'One version of a rule set (newest published unless ?version= or ?version=draft), with the edit history',
   access: RULE_READERS,
-  params: idParams,
-  query: z.object({ version: z.union([z.literal('draft'), z.coerce.number().int().positive()]).optional() }),
+  params: setIdParams,
+  query: versionQuery,
   response: z.object({
     summary: ruleSetSummarySchema,
     version: z.number().int(),
@@ -78,19 +68,7 @@ export const diffRuleSets = defineSpec({
   summary: 'What differs between two versions, rule by rule (a=id@version, b=id@version or id@draft)',
   access: RULE_READERS,
   query: z.object({ a: versionRef, b: versionRef }),
-  response: z.object({
-    a: z.string(),
-    b: z.string(),
-    items: z.array(
-      z.object({
-        rule: z.string(),
-        presence: z.enum(['both', 'only-a', 'only-b']),
-        changed: z.array(z.string()),
-        a: z.unknown(),
-        b: z.unknown(),
-      }),
-    ),
-  }),
+  response: diffResponse({ rule: z.string() }),
 });
 
 export const cloneRuleSet = defineSpec({
@@ -99,13 +77,7 @@ export const cloneRuleSet = defineSpec({
   tag: 'Rule sets',
   summary: 'Copy a published rule set into a new set, as an editable draft',
   access: ['admin'],
-  body: z.object({
-    from: z.object({ id: z.string().min(1), version: z.number().int().positive().optional() }),
-    id: ruleSetIdSchema.refine((v) => v !== 'diff', 'This id is reserved.'),
-    title: z.string().trim().min(3).max(120),
-    description: z.string().trim().min(3).max(2000),
-    reason: z.string().trim().min(10, 'Say why this rule set is needed (at least 10 characters).').max(2000),
-  }),
+  body: copyBody(ruleSetIdSchema, 'rule set', 2000),
   response: z.object({ id: z.string(), version: z.number().int(), revision }),
   status: 201,
 });
@@ -116,7 +88,7 @@ export const startRuleDraft = defineSpec({
   tag: 'Rule sets',
   summary: 'Start a new draft from the newest published version',
   access: ['admin'],
-  params: idParams,
+  params: setIdParams,
   response: z.object({ version: z.number().int(), revision }),
   status: 201,
 });
@@ -132,7 +104,7 @@ export const editRuleDraft = defineSpec({
   tag: 'Rule sets',
   summary: 'Add, replace or remove one rule of the draft, with a reason; send the revision you read (stale → 409)',
   access: ['admin'],
-  params: idParams,
+  params: setIdParams,
   body: z.discriminatedUnion('action', [
     z.object({ action: z.literal('put'), ruleId: z.string().min(1).max(60), rule: ruleSchema, reason, revision }),
     z.object({ action: z.literal('remove'), ruleId: z.string().min(1).max(60), reason, revision }),
@@ -146,8 +118,8 @@ export const publishRuleDraft = defineSpec({
   tag: 'Rule sets',
   summary: 'Publish the draft as a new immutable version; send the revision you read (stale → 409)',
   access: ['admin'],
-  params: idParams,
-  body: z.object({ note: z.string().trim().min(5, 'Describe what this version changes.').max(2000), revision }),
+  params: setIdParams,
+  body: z.object({ note: publishNote, revision }),
   response: z.object({ version: z.number().int() }),
 });
 

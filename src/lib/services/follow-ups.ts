@@ -2,8 +2,8 @@
  * Follow-up tasks of board decisions: created in the decision's transaction, listed (overdue first),
  * closed with an outcome (optimistic locking: a stale version gets 409) and backed by evidence files.
  */
+import { checkDocument, storeDocument } from './documents';
 import { formatDate } from '~/lib/format/dates';
-import { createHash, randomUUID } from 'node:crypto';
 import { recordAudit } from '../db/audit';
 import { db, withTransaction, type Db } from '../db/client';
 import * as store from '../db/follow-ups';
@@ -11,8 +11,6 @@ import { config } from '../config';
 import type { TaskOutcome } from '../follow-ups/settings';
 import { HttpError } from '../http/errors';
 import type { Caller } from '../http/handle';
-import { detectAttachmentType } from '../proposals/file-type';
-import { getProposalSettings } from '../db/proposals';
 import { addDays } from '../proposals/states';
 import type { Condition } from '../register/content';
 
@@ -176,48 +174,23 @@ export async function recordOutcome(
 }
 
 export async function addEvidence(by: Caller, id: number, file: { fileName: string; bytes: Uint8Array }) {
-  const max = (await getProposalSettings(db))['proposal.attachment-max-bytes'];
-  if (file.bytes.length > max)
-    throw new HttpError(
-      'PAYLOAD_TOO_LARGE',
-      `"${file.fileName}" is ${file.bytes.length.toLocaleString('en')} bytes; evidence files may be at most ${max.toLocaleString('en')} bytes.`,
-    );
-  const kind = detectAttachmentType(file.bytes);
-  if ('problem' in kind)
-    throw new HttpError(
-      'UNSUPPORTED_MEDIA_TYPE',
-      `"${file.fileName}" was not added: ${kind.problem} Add PDF, PNG or JPEG files.`,
-    );
+  const mediaType = await checkDocument(db, file, { plural: 'evidence files', added: 'added', add: 'Add' });
   return withTransaction(db, async (trx) => {
     const t = await store.getTask(trx, id, { lock: true });
     if (!t) throw new HttpError('NOT_FOUND', `No follow-up task with id ${id}.`);
-    const evidenceId = randomUUID();
-    const sha256 = createHash('sha256').update(file.bytes).digest('hex');
-    await store.insertEvidence(trx, {
-      id: evidenceId,
-      taskId: id,
-      fileName: file.fileName,
-      mediaType: kind.type,
-      bytes: file.bytes,
-      sha256,
-      by: by.id,
-    });
-    await recordAudit(trx, {
-      actorId: by.id,
-      action: 'follow-up.evidence',
-      entityType: 'follow_up_task',
-      entityId: String(id),
-      details: { proposal: t.reference, evidenceId, fileName: file.fileName, sha256, sizeBytes: file.bytes.length },
-    });
-    return {
-      id: evidenceId,
-      fileName: file.fileName,
-      mediaType: kind.type,
-      sizeBytes: file.bytes.length,
-      sha256,
-      uploadedBy: by.name,
-      uploadedAt: new Date().toISOString(),
-    };
+    return storeDocument(
+      trx,
+      by,
+      file,
+      mediaType,
+      (row) => store.insertEvidence(trx, { ...row, taskId: id, by: by.id }),
+      {
+        action: 'follow-up.evidence',
+        entityType: 'follow_up_task',
+        entityId: String(id),
+        details: (evidenceId) => ({ proposal: t.reference, evidenceId }),
+      },
+    );
   });
 }
 

@@ -1,5 +1,5 @@
 /** Proposal use cases: file, edit, move through the states, read, list, attach documents. One transaction each, audited. */
-import { createHash, randomUUID } from 'node:crypto';
+import { checkDocument, storeDocument } from './documents';
 import type { Geometry, MultiPolygon } from 'geojson';
 import type { z } from 'zod';
 import type { proposalFieldsSchema } from '../api/proposals';
@@ -14,7 +14,6 @@ import { HttpError } from '../http/errors';
 import type { Caller } from '../http/handle';
 import { enqueueMail } from '../mail/outbox';
 import { proposalReturnedMail, proposalSubmittedMail } from '../mail/templates';
-import { detectAttachmentType } from '../proposals/file-type';
 import { checkTransition, daysLeft, EDITABLE_STATES, type ProposalState } from '../proposals/states';
 import { validationOptions } from './upload-validate';
 
@@ -323,19 +322,7 @@ export async function proposalDetail(by: Caller, id: number) {
 
 /** Attachments: planners while the proposal is theirs to edit, assessors while they assess it. */
 export async function addAttachment(by: Caller, id: number, file: { fileName: string; bytes: Uint8Array }) {
-  const settings = await store.getProposalSettings(db);
-  const max = settings['proposal.attachment-max-bytes'];
-  if (file.bytes.length > max)
-    throw new HttpError(
-      'PAYLOAD_TOO_LARGE',
-      `"${file.fileName}" is ${file.bytes.length.toLocaleString('en')} bytes; attachments may be at most ${max.toLocaleString('en')} bytes.`,
-    );
-  const kind = detectAttachmentType(file.bytes);
-  if ('problem' in kind)
-    throw new HttpError(
-      'UNSUPPORTED_MEDIA_TYPE',
-      `"${file.fileName}" was not attached: ${kind.problem} Attach PDF, PNG or JPEG files.`,
-    );
+  const mediaType = await checkDocument(db, file, { plural: 'attachments', added: 'attached', add: 'Attach' });
   return withTransaction(db, async (trx) => {
     const p = await store.getProposal(trx, id, { lock: true });
     if (!p) throw new HttpError('NOT_FOUND', `No proposal with id ${id}.`);
@@ -346,33 +333,19 @@ export async function addAttachment(by: Caller, id: number, file: { fileName: st
         'CONFLICT',
         `Documents cannot be attached to proposal ${p.reference} while it is "${p.state}".`,
       );
-    const attachmentId = randomUUID();
-    const sha256 = createHash('sha256').update(file.bytes).digest('hex');
-    await store.insertAttachment(trx, {
-      id: attachmentId,
-      proposalId: id,
-      fileName: file.fileName,
-      mediaType: kind.type,
-      bytes: file.bytes,
-      sha256,
-      by: by.id,
-    });
-    await recordAudit(trx, {
-      actorId: by.id,
-      action: 'proposal.attach',
-      entityType: 'proposal',
-      entityId: String(id),
-      details: { reference: p.reference, attachmentId, fileName: file.fileName, sha256, sizeBytes: file.bytes.length },
-    });
-    return {
-      id: attachmentId,
-      fileName: file.fileName,
-      mediaType: kind.type,
-      sizeBytes: file.bytes.length,
-      sha256,
-      uploadedBy: by.name,
-      uploadedAt: new Date().toISOString(),
-    };
+    return storeDocument(
+      trx,
+      by,
+      file,
+      mediaType,
+      (row) => store.insertAttachment(trx, { ...row, proposalId: id, by: by.id }),
+      {
+        action: 'proposal.attach',
+        entityType: 'proposal',
+        entityId: String(id),
+        details: (attachmentId) => ({ reference: p.reference, attachmentId }),
+      },
+    );
   });
 }
 
