@@ -14,8 +14,17 @@ export type Db = Knex | Knex.Transaction;
 
 export const db: Knex = knexFactory({ ...knexConfig, connection: config().DATABASE_URL });
 
+/**
+ * Where the public register reads (list, entries, exports, notices, tiles): a streaming replica
+ * when DATABASE_REPLICA_URL is set, else the primary itself. A replica lags a moment behind, so
+ * nothing that writes, locks, or must see what was just written reads through it (README,
+ * "Read replicas"). Its connections are opened only when used.
+ */
+const replicaUrl = config().DATABASE_REPLICA_URL;
+export const replica: Knex = replicaUrl ? knexFactory({ ...knexConfig, connection: replicaUrl }) : db;
+
 // On shutdown the pool closes last, after the requests and workers that use it (scripts/serve.mjs).
-onServerClose(() => db.destroy());
+onServerClose(() => Promise.all([db.destroy(), replica === db ? undefined : replica.destroy()]).then(() => undefined));
 
 /** Runs fn in the given transaction, or opens one: services open it, repositories accept it. */
 export async function withTransaction<T>(outer: Db, fn: (trx: Knex.Transaction) => Promise<T>): Promise<T> {

@@ -4,7 +4,7 @@
  * is running. Migrations the build does not know (a newer release migrated first, as in a rolling
  * deployment) do not stop it: migrations only add. Liveness stays /api/health.
  */
-import { db } from '../db/client';
+import { db, replica } from '../db/client';
 import { migrationState } from '../db/migration-state';
 import { HttpError } from '../http/errors';
 
@@ -17,6 +17,13 @@ export async function readiness(): Promise<{
     await db.raw('select 1');
   } catch {
     throw new HttpError('SERVICE_UNAVAILABLE', 'Not ready: the database does not answer.');
+  }
+  if (replica !== db) {
+    try {
+      await replica.raw('select 1');
+    } catch {
+      throw new HttpError('SERVICE_UNAVAILABLE', 'Not ready: the read replica (DATABASE_REPLICA_URL) does not answer.');
+    }
   }
   let state;
   try {

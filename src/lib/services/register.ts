@@ -4,7 +4,7 @@
  */
 import { stringify } from 'csv-stringify/sync';
 import { recordAudit } from '../db/audit';
-import { db, withTransaction } from '../db/client';
+import { db, replica, withTransaction } from '../db/client';
 import { getBoardSettings } from '../db/meetings';
 import * as store from '../db/register';
 import { regionList, regionsOfVersion } from '../db/regions';
@@ -71,7 +71,7 @@ export async function verifyRegister(blockSize = VERIFY_BLOCK) {
 }
 
 export async function registerHead() {
-  const h = await store.head(db);
+  const h = await store.head(replica);
   return { headSeq: h?.seq ?? 0, headHash: h?.hash ?? null };
 }
 
@@ -107,8 +107,8 @@ export type ListQuery = store.RegisterFilter & { sort: string; dir: 'asc' | 'des
 const regionsByVersion = new Map<string, Promise<{ key: string; label: string }[]>>();
 
 async function regionsOf(versionId: number | null): Promise<{ key: string; label: string }[]> {
-  if (versionId === null) return (await regionList(db)).regions;
-  return remember(regionsByVersion, 20, String(versionId), () => regionsOfVersion(db, versionId));
+  if (versionId === null) return (await regionList(replica)).regions;
+  return remember(regionsByVersion, 20, String(versionId), () => regionsOfVersion(replica, versionId));
 }
 
 /**
@@ -117,7 +117,7 @@ async function regionsOf(versionId: number | null): Promise<{ key: string; label
  */
 export async function regionKeyOf(region: string | undefined, versionId?: number | null): Promise<string | undefined> {
   if (!region) return region;
-  const regions = versionId === undefined ? (await regionList(db)).regions : await regionsOf(versionId);
+  const regions = versionId === undefined ? (await regionList(replica)).regions : await regionsOf(versionId);
   const want = region.trim().toLowerCase();
   const exact = regions.find((r) => r.key.toLowerCase() === want || r.label.toLowerCase() === want);
   if (exact) return exact.key;
@@ -127,7 +127,7 @@ export async function regionKeyOf(region: string | undefined, versionId?: number
 
 /** Key → name of each accounting region of the current layer (for showing names instead of keys). */
 export async function regionNames(): Promise<Record<string, string>> {
-  return Object.fromEntries((await regionList(db)).regions.map((r) => [r.key, r.label]));
+  return Object.fromEntries((await regionList(replica)).regions.map((r) => [r.key, r.label]));
 }
 
 /**
@@ -164,17 +164,17 @@ const filterKey = (f: store.RegisterFilter) => [
 
 function countAt(f: store.RegisterFilter, head: { seq: number; hash: string }): Promise<number> {
   return remember(counts, COUNT_CACHE_MAX, `${head.hash}|${JSON.stringify(filterKey(f))}`, () =>
-    store.countEntries(db, f, head.seq),
+    store.countEntries(replica, f, head.seq),
   );
 }
 
 function pageAt(q: ListQuery, head: { seq: number; hash: string }) {
   const key = `${head.hash}|${JSON.stringify([...filterKey(q), q.sort, q.dir, q.page, q.pageSize])}`;
-  return remember(pages, PAGE_CACHE_MAX, key, async () => (await store.listEntries(db, q, head.seq)).map(summary));
+  return remember(pages, PAGE_CACHE_MAX, key, async () => (await store.listEntries(replica, q, head.seq)).map(summary));
 }
 
 export async function listRegister(query: ListQuery) {
-  const state = await store.listState(db);
+  const state = await store.listState(replica);
   return listAt(query, state);
 }
 
@@ -195,7 +195,7 @@ const bodies = new Map<string, Promise<string>>();
  * (the same fixed fact as the cached pages), so a busy public list costs little more than a ping.
  */
 export async function listRegisterJson(query: ListQuery): Promise<string> {
-  const state = await store.listState(db);
+  const state = await store.listState(replica);
   const filters = [...filterKey(query), query.sort, query.dir, query.page, query.pageSize];
   const key = `${state.head?.hash ?? '-'}|${state.regionVersionId ?? '-'}|${JSON.stringify(filters)}`;
   return remember(bodies, BODY_CACHE_MAX, key, async () => JSON.stringify(await listAt(query, state)));
@@ -203,12 +203,12 @@ export async function listRegisterJson(query: ListQuery): Promise<string> {
 
 /** Each member's vote on the entry's decision, only when the authority publishes them (setting register.votes-public); else null. */
 async function publicMemberVotes(seq: number) {
-  if (!(await getBoardSettings(db))['register.votes-public']) return null;
-  return store.memberVotes(db, seq);
+  if (!(await getBoardSettings(replica))['register.votes-public']) return null;
+  return store.memberVotes(replica, seq);
 }
 
 export async function registerEntry(seq: number) {
-  const r = await store.getEntry(db, seq);
+  const r = await store.getEntry(replica, seq);
   if (!r) throw new HttpError('NOT_FOUND', `The register has no entry ${seq}.`);
   return {
     seq: r.seq,
@@ -226,7 +226,7 @@ export async function registerEntry(seq: number) {
 /** Rows of the filtered register in seq order, batch by batch (flat memory however long the register); the next batch is read while this one is written out. */
 async function* filteredRows(f: store.RegisterFilter) {
   const { where, args } = store.filterSql({ ...f, region: await regionKeyOf(f.region) });
-  yield* readAhead((after) => store.batchAfter(db, after, EXPORT_BATCH, where, args));
+  yield* readAhead((after) => store.batchAfter(replica, after, EXPORT_BATCH, where, args));
 }
 
 /** Keyset batches in seq order; the next batch is read while this one is written out. */
@@ -281,7 +281,7 @@ export function registerCsv(f: store.RegisterFilter, room?: Room): ReadableStrea
     (async function* () {
       yield stringify([[...CSV_COLUMNS]]);
       const { where, args } = store.filterSql({ ...f, region: await regionKeyOf(f.region) });
-      for await (const rows of readAhead((after) => store.csvBatchAfter(db, after, EXPORT_BATCH, where, args)))
+      for await (const rows of readAhead((after) => store.csvBatchAfter(replica, after, EXPORT_BATCH, where, args)))
         if (rows.length) yield stringify(rows.map((r) => CSV_COLUMNS.map((c) => r[c] ?? '')));
     })(),
     room,
@@ -398,7 +398,7 @@ export async function registerTileResponse(
     'cache-control': askedHead === h.headSeq ? 'public, max-age=86400, immutable' : 'public, no-cache',
   };
   if (request.headers.get('if-none-match') === etag) return new Response(null, { status: 304, headers });
-  const tile = await store.registerTile(db, z, x, y);
+  const tile = await store.registerTile(replica, z, x, y);
   return new Response(tile as Uint8Array<ArrayBuffer>, {
     status: 200,
     headers: { ...headers, 'content-type': 'application/vnd.mapbox-vector-tile' },
