@@ -9,7 +9,7 @@ import {
   XAxis,
   YAxis,
 } from 'recharts';
-import { fmt, inkLegend, niceTicks, pct } from './format';
+import { FiguresTable, fmt, inkLegend, niceTicks, pct } from './format';
 
 type Row = { year: number; committedT: number; leftT: number | null; usedShare: number | null };
 
@@ -56,42 +56,16 @@ export function BudgetChart({ rows, budgetT }: { rows: Row[]; budgetT: number | 
           : `Dashed line: the yearly budget of ${fmt(budgetT)} t CO2e set by the authority.`}{' '}
         Restorations count as negative emissions.
       </figcaption>
-      <details className="mt-2 text-sm" open={rows.length === 0 ? true : undefined}>
-        <summary className="cursor-pointer">The same figures as a table</summary>
-        <table className="data-table mt-2">
-          <thead>
-            <tr>
-              <th scope="col">Budget year</th>
-              <th scope="col" className="text-right">
-                Committed, t CO2e
-              </th>
-              <th scope="col" className="text-right">
-                Left, t CO2e
-              </th>
-              <th scope="col" className="text-right">
-                Budget used
-              </th>
-            </tr>
-          </thead>
-          <tbody>
-            {rows.map((r) => (
-              <tr key={r.year}>
-                <td>{r.year}</td>
-                <td className="text-right">{fmt(r.committedT)}</td>
-                <td className="text-right">{fmt(r.leftT)}</td>
-                <td className="text-right">{pct(r.usedShare)}</td>
-              </tr>
-            ))}
-            {rows.length === 0 && (
-              <tr>
-                <td colSpan={4} className="text-muted">
-                  No approval in the register yet.
-                </td>
-              </tr>
-            )}
-          </tbody>
-        </table>
-      </details>
+      <FiguresTable
+        columns={[
+          ['Budget year', false],
+          ['Committed, t CO2e', true],
+          ['Left, t CO2e', true],
+          ['Budget used', true],
+        ]}
+        rows={rows.map((r) => ({ key: r.year, cells: [r.year, fmt(r.committedT), fmt(r.leftT), pct(r.usedShare)] }))}
+        empty="No approval in the register yet."
+      />
     </figure>
   );
 }

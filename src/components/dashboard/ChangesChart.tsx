@@ -1,5 +1,5 @@
 import { Bar, BarChart, CartesianGrid, Legend, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
-import { fmt, inkLegend } from './format';
+import { FiguresTable, fmt, inkLegend } from './format';
 
 type Row = { year: number; convertedHa: number; restoredHa: number };
 
@@ -42,38 +42,15 @@ export function ChangesChart({ rows }: { rows: Row[] }) {
         From the register: approvals still in force, by the year the board decided; area of the parcels (or parts) in
         each decision.
       </figcaption>
-      <details className="mt-2 text-sm" open={rows.length === 0 ? true : undefined}>
-        <summary className="cursor-pointer">The same figures as a table</summary>
-        <table className="data-table mt-2">
-          <thead>
-            <tr>
-              <th scope="col">Year</th>
-              <th scope="col" className="text-right">
-                Converted, ha
-              </th>
-              <th scope="col" className="text-right">
-                Restored, ha
-              </th>
-            </tr>
-          </thead>
-          <tbody>
-            {rows.map((r) => (
-              <tr key={r.year}>
-                <td>{r.year}</td>
-                <td className="text-right">{fmt(r.convertedHa, 2)}</td>
-                <td className="text-right">{fmt(r.restoredHa, 2)}</td>
-              </tr>
-            ))}
-            {rows.length === 0 && (
-              <tr>
-                <td colSpan={3} className="text-muted">
-                  No approval in the register yet.
-                </td>
-              </tr>
-            )}
-          </tbody>
-        </table>
-      </details>
+      <FiguresTable
+        columns={[
+          ['Year', false],
+          ['Converted, ha', true],
+          ['Restored, ha', true],
+        ]}
+        rows={rows.map((r) => ({ key: r.year, cells: [r.year, fmt(r.convertedHa, 2), fmt(r.restoredHa, 2)] }))}
+        empty="No approval in the register yet."
+      />
     </figure>
   );
 }

@@ -1,5 +1,5 @@
 import { Bar, CartesianGrid, ComposedChart, Legend, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
-import { inkLegend, pct } from './format';
+import { FiguresTable, inkLegend, pct } from './format';
 
 type Row = {
   key: string;
@@ -82,53 +82,28 @@ export function RatioChart({ rows, maxRelativeFall }: { rows: Row[]; maxRelative
           ? 'The default rule set has no ratio rule, so no limit is drawn.'
           : `Dashed red mark: the limit, ${pct(maxRelativeFall, 0)} below the reference ratio (the default rule set’s ratio rule).`}
       </figcaption>
-      <details className="mt-2 text-sm" open={rows.length === 0 ? true : undefined}>
-        <summary className="cursor-pointer">The same figures as a table</summary>
-        <div className="overflow-x-auto">
-          <table className="data-table mt-2">
-            <thead>
-              <tr>
-                <th scope="col">Region</th>
-                <th scope="col" className="text-right">
-                  Reference
-                </th>
-                <th scope="col" className="text-right">
-                  Limit
-                </th>
-                <th scope="col" className="text-right">
-                  Now
-                </th>
-                <th scope="col" className="text-right">
-                  After approvals
-                </th>
-                <th scope="col">Reference figure from</th>
-              </tr>
-            </thead>
-            <tbody>
-              {rows.map((r) => (
-                <tr key={r.key}>
-                  <td>{r.label}</td>
-                  <td className="text-right">
-                    {pct(r.referenceRatio)}
-                    {r.referenceYear ? ` (${r.referenceYear})` : ''}
-                  </td>
-                  <td className="text-right">{pct(r.limitRatio)}</td>
-                  <td className="text-right">{pct(r.ratioNow)}</td>
-                  <td className="text-right">{pct(r.ratioAfterPending)}</td>
-                  <td>{r.referenceSource ?? 'No reference ratio yet'}</td>
-                </tr>
-              ))}
-              {rows.length === 0 && (
-                <tr>
-                  <td colSpan={6} className="text-muted">
-                    No accounting-region layer is published.
-                  </td>
-                </tr>
-              )}
-            </tbody>
-          </table>
-        </div>
-      </details>
+      <FiguresTable
+        columns={[
+          ['Region', false],
+          ['Reference', true],
+          ['Limit', true],
+          ['Now', true],
+          ['After approvals', true],
+          ['Reference figure from', false],
+        ]}
+        rows={rows.map((r) => ({
+          key: r.key,
+          cells: [
+            r.label,
+            `${pct(r.referenceRatio)}${r.referenceYear ? ` (${r.referenceYear})` : ''}`,
+            pct(r.limitRatio),
+            pct(r.ratioNow),
+            pct(r.ratioAfterPending),
+            r.referenceSource ?? 'No reference ratio yet',
+          ],
+        }))}
+        empty="No accounting-region layer is published."
+      />
     </figure>
   );
 }
