@@ -5,6 +5,7 @@
 import { stringify } from 'csv-stringify/sync';
 import { recordAudit } from '../db/audit';
 import { db, withTransaction } from '../db/client';
+import { freshRead } from '../db/fresh-read';
 import { getBoardSettings } from '../db/meetings';
 import * as store from '../db/register';
 import { regionList, regionsOfVersion } from '../db/regions';
@@ -173,8 +174,15 @@ function pageAt(q: ListQuery, head: { seq: number; hash: string }) {
   return remember(pages, PAGE_CACHE_MAX, key, async () => (await store.listEntries(db, q, head.seq)).map(summary));
 }
 
+/**
+ * The head and region layer a list reads: shared by the requests that ask at the same moment, each
+ * getting a read that began after it arrived (db/fresh-read.ts), so a list never shows a head older
+ * than the request, on any instance.
+ */
+const currentListState = freshRead(() => store.listState(db));
+
 export async function listRegister(query: ListQuery) {
-  const state = await store.listState(db);
+  const state = await currentListState();
   return listAt(query, state);
 }
 
@@ -190,12 +198,13 @@ const BODY_CACHE_MAX = 300;
 const bodies = new Map<string, Promise<string>>();
 
 /**
- * The list as the JSON text of the API's answer. One round trip reads the head and the current
- * region layer; an answer already made for that head, layer and query is sent as it was made
- * (the same fixed fact as the cached pages), so a busy public list costs little more than a ping.
+ * The list as the JSON text of the API's answer. One round trip, shared with the requests arriving
+ * at the same moment, reads the head and the current region layer; an answer already made for that
+ * head, layer and query is sent as it was made (the same fixed fact as the cached pages), so a busy
+ * public list costs little more than a ping.
  */
 export async function listRegisterJson(query: ListQuery): Promise<string> {
-  const state = await store.listState(db);
+  const state = await currentListState();
   const filters = [...filterKey(query), query.sort, query.dir, query.page, query.pageSize];
   const key = `${state.head?.hash ?? '-'}|${state.regionVersionId ?? '-'}|${JSON.stringify(filters)}`;
   return remember(bodies, BODY_CACHE_MAX, key, async () => JSON.stringify(await listAt(query, state)));
