@@ -195,19 +195,20 @@ async function listAt(query: ListQuery, state: store.ListState) {
 }
 
 const BODY_CACHE_MAX = 300;
-const bodies = new Map<string, Promise<string>>();
+const bodies = new Map<string, Promise<Uint8Array>>();
+const utf8 = new TextEncoder();
 
 /**
- * The list as the JSON text of the API's answer. One round trip, shared with the requests arriving
+ * The list as the JSON text of the API's answer (UTF-8 bytes). One round trip, shared with the requests arriving
  * at the same moment, reads the head and the current region layer; an answer already made for that
  * head, layer and query is sent as it was made (the same fixed fact as the cached pages), so a busy
  * public list costs little more than a ping.
  */
-export async function listRegisterJson(query: ListQuery): Promise<string> {
+export async function listRegisterJson(query: ListQuery): Promise<Uint8Array> {
   const state = await currentListState();
   const filters = [...filterKey(query), query.sort, query.dir, query.page, query.pageSize];
   const key = `${state.head?.hash ?? '-'}|${state.regionVersionId ?? '-'}|${JSON.stringify(filters)}`;
-  return remember(bodies, BODY_CACHE_MAX, key, async () => JSON.stringify(await listAt(query, state)));
+  return remember(bodies, BODY_CACHE_MAX, key, async () => utf8.encode(JSON.stringify(await listAt(query, state))));
 }
 
 /** Each member's vote on the entry's decision, only when the authority publishes them (setting register.votes-public); else null. */
