@@ -16,7 +16,8 @@ export default defineConfig({
   output: 'server',
   // A second build folder lets two people test different builds on one machine (see DEVELOPERS.md).
   outDir: process.env.SWARDKEEP_DIST ?? './dist',
-  adapter: node({ mode: 'standalone' }),
+  // Middleware mode: scripts/serve.mjs serves the static files itself, so an API request costs no file look-up.
+  adapter: node({ mode: 'middleware' }),
   integrations: [react()],
   security: {
     checkOrigin: true,

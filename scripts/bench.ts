@@ -263,10 +263,11 @@ try {
   // After the ingest, so the ingest's memory figure (a high-water mark) is its own.
   if (STATE === 'fresh' && !skipped('huge')) await healthDuringHugeValidation(planner);
   if (!skipped('tiles')) {
-    const map = await call<{ areas: { label: string; extent: number[] }[] }>(planner, 'GET', '/api/map');
-    await tiles(planner, map.data.areas.filter((a) => a.label === 'bench.zip').at(-1)!.extent);
-    if (!skipped('compare'))
-      await compareWithBare(planner, map.data.areas.filter((a) => a.label === 'bench.zip').at(-1)!.extent);
+    const map = await call<{ areas: { id: string | null; extent: number[] }[] }>(planner, 'GET', '/api/map');
+    // The bench upload's area (its label is now the upload's name in words with the day saved).
+    const extent = map.data.areas.find((a) => a.id === batchId)!.extent;
+    await tiles(planner, extent);
+    if (!skipped('compare')) await compareWithBare(planner, extent);
   }
   if (STATE !== 'warm') await assessAndScreen(planner, await session('assessor@tarrow.example'), batchId, COUNT);
 } finally {

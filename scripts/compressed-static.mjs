@@ -7,6 +7,7 @@ import { createReadStream } from 'node:fs';
 import { stat } from 'node:fs/promises';
 import path from 'node:path';
 import Negotiator from 'negotiator';
+import send from 'send';
 import { PRECOMPRESSED_TYPES } from './precompress.mjs';
 
 export function compressedStatic(clientDir) {
@@ -40,5 +41,30 @@ export function compressedStatic(clientDir) {
     if (req.method === 'HEAD') return (res.end(), true);
     createReadStream(compressed).pipe(res);
     return true;
+  };
+}
+
+/**
+ * The rest of the build's client files (icons, fonts, and scripts for a client that accepts no
+ * compression), served with `send` as Astro's standalone server did: hashed assets under /_astro/
+ * cached for a year, dot-files refused. Only paths with a file extension are looked up (pages and
+ * API routes have none, so they cost no file-system call); a miss resolves false and goes on to the app.
+ */
+export function plainStatic(clientDir) {
+  const root = path.resolve(clientDir);
+  return function serve(req, res) {
+    if (req.method !== 'GET' && req.method !== 'HEAD') return Promise.resolve(false);
+    const pathname = (req.url ?? '/').split(/[?#]/, 1)[0];
+    if (!path.posix.extname(pathname)) return Promise.resolve(false);
+    return new Promise((resolve) => {
+      const stream = send(req, pathname, { root, index: false, dotfiles: 'deny' });
+      stream.on('error', () => resolve(false));
+      stream.on('directory', () => resolve(false));
+      stream.on('headers', (r) => {
+        if (pathname.startsWith('/_astro/')) r.setHeader('cache-control', 'public, max-age=31536000, immutable');
+      });
+      stream.on('file', () => resolve(true));
+      stream.pipe(res);
+    });
   };
 }

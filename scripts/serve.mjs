@@ -27,7 +27,7 @@ import { pathToFileURL } from 'node:url';
 import compression from 'compression';
 import proxyaddr from 'proxy-addr';
 import zlib from 'node:zlib';
-import { compressedStatic } from './compressed-static.mjs';
+import { compressedStatic, plainStatic } from './compressed-static.mjs';
 import { logger, REQUEST_ID } from '../src/lib/log.mjs';
 
 export function trustFrom(setting) {
@@ -141,7 +141,9 @@ async function main() {
   process.env.ASTRO_NODE_AUTOSTART = 'disabled';
   const entry = path.resolve(process.env.SWARDKEEP_DIST ?? 'dist', 'server/entry.mjs');
   const { handler } = await import(pathToFileURL(entry).href);
-  const serveStatic = compressedStatic(path.resolve(process.env.SWARDKEEP_DIST ?? 'dist', 'client'));
+  const clientDir = path.resolve(process.env.SWARDKEEP_DIST ?? 'dist', 'client');
+  const [compressedFile, plainFile] = [compressedStatic(clientDir), plainStatic(clientDir)];
+  const serveStatic = async (req, res) => (await compressedFile(req, res)) || plainFile(req, res);
   const inFlight = new Set();
   let stopping = false;
   const server = http.createServer((req, res) => {
@@ -164,6 +166,14 @@ async function main() {
         'x-content-type-options': 'nosniff',
       });
       res.end(`${req.method} is not served.`);
+      return;
+    }
+    try {
+      decodeURI(req.url ?? '/');
+    } catch {
+      record.route = 'refused';
+      res.writeHead(400, { 'content-type': 'text/plain; charset=utf-8' });
+      res.end('Bad request.');
       return;
     }
     prepare(req, res);

@@ -14,6 +14,8 @@ import { startJobQueue } from './lib/jobs/queue';
 import { startMailWorker } from './lib/mail/worker';
 import { requestRecord } from './lib/request-context';
 
+/** better-auth's session cookie (`better-auth.session_token`, `__Secure-` prefixed over HTTPS). */
+const SESSION_COOKIE = /session_token=/;
 const STATE_CHANGING = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
 const NEVER = new Set(['TRACE', 'TRACK', 'CONNECT']);
 
@@ -146,7 +148,10 @@ export const onRequest = defineMiddleware(async (ctx, next) => {
     ctx.locals.sessionId = copy.sessionId;
     return secure(await next(), ctx);
   }
-  const found = await auth.api.getSession({ headers: ctx.request.headers });
+  // better-auth finds a session only through its session-token cookie: without one, there is nothing to look up.
+  const found = SESSION_COOKIE.test(ctx.request.headers.get('cookie') ?? '')
+    ? await auth.api.getSession({ headers: ctx.request.headers })
+    : null;
   if (found && !found.user.banned && (await useSession(db, found.session))) {
     const u = found.user as typeof found.user & { role?: string | null };
     ctx.locals.user = { id: u.id, name: u.name, email: u.email, roles: parseRoles(u.role) };

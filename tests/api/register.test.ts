@@ -9,6 +9,8 @@ import * as turf from '@turf/turf';
 import canonicalize from 'canonicalize';
 import { parse as parseCsv } from 'csv-parse/sync';
 import { createHash } from 'node:crypto';
+import http from 'node:http';
+import zlib from 'node:zlib';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_PEOPLE } from '../../scripts/demo/people';
 import { testDb } from '../support/db';
@@ -230,7 +232,51 @@ describe('answers kept by head', () => {
     const head = await testDb('register_entry').orderBy('seq', 'desc').first();
     expect(again.headHash).toBe(head.hash);
   }, 120_000);
+
+  it('kept answers: Brotli and gzip copies hold the same JSON, a matching If-None-Match gets 304 until the head moves', async () => {
+    const path = '/api/register?pageSize=200&sort=seq&dir=desc';
+    const plain = await raw(path, {});
+    expect(plain.status).toBe(200);
+    expect(plain.headers['content-encoding']).toBeUndefined();
+    expect(Number(plain.headers['content-length'])).toBe(plain.bytes.length);
+    expect(plain.headers['cache-control']).toBe('public, no-cache');
+    const etag = plain.headers.etag!;
+    expect(etag).toMatch(/^"k[\w-]+"$/);
+    const br = await raw(path, { 'accept-encoding': 'gzip;q=0.5, br' });
+    expect(br.headers['content-encoding']).toBe('br');
+    expect(br.headers.etag).toBe(etag);
+    expect(zlib.brotliDecompressSync(br.bytes).equals(plain.bytes)).toBe(true);
+    // Asked again, the kept copy: the same bytes.
+    expect((await raw(path, { 'accept-encoding': 'br' })).bytes.equals(br.bytes)).toBe(true);
+    const gz = await raw(path, { 'accept-encoding': 'gzip, br;q=0' });
+    expect(gz.headers['content-encoding']).toBe('gzip');
+    expect(zlib.gunzipSync(gz.bytes).equals(plain.bytes)).toBe(true);
+    const none = await raw(path, { 'accept-encoding': 'identity' });
+    expect(none.headers['content-encoding']).toBeUndefined();
+    expect(none.bytes.equals(plain.bytes)).toBe(true);
+    const same = await raw(path, { 'if-none-match': etag });
+    expect(same.status).toBe(304);
+    expect(same.bytes.length).toBe(0);
+    await decidedProposal(s, 'refused');
+    const moved = await raw(path, { 'if-none-match': etag });
+    expect(moved.status).toBe(200);
+    expect(moved.headers.etag).not.toBe(etag);
+    expect(JSON.parse(moved.bytes.toString()).headSeq).toBe(JSON.parse(plain.bytes.toString()).headSeq + 1);
+  }, 120_000);
 });
+
+/** A GET with exactly these headers (fetch would ask for and undo compression itself). */
+function raw(path: string, headers: Record<string, string>) {
+  return new Promise<{ status: number; headers: http.IncomingHttpHeaders; bytes: Buffer }>((resolve, reject) => {
+    const req = http.request(`${BASE_URL}${path}`, { headers }, (res) => {
+      const parts: Buffer[] = [];
+      res.on('data', (d: Buffer) => parts.push(d));
+      res.on('end', () => resolve({ status: res.statusCode ?? 0, headers: res.headers, bytes: Buffer.concat(parts) }));
+    });
+    req.on('error', reject);
+    req.end();
+  });
+}
 
 describe('exports', () => {
   it('CSV: a spreadsheet-compatible parser reads the same rows as the database, filters included', async () => {

@@ -41,3 +41,18 @@ export function json(data: unknown, status = 200, headers: Record<string, string
 export function errorResponse(code: ErrorCode, message: string, issues?: Issue[]): Response {
   return json({ error: { code, message, ...(issues?.length ? { issues } : {}) } }, ERROR_STATUS[code]);
 }
+
+/**
+ * An answer whose body is bytes kept between requests (a cached JSON text): sent as they are, with
+ * their length, without the copy a Response makes of a byte body or the encoding of a string body.
+ * The bytes are shared by every answer that sends them: never change them.
+ */
+export function keptBytesResponse(bytes: Uint8Array, headers: Record<string, string>, status = 200): Response {
+  const body = new ReadableStream<Uint8Array>({
+    start(controller) {
+      controller.enqueue(bytes);
+      controller.close();
+    },
+  });
+  return new Response(body, { status, headers: { ...headers, 'content-length': String(bytes.byteLength) } });
+}

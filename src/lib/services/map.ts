@@ -6,7 +6,7 @@ import { issueTileToken } from '../auth/tile-token';
 import { mapVersion, parcelAreas, parcelsInBox, parcelsOfUpload } from '../db/parcels';
 import { uploadLabel } from '../gis/upload-name';
 import { PARCEL_MIN_ZOOM, renderTile } from '../db/tiles';
-import { HttpError } from '../http/errors';
+import { HttpError, keptBytesResponse } from '../http/errors';
 import { currentLegend } from './reference-layers';
 
 export async function mapConfig(userId: string) {
@@ -97,11 +97,9 @@ export async function tileResponse(
   return tileAnswer(tile, headers);
 }
 
+/** Kept tiles are shared by every answer that sends them (never changed): sent as they are, with their length. */
 const tileAnswer = (tile: Uint8Array, headers: Record<string, string>) =>
-  new Response(tile as Uint8Array<ArrayBuffer>, {
-    status: 200,
-    headers: { ...headers, 'content-type': 'application/vnd.mapbox-vector-tile' },
-  });
+  keptBytesResponse(tile, { ...headers, 'content-type': 'application/vnd.mapbox-vector-tile' });
 
 export const MAX_SNAP_FEATURES = 1500;
 

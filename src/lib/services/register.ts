@@ -5,11 +5,13 @@
 import { stringify } from 'csv-stringify/sync';
 import { recordAudit } from '../db/audit';
 import { db, replica, withTransaction } from '../db/client';
+import { freshRead } from '../db/fresh-read';
 import { getBoardSettings } from '../db/meetings';
 import * as store from '../db/register';
 import { regionList, regionsOfVersion } from '../db/regions';
 import * as blocks from '../db/register-blocks';
 import { HttpError } from '../http/errors';
+import { keptAnswer, type KeptAnswer } from '../http/kept-answer';
 import { textStream, type Room } from '../http/text-stream';
 import type { Caller } from '../http/handle';
 import { ChainVerifier } from '../register/chain';
@@ -173,8 +175,15 @@ function pageAt(q: ListQuery, head: { seq: number; hash: string }) {
   return remember(pages, PAGE_CACHE_MAX, key, async () => (await store.listEntries(replica, q, head.seq)).map(summary));
 }
 
+/**
+ * The head and region layer a list reads: shared by the requests that ask at the same moment, each
+ * getting a read that began after it arrived (db/fresh-read.ts), so a list never shows a head older
+ * than the request, on any instance (on a replica: older only by the replica's lag).
+ */
+const currentListState = freshRead(() => store.listState(replica));
+
 export async function listRegister(query: ListQuery) {
-  const state = await store.listState(replica);
+  const state = await currentListState();
   return listAt(query, state);
 }
 
@@ -187,18 +196,23 @@ async function listAt(query: ListQuery, state: store.ListState) {
 }
 
 const BODY_CACHE_MAX = 300;
-const bodies = new Map<string, Promise<string>>();
+const bodies = new Map<string, Promise<KeptAnswer>>();
+const utf8 = new TextEncoder();
 
 /**
- * The list as the JSON text of the API's answer. One round trip reads the head and the current
- * region layer; an answer already made for that head, layer and query is sent as it was made
- * (the same fixed fact as the cached pages), so a busy public list costs little more than a ping.
+ * The list as the JSON text of the API's answer (UTF-8 bytes, with an ETag and compressed copies:
+ * http/kept-answer.ts). One round trip, shared with the requests arriving at the same moment, reads
+ * the head and the current region layer; an answer already made for that head, layer and query is
+ * sent as it was made (the same fixed fact as the cached pages), so a busy public list costs little
+ * more than a ping.
  */
-export async function listRegisterJson(query: ListQuery): Promise<string> {
-  const state = await store.listState(replica);
+export async function listRegisterJson(query: ListQuery): Promise<KeptAnswer> {
+  const state = await currentListState();
   const filters = [...filterKey(query), query.sort, query.dir, query.page, query.pageSize];
   const key = `${state.head?.hash ?? '-'}|${state.regionVersionId ?? '-'}|${JSON.stringify(filters)}`;
-  return remember(bodies, BODY_CACHE_MAX, key, async () => JSON.stringify(await listAt(query, state)));
+  return remember(bodies, BODY_CACHE_MAX, key, async () =>
+    keptAnswer(utf8.encode(JSON.stringify(await listAt(query, state))), key),
+  );
 }
 
 /** Each member's vote on the entry's decision, only when the authority publishes them (setting register.votes-public); else null. */
