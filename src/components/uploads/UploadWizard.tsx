@@ -12,6 +12,7 @@ import { initialPhases, Progress, type PhaseKey, type PhaseState } from './Progr
 import { ReportStep } from './ReportStep';
 import { CHECK_PHASES } from './progress-words';
 import { phasesOf, restoredView, setUploadParam, uploadParam, useUploadStatus } from './restore';
+import { SavedStep } from './SavedStep';
 import { ServerProgress } from './ServerProgress';
 import type { Mapping, Report, Saved, Staged, UploadStatus } from './types';
 import { uploadWithProgress } from './upload-request';
@@ -323,29 +324,11 @@ export function UploadWizard({ purpose }: { purpose: 'parcels' | 'reference' }) 
           </>
         )}
         {step === 'saved' && saved && (
-          <>
-            <p className="notice" role="status">
-              <span aria-hidden="true">✓ </span>Saved {countOf(saved.saved, noun.replace(/s$/, ''), noun)}
-              {saved.rejected ? `; ${countOf(saved.rejected, 'rejected one was', 'rejected ones were')} left out` : ''}.
-              The original file is kept with the batch.
-            </p>
-            {saved.referenceVersion ? (
-              <p>
-                Version {saved.referenceVersion.version} of this layer is a draft.{' '}
-                <a href="/admin/reference-layers">Publish it on the reference layers page</a>.
-              </p>
-            ) : (
-              <p>
-                <a href={`/map?upload=${saved.batchId}`}>See the saved parcels on the map, outlined and listed</a>
-              </p>
-            )}
-            <button
-              className="btn btn-quiet self-start"
-              onClick={() => (setPhases(initialPhases()), setStaged(null), setUploadParam(null), go('file'))}
-            >
-              Upload another file
-            </button>
-          </>
+          <SavedStep
+            saved={saved}
+            noun={noun}
+            onAgain={() => (setPhases(initialPhases()), setStaged(null), setUploadParam(null), go('file'))}
+          />
         )}
       </section>
     </div>
