@@ -70,6 +70,10 @@ describe('upload wizard after a reload', () => {
           timeout: 20_000,
         })
         .toBe('keeping');
+      // The page that started the check shows the same stored progress while it waits for the answer.
+      await expect
+        .poll(() => page.getByRole('status').filter({ hasText: 'Recording the results' }).count(), { timeout: 10_000 })
+        .toBe(1);
       await reload(page);
       await expect.poll(() => heading(page).textContent(), { timeout: 10_000 }).toBe('Checking every feature');
       const status = page.getByRole('status').filter({ hasText: 'Recording the results' });
