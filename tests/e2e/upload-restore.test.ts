@@ -115,6 +115,30 @@ describe('upload wizard after a reload', () => {
     await context.close();
   });
 
+  it('follows the stored progress when the check’s answer is lost on the way', async () => {
+    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const page = await context.newPage();
+    await signInThroughForm(page, DEMO.planner, DEMO_PASSWORD);
+    await page.goto(`${BASE_URL}/parcels/upload`);
+    await hydrated(page);
+    const small = join(mkdtempSync(join(tmpdir(), 'swardkeep-lost-')), 'lost-answer.geojson');
+    writeFileSync(small, gridGeoJson('LST', 3, [5200, -4200]));
+    await page.setInputFiles('#upload-file', small);
+    await page.getByRole('button', { name: 'Upload and read' }).click();
+    await expect.poll(() => heading(page).textContent(), { timeout: 20_000 }).toBe('Columns');
+    await page.getByRole('button', { name: 'Next: coordinates' }).click();
+    // The server checks the file, but its answer never reaches the page (as when a proxy gives up on a long request).
+    await page.route('**/validation', async (route) => {
+      await route.fetch();
+      await route.abort('connectionreset');
+    });
+    await page.getByRole('button', { name: 'Check every feature' }).click();
+    await expect.poll(() => heading(page).textContent(), { timeout: 30_000 }).toBe('Check');
+    await expect(page.getByRole('button', { name: 'Save 3 valid parcels' }).count()).resolves.toBe(1);
+    await expect(page.getByRole('alert').count()).resolves.toBe(0);
+    await context.close();
+  });
+
   it('says so when the address names an upload that is not there', async () => {
     const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
     const page = await context.newPage();

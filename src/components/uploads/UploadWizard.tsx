@@ -41,6 +41,8 @@ export function UploadWizard({ purpose }: { purpose: 'parcels' | 'reference' }) 
   const [saved, setSaved] = useState<Saved | null>(null);
   const [watchId, setWatchId] = useState<string | null>(null);
   const [known, setKnown] = useState<UploadStatus | null>(null);
+  const [lastRun, setLastRun] = useState<PhaseKey | null>(null);
+  const [round, setRound] = useState(0);
   const [restoring, setRestoring] = useState(false);
   const fileRef = useRef<HTMLInputElement>(null);
   const heading = useRef<HTMLHeadingElement>(null);
@@ -49,7 +51,7 @@ export function UploadWizard({ purpose }: { purpose: 'parcels' | 'reference' }) 
   const go = (s: Step) => (setStep(s), setError(null), setTimeout(() => heading.current?.focus(), 0));
   // The stored progress: watched after a reload while the server works, polled while this page checks or saves.
   const pollId = watchId ?? (busy && (step === 'crs' || step === 'report') ? (staged?.id ?? null) : null);
-  const live = useUploadStatus(pollId, pollId !== null);
+  const live = useUploadStatus(pollId, pollId !== null, round);
   const latest = live?.id === pollId ? live : known;
   const working = pollId !== null && latest?.id === pollId && latest.state === 'running' ? latest : null;
 
@@ -96,6 +98,8 @@ export function UploadWizard({ purpose }: { purpose: 'parcels' | 'reference' }) 
   async function run<T>(k: PhaseKey, fn: () => Promise<T>): Promise<T | null> {
     setBusy(true);
     setError(null);
+    setLastRun(k);
+    setRound((r) => r + 1);
     const t0 = performance.now();
     phase(k, { state: 'running' });
     try {
@@ -103,6 +107,13 @@ export function UploadWizard({ purpose }: { purpose: 'parcels' | 'reference' }) 
       phase(k, { state: 'done', detail: seconds(performance.now() - t0) });
       return r;
     } catch (e) {
+      // The answer was lost on the way (network, proxy), not refused: the server may still be at it, so follow its stored progress.
+      if (staged && (!(e instanceof ApiError) || e.status === 0 || e.status >= 502)) {
+        setRound((r) => r + 1);
+        setWatchId(staged.id);
+        go('working');
+        return null;
+      }
       phase(k, { state: 'failed' });
       setError(e instanceof ApiError ? e.message : 'That did not work; try again.');
       return null;
@@ -187,7 +198,7 @@ export function UploadWizard({ purpose }: { purpose: 'parcels' | 'reference' }) 
 
   const mappingReady = purpose === 'reference' ? !!mapping.kind && !!mapping.classAttribute : !!mapping.reference;
   const noun = purpose === 'parcels' ? 'parcels' : 'features';
-  const checking = !!working && CHECK_PHASES.includes(working.phase);
+  const checking = working ? CHECK_PHASES.includes(working.phase) : lastRun === 'validate';
   const current = step === 'working' ? (checking ? 'report' : 'saved') : step;
   const title =
     step === 'working' ? (checking ? 'Checking every feature' : 'Saving') : STEPS.find((s) => s.key === step)!.label;
@@ -213,6 +224,7 @@ export function UploadWizard({ purpose }: { purpose: 'parcels' | 'reference' }) 
         </h2>
         {restoring && <p role="status">Opening the upload…</p>}
         {working && <ServerProgress status={working} />}
+        {step === 'working' && !working && <p role="status">Asking the server how far the work has got…</p>}
         {error && (
           <p className="notice notice-warn" role="alert">
             <span aria-hidden="true">⚠ </span>

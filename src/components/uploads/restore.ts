@@ -79,18 +79,22 @@ export function restoredView(s: UploadStatus): Restored {
   return { ...base, step: 'file', error: why };
 }
 
-/** Polls the stored state every second while `active`; the latest answer, or null before the first. */
-export function useUploadStatus(id: string | null, active: boolean): UploadStatus | null {
-  const [status, setStatus] = useState<UploadStatus | null>(null);
+/**
+ * Polls the stored state every second while `active`; the latest answer, or null before the first.
+ * A new `round` starts afresh (no answer read before it is returned).
+ */
+export function useUploadStatus(id: string | null, active: boolean, round = 0): UploadStatus | null {
+  const key = active && id ? `${id}:${round}` : null;
+  // Each answer carries the key it was read under, so a render after a change of key never sees an older one.
+  const [got, setGot] = useState<{ key: string; status: UploadStatus } | null>(null);
   useEffect(() => {
-    setStatus(null);
-    if (!id || !active) return;
+    if (!key || !id) return;
     let stopped = false;
     let timer: ReturnType<typeof setTimeout> | undefined;
     const tick = async () => {
-      const s = await apiFetch<UploadStatus>(`/api/uploads/${id}`).catch(() => null);
+      const status = await apiFetch<UploadStatus>(`/api/uploads/${id}`).catch(() => null);
       if (stopped) return;
-      if (s) setStatus(s);
+      if (status) setGot({ key, status });
       timer = setTimeout(() => void tick(), 1000);
     };
     void tick();
@@ -98,6 +102,6 @@ export function useUploadStatus(id: string | null, active: boolean): UploadStatu
       stopped = true;
       clearTimeout(timer);
     };
-  }, [id, active]);
-  return status;
+  }, [key, id]);
+  return got && got.key === key ? got.status : null;
 }
