@@ -44,6 +44,7 @@ export function UploadWizard({ purpose }: { purpose: 'parcels' | 'reference' }) 
   const [lastRun, setLastRun] = useState<PhaseKey | null>(null);
   const [round, setRound] = useState(0);
   const [restoring, setRestoring] = useState(false);
+  const lostAnswer = useRef(false);
   const fileRef = useRef<HTMLInputElement>(null);
   const heading = useRef<HTMLHeadingElement>(null);
   const layer = staged?.layers.find((l) => l.name === layerName) ?? null;
@@ -90,7 +91,11 @@ export function UploadWizard({ purpose }: { purpose: 'parcels' | 'reference' }) 
   }, []);
 
   useEffect(() => {
-    if (watchId && live?.id === watchId && live.state !== 'running') apply(live);
+    if (!watchId || live?.id !== watchId || live.state === 'running') return;
+    apply(live);
+    // A request whose answer was lost and that left the upload as it was never reached the server.
+    if (lostAnswer.current && live.state === 'staged') setError('The server did not receive that request; try again.');
+    lostAnswer.current = false;
     // apply only when the watched work has ended
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [live, watchId]);
@@ -109,6 +114,7 @@ export function UploadWizard({ purpose }: { purpose: 'parcels' | 'reference' }) 
     } catch (e) {
       // The answer was lost on the way (network, proxy), not refused: the server may still be at it, so follow its stored progress.
       if (staged && (!(e instanceof ApiError) || e.status === 0 || e.status >= 502)) {
+        lostAnswer.current = true;
         setRound((r) => r + 1);
         setWatchId(staged.id);
         go('working');
