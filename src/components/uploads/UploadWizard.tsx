@@ -1,15 +1,23 @@
-/** The upload wizard: file → columns → coordinate system → validation report → save or cancel. */
+/**
+ * The upload wizard: file → columns → coordinate system → validation report → save or cancel.
+ * The upload's id goes into the address (`?upload=<id>`) once the file is read; opening that
+ * address again picks the upload up from what the server stored (restore.ts).
+ */
 import { countOf } from '~/lib/gis/issue-words';
-import { useRef, useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { apiFetch, ApiError } from '../ui/api-client';
 import { CrsStep } from './CrsStep';
 import { MappingStep, suggestMapping } from './MappingStep';
 import { initialPhases, Progress, type PhaseKey, type PhaseState } from './Progress';
 import { ReportStep } from './ReportStep';
-import type { Mapping, Report, Saved, Staged } from './types';
+import { CHECK_PHASES } from './progress-words';
+import { phasesOf, restoredView, setUploadParam, uploadParam, useUploadStatus } from './restore';
+import { SavedStep } from './SavedStep';
+import { ServerProgress } from './ServerProgress';
+import type { Mapping, Report, Saved, Staged, UploadStatus } from './types';
 import { uploadWithProgress } from './upload-request';
 
-type Step = 'file' | 'mapping' | 'crs' | 'report' | 'saved';
+type Step = 'file' | 'mapping' | 'crs' | 'report' | 'saved' | 'working';
 const STEPS: { key: Step; label: string }[] = [
   { key: 'file', label: 'File' },
   { key: 'mapping', label: 'Columns' },
@@ -31,15 +39,72 @@ export function UploadWizard({ purpose }: { purpose: 'parcels' | 'reference' }) 
   const [epsg, setEpsg] = useState<number | null>(null);
   const [report, setReport] = useState<Report | null>(null);
   const [saved, setSaved] = useState<Saved | null>(null);
+  const [watchId, setWatchId] = useState<string | null>(null);
+  const [known, setKnown] = useState<UploadStatus | null>(null);
+  const [lastRun, setLastRun] = useState<PhaseKey | null>(null);
+  const [round, setRound] = useState(0);
+  const [restoring, setRestoring] = useState(false);
+  const lostAnswer = useRef(false);
   const fileRef = useRef<HTMLInputElement>(null);
   const heading = useRef<HTMLHeadingElement>(null);
   const layer = staged?.layers.find((l) => l.name === layerName) ?? null;
   const phase = (k: PhaseKey, p: PhaseState) => setPhases((all) => ({ ...all, [k]: p }));
   const go = (s: Step) => (setStep(s), setError(null), setTimeout(() => heading.current?.focus(), 0));
+  // The stored progress: watched after a reload while the server works, polled while this page checks or saves.
+  const pollId = watchId ?? (busy && (step === 'crs' || step === 'report') ? (staged?.id ?? null) : null);
+  const live = useUploadStatus(pollId, pollId !== null, round);
+  const latest = live?.id === pollId ? live : known;
+  const working = pollId !== null && latest?.id === pollId && latest.state === 'running' ? latest : null;
+
+  function apply(s: UploadStatus) {
+    const v = restoredView(s);
+    setKnown(s);
+    setPhases(phasesOf(s));
+    setStaged(s.staged);
+    if (s.staged) {
+      const l = s.staged.layers.find((x) => x.name === v.layerName) ?? s.staged.layers[0]!;
+      setLayerName(l.name);
+      setMapping(v.mapping ?? suggestMapping(purpose, l));
+      setEpsg(v.epsg);
+    }
+    setReport(s.report);
+    setSaved(s.saved);
+    setWatchId(v.step === 'working' ? s.id : null);
+    if (v.step === 'file') setUploadParam(null);
+    go(v.step);
+    setError(v.error);
+  }
+
+  useEffect(() => {
+    const id = uploadParam();
+    if (!id) return;
+    setRestoring(true);
+    apiFetch<UploadStatus>(`/api/uploads/${id}`)
+      .then(apply)
+      .catch((e) => {
+        setUploadParam(null);
+        setError(e instanceof ApiError ? e.message : 'That upload could not be opened; try again.');
+      })
+      .finally(() => setRestoring(false));
+    // Once, on load: the address names the upload to pick up.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, []);
+
+  useEffect(() => {
+    if (!watchId || live?.id !== watchId || live.state === 'running') return;
+    apply(live);
+    // A request whose answer was lost and that left the upload as it was never reached the server.
+    if (lostAnswer.current && live.state === 'staged') setError('The server did not receive that request; try again.');
+    lostAnswer.current = false;
+    // apply only when the watched work has ended
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [live, watchId]);
 
   async function run<T>(k: PhaseKey, fn: () => Promise<T>): Promise<T | null> {
     setBusy(true);
     setError(null);
+    setLastRun(k);
+    setRound((r) => r + 1);
     const t0 = performance.now();
     phase(k, { state: 'running' });
     try {
@@ -47,6 +112,14 @@ export function UploadWizard({ purpose }: { purpose: 'parcels' | 'reference' }) 
       phase(k, { state: 'done', detail: seconds(performance.now() - t0) });
       return r;
     } catch (e) {
+      // The answer was lost on the way (network, proxy), not refused: the server may still be at it, so follow its stored progress.
+      if (staged && (!(e instanceof ApiError) || e.status === 0 || e.status >= 502)) {
+        lostAnswer.current = true;
+        setRound((r) => r + 1);
+        setWatchId(staged.id);
+        go('working');
+        return null;
+      }
       phase(k, { state: 'failed' });
       setError(e instanceof ApiError ? e.message : 'That did not work; try again.');
       return null;
@@ -88,6 +161,7 @@ export function UploadWizard({ purpose }: { purpose: 'parcels' | 'reference' }) 
       setBusy(false);
     }
     setStaged(r);
+    setUploadParam(r.id);
     setLayerName(r.layers[0]!.name);
     setMapping(suggestMapping(purpose, r.layers[0]!));
     setEpsg(null);
@@ -122,6 +196,7 @@ export function UploadWizard({ purpose }: { purpose: 'parcels' | 'reference' }) 
     if (staged) await apiFetch(`/api/uploads/${staged.id}`, { method: 'DELETE' }).catch(() => undefined);
     setStaged(null);
     setReport(null);
+    setUploadParam(null);
     setPhases(initialPhases());
     if (fileRef.current) fileRef.current.value = '';
     go('file');
@@ -129,6 +204,10 @@ export function UploadWizard({ purpose }: { purpose: 'parcels' | 'reference' }) 
 
   const mappingReady = purpose === 'reference' ? !!mapping.kind && !!mapping.classAttribute : !!mapping.reference;
   const noun = purpose === 'parcels' ? 'parcels' : 'features';
+  const checking = working ? CHECK_PHASES.includes(working.phase) : lastRun === 'validate';
+  const current = step === 'working' ? (checking ? 'report' : 'saved') : step;
+  const title =
+    step === 'working' ? (checking ? 'Checking every feature' : 'Saving') : STEPS.find((s) => s.key === step)!.label;
   return (
     <div className="flex flex-col gap-4">
       <nav aria-label="Steps">
@@ -136,8 +215,8 @@ export function UploadWizard({ purpose }: { purpose: 'parcels' | 'reference' }) 
           {STEPS.map((s, i) => (
             <li
               key={s.key}
-              aria-current={s.key === step ? 'step' : undefined}
-              className={s.key === step ? 'rounded bg-sward-700 px-2 py-0.5 text-white' : 'px-2 py-0.5 text-muted'}
+              aria-current={s.key === current ? 'step' : undefined}
+              className={s.key === current ? 'rounded bg-sward-700 px-2 py-0.5 text-white' : 'px-2 py-0.5 text-muted'}
             >
               {i + 1}. {s.label}
             </li>
@@ -147,8 +226,11 @@ export function UploadWizard({ purpose }: { purpose: 'parcels' | 'reference' }) 
       <Progress phases={phases} />
       <section className="panel flex flex-col gap-4" aria-labelledby="step-heading">
         <h2 id="step-heading" ref={heading} tabIndex={-1}>
-          {STEPS.find((s) => s.key === step)!.label}
+          {title}
         </h2>
+        {restoring && <p role="status">Opening the upload…</p>}
+        {working && <ServerProgress status={working} />}
+        {step === 'working' && !working && <p role="status">Asking the server how far the work has got…</p>}
         {error && (
           <p className="notice notice-warn" role="alert">
             <span aria-hidden="true">⚠ </span>
@@ -260,29 +342,11 @@ export function UploadWizard({ purpose }: { purpose: 'parcels' | 'reference' }) 
           </>
         )}
         {step === 'saved' && saved && (
-          <>
-            <p className="notice" role="status">
-              <span aria-hidden="true">✓ </span>Saved {countOf(saved.saved, noun.replace(/s$/, ''), noun)}
-              {saved.rejected ? `; ${countOf(saved.rejected, 'rejected one was', 'rejected ones were')} left out` : ''}.
-              The original file is kept with the batch.
-            </p>
-            {saved.referenceVersion ? (
-              <p>
-                Version {saved.referenceVersion.version} of this layer is a draft.{' '}
-                <a href="/admin/reference-layers">Publish it on the reference layers page</a>.
-              </p>
-            ) : (
-              <p>
-                <a href={`/map?upload=${saved.batchId}`}>See the saved parcels on the map, outlined and listed</a>
-              </p>
-            )}
-            <button
-              className="btn btn-quiet self-start"
-              onClick={() => (setPhases(initialPhases()), setStaged(null), go('file'))}
-            >
-              Upload another file
-            </button>
-          </>
+          <SavedStep
+            saved={saved}
+            noun={noun}
+            onAgain={() => (setPhases(initialPhases()), setStaged(null), setUploadParam(null), go('file'))}
+          />
         )}
       </section>
     </div>

@@ -18,7 +18,7 @@ export type Staged = {
   sha256: string;
   expiresAt: string;
   layers: StagedLayer[];
-  timings: { parseMs: number };
+  timings?: { parseMs: number };
 };
 export type Issue = { code: string; message: string; severity: string };
 export type Report = {
@@ -34,7 +34,7 @@ export type Report = {
     areaHa: number | null;
   }[];
   omitted: number;
-  timings: { parseMs: number; validateMs: number };
+  timings?: { parseMs: number; validateMs: number };
 };
 export type Saved = {
   batchId: string;
@@ -42,6 +42,37 @@ export type Saved = {
   saved: number;
   rejected: number;
   referenceVersion: { id: number; kind: string; version: number } | null;
-  timings: { storeMs: number; overlayMs: number };
+  timings?: { storeMs: number; overlayMs: number };
 };
 export type Mapping = Record<string, string | undefined>;
+export type ServerPhase =
+  | 'reading'
+  | 'staged'
+  | 'checking'
+  | 'keeping'
+  | 'comparing'
+  | 'validated'
+  | 'storing'
+  | 'overlay'
+  | 'saved'
+  | 'failed'
+  | 'cancelled';
+/** GET /api/uploads/{id}: where the upload stands, as stored on the server. */
+export type UploadStatus = {
+  id: string;
+  purpose: 'parcels' | 'reference';
+  fileName: string;
+  state: 'running' | 'staged' | 'validated' | 'saved' | 'failed' | 'cancelled' | 'expired';
+  phase: ServerPhase;
+  failedIn: ServerPhase | null;
+  done: number | null;
+  total: number | null;
+  startedAt: string;
+  phaseStartedAt: string;
+  updatedAt: string;
+  message: string | null;
+  staged: Staged | null;
+  choice: { layer: string; epsg: number | null; mapping: Mapping } | null;
+  report: Report | null;
+  saved: Saved | null;
+};

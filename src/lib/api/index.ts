@@ -58,6 +58,7 @@ export const allSpecs: ApiSpec[] = [
   uploads.saveUpload,
   uploads.uploadReportCsv,
   uploads.cancelUpload,
+  uploads.uploadStatus,
   uploads.searchCrs,
   parcels.getParcel,
   parcels.drawParcel,

@@ -130,3 +130,56 @@ export const searchCrs = defineSpec({
     items: z.array(z.object({ epsg: z.number(), name: z.string(), kind: z.string(), areaOfUse: z.string() })),
   }),
 });
+
+const phase = z.enum([
+  'reading',
+  'staged',
+  'checking',
+  'keeping',
+  'comparing',
+  'validated',
+  'storing',
+  'overlay',
+  'saved',
+  'failed',
+  'cancelled',
+]);
+
+export const uploadStatus = defineSpec({
+  method: 'GET',
+  path: '/api/uploads/{id}',
+  tag: 'Uploads',
+  summary:
+    'Where an upload stands, stored in the database (phase, counts done/total where known, times): the staged layers, ' +
+    'the last check’s choices and report, or what the save did; for the uploader and administrators (404 for others)',
+  access: ['planner', 'admin'],
+  params: idParams,
+  response: z.object({
+    id: z.string(),
+    purpose: z.enum(['parcels', 'reference']),
+    fileName: z.string(),
+    state: z.enum(['running', 'staged', 'validated', 'saved', 'failed', 'cancelled', 'expired']),
+    phase,
+    failedIn: phase.nullable(),
+    done: z.number().nullable(),
+    total: z.number().nullable(),
+    startedAt: z.string(),
+    phaseStartedAt: z.string(),
+    updatedAt: z.string(),
+    message: z.string().nullable(),
+    staged: z.record(z.string(), z.unknown()).nullable(),
+    choice: z
+      .object({ layer: z.string(), epsg: z.number().nullable(), mapping: z.record(z.string(), z.unknown()) })
+      .nullable(),
+    report: z.record(z.string(), z.unknown()).nullable(),
+    saved: z
+      .object({
+        batchId: z.string(),
+        purpose: z.string(),
+        saved: z.number(),
+        rejected: z.number(),
+        referenceVersion: z.object({ id: z.number(), kind: z.string(), version: z.number() }).nullable(),
+      })
+      .nullable(),
+  }),
+});

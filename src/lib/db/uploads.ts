@@ -1,5 +1,5 @@
 /** Staged uploads and their validated features (server-only). */
-import { stagedFeatureChunks } from '../gis/staged-json';
+import { STAGE_CHUNK, stagedFeatureChunks } from '../gis/staged-json';
 import { analyzeAfterBulkWrite } from './bulk';
 import type { Db } from './client';
 
@@ -100,9 +100,15 @@ export async function deleteStaging(db: Db, id: string): Promise<void> {
 }
 
 /** Replaces the staged features, given as JSON chunks (`stagedFeatureChunks`, built in the worker pool). */
-export async function replaceStagedFeatureChunks(db: Db, stagingId: string, chunks: string[]): Promise<void> {
+export async function replaceStagedFeatureChunks(
+  db: Db,
+  stagingId: string,
+  chunks: string[],
+  onChunk?: (done: number) => Promise<void>,
+): Promise<void> {
   await db('upload_staging_feature').where({ staging_id: stagingId }).delete();
-  for (const chunk of chunks) {
+  for (const [i, chunk] of chunks.entries()) {
+    if (onChunk && i > 0) await onChunk(i * STAGE_CHUNK);
     await db.raw(
       `insert into upload_staging_feature (staging_id, idx, status, reference, issues, fields, geom, raw_geom)
        select ?, (r->>'idx')::int, r->>'status', r->>'reference', r->'issues', r->'fields',

@@ -20,6 +20,7 @@ import { getGisSettings } from '../db/gis-settings';
 import { overlapTolerance } from '../gis/settings';
 import { recheckStagedInSave } from './parcel-integrity';
 import { loadOwnStaging } from './upload-stage';
+import { endStep, recordProgress, trackStep } from './upload-progress';
 
 export type SaveResult = {
   batchId: string;
@@ -35,6 +36,10 @@ function isUniqueViolation(error: unknown): error is { code: string; detail?: st
 }
 
 export async function saveUpload(by: Caller, id: string): Promise<SaveResult> {
+  return trackStep(by, id, 'storing', () => storeUpload(by, id));
+}
+
+async function storeUpload(by: Caller, id: string): Promise<SaveResult> {
   try {
     return await withTransaction(db, async (trx) => {
       await serialPlans(trx);
@@ -48,6 +53,7 @@ export async function saveUpload(by: Caller, id: string): Promise<SaveResult> {
           'UNPROCESSABLE_CONTENT',
           'No feature passed validation, so there is nothing to save. Cancel the upload or fix the file.',
         );
+      await recordProgress(id, 'storing', null, valid);
       const t0 = performance.now();
       const batchId = randomUUID();
       await uploads.insertBatchFromStaging(trx, id, batchId, valid);
@@ -63,6 +69,7 @@ export async function saveUpload(by: Caller, id: string): Promise<SaveResult> {
           by.id,
           `Upload "${staging.file_name}" (batch ${batchId.slice(0, 8)})`,
         );
+        await recordProgress(id, 'overlay', null, valid);
         const t1 = performance.now();
         await computeOverlay(
           trx,
@@ -99,12 +106,13 @@ export async function saveUpload(by: Caller, id: string): Promise<SaveResult> {
         },
       });
       const storeMs = performance.now() - t0 - overlayMs;
+      const result = { saved: valid, rejected: summary.rejected, referenceVersion };
+      // Last in the transaction: the progress says saved exactly when the save commits.
+      await endStep(trx, id, { phase: 'saved', total: valid, batchId, result });
       return {
         batchId,
         purpose: staging.purpose,
-        saved: valid,
-        rejected: summary.rejected,
-        referenceVersion,
+        ...result,
         timings: { storeMs: Math.round(storeMs), overlayMs: Math.round(overlayMs) },
       };
     });

@@ -4,12 +4,16 @@ import { recordAudit } from '../db/audit';
 import { db, withTransaction, type Db } from '../db/client';
 import { getGisSettings } from '../db/gis-settings';
 import * as uploads from '../db/uploads';
+import * as progress from '../db/upload-progress';
 import { hasAnyRole } from '../auth/roles';
 import type { ColumnInfo } from '../gis/types';
 import { HttpError } from '../http/errors';
 import type { Caller } from '../http/handle';
 import { runGisTask } from '../workers/pool';
 import { detectFormat, detectLayerCrs } from './upload-parse';
+
+/** Progress rows of uploads untouched this long are deleted (their staging expired long before). */
+const PROGRESS_KEPT_DAYS = 30;
 
 export type UploadPurpose = 'parcels' | 'reference';
 
@@ -49,11 +53,28 @@ export function assertPurposeAllowed(by: Caller, purpose: UploadPurpose): void {
     throw new HttpError('FORBIDDEN', 'Only administrators upload reference layers.');
 }
 
+/** Reads and stages a file; its progress row says `reading` meanwhile and goes with it if the file is refused. */
 export async function stageUpload(
   by: Caller,
   input: { purpose: UploadPurpose; fileName: string; bytes: Uint8Array },
 ): Promise<StagedUpload> {
   assertPurposeAllowed(by, input.purpose);
+  const id = randomUUID();
+  const { fileName, purpose } = input;
+  await progress.beginStep(db, { uploadId: id, purpose, fileName, createdBy: by.id, phase: 'reading' });
+  try {
+    return await readAndStage(by, input, id);
+  } catch (error) {
+    await progress.deleteProgress(db, id);
+    throw error;
+  }
+}
+
+async function readAndStage(
+  by: Caller,
+  input: { purpose: UploadPurpose; fileName: string; bytes: Uint8Array },
+  id: string,
+): Promise<StagedUpload> {
   const settings = await getGisSettings(db);
   if (input.bytes.length === 0) throw new HttpError('UNPROCESSABLE_CONTENT', `"${input.fileName}" is empty.`);
   if (input.bytes.length > settings['upload.max-bytes']) {
@@ -66,11 +87,11 @@ export async function stageUpload(
   const format = detectFormat(input.fileName, input.bytes);
   const parsed = await runGisTask('inspect', { bytes: input.bytes, format, fileName: input.fileName, settings });
   const parseMs = Math.round(performance.now() - started);
-  const id = randomUUID();
   const sha256 = createHash('sha256').update(input.bytes).digest('hex');
   const expiresAt = new Date(Date.now() + settings['upload.staging-hours'] * 3_600_000);
   return withTransaction(db, async (trx) => {
     await uploads.deleteExpiredStaging(trx);
+    await progress.deleteOldProgress(trx, PROGRESS_KEPT_DAYS);
     const layers: StagedLayer[] = [];
     for (const layer of parsed) {
       const found = await detectLayerCrs(layer);
@@ -103,6 +124,7 @@ export async function stageUpload(
       created_by: by.id,
       expires_at: expiresAt,
     });
+    await progress.endStep(trx, id, { phase: 'staged' });
     await recordAudit(trx, {
       actorId: by.id,
       action: 'upload.stage',
@@ -141,6 +163,7 @@ export async function cancelUpload(by: Caller, id: string): Promise<void> {
     if (!row || (row.created_by !== by.id && !hasAnyRole(by.roles, ['admin'])))
       throw new HttpError('NOT_FOUND', 'No such staged upload. It may have been saved or cancelled.');
     await uploads.deleteStaging(trx, id);
+    await progress.endStep(trx, id, { phase: 'cancelled' });
     await recordAudit(trx, {
       actorId: by.id,
       action: 'upload.cancel',

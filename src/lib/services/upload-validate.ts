@@ -32,6 +32,7 @@ import { checkStagedOverlaps } from './parcel-integrity';
 import { checkStagedTerritory } from './territory';
 import { loadOwnStaging, sourceKey } from './upload-stage';
 import { gisError, resolveCrs } from './upload-parse';
+import { endStep, recordProgress, trackStep, watchChunks } from './upload-progress';
 
 export interface ValidationInput {
   layer: string;
@@ -41,7 +42,7 @@ export interface ValidationInput {
 
 /** Reference layers: 1 m² floor; anything smaller is digitising noise (common practice). */
 const REFERENCE_MIN_AREA_M2 = 1;
-const REPORT_LIMIT = 2000;
+export const REPORT_LIMIT = 2000;
 
 function parseMapping(purpose: 'parcels' | 'reference', mapping: unknown): ParcelMapping | ReferenceMapping {
   const schema = purpose === 'parcels' ? parcelMappingSchema : referenceMappingSchema;
@@ -68,6 +69,10 @@ export function validationOptions(settings: GisSettings, crs: CrsDefinition | nu
 }
 
 export async function validateUpload(by: Caller, id: string, input: ValidationInput) {
+  return trackStep(by, id, 'checking', () => checkUpload(by, id, input));
+}
+
+async function checkUpload(by: Caller, id: string, input: ValidationInput) {
   const staging = await loadOwnStaging(db, by, id);
   const mapping = parseMapping(staging.purpose, input.mapping);
   const settings = await getGisSettings(db);
@@ -92,8 +97,10 @@ export async function validateUpload(by: Caller, id: string, input: ValidationIn
     );
   const { crs, source } = await resolveCrs(layer, input.epsg);
   const parseMs = Math.round(performance.now() - started);
+  await recordProgress(id, 'checking', 0, layer.featureCount);
   const t1 = performance.now();
   const inPostgis = await reprojectsInPostgis(db, crs);
+  const counts = watchChunks(id);
   const stage = {
     layerName: layer.name,
     purpose: staging.purpose,
@@ -103,19 +110,24 @@ export async function validateUpload(by: Caller, id: string, input: ValidationIn
   // The features stay in the worker pool (parse, reproject, validate, serialise); only JSON text comes back.
   // A CRS with a datum shift is reprojected by PostGIS, so those features make the round trip through here.
   const chunks = await (async () => {
-    if (!inPostgis) return runGisTask('stageFile', { ...file, ...stage, proj4Crs: crs });
+    if (!inPostgis) return runGisTask('stageFile', { ...file, ...stage, proj4Crs: crs, progressChannel: counts.name });
     const parsed = (await runGisTask('parse', file)).find((l) => l.name === layer.name)!;
     return runGisTask('stage', {
       ...stage,
       features: await reprojectLayer(db, parsed.features, crs, layer.name),
       proj4Crs: null,
     });
-  })().catch((error) => {
-    throw isGisInputError(error) ? gisError(error) : error;
-  });
+  })()
+    .catch((error) => {
+      throw isGisInputError(error) ? gisError(error) : error;
+    })
+    .finally(counts.stop);
+  const total = layer.featureCount;
+  await recordProgress(id, 'keeping', 0, total);
   const result = await withTransaction(db, async (trx) => {
     await serialPlans(trx);
-    await uploads.replaceStagedFeatureChunks(trx, id, chunks);
+    await uploads.replaceStagedFeatureChunks(trx, id, chunks, (done) => recordProgress(id, 'keeping', done, total));
+    await recordProgress(id, 'comparing', null, total);
     await uploads.repairWithMakeValid(trx, id, validationOptions(settings, crs, staging.purpose).minAreaM2);
     if (staging.purpose === 'parcels') {
       await uploads.rejectRegisterDuplicates(trx, id);
@@ -137,6 +149,7 @@ export async function validateUpload(by: Caller, id: string, input: ValidationIn
       by.id,
     );
     const problems = await uploads.stagedProblems(trx, id, REPORT_LIMIT);
+    await endStep(trx, id, { phase: 'validated', total: summary.total });
     return { summary, problems };
   });
   const listed = result.problems.length;
@@ -158,7 +171,7 @@ export async function validateUpload(by: Caller, id: string, input: ValidationIn
   };
 }
 
-async function countOkWithWarnings(id: string): Promise<number> {
+export async function countOkWithWarnings(id: string): Promise<number> {
   const r = await db('upload_staging_feature')
     .where({ staging_id: id, status: 'ok' })
     .andWhereRaw('jsonb_array_length(issues) > 0')

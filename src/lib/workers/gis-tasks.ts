@@ -13,6 +13,7 @@ import { layerToWgs84 } from '../gis/ingest/to-wgs84';
 import type { GisSettings } from '../gis/settings';
 import { stageFeatures, type StagedFeature, type StageOptions } from '../gis/stage-features';
 import type { RawFeature } from '../gis/types';
+import { BroadcastChannel } from 'node:worker_threads';
 import {
   seenNothing,
   validateFeatures,
@@ -44,6 +45,7 @@ async function guarded<T>(fn: () => T | Promise<T>): Promise<TaskResult<T>> {
 function stageInChunks(
   features: (RawFeature | undefined)[],
   stage: (part: RawFeature[], seen: SeenSoFar, offset: number) => StagedFeature[],
+  onChunk?: (done: number, total: number) => void,
 ): string[] {
   const seen = seenNothing();
   const out: string[] = [];
@@ -51,6 +53,7 @@ function stageInChunks(
     const part = features.slice(at, at + STAGE_CHUNK) as RawFeature[];
     out.push(...stagedFeatureChunks(stage(part, seen, at)));
     features.fill(undefined, at, at + part.length);
+    onChunk?.(at + part.length, features.length);
   }
   return out;
 }
@@ -94,6 +97,8 @@ export const tasks = {
     purpose: 'parcels' | 'reference';
     mapping: ParcelMapping | ReferenceMapping;
     options: StageOptions;
+    /** A BroadcastChannel name to post `{ done, total }` on after each chunk (the upload's progress). */
+    progressChannel?: string;
   }) =>
     guarded(async () => {
       const layer = (await parseUpload(i.bytes, i.format, i.fileName, i.settings)).find((l) => l.name === i.layerName);
@@ -101,9 +106,17 @@ export const tasks = {
         throw new HttpError('UNPROCESSABLE_CONTENT', `The file has no layer "${i.layerName}".`, [
           { path: ['layer'], message: 'unknown layer' },
         ]);
-      return stageInChunks(layer.features, (part, seen, offset) =>
-        stageFeatures(layerToWgs84(part, i.proj4Crs, layer.name), i.purpose, i.mapping, i.options, seen, offset),
-      );
+      const channel = i.progressChannel ? new BroadcastChannel(i.progressChannel) : null;
+      try {
+        return stageInChunks(
+          layer.features,
+          (part, seen, offset) =>
+            stageFeatures(layerToWgs84(part, i.proj4Crs, layer.name), i.purpose, i.mapping, i.options, seen, offset),
+          (done, total) => channel?.postMessage({ done, total }),
+        );
+      } finally {
+        channel?.close();
+      }
     }),
   validate: (i: { features: FeatureToValidate[]; options: ValidationOptions }) =>
     guarded(() => validateFeatures(i.features, i.options)),
