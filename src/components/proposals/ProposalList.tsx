@@ -1,12 +1,12 @@
 /** The proposals list: a headless table (@tanstack/react-table) over the paged, sorted, filtered GET /api/proposals. */
 import { formatDate } from '~/lib/format/dates';
-import { createColumnHelper } from '@tanstack/react-table';
+import { useEffect, useMemo, useRef, useState } from 'react';
+import { createColumnHelper, getCoreRowModel, useReactTable, type SortingState } from '@tanstack/react-table';
 import { Pager, ServerTable } from '../table/ServerTable';
 import { PROPOSAL_STATES } from '~/lib/proposals/states';
-import { type RiskLevel } from '~/lib/rules/levels';
-import { LevelFilter, ListCount, ListError, SortChoice } from '../table/ListControls';
+import { LEVELS, RISK_LEVELS, type RiskLevel } from '~/lib/rules/levels';
 import { RiskBadge } from '../ui/RiskBadge';
-import { useServerList, type ServerPage } from '../table/useServerList';
+import { ApiError, apiFetch } from '../ui/api-client';
 import { toParams, type ListQuery } from './list-query';
 import { clockWords, hectares, stateLabel, tonnes } from './words';
 
@@ -25,7 +25,7 @@ export type ProposalRow = {
   co2eTotal: number | null;
   updatedAt: string;
 };
-type Page = ServerPage<ProposalRow>;
+type Page = { items: ProposalRow[]; total: number; page: number; pageSize: number };
 
 const col = createColumnHelper<ProposalRow>();
 const parcelsText = (r: ProposalRow) =>
@@ -65,16 +65,54 @@ export function ProposalList({
   initialQuery: ListQuery;
   canFile: boolean;
 }) {
-  const { query, set, data, error, loading, table, pageCount, from } = useServerList<ProposalRow, ListQuery>({
-    endpoint: '/api/proposals',
-    initial,
-    initialQuery,
-    toParams,
+  const [query, setQuery] = useState<ListQuery>(initialQuery);
+  const [data, setData] = useState<Page>(initial);
+  const [error, setError] = useState<string | null>(null);
+  const [loading, setLoading] = useState(false);
+  const first = useRef(true);
+
+  useEffect(() => {
+    if (first.current) return void (first.current = false);
+    const params = toParams(query);
+    window.history.replaceState(null, '', `${window.location.pathname}${params.size ? `?${params}` : ''}`);
+    const t = setTimeout(() => {
+      setLoading(true);
+      apiFetch<Page>(`/api/proposals?${params}`)
+        .then(
+          (d) => (setData(d), setError(null)),
+          (e) => setError(e instanceof ApiError ? e.message : 'The list could not be loaded.'),
+        )
+        .finally(() => setLoading(false));
+    }, 200);
+    return () => clearTimeout(t);
+  }, [query]);
+
+  const sorting: SortingState = useMemo(
+    () => [{ id: query.sort, desc: query.dir === 'desc' }],
+    [query.sort, query.dir],
+  );
+  const pageCount = Math.max(1, Math.ceil(data.total / query.pageSize));
+  const table = useReactTable({
+    data: data.items,
     columns: COLUMNS,
-    rowId: (r) => String(r.id),
-    debounceMs: 200,
-    failure: 'The list could not be loaded.',
+    getCoreRowModel: getCoreRowModel(),
+    getRowId: (r) => String(r.id),
+    manualSorting: true,
+    manualPagination: true,
+    pageCount,
+    enableSortingRemoval: false,
+    state: { sorting, pagination: { pageIndex: query.page - 1, pageSize: query.pageSize } },
+    onSortingChange: (u) => {
+      const next = (typeof u === 'function' ? u(sorting) : u)[0];
+      if (next) setQuery({ ...query, sort: next.id, dir: next.desc ? 'desc' : 'asc', page: 1 });
+    },
+    onPaginationChange: (u) => {
+      const next = typeof u === 'function' ? u({ pageIndex: query.page - 1, pageSize: query.pageSize }) : u;
+      setQuery({ ...query, page: next.pageIndex + 1, pageSize: next.pageSize });
+    },
   });
+  const set = (patch: Partial<ListQuery>) => setQuery({ ...query, ...patch, page: 1 });
+  const from = data.total === 0 ? 0 : (query.page - 1) * query.pageSize + 1;
 
   return (
     <div className="flex flex-col gap-3">
@@ -120,7 +158,19 @@ export function ProposalList({
             onChange={(e) => set({ parcel: e.target.value })}
           />
         </div>
-        <LevelFilter id="f-risk" label="Risk level" value={query.risk} onChange={(risk) => set({ risk })} />
+        <div className="field">
+          <label htmlFor="f-risk" className="text-sm font-medium text-muted">
+            Risk level
+          </label>
+          <select id="f-risk" className="input" value={query.risk} onChange={(e) => set({ risk: e.target.value })}>
+            <option value="">Any level</option>
+            {RISK_LEVELS.map((l) => (
+              <option key={l} value={l}>
+                {l} · {LEVELS[l].label}
+              </option>
+            ))}
+          </select>
+        </div>
         {canFile && (
           <a className="btn self-end justify-center" href="/proposals/new">
             File a proposal
@@ -129,25 +179,45 @@ export function ProposalList({
       </form>
 
       <div className="flex flex-wrap items-center justify-between gap-2 text-sm">
-        <ListCount loading={loading} total={data.total} from={from} shown={data.items.length} things="Proposals" />
+        <p aria-live="polite">
+          {loading
+            ? 'Loading…'
+            : data.total === 0
+              ? 'No proposals match.'
+              : `Proposals ${from}–${from + data.items.length - 1} of ${data.total}`}
+        </p>
         <div className="flex items-center gap-2 md:hidden">
-          <SortChoice
+          <label htmlFor="m-sort" className="text-muted">
+            Sort by
+          </label>
+          <select
             id="m-sort"
-            labelClassName="text-muted"
-            sort={query.sort}
-            dir={query.dir}
-            choices={[
+            className="input"
+            value={`${query.sort}:${query.dir}`}
+            onChange={(e) => {
+              const [sort, dir] = e.target.value.split(':');
+              set({ sort, dir: dir as 'asc' | 'desc' });
+            }}
+          >
+            {[
               ['updated', 'desc', 'Recently updated'],
               ['deadline', 'asc', 'Decision due soonest'],
               ['risk', 'desc', 'Highest risk'],
               ['co2e', 'desc', 'Largest CO2e'],
               ['reference', 'asc', 'Reference'],
-            ]}
-            onChange={(sort, dir) => set({ sort, dir })}
-          />
+            ].map(([s, d, l]) => (
+              <option key={s} value={`${s}:${d}`}>
+                {l}
+              </option>
+            ))}
+          </select>
         </div>
       </div>
-      <ListError error={error} />
+      {error && (
+        <p className="notice notice-warn" role="alert">
+          ⚠ {error}
+        </p>
+      )}
 
       <ServerTable table={table} sortable={(id) => id !== 'parcels' && table.getColumn(id)?.getCanSort() === true} />
 

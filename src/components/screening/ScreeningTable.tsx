@@ -1,10 +1,10 @@
 /** The screening table: every permanent-grassland parcel with the level and CO2e of converting it, over the paged, sorted GET /api/screening. */
-import { createColumnHelper } from '@tanstack/react-table';
+import { useEffect, useMemo, useRef, useState } from 'react';
+import { createColumnHelper, getCoreRowModel, useReactTable, type SortingState } from '@tanstack/react-table';
 import { Pager, ServerTable } from '../table/ServerTable';
-import { type RiskLevel } from '~/lib/rules/levels';
-import { LevelFilter, ListCount, ListError, SortChoice } from '../table/ListControls';
+import { LEVELS, RISK_LEVELS, type RiskLevel } from '~/lib/rules/levels';
 import { RiskBadge } from '../ui/RiskBadge';
-import { useServerList, type ServerPage } from '../table/useServerList';
+import { ApiError, apiFetch } from '../ui/api-client';
 import { hectares, tonnes } from '../proposals/words';
 import { screeningParams, type ScreeningQuery } from './query';
 
@@ -20,7 +20,7 @@ export type ScreeningRow = {
   rules: string[];
   problem: string | null;
 };
-type Page = ServerPage<ScreeningRow>;
+type Page = { items: ScreeningRow[]; total: number; page: number; pageSize: number };
 
 const col = createColumnHelper<ScreeningRow>();
 const Level = ({ r }: { r: ScreeningRow }) =>
@@ -82,16 +82,52 @@ export function ScreeningTable({
   regions: { key: string; label: string }[];
   ruleTitles: Record<string, string>;
 }) {
-  const { query, set, data, error, loading, table, pageCount, from } = useServerList<ScreeningRow, ScreeningQuery>({
-    endpoint: '/api/screening',
-    initial,
-    initialQuery,
-    toParams: screeningParams,
+  const [query, setQuery] = useState<ScreeningQuery>(initialQuery);
+  const [data, setData] = useState<Page>(initial);
+  const [error, setError] = useState<string | null>(null);
+  const [loading, setLoading] = useState(false);
+  const first = useRef(true);
+
+  useEffect(() => {
+    if (first.current) return void (first.current = false);
+    const params = screeningParams(query);
+    window.history.replaceState(null, '', `${window.location.pathname}${params.size ? `?${params}` : ''}`);
+    setLoading(true);
+    apiFetch<Page>(`/api/screening?${params}`)
+      .then(
+        (d) => (setData(d), setError(null)),
+        (e) => setError(e instanceof ApiError ? e.message : 'The table could not be loaded.'),
+      )
+      .finally(() => setLoading(false));
+  }, [query]);
+
+  const sorting: SortingState = useMemo(
+    () => [{ id: query.sort, desc: query.dir === 'desc' }],
+    [query.sort, query.dir],
+  );
+  const pageCount = Math.max(1, Math.ceil(data.total / query.pageSize));
+  const table = useReactTable({
+    data: data.items,
     columns: COLUMNS,
-    rowId: (r) => String(r.parcelId),
+    getCoreRowModel: getCoreRowModel(),
+    getRowId: (r) => String(r.parcelId),
+    manualSorting: true,
+    manualPagination: true,
+    pageCount,
+    enableSortingRemoval: false,
     meta: { titles: ruleTitles },
-    failure: 'The table could not be loaded.',
+    state: { sorting, pagination: { pageIndex: query.page - 1, pageSize: query.pageSize } },
+    onSortingChange: (u) => {
+      const next = (typeof u === 'function' ? u(sorting) : u)[0];
+      if (next) setQuery({ ...query, sort: next.id, dir: next.desc ? 'desc' : 'asc', page: 1 });
+    },
+    onPaginationChange: (u) => {
+      const next = typeof u === 'function' ? u({ pageIndex: query.page - 1, pageSize: query.pageSize }) : u;
+      setQuery({ ...query, page: next.pageIndex + 1, pageSize: next.pageSize });
+    },
   });
+  const set = (patch: Partial<ScreeningQuery>) => setQuery({ ...query, ...patch, page: 1 });
+  const from = data.total === 0 ? 0 : (query.page - 1) * query.pageSize + 1;
 
   return (
     <div className="flex flex-col gap-3">
@@ -101,7 +137,19 @@ export function ScreeningTable({
         aria-label="Filter the screening table"
         onSubmit={(e) => e.preventDefault()}
       >
-        <LevelFilter id="s-level" label="Level if converted" value={query.level} onChange={(level) => set({ level })} />
+        <div className="field">
+          <label htmlFor="s-level" className="text-sm font-medium text-muted">
+            Level if converted
+          </label>
+          <select id="s-level" className="input" value={query.level} onChange={(e) => set({ level: e.target.value })}>
+            <option value="">Any level</option>
+            {RISK_LEVELS.map((l) => (
+              <option key={l} value={l}>
+                {l} · {LEVELS[l].label}
+              </option>
+            ))}
+          </select>
+        </div>
         <div className="field">
           <label htmlFor="s-region" className="text-sm font-medium text-muted">
             Accounting region
@@ -121,25 +169,46 @@ export function ScreeningTable({
           </select>
         </div>
         <div className="field">
-          <SortChoice
+          <label htmlFor="s-sort" className="text-sm font-medium text-muted">
+            Sort by
+          </label>
+          <select
             id="s-sort"
-            sort={query.sort}
-            dir={query.dir}
-            choices={[
+            className="input"
+            value={`${query.sort}:${query.dir}`}
+            onChange={(e) => {
+              const [sort, dir] = e.target.value.split(':');
+              set({ sort: sort!, dir: dir as 'asc' | 'desc' });
+            }}
+          >
+            {[
               ['level', 'desc', 'Highest level'],
               ['co2e', 'desc', 'Largest CO2e'],
               ['high', 'desc', 'Largest upper bound'],
               ['loss', 'desc', 'Most soil carbon lost per ha'],
               ['area', 'desc', 'Largest area'],
               ['reference', 'asc', 'Parcel reference'],
-            ]}
-            onChange={(sort, dir) => set({ sort, dir })}
-          />
+            ].map(([s, d, l]) => (
+              <option key={s} value={`${s}:${d}`}>
+                {l}
+              </option>
+            ))}
+          </select>
         </div>
       </form>
 
-      <ListCount loading={loading} total={data.total} from={from} shown={data.items.length} things="Parcels" />
-      <ListError error={error} />
+      <p aria-live="polite" className="text-sm">
+        {loading
+          ? 'Loading…'
+          : data.total === 0
+            ? 'No parcels match.'
+            : `Parcels ${from}–${from + data.items.length - 1} of ${data.total}`}
+      </p>
+      {error && (
+        <p className="notice notice-warn" role="alert">
+          ⚠ {error}
+        </p>
+      )}
 
       <ServerTable table={table} sortable={(id) => !UNSORTABLE.has(id)} numClass="num whitespace-nowrap" />
 
