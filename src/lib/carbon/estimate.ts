@@ -48,6 +48,13 @@ function shapeOf(req: EstimateRequest, set: FactorSetDocument): Shape {
   return { plan, factors, cautions: cautionsFor(req, plan, factors) };
 }
 
+/** Names a parsed request's kind: every field but the area, as JSON (written field by field: a rest copy is slower). */
+function shapeKey(req: EstimateRequest): string {
+  let key = '';
+  for (const k in req) if (k !== 'areaHa') key += `${k}:${JSON.stringify((req as Record<string, unknown>)[k])},`;
+  return key;
+}
+
 function estimateParsed(
   req: EstimateRequest,
   set: FactorSetDocument,
@@ -55,8 +62,7 @@ function estimateParsed(
 ): EstimateResult {
   let shape: Shape;
   if (shapes && !req.uncertainty) {
-    const { areaHa: _a, ...rest } = req;
-    const key = JSON.stringify(rest);
+    const key = shapeKey(req);
     shape = shapes.get(key) ?? shapes.set(key, sharedShape(shapeOf(req, set))).get(key)!;
   } else shape = shapeOf(req, set);
   const { plan } = shape;
@@ -89,8 +95,11 @@ function estimateParsed(
     ...(uncertainty ? { uncertainty } : {}),
     cautions,
   };
-  if (shared) assertAllFinite({ ...result, factors: [], cautions: [] });
-  else assertAllFinite(result);
+  if (shared) {
+    // The shared factors and cautions were checked once (sharedShape).
+    for (const k in result)
+      if (k !== 'factors' && k !== 'cautions') assertAllFinite(result[k as keyof EstimateResult], `result.${k}`);
+  } else assertAllFinite(result);
   return result;
 }
 
@@ -125,15 +134,37 @@ export function estimateBatch(inputs: EstimateRequest[], set: FactorSetDocument)
   });
 }
 
-/** Guards the promise of the API: never NaN, Infinity, null or undefined in a result. */
+/** Whether a value holds only finite numbers and no null or undefined (the check of assertAllFinite, without paths). */
+function allFinite(value: unknown): boolean {
+  if (typeof value === 'number') return Number.isFinite(value);
+  if (value === null || value === undefined) return false;
+  if (Array.isArray(value)) {
+    for (let i = 0; i < value.length; i++) if (!allFinite(value[i])) return false;
+    return true;
+  }
+  if (typeof value === 'object') {
+    for (const k in value)
+      if (Object.hasOwn(value, k) && !allFinite((value as Record<string, unknown>)[k])) return false;
+  }
+  return true;
+}
+
+/**
+ * Guards the promise of the API: never NaN, Infinity, null or undefined in a result. The path of
+ * the first bad value is worked out only when there is one (thousands of results a second pass).
+ */
 export function assertAllFinite(value: unknown, path = 'result'): void {
+  if (!allFinite(value)) findNotFinite(value, path);
+}
+
+function findNotFinite(value: unknown, path: string): void {
   if (value === null || value === undefined) throw new Error(`${path} is ${value}`);
   if (typeof value === 'number') {
     if (!Number.isFinite(value)) throw new Error(`${path} is not a finite number (${value})`);
     return;
   }
-  if (Array.isArray(value)) return value.forEach((v, i) => assertAllFinite(v, `${path}[${i}]`));
+  if (Array.isArray(value)) return value.forEach((v, i) => findNotFinite(v, `${path}[${i}]`));
   if (typeof value === 'object') {
-    for (const [k, v] of Object.entries(value)) assertAllFinite(v, `${path}.${k}`);
+    for (const [k, v] of Object.entries(value)) findNotFinite(v, `${path}.${k}`);
   }
 }
