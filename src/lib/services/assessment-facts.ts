@@ -111,8 +111,14 @@ export async function buildGradeFacts(
   const earlier = byHolding.size
     ? await store.earlierOnHoldings(conn, a.proposal.id, [...byHolding.keys()], windowYears)
     : [];
+  const earlierOf = new Map<string, typeof earlier>();
+  for (const e of earlier) {
+    const list = earlierOf.get(e.owner_ref);
+    if (list) list.push(e);
+    else earlierOf.set(e.owner_ref, [e]);
+  }
   const holdings = [...byHolding.entries()].map(([ownerRef, thisHa]) => {
-    const rows = earlier.filter((e) => e.owner_ref === ownerRef);
+    const rows = earlierOf.get(ownerRef) ?? [];
     const earlierHa = rows.reduce((s, r) => s + Number(r.area_ha), 0);
     return {
       ownerRef,
