@@ -55,22 +55,18 @@ function shapeKey(req: EstimateRequest): string {
   return key;
 }
 
-function estimateParsed(
-  req: EstimateRequest,
-  set: FactorSetDocument,
-  shapes: Map<string, Shape> | null,
-): EstimateResult {
+function estimateParsed(req: EstimateRequest, set: FactorSetDocument, batch: Batch | null): EstimateResult {
   let shape: Shape;
-  if (shapes && !req.uncertainty) {
+  if (batch && !req.uncertainty) {
     const key = shapeKey(req);
-    shape = shapes.get(key) ?? shapes.set(key, sharedShape(shapeOf(req, set))).get(key)!;
+    shape = batch.shapes.get(key) ?? batch.shapes.set(key, sharedShape(shapeOf(req, set), batch.lists)).get(key)!;
   } else shape = shapeOf(req, set);
   const { plan } = shape;
   const D = req.transitionYears;
   const figures = computeFigures(plan, req.areaHa, D, (k) => plan.factors.get(k)!.value);
   // In a batch, results of one kind share their (frozen) factors and cautions: thousands of parcels
   // then carry one copy, and a serialiser can write it once (see lib/http/shared-json.ts).
-  const shared = shapes !== null && !req.uncertainty;
+  const shared = batch !== null && !req.uncertainty;
   const factors = shape.factors;
   const cautions = shared ? shape.cautions : [...shape.cautions];
   let uncertainty: EstimateResult['uncertainty'];
@@ -103,15 +99,25 @@ function estimateParsed(
   return result;
 }
 
-/** A batch's shape: factors and cautions checked once and frozen, as every result of its kind shares them. */
-function sharedShape(shape: Shape): Shape {
-  assertAllFinite(shape.factors, 'result.factors');
-  for (const f of shape.factors) Object.freeze(f);
-  return {
-    ...shape,
-    factors: Object.freeze(shape.factors) as UsedFactor[],
-    cautions: Object.freeze(shape.cautions) as string[],
+/** What a batch keeps: the shape of each kind of request, and each distinct factors or cautions list once. */
+type Batch = { shapes: Map<string, Shape>; lists: Map<string, readonly unknown[]> };
+
+/**
+ * A batch's shape: factors and cautions checked once and frozen, as every result of its kind shares them.
+ * Kinds that differ only in their soil fractions mostly use the same factors and cautions: equal lists
+ * are kept once (`lists`, by their JSON), so results share them and a serialiser writes each once.
+ */
+function sharedShape(shape: Shape, lists: Batch['lists']): Shape {
+  const once = <T>(list: T[], check: boolean): T[] => {
+    const key = JSON.stringify(list);
+    const known = lists.get(key);
+    if (known) return known as T[];
+    if (check) assertAllFinite(list, 'result.factors');
+    for (const f of list) if (typeof f === 'object' && f !== null) Object.freeze(f);
+    lists.set(key, Object.freeze(list));
+    return list;
   };
+  return { ...shape, factors: once(shape.factors, true), cautions: once(shape.cautions, false) };
 }
 
 /**
@@ -120,7 +126,7 @@ function sharedShape(shape: Shape): Shape {
  * what makes thousands of parcels cheap. Requests are parsed like the single estimate.
  */
 export function estimateBatch(inputs: EstimateRequest[], set: FactorSetDocument): EstimateResult[] {
-  const shapes = new Map<string, Shape>();
+  const batch: Batch = { shapes: new Map(), lists: new Map() };
   return inputs.map((input) => {
     const parsed = estimateRequestSchema.safeParse(input);
     if (!parsed.success)
@@ -130,7 +136,7 @@ export function estimateBatch(inputs: EstimateRequest[], set: FactorSetDocument)
           message: i.message,
         })),
       );
-    return estimateParsed(parsed.data, set, shapes);
+    return estimateParsed(parsed.data, set, batch);
   });
 }
 
