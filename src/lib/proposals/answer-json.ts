@@ -104,7 +104,10 @@ export function assessmentAnswerJson(answer: Answer): string {
   return Buffer.concat([...assessmentAnswerPieces(answer)]).toString('utf8');
 }
 
-/** A response body of the answer's JSON, each piece made when the client's connection has room for it. */
+/**
+ * A response body of the answer's JSON, made piece by piece as it is read; with `room` (locals.room), each
+ * piece waits until the client's connection has room for it.
+ */
 export function assessmentAnswerBody(answer: Answer, room?: Room): ReadableStream<Uint8Array> {
   const pieces = assessmentAnswerPieces(answer);
   return new ReadableStream({

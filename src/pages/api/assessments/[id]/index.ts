@@ -5,8 +5,8 @@ import { getAssessment as get, saveFindings as save } from '~/lib/services/asses
 
 export const GET = handle(
   getAssessment,
-  async ({ ctx, params }) =>
-    new Response(assessmentAnswerBody(await get(params.id), ctx.locals.room), {
+  async ({ params }) =>
+    new Response(assessmentAnswerBody(await get(params.id)), {
       status: 200,
       headers: { 'content-type': 'application/json; charset=utf-8' },
     }),
