@@ -123,11 +123,18 @@ function sharedShape(shape: Shape, lists: Batch['lists']): Shape {
 /**
  * Many estimates with one factor set: the same results as estimateLandUseChange for each
  * request, computed with one plan per kind of request (everything but the area), which is
- * what makes thousands of parcels cheap. Requests are parsed like the single estimate.
+ * what makes thousands of parcels cheap. Requests are parsed like the single estimate; a request
+ * written like one parsed before except for its area (a positive finite number, all the schema asks
+ * of it) takes that parse with its own area.
  */
 export function estimateBatch(inputs: EstimateRequest[], set: FactorSetDocument): EstimateResult[] {
   const batch: Batch = { shapes: new Map(), lists: new Map() };
+  const parsedByKind = new Map<string, EstimateRequest>();
   return inputs.map((input) => {
+    const areaHa: unknown = input.areaHa;
+    const key = typeof areaHa === 'number' && Number.isFinite(areaHa) && areaHa > 0 ? shapeKey(input) : null;
+    const known = key === null ? undefined : parsedByKind.get(key);
+    if (known) return estimateParsed({ ...known, areaHa: areaHa as number }, set, batch);
     const parsed = estimateRequestSchema.safeParse(input);
     if (!parsed.success)
       throw new EstimateInputError(
@@ -136,6 +143,7 @@ export function estimateBatch(inputs: EstimateRequest[], set: FactorSetDocument)
           message: i.message,
         })),
       );
+    if (key !== null) parsedByKind.set(key, parsed.data);
     return estimateParsed(parsed.data, set, batch);
   });
 }
