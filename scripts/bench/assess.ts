@@ -7,7 +7,7 @@
  */
 import knexFactory from 'knex';
 import { randomUUID } from 'node:crypto';
-import { BASE, call, logged, s, skipped } from './server';
+import { BASE, call, logged, s, serverCpuMs, skipped } from './server';
 
 const HISTORY = 'Benchmark history';
 
@@ -58,6 +58,7 @@ async function assess(planner: string, assessor: string, ids: number[]): Promise
   });
   for (const run of ['first run', 're-run']) {
     const t0 = performance.now();
+    const cpu0 = serverCpuMs();
     const reqId = randomUUID();
     // As a browser asks (gzip, deflate: what fetch sends over http), so the server compresses as it would for one.
     const r = await fetch(`${BASE}/api/proposals/${created.data.id}/assessment`, {
@@ -71,13 +72,14 @@ async function assess(planner: string, assessor: string, ids: number[]): Promise
     const timing = r.headers.get('server-timing');
     const computed = Number(/(?:^|,\s*)assess;dur=([\d.]+)/.exec(timing ?? '')?.[1]);
     const server = await logged(reqId);
+    const cpu = serverCpuMs() - cpu0;
     const a = JSON.parse(body) as { totals: { runs: number; co2eTotal: number } };
     console.log(
       `\nassessment of a ${ids.length}-parcel proposal (${run}), ${a.totals.runs} joint Monte Carlo runs: ` +
         `server ${s(server)} from arrival to the last byte written (aim: < 1 s; ${r.headers.get('content-encoding') ?? 'not'} ` +
         `compressed), answer made in ${s(computed)}, request ${s(wall)} with a ${(body.length / 1e6).toFixed(1)} MB answer`,
     );
-    console.log(`  server phases: ${phases(timing)}`);
+    console.log(`  server phases: ${phases(timing)}; server process CPU time ${s(cpu)}`);
   }
 }
 

@@ -36,6 +36,7 @@ export function startServer() {
     durations.set(m[1]!, Number(m[2]));
     waiters.get(m[1]!)?.();
   });
+  serverPid = server.pid;
   const vm = (key: 'VmHWM' | 'VmRSS') =>
     Number(new RegExp(`${key}:\\s+(\\d+)`).exec(readFileSync(`/proc/${server.pid}/status`, 'utf8'))![1]) / 1024;
   /** Resets the peak (VmHWM) to the current RSS (Linux clear_refs "5"), so a later peak belongs to one step. */
@@ -55,6 +56,19 @@ export function startServer() {
     throw new Error('the server did not start');
   }
   return { server, vm, resetPeak, up, stop: () => server.kill('SIGTERM') };
+}
+
+let serverPid: number | undefined;
+
+/**
+ * CPU time the server process has used so far (all its threads: the main thread, compression and
+ * garbage collection; user + system, /proc/<pid>/stat fields 14 and 15 in ticks of 10 ms), in ms:
+ * less moved by other work on the machine than elapsed time.
+ */
+export function serverCpuMs(): number {
+  if (serverPid === undefined) return NaN;
+  const fields = readFileSync(`/proc/${serverPid}/stat`, 'utf8').split(') ')[1]!.split(' ');
+  return (Number(fields[11]) + Number(fields[12])) * 10;
 }
 
 const durations = new Map<string, number>();
