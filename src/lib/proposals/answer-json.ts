@@ -15,11 +15,16 @@ const PIECE_BYTES = 256 * 1024;
 
 const isShared = (v: unknown): v is object => typeof v === 'object' && v !== null && Object.isFrozen(v);
 
+/** The text written so far as UTF-8 in one buffer, handed out in pieces without copying. */
 class Pieces {
   private text = '';
-  private parts: Uint8Array[] = [];
-  private bytes = 0;
+  private buf: Buffer;
+  private at = 0;
   private readonly shared = new Map<object, Buffer>();
+
+  constructor(private readonly pieceBytes: number) {
+    this.buf = Buffer.allocUnsafe(pieceBytes * 2);
+  }
 
   write(text: string): void {
     this.text += text;
@@ -30,8 +35,8 @@ class Pieces {
     let b = this.shared.get(value);
     if (!b) this.shared.set(value, (b = Buffer.from(JSON.stringify(value))));
     this.flushText();
-    this.parts.push(b);
-    this.bytes += b.length;
+    this.room(b.length);
+    this.at += b.copy(this.buf, this.at);
   }
 
   /** `"key":value` for each key of an object whose value JSON writes (undefined and functions are left out, as JSON.stringify does). */
@@ -52,21 +57,28 @@ class Pieces {
     return first;
   }
 
+  /** Room for `bytes` more (a UTF-16 code unit takes at most 3 bytes of UTF-8). */
+  private room(bytes: number): void {
+    if (this.at + bytes <= this.buf.length) return;
+    const bigger = Buffer.allocUnsafe(Math.max(this.buf.length * 2, this.at + bytes));
+    this.buf.copy(bigger, 0, 0, this.at);
+    this.buf = bigger;
+  }
+
   private flushText(): void {
     if (!this.text) return;
-    const b = Buffer.from(this.text);
-    this.parts.push(b);
-    this.bytes += b.length;
+    this.room(this.text.length * 3);
+    this.at += this.buf.write(this.text, this.at);
     this.text = '';
   }
 
   /** The bytes written since the last take, once there are at least `min` of them (all with min 0). */
   take(min: number): Uint8Array | null {
-    if (this.bytes + this.text.length < min) return null;
+    if (this.at + this.text.length < min) return null;
     this.flushText();
-    const out = Buffer.concat(this.parts, this.bytes);
-    this.parts = [];
-    this.bytes = 0;
+    const out = this.buf.subarray(0, this.at);
+    this.buf = Buffer.allocUnsafe(this.pieceBytes * 2);
+    this.at = 0;
     return out;
   }
 }
@@ -85,7 +97,7 @@ function writeParcel(out: Pieces, parcel: Record<string, unknown>): void {
 
 /** The answer's JSON text as UTF-8 pieces of about 256 kB, each made when it is asked for. */
 export function* assessmentAnswerPieces(answer: Answer, pieceBytes = PIECE_BYTES): Generator<Uint8Array> {
-  const out = new Pieces();
+  const out = new Pieces(pieceBytes);
   out.write('{');
   const first = out.writeMembers(answer, 'parcels', true);
   out.write(`${first ? '' : ','}"parcels":[`);
