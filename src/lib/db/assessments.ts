@@ -210,13 +210,15 @@ export async function eventsOfParcels(db: Db, ids: number[]) {
 /**
  * Permanent grassland converted on each holding by OTHER proposals (submitted or later, not
  * withdrawn; decided ones only when approved) submitted within the window before this one. Parcels count when the other proposal
- * turns grassland into cropland; their area is the area that proposal names.
+ * turns grassland into cropland; their area is the area that proposal names. The holdings are matched
+ * as a set (`in (select unnest(…))`, hashed): `= any(array)` compares each row with every holding in turn,
+ * which took over a second for a 2,000-parcel proposal on a register with earlier ones.
  */
 export async function earlierOnHoldings(db: Db, proposalId: number, ownerRefs: string[], windowYears: number) {
   const r = await db.raw(
     `select pr.owner_ref, p.reference, sum(pp.area_ha) as area_ha
      from proposal p join proposal_parcel pp on pp.proposal_id = p.id join parcel pr on pr.id = pp.parcel_id
-     where p.id <> ? and pr.owner_ref = any(?::text[])
+     where p.id <> ? and pr.owner_ref in (select unnest(?::text[]))
        and (p.state in ('submitted', 'in-assessment', 'assessed', 'on-agenda')
             or (p.state = 'decided' and exists (select 1 from board_decision d where d.proposal_id = p.id and ` +
       `d.outcome in ('approved', 'approved-with-conditions'))))
