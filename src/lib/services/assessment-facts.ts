@@ -22,6 +22,8 @@ type AssessedParcel = {
   ownerRef: string | null;
   state: LandUseState | null;
   overlayRows: OverlayRow[];
+  /** `summariseOverlay(overlayRows)` when the caller has it already. */
+  overlaySummary?: ReturnType<typeof summariseOverlay>;
   flags: LandUseFlags;
 };
 type Estimate = { socBeforePerHa: number; socAfterPerHa: number; socChangeTotal: number; co2eTotal: number } | null;
@@ -49,7 +51,7 @@ export async function buildGradeFacts(
 ): Promise<GradeFacts> {
   const converts = a.proposal.proposed.landUse !== 'grassland';
   const parcels: ParcelFacts[] = a.parcels.map((p, i) => {
-    const o = summariseOverlay(p.overlayRows) as Record<
+    const o = (p.overlaySummary ?? summariseOverlay(p.overlayRows)) as Record<
       string,
       ReturnType<typeof summariseOverlay>[keyof ReturnType<typeof summariseOverlay>]
     >;

@@ -50,6 +50,7 @@ type ParcelOut = {
   state: LandUseState | null;
   overlay: { climate: string | null; soils: { type: string; fraction: number }[]; flags: string[] };
   overlayRows: OverlayRow[];
+  overlaySummary: ReturnType<typeof summariseOverlay>;
   flags: ReturnType<typeof deriveLandUseFlags>;
   problems: string[];
 };
@@ -110,6 +111,7 @@ function parcelInput(
     state,
     overlay: { climate, soils, flags: [summary.climate.flag, summary.soil.flag].filter((x): x is string => !!x) },
     overlayRows: rows,
+    overlaySummary: summary,
     flags: deriveLandUseFlags(events, flagOptions),
     problems,
   };
