@@ -5,6 +5,7 @@
  */
 import { spawn } from 'node:child_process';
 import { readFileSync, writeFileSync } from 'node:fs';
+import { createInterface } from 'node:readline';
 
 export const PORT = Number(process.env.BENCH_PORT ?? 4395);
 export const BASE = `http://127.0.0.1:${PORT}`;
@@ -25,8 +26,17 @@ export function startServer() {
       MAIL_WORKER: 'off',
       AUTH_SIGNIN_MAX: '1000',
     },
-    stdio: ['ignore', 'inherit', 'inherit'],
+    stdio: ['ignore', 'pipe', 'inherit'],
   });
+  // The request log goes on to our stdout; each request line's duration is kept by request id (see `logged`).
+  server.stdout!.pipe(process.stdout);
+  createInterface({ input: server.stdout! }).on('line', (line) => {
+    const m = /"reqId":"([^"]+)".*"durationMs":([\d.]+)/.exec(line);
+    if (!m) return;
+    durations.set(m[1]!, Number(m[2]));
+    waiters.get(m[1]!)?.();
+  });
+  serverPid = server.pid;
   const vm = (key: 'VmHWM' | 'VmRSS') =>
     Number(new RegExp(`${key}:\\s+(\\d+)`).exec(readFileSync(`/proc/${server.pid}/status`, 'utf8'))![1]) / 1024;
   /** Resets the peak (VmHWM) to the current RSS (Linux clear_refs "5"), so a later peak belongs to one step. */
@@ -46,6 +56,40 @@ export function startServer() {
     throw new Error('the server did not start');
   }
   return { server, vm, resetPeak, up, stop: () => server.kill('SIGTERM') };
+}
+
+let serverPid: number | undefined;
+
+/**
+ * CPU time the server process has used so far (all its threads: the main thread, compression and
+ * garbage collection; user + system, /proc/<pid>/stat fields 14 and 15 in ticks of 10 ms), in ms:
+ * less moved by other work on the machine than elapsed time.
+ */
+export function serverCpuMs(): number {
+  if (serverPid === undefined) return NaN;
+  const fields = readFileSync(`/proc/${serverPid}/stat`, 'utf8').split(') ')[1]!.split(' ');
+  return (Number(fields[11]) + Number(fields[12])) * 10;
+}
+
+const durations = new Map<string, number>();
+const waiters = new Map<string, () => void>();
+
+/**
+ * The server's own time for a request sent with `X-Request-Id: reqId`: from its arrival to the
+ * close of the answer after the last byte was written (`durationMs` of scripts/serve.mjs's
+ * request log line), or NaN when no line came within 5 s.
+ */
+export async function logged(reqId: string): Promise<number> {
+  if (!durations.has(reqId))
+    await new Promise<void>((resolve) => {
+      const t = setTimeout(resolve, 5000);
+      waiters.set(reqId, () => {
+        clearTimeout(t);
+        resolve();
+      });
+    });
+  waiters.delete(reqId);
+  return durations.get(reqId) ?? NaN;
 }
 
 export async function session(email: string): Promise<string> {

@@ -405,7 +405,7 @@ describe('the demo scenario', () => {
     expect(new Set(rows.map((r) => r.grade_level).filter(Boolean))).toEqual(new Set([1, 2, 3, 4]));
     // The sensitive-grassland and district-ratio gates, and the split holding, are each shown by one demo proposal.
     const reasons = await testDb.raw(
-      `select distinct r->>'rule' as rule from assessment a, jsonb_array_elements(a.result->'grade'->'reasons') r`,
+      `select distinct r->>'rule' as rule from assessment a, json_array_elements(a.result->'grade'->'reasons') r`,
     );
     const fired = reasons.rows.map((r: { rule: string }) => r.rule);
     for (const rule of ['sensitive-grassland', 'region-ratio-fall', 'holding-cumulative-2ha'])

@@ -48,23 +48,25 @@ function shapeOf(req: EstimateRequest, set: FactorSetDocument): Shape {
   return { plan, factors, cautions: cautionsFor(req, plan, factors) };
 }
 
-function estimateParsed(
-  req: EstimateRequest,
-  set: FactorSetDocument,
-  shapes: Map<string, Shape> | null,
-): EstimateResult {
+/** Names a parsed request's kind: every field but the area, as JSON (written field by field: a rest copy is slower). */
+function shapeKey(req: EstimateRequest): string {
+  let key = '';
+  for (const k in req) if (k !== 'areaHa') key += `${k}:${JSON.stringify((req as Record<string, unknown>)[k])},`;
+  return key;
+}
+
+function estimateParsed(req: EstimateRequest, set: FactorSetDocument, batch: Batch | null): EstimateResult {
   let shape: Shape;
-  if (shapes && !req.uncertainty) {
-    const { areaHa: _a, ...rest } = req;
-    const key = JSON.stringify(rest);
-    shape = shapes.get(key) ?? shapes.set(key, sharedShape(shapeOf(req, set))).get(key)!;
+  if (batch && !req.uncertainty) {
+    const key = shapeKey(req);
+    shape = batch.shapes.get(key) ?? batch.shapes.set(key, sharedShape(shapeOf(req, set), batch.lists)).get(key)!;
   } else shape = shapeOf(req, set);
   const { plan } = shape;
   const D = req.transitionYears;
   const figures = computeFigures(plan, req.areaHa, D, (k) => plan.factors.get(k)!.value);
   // In a batch, results of one kind share their (frozen) factors and cautions: thousands of parcels
   // then carry one copy, and a serialiser can write it once (see lib/http/shared-json.ts).
-  const shared = shapes !== null && !req.uncertainty;
+  const shared = batch !== null && !req.uncertainty;
   const factors = shape.factors;
   const cautions = shared ? shape.cautions : [...shape.cautions];
   let uncertainty: EstimateResult['uncertainty'];
@@ -89,30 +91,50 @@ function estimateParsed(
     ...(uncertainty ? { uncertainty } : {}),
     cautions,
   };
-  if (shared) assertAllFinite({ ...result, factors: [], cautions: [] });
-  else assertAllFinite(result);
+  if (shared) {
+    // The shared factors and cautions were checked once (sharedShape).
+    for (const k in result)
+      if (k !== 'factors' && k !== 'cautions') assertAllFinite(result[k as keyof EstimateResult], `result.${k}`);
+  } else assertAllFinite(result);
   return result;
 }
 
-/** A batch's shape: factors and cautions checked once and frozen, as every result of its kind shares them. */
-function sharedShape(shape: Shape): Shape {
-  assertAllFinite(shape.factors, 'result.factors');
-  for (const f of shape.factors) Object.freeze(f);
-  return {
-    ...shape,
-    factors: Object.freeze(shape.factors) as UsedFactor[],
-    cautions: Object.freeze(shape.cautions) as string[],
+/** What a batch keeps: the shape of each kind of request, and each distinct factors or cautions list once. */
+type Batch = { shapes: Map<string, Shape>; lists: Map<string, readonly unknown[]> };
+
+/**
+ * A batch's shape: factors and cautions checked once and frozen, as every result of its kind shares them.
+ * Kinds that differ only in their soil fractions mostly use the same factors and cautions: equal lists
+ * are kept once (`lists`, by their JSON), so results share them and a serialiser writes each once.
+ */
+function sharedShape(shape: Shape, lists: Batch['lists']): Shape {
+  const once = <T>(list: T[], check: boolean): T[] => {
+    const key = JSON.stringify(list);
+    const known = lists.get(key);
+    if (known) return known as T[];
+    if (check) assertAllFinite(list, 'result.factors');
+    for (const f of list) if (typeof f === 'object' && f !== null) Object.freeze(f);
+    lists.set(key, Object.freeze(list));
+    return list;
   };
+  return { ...shape, factors: once(shape.factors, true), cautions: once(shape.cautions, false) };
 }
 
 /**
  * Many estimates with one factor set: the same results as estimateLandUseChange for each
  * request, computed with one plan per kind of request (everything but the area), which is
- * what makes thousands of parcels cheap. Requests are parsed like the single estimate.
+ * what makes thousands of parcels cheap. Requests are parsed like the single estimate; a request
+ * written like one parsed before except for its area (a positive finite number, all the schema asks
+ * of it) takes that parse with its own area.
  */
 export function estimateBatch(inputs: EstimateRequest[], set: FactorSetDocument): EstimateResult[] {
-  const shapes = new Map<string, Shape>();
+  const batch: Batch = { shapes: new Map(), lists: new Map() };
+  const parsedByKind = new Map<string, EstimateRequest>();
   return inputs.map((input) => {
+    const areaHa: unknown = input.areaHa;
+    const key = typeof areaHa === 'number' && Number.isFinite(areaHa) && areaHa > 0 ? shapeKey(input) : null;
+    const known = key === null ? undefined : parsedByKind.get(key);
+    if (known) return estimateParsed({ ...known, areaHa: areaHa as number }, set, batch);
     const parsed = estimateRequestSchema.safeParse(input);
     if (!parsed.success)
       throw new EstimateInputError(
@@ -121,19 +143,42 @@ export function estimateBatch(inputs: EstimateRequest[], set: FactorSetDocument)
           message: i.message,
         })),
       );
-    return estimateParsed(parsed.data, set, shapes);
+    if (key !== null) parsedByKind.set(key, parsed.data);
+    return estimateParsed(parsed.data, set, batch);
   });
 }
 
-/** Guards the promise of the API: never NaN, Infinity, null or undefined in a result. */
+/** Whether a value holds only finite numbers and no null or undefined (the check of assertAllFinite, without paths). */
+function allFinite(value: unknown): boolean {
+  if (typeof value === 'number') return Number.isFinite(value);
+  if (value === null || value === undefined) return false;
+  if (Array.isArray(value)) {
+    for (let i = 0; i < value.length; i++) if (!allFinite(value[i])) return false;
+    return true;
+  }
+  if (typeof value === 'object') {
+    for (const k in value)
+      if (Object.hasOwn(value, k) && !allFinite((value as Record<string, unknown>)[k])) return false;
+  }
+  return true;
+}
+
+/**
+ * Guards the promise of the API: never NaN, Infinity, null or undefined in a result. The path of
+ * the first bad value is worked out only when there is one (thousands of results a second pass).
+ */
 export function assertAllFinite(value: unknown, path = 'result'): void {
+  if (!allFinite(value)) findNotFinite(value, path);
+}
+
+function findNotFinite(value: unknown, path: string): void {
   if (value === null || value === undefined) throw new Error(`${path} is ${value}`);
   if (typeof value === 'number') {
     if (!Number.isFinite(value)) throw new Error(`${path} is not a finite number (${value})`);
     return;
   }
-  if (Array.isArray(value)) return value.forEach((v, i) => assertAllFinite(v, `${path}[${i}]`));
+  if (Array.isArray(value)) return value.forEach((v, i) => findNotFinite(v, `${path}[${i}]`));
   if (typeof value === 'object') {
-    for (const [k, v] of Object.entries(value)) assertAllFinite(v, `${path}.${k}`);
+    for (const [k, v] of Object.entries(value)) findNotFinite(v, `${path}.${k}`);
   }
 }

@@ -33,7 +33,7 @@ export {
 } from './factor-set-schema';
 export { estimateLandUseChange, estimateBatch, assertAllFinite } from './estimate';
 export { EstimateInputError, type EstimateInputIssue } from './errors';
-export { mergeLinearRequests } from './merge-requests';
+export { linearGroupKey, mergeLinearRequests } from './merge-requests';
 export {
   runMonteCarlo,
   runJointMonteCarlo,

@@ -27,11 +27,26 @@ function groupKey(v: unknown): string {
   return `${s}}`;
 }
 
-export function mergeLinearRequests(requests: EstimateRequest[]): EstimateRequest[] {
+/** The text that names a request's group: requests with the same key merge (all but soils, area and uncertainty). */
+export function linearGroupKey(r: EstimateRequest): string {
+  const o = r as Record<string, unknown>;
+  let s = '{';
+  for (const k of Object.keys(o).sort())
+    if (o[k] !== undefined && k !== 'soils' && k !== 'areaHa' && k !== 'uncertainty')
+      s += `${JSON.stringify(k)}:${groupKey(o[k])},`;
+  return `${s}}`;
+}
+
+/**
+ * `keys` (optional): each request's `linearGroupKey`, when the caller already knows them (an assessment
+ * merges the same parcels for every alternative); the result is the same as without them.
+ */
+export function mergeLinearRequests(requests: EstimateRequest[], keys?: readonly string[]): EstimateRequest[] {
+  if (keys && keys.length !== requests.length) throw new Error('mergeLinearRequests: one key per request');
   const groups = new Map<string, { req: EstimateRequest; areaHa: number; soilHa: Map<string, number> }>();
-  for (const r of requests) {
-    const { soils: _s, areaHa: _a, uncertainty: _u, ...rest } = r;
-    const key = groupKey(rest);
+  for (let i = 0; i < requests.length; i++) {
+    const r = requests[i]!;
+    const key = keys ? keys[i]! : linearGroupKey(r);
     const g = groups.get(key) ?? { req: r, areaHa: 0, soilHa: new Map<string, number>() };
     g.areaHa += r.areaHa;
     for (const s of r.soils) g.soilHa.set(s.type, (g.soilHa.get(s.type) ?? 0) + s.fraction * r.areaHa);

@@ -150,7 +150,9 @@ export type ProposalOverlay = Map<number, OverlayRow[]>;
 /**
  * The overlay of every parcel of a proposal with the current published layers, in one query:
  * the stored overlay for whole parcels; for a drawn part, the same intersection computed on the
- * part (ST_Intersection, union per class, ST_Area on geography).
+ * part (ST_Intersection, union per class, ST_Area on geography). Each parcel's overlay runs are looked
+ * up by key (the lateral subquery with `offset 0` is not flattened into a join): a plain join hashed
+ * the runs of every parcel of the register, so the time grew with the register, not the proposal.
  */
 export async function overlayOfProposal(db: Db, proposalId: number, extra: number[] = []): Promise<ProposalOverlay> {
   const r = await db.raw(
@@ -160,7 +162,8 @@ export async function overlayOfProposal(db: Db, proposalId: number, extra: numbe
      select pp.parcel_id::int as parcel_id, cur.kind, cur.version, run.covered_share,
             coalesce((select json_agg(json_build_object('class', o.class, 'areaHa', o.area_ha, 'share', o.share) order by o.class) from parcel_overlay o
                       where o.parcel_id = pp.parcel_id and o.layer_version_id = cur.id), '[]') as classes
-     from pp cross join cur join parcel_overlay_run run on run.parcel_id = pp.parcel_id and run.layer_version_id = cur.id
+     from pp cross join cur cross join lateral (select r.covered_share from parcel_overlay_run r
+       where r.parcel_id = pp.parcel_id and r.layer_version_id = cur.id offset 0) run
      where pp.part is null
      union all
      select pp.parcel_id::int, cur.kind, cur.version, least(1, coalesce(z.covered, 0)), coalesce(z.classes, '[]')
@@ -207,13 +210,15 @@ export async function eventsOfParcels(db: Db, ids: number[]) {
 /**
  * Permanent grassland converted on each holding by OTHER proposals (submitted or later, not
  * withdrawn; decided ones only when approved) submitted within the window before this one. Parcels count when the other proposal
- * turns grassland into cropland; their area is the area that proposal names.
+ * turns grassland into cropland; their area is the area that proposal names. The holdings are matched
+ * as a set (`in (select unnest(…))`, hashed): `= any(array)` compares each row with every holding in turn,
+ * which took over a second for a 2,000-parcel proposal on a register with earlier ones.
  */
 export async function earlierOnHoldings(db: Db, proposalId: number, ownerRefs: string[], windowYears: number) {
   const r = await db.raw(
     `select pr.owner_ref, p.reference, sum(pp.area_ha) as area_ha
      from proposal p join proposal_parcel pp on pp.proposal_id = p.id join parcel pr on pr.id = pp.parcel_id
-     where p.id <> ? and pr.owner_ref = any(?::text[])
+     where p.id <> ? and pr.owner_ref in (select unnest(?::text[]))
        and (p.state in ('submitted', 'in-assessment', 'assessed', 'on-agenda')
             or (p.state = 'decided' and exists (select 1 from board_decision d where d.proposal_id = p.id and ` +
       `d.outcome in ('approved', 'approved-with-conditions'))))

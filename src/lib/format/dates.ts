@@ -38,10 +38,19 @@ function toDate(v: DateInput): Date | null {
   return Number.isNaN(d.getTime()) ? null : d;
 }
 
+/** Calendar days already written: the same day always gives the same text (a large proposal writes thousands). */
+const dayTexts = new Map<string, string>();
+const DAY_TEXTS_MAX = 5000;
+
 /** "2 Dec 2026"; `empty` (default "—") for a missing or unreadable value. */
 export function formatDate(v: DateInput, empty = '—'): string {
+  const known = typeof v === 'string' ? dayTexts.get(v) : undefined;
+  if (known !== undefined) return known;
   const d = toDate(v);
-  return d ? DAY.format(d) : empty;
+  if (!d) return empty;
+  const text = DAY.format(d);
+  if (typeof v === 'string' && CALENDAR_DAY.test(v) && dayTexts.size < DAY_TEXTS_MAX) dayTexts.set(v, text);
+  return text;
 }
 
 /** "2 Dec 2026, 14:05 UTC"; `empty` (default "—") for a missing or unreadable value. */

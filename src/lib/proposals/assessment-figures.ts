@@ -8,6 +8,7 @@ import {
   estimateBatch,
   estimateLandUseChange,
   estimateRequestSchema,
+  linearGroupKey,
   mergeLinearRequests,
   runJointMonteCarlo,
   type EstimateRequest,
@@ -74,16 +75,20 @@ export function estimatesAsApi(requests: (ParcelRequest | null)[], set: FactorSe
   return requests.map((r) => (r ? asApi(results[at++]!, set, open, byFactors) : null));
 }
 
-/** Point total and joint range of a set of areas: merged by kind of change (linear), one draw per factor per run. */
+/**
+ * Point total and joint range of a set of areas: merged by kind of change (linear), one draw per factor per run.
+ * `keys` (optional): each request's `linearGroupKey`, when already known.
+ */
 export function jointTotal(
   requests: EstimateRequest[],
   set: FactorSetDocument,
   runs: number,
   seed: number,
+  keys?: readonly string[],
 ): { co2eTotal: number; co2eLow: number; co2eHigh: number; cautions: string[] } {
   if (requests.length === 0) return { co2eTotal: 0, co2eLow: 0, co2eHigh: 0, cautions: [] };
   // Merged first, then parsed (a handful instead of thousands): requests that merge differ only in area and soils.
-  const merged = mergeLinearRequests(requests).map((r) => estimateRequestSchema.parse(r));
+  const merged = mergeLinearRequests(requests, keys).map((r) => estimateRequestSchema.parse(r));
   const years = merged[0]!.transitionYears;
   const point = merged.reduce((s, r) => s + estimateLandUseChange(r, set).co2eTotal, 0);
   const mc = runJointMonteCarlo(
@@ -116,7 +121,14 @@ export function assessmentFigures(input: FigureInput, set: FactorSetDocument, ma
   const ok = input.requests.flatMap((p) => (p.request ? [p.request] : []));
   const sum = (k: 'socChangeTotal' | 'biomassChangeTotal' | 'n2oTotal' | 'co2eTotal') =>
     estimates.reduce((s, e) => s + (e ? e[k] : 0), 0);
-  const joint = jointTotal(ok, set, input.runs, input.seed);
+  // Each parcel's group is named once: an alternative changes the after state alike for every parcel of a
+  // group (it depends on the states only), so a group's new key is worked out from its first parcel.
+  const keys = ok.map(linearGroupKey);
+  const keysAfter = (reqs: EstimateRequest[]) => {
+    const renamed = new Map<string, string>();
+    return keys.map((k, i) => renamed.get(k) ?? renamed.set(k, linearGroupKey(reqs[i]!)).get(k)!);
+  };
+  const joint = jointTotal(ok, set, input.runs, input.seed, keys);
   mark?.('montecarlo');
   const totals: Totals = {
     areaHa: input.requests.reduce((s, p) => s + p.areaHa, 0),
@@ -148,7 +160,10 @@ export function assessmentFigures(input: FigureInput, set: FactorSetDocument, ma
         after: spec.after ? spec.after(r.after, r.before) : r.after,
         areaHa: r.areaHa * spec.areaShare,
       }));
-      const t = spec.key === 'proposal' ? joint : jointTotal(reqs, set, input.runs, input.seed);
+      const t =
+        spec.key === 'proposal'
+          ? joint
+          : jointTotal(reqs, set, input.runs, input.seed, spec.after ? keysAfter(reqs) : keys);
       return {
         ...base,
         available: true,
@@ -180,7 +195,7 @@ export function assessmentFigures(input: FigureInput, set: FactorSetDocument, ma
         differenceFromProposal: null,
       });
     else {
-      const t = jointTotal([...ok, c.request], set, input.runs, input.seed);
+      const t = jointTotal([...ok, c.request], set, input.runs, input.seed, [...keys, linearGroupKey(c.request)]);
       alternatives.push({
         ...base,
         note: c.note,

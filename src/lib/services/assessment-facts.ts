@@ -22,6 +22,8 @@ type AssessedParcel = {
   ownerRef: string | null;
   state: LandUseState | null;
   overlayRows: OverlayRow[];
+  /** `summariseOverlay(overlayRows)` when the caller has it already. */
+  overlaySummary?: ReturnType<typeof summariseOverlay>;
   flags: LandUseFlags;
 };
 type Estimate = { socBeforePerHa: number; socAfterPerHa: number; socChangeTotal: number; co2eTotal: number } | null;
@@ -49,7 +51,7 @@ export async function buildGradeFacts(
 ): Promise<GradeFacts> {
   const converts = a.proposal.proposed.landUse !== 'grassland';
   const parcels: ParcelFacts[] = a.parcels.map((p, i) => {
-    const o = summariseOverlay(p.overlayRows) as Record<
+    const o = (p.overlaySummary ?? summariseOverlay(p.overlayRows)) as Record<
       string,
       ReturnType<typeof summariseOverlay>[keyof ReturnType<typeof summariseOverlay>]
     >;
@@ -111,8 +113,14 @@ export async function buildGradeFacts(
   const earlier = byHolding.size
     ? await store.earlierOnHoldings(conn, a.proposal.id, [...byHolding.keys()], windowYears)
     : [];
+  const earlierOf = new Map<string, typeof earlier>();
+  for (const e of earlier) {
+    const list = earlierOf.get(e.owner_ref);
+    if (list) list.push(e);
+    else earlierOf.set(e.owner_ref, [e]);
+  }
   const holdings = [...byHolding.entries()].map(([ownerRef, thisHa]) => {
-    const rows = earlier.filter((e) => e.owner_ref === ownerRef);
+    const rows = earlierOf.get(ownerRef) ?? [];
     const earlierHa = rows.reduce((s, r) => s + Number(r.area_ha), 0);
     return {
       ownerRef,

@@ -50,6 +50,7 @@ type ParcelOut = {
   state: LandUseState | null;
   overlay: { climate: string | null; soils: { type: string; fraction: number }[]; flags: string[] };
   overlayRows: OverlayRow[];
+  overlaySummary: ReturnType<typeof summariseOverlay>;
   flags: ReturnType<typeof deriveLandUseFlags>;
   problems: string[];
 };
@@ -110,6 +111,7 @@ function parcelInput(
     state,
     overlay: { climate, soils, flags: [summary.climate.flag, summary.soil.flag].filter((x): x is string => !!x) },
     overlayRows: rows,
+    overlaySummary: summary,
     flags: deriveLandUseFlags(events, flagOptions),
     problems,
   };
@@ -316,12 +318,15 @@ function compactFigures(e: ApiEstimate | null) {
 
 function resultOf(c: Computed) {
   const { parcels, figures, set, grade } = c;
-  const converting = parcels.filter(
-    (p, i) => figures.estimates[i] && p.state?.landUse === 'grassland' && c.figureInput.proposed.landUse === 'cropland',
+  // Indices of the parcels converted (not indexOf per parcel: that is quadratic in a large proposal).
+  const converting = parcels.flatMap((p, i) =>
+    figures.estimates[i] && p.state?.landUse === 'grassland' && c.figureInput.proposed.landUse === 'cropland'
+      ? [i]
+      : [],
   );
-  const area = converting.reduce((s, p) => s + p.areaHa, 0);
+  const area = converting.reduce((s, i) => s + parcels[i]!.areaHa, 0);
   const weighted = (k: 'socBeforePerHa' | 'socAfterPerHa') =>
-    area > 0 ? converting.reduce((s, p) => s + figures.estimates[parcels.indexOf(p)]![k] * p.areaHa, 0) / area : 0;
+    area > 0 ? converting.reduce((s, i) => s + figures.estimates[i]![k] * parcels[i]!.areaHa, 0) / area : 0;
   const plausibility = checkPlausibility(converting.length > 0, weighted('socBeforePerHa'), weighted('socAfterPerHa'));
   const unconfirmed = [...new Set(figures.estimates.flatMap((e) => e?.unconfirmedTablesUsed ?? []))].sort();
   const blocking: string[] = parcels.flatMap((p) => p.problems.map((x) => `Parcel ${p.reference}: ${x}`));

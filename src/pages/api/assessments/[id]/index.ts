@@ -1,12 +1,12 @@
 import { getAssessment, saveFindings } from '~/lib/api/assessments';
 import { handle } from '~/lib/http/handle';
-import { assessmentAnswerJson } from '~/lib/proposals/answer-json';
+import { assessmentAnswerBody } from '~/lib/proposals/answer-json';
 import { getAssessment as get, saveFindings as save } from '~/lib/services/assessments';
 
 export const GET = handle(
   getAssessment,
   async ({ params }) =>
-    new Response(assessmentAnswerJson(await get(params.id)), {
+    new Response(assessmentAnswerBody(await get(params.id)), {
       status: 200,
       headers: { 'content-type': 'application/json; charset=utf-8' },
     }),
