@@ -99,18 +99,26 @@ export async function deleteStaging(db: Db, id: string): Promise<void> {
   await db('upload_staging').where({ id }).delete();
 }
 
+/** Removes an upload's staged features (before it is validated again). */
+export async function deleteStagedFeatures(db: Db, stagingId: string): Promise<void> {
+  await db('upload_staging_feature').where({ staging_id: stagingId }).delete();
+}
+
+/** Inserts one JSON chunk of staged features (`stagedFeatureChunks`, built in the worker pool). */
+export async function insertStagedChunk(db: Db, stagingId: string, chunk: string): Promise<void> {
+  await db.raw(
+    `insert into upload_staging_feature (staging_id, idx, status, reference, issues, fields, geom, raw_geom)
+     select ?, (r->>'idx')::int, r->>'status', r->>'reference', r->'issues', r->'fields',
+            st_geomfromgeojson(r->>'geom'), st_geomfromgeojson(r->>'rawGeom')
+     from jsonb_array_elements(?::jsonb) r`,
+    [stagingId, chunk],
+  );
+}
+
 /** Replaces the staged features, given as JSON chunks (`stagedFeatureChunks`, built in the worker pool). */
 export async function replaceStagedFeatureChunks(db: Db, stagingId: string, chunks: string[]): Promise<void> {
-  await db('upload_staging_feature').where({ staging_id: stagingId }).delete();
-  for (const chunk of chunks) {
-    await db.raw(
-      `insert into upload_staging_feature (staging_id, idx, status, reference, issues, fields, geom, raw_geom)
-       select ?, (r->>'idx')::int, r->>'status', r->>'reference', r->'issues', r->'fields',
-              st_geomfromgeojson(r->>'geom'), st_geomfromgeojson(r->>'rawGeom')
-       from jsonb_array_elements(?::jsonb) r`,
-      [stagingId, chunk],
-    );
-  }
+  await deleteStagedFeatures(db, stagingId);
+  for (const chunk of chunks) await insertStagedChunk(db, stagingId, chunk);
   await analyzeAfterBulkWrite(db, 'upload_staging_feature');
 }
 

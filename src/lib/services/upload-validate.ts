@@ -19,7 +19,7 @@ import type { CrsDefinition } from '../gis/crs';
 import { db, withTransaction } from '../db/client';
 import { getGisSettings } from '../db/gis-settings';
 import { reprojectLayer, reprojectsInPostgis } from '../db/transform';
-import { runGisTask } from '../workers/pool';
+import { runGisStream, runGisTask } from '../workers/pool';
 import { stringify } from 'csv-stringify/sync';
 import { issueCountText } from '../gis/issue-words';
 import { textStream } from '../http/text-stream';
@@ -27,7 +27,7 @@ import * as uploads from '../db/uploads';
 import { HttpError } from '../http/errors';
 import { zodIssues, type Caller } from '../http/handle';
 import { addStagedIssues } from '../db/parcel-integrity';
-import { serialPlans } from '../db/bulk';
+import { analyzeAfterBulkWrite, serialPlans } from '../db/bulk';
 import { checkStagedOverlaps } from './parcel-integrity';
 import { checkStagedTerritory } from './territory';
 import { loadOwnStaging, sourceKey } from './upload-stage';
@@ -100,22 +100,33 @@ export async function validateUpload(by: Caller, id: string, input: ValidationIn
     mapping,
     options: validationOptions(settings, crs, staging.purpose),
   };
-  // The features stay in the worker pool (parse, reproject, validate, serialise); only JSON text comes back.
   // A CRS with a datum shift is reprojected by PostGIS, so those features make the round trip through here.
-  const chunks = await (async () => {
-    if (!inPostgis) return runGisTask('stageFile', { ...file, ...stage, proj4Crs: crs });
-    const parsed = (await runGisTask('parse', file)).find((l) => l.name === layer.name)!;
-    return runGisTask('stage', {
-      ...stage,
-      features: await reprojectLayer(db, parsed.features, crs, layer.name),
-      proj4Crs: null,
-    });
-  })().catch((error) => {
-    throw isGisInputError(error) ? gisError(error) : error;
-  });
+  const shifted = inPostgis
+    ? await (async () => {
+        const parsed = (await runGisTask('parse', file)).find((l) => l.name === layer.name)!;
+        return runGisTask('stage', {
+          ...stage,
+          features: await reprojectLayer(db, parsed.features, crs, layer.name),
+          proj4Crs: null,
+        });
+      })().catch((error) => {
+        throw isGisInputError(error) ? gisError(error) : error;
+      })
+    : null;
   const result = await withTransaction(db, async (trx) => {
     await serialPlans(trx);
-    await uploads.replaceStagedFeatureChunks(trx, id, chunks);
+    if (shifted) await uploads.replaceStagedFeatureChunks(trx, id, shifted);
+    else {
+      // Otherwise the features stay in the worker pool (parse, reproject, validate, serialise): each chunk's JSON
+      // text is inserted as soon as the worker has written it, so neither thread holds the text of the whole file.
+      await uploads.deleteStagedFeatures(trx, id);
+      await runGisStream('stageFile', { ...file, ...stage, proj4Crs: crs }, (chunk) =>
+        uploads.insertStagedChunk(trx, id, chunk),
+      ).catch((error) => {
+        throw isGisInputError(error) ? gisError(error) : error;
+      });
+      await analyzeAfterBulkWrite(trx, 'upload_staging_feature');
+    }
     await uploads.repairWithMakeValid(trx, id, validationOptions(settings, crs, staging.purpose).minAreaM2);
     if (staging.purpose === 'parcels') {
       await uploads.rejectRegisterDuplicates(trx, id);
