@@ -74,7 +74,8 @@ export async function validateUpload(by: Caller, id: string, input: ValidationIn
   const started = performance.now();
   const bytes = await uploads.getStagingBytes(db, id);
   const file = { bytes, format: staging.format, fileName: staging.file_name, settings };
-  const layers = await runGisTask('inspect', file);
+  // The layers without reading their features; the extent is read only when it may name the CRS (no .prj, no code).
+  const layers = await runGisTask('describe', file);
   const layer = layers.find((l) => l.name === input.layer);
   if (!layer)
     throw new HttpError(
@@ -90,7 +91,11 @@ export async function validateUpload(by: Caller, id: string, input: ValidationIn
       `Layer "${layer.name}" has no column ${missing.map((c) => `"${c}"`).join(', ')}.`,
       [{ path: ['mapping'], message: 'unknown column' }],
     );
-  const { crs, source } = await resolveCrs(layer, input.epsg);
+  const needsExtent = input.epsg === undefined && !layer.prjWkt && layer.geojsonEpsg === null;
+  const { crs, source } = await resolveCrs(
+    needsExtent ? (await runGisTask('inspect', file)).find((l) => l.name === layer.name)! : layer,
+    input.epsg,
+  );
   const parseMs = Math.round(performance.now() - started);
   const t1 = performance.now();
   const inPostgis = await reprojectsInPostgis(db, crs);

@@ -5,7 +5,14 @@
  */
 import type { MessagePort } from 'node:worker_threads';
 import { HttpError } from '../http/errors';
-import { openLayerInfo, openUpload, parseUpload, type OpenLayer, type UploadFormat } from '../services/upload-parse';
+import {
+  openLayerInfo,
+  openUpload,
+  parseUpload,
+  type LayerInfo,
+  type OpenLayer,
+  type UploadFormat,
+} from '../services/upload-parse';
 import { STAGE_CHUNK, stagedFeatureChunks } from '../gis/staged-json';
 import { reproject, type CrsDefinition } from '../gis/crs';
 import { isGisInputError } from '../gis/errors';
@@ -102,6 +109,17 @@ export const tasks = {
   /** The file's layers without their features (columns, counts, CRS hints, extent): cheap to send back to the request thread. */
   inspect: (i: { bytes: Uint8Array; format: UploadFormat; fileName: string; settings: GisSettings }) =>
     guarded(async () => (await openUpload(i.bytes, i.format, i.fileName, i.settings)).map((l) => openLayerInfo(l))),
+  /** Like inspect, but without reading a shapefile's features: no extent (null) and no column samples. */
+  describe: (i: { bytes: Uint8Array; format: UploadFormat; fileName: string; settings: GisSettings }) =>
+    guarded(async () =>
+      (await openUpload(i.bytes, i.format, i.fileName, i.settings)).map(
+        ({ readFeatures: _read, columns, ...rest }): LayerInfo => ({
+          ...rest,
+          columns: typeof columns === 'function' ? columns([]) : columns,
+          bbox: null,
+        }),
+      ),
+    ),
   /**
    * Reprojects with proj4 when `proj4Crs` is given (else the features are in EPSG:4326 already), then maps and
    * validates; returns the staging insert's JSON chunks.
