@@ -42,7 +42,12 @@ export type OpenLayer = Omit<ParsedLayer, 'features' | 'columns'> & {
   featureCount: number;
   readFeatures(from: number, to: number): RawFeature[];
   /** The columns, or how to describe them from a slice of features (describeColumns). */
-  columns: ColumnInfo[] | ((features: RawFeature[]) => ColumnInfo[]);
+  columns:
+    | ColumnInfo[]
+    | ((
+        features: RawFeature[],
+      ) => ColumnInfo[]); /** Extent and columns with samples found without building the shapes (zipped shapefiles). */
+  quickInfo?: () => { bbox: LayerInfo['bbox']; columns: ColumnInfo[] };
 };
 
 const SAMPLES = 5;
@@ -52,7 +57,8 @@ const SAMPLES = 5;
  * heap. Merging each slice's first distinct samples in file order gives the file's first distinct samples.
  */
 export function openLayerInfo(layer: OpenLayer, slice = 2000): LayerInfo {
-  const { readFeatures, columns, ...rest } = layer;
+  const { readFeatures, columns, quickInfo, ...rest } = layer;
+  if (quickInfo) return { ...rest, ...quickInfo() };
   let bbox: LayerInfo['bbox'] = null;
   let described: ColumnInfo[] | null = typeof columns === 'function' ? null : columns;
   for (let at = 0; at < layer.featureCount; at += slice) {
@@ -104,6 +110,26 @@ export async function openUpload(
         }
       },
       columns: (part) => describeColumns(l.fields, part),
+      quickInfo: () => {
+        // The first shape is built (an unsupported shape type is refused here); the rest only give their points.
+        try {
+          l.readFeatures(0, 1);
+        } catch (error) {
+          throw isGisInputError(error) ? gisError(error) : error;
+        }
+        let columns = describeColumns(l.fields, []);
+        for (let at = 0; at < l.featureCount && columns.some((c) => c.samples.length < SAMPLES); at += 2000) {
+          const more = describeColumns(
+            l.fields,
+            l.readRows(at, at + 2000).map((properties) => ({ geometry: null, properties })),
+          );
+          columns = columns.map((c, i) => ({
+            ...c,
+            samples: [...new Set([...c.samples, ...more[i]!.samples])].slice(0, SAMPLES),
+          }));
+        }
+        return { bbox: l.extent(), columns };
+      },
       geometryType: l.shapeType,
       prjWkt: l.prjWkt,
       geojsonEpsg: null,

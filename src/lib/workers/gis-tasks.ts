@@ -113,7 +113,7 @@ export const tasks = {
   describe: (i: { bytes: Uint8Array; format: UploadFormat; fileName: string; settings: GisSettings }) =>
     guarded(async () =>
       (await openUpload(i.bytes, i.format, i.fileName, i.settings)).map(
-        ({ readFeatures: _read, columns, ...rest }): LayerInfo => ({
+        ({ readFeatures: _read, quickInfo: _quick, columns, ...rest }): LayerInfo => ({
           ...rest,
           columns: typeof columns === 'function' ? columns([]) : columns,
           bbox: null,

@@ -36,6 +36,10 @@ export interface OpenShapefileLayer extends Omit<ShapefileLayer, 'features' | 'c
   featureCount: number;
   fields: DbfField[];
   readFeatures(from: number, to: number): RawFeature[];
+  /** Attribute rows [from, to) without their shapes. */
+  readRows(from: number, to: number): RawFeature['properties'][];
+  /** Extent of every shape's points, read from the .shp records without building geometries. */
+  extent(): [number, number, number, number] | null;
 }
 
 const PARTS = ['shp', 'shx', 'dbf', 'prj', 'cpg'] as const;
@@ -145,6 +149,8 @@ function parseLayer(path: string, files: Partial<Record<Part, Uint8Array>>): Ope
     featureCount: count,
     fields: header.fields,
     readFeatures,
+    readRows: (from, to) => readDbfRecords(dbf, header, encoding, from, Math.min(to, count)),
+    extent: () => shpExtent(shp, summary),
   };
 }
 
@@ -163,6 +169,44 @@ function readShapes(shp: Uint8Array, name: string, summary: ShpSummary, from: nu
   } catch (error) {
     throw new GisInputError('bad-shp', `${name}.shp could not be read: ${(error as Error).message}.`, { cause: error });
   }
+}
+
+/**
+ * The extent of the points of every record (null shapes and records without points left out), read from
+ * the .shp bytes: the same box as bboxOf over the parsed shapes, without building them. Layout per the
+ * ESRI Shapefile Technical Description: points (x, y little-endian doubles) at content + 4 for points,
+ * after numPoints at + 40 for multipoints, after the part indexes at + 44 + 4 × numParts for multipart shapes.
+ */
+function shpExtent(shp: Uint8Array, summary: ShpSummary): [number, number, number, number] | null {
+  const dv = new DataView(shp.buffer, shp.byteOffset, shp.byteLength);
+  let box: [number, number, number, number] | null = null;
+  for (const offset of summary.recordOffsets) {
+    const c = offset + 8;
+    const type = dv.getInt32(c, true);
+    if (type === 0) continue;
+    const kind = type % 10;
+    let at: number;
+    let points: number;
+    if (kind === 1) [at, points] = [c + 4, 1];
+    else if (kind === 8) [at, points] = [c + 40, dv.getInt32(c + 36, true)];
+    else {
+      const parts = dv.getInt32(c + 36, true);
+      if (parts === 0) continue; // shpjs reads such a shape as null
+      [at, points] = [c + 44 + 4 * parts, dv.getInt32(c + 40, true)];
+    }
+    const r: [number, number, number, number] = [Infinity, Infinity, -Infinity, -Infinity];
+    for (let i = 0; i < points; i++, at += 16) {
+      const x = dv.getFloat64(at, true);
+      const y = dv.getFloat64(at + 8, true);
+      r[0] = Math.min(r[0], x);
+      r[1] = Math.min(r[1], y);
+      r[2] = Math.max(r[2], x);
+      r[3] = Math.max(r[3], y);
+    }
+    if (!Number.isFinite(r[0])) continue;
+    box = box ? [Math.min(box[0], r[0]), Math.min(box[1], r[1]), Math.max(box[2], r[2]), Math.max(box[3], r[3])] : r;
+  }
+  return box;
 }
 
 function kindOf(type: string): ColumnInfo['kind'] {
