@@ -31,7 +31,14 @@ const SOILS = ['hac', 'lac', 'sandy', 'spodic', 'volcanic', 'wetland', 'organic'
 
 const { server, vm, up, stop } = startServer();
 
-async function importFile(cookie: string, purpose: string, name: string, bytes: Uint8Array, mapping: object) {
+async function importFile(
+  cookie: string,
+  purpose: string,
+  name: string,
+  bytes: Uint8Array,
+  mapping: object,
+  phase: (name: string) => void = () => undefined,
+) {
   const form = new FormData();
   form.set('purpose', purpose);
   form.set('file', new Blob([bytes as BlobPart]), name);
@@ -41,15 +48,18 @@ async function importFile(cookie: string, purpose: string, name: string, bytes: 
     '/api/uploads',
     form,
   );
+  phase('upload');
   const report = await call<{
     summary: { total: number; rejected: number };
     timings: { parseMs: number; validateMs: number };
   }>(cookie, 'POST', `/api/uploads/${staged.data.id}/validation`, { layer: staged.data.layers[0]!.name, mapping });
+  phase('validate');
   const saved = await call<{
     saved: number;
     referenceVersion: { id: number } | null;
     timings: { storeMs: number; overlayMs: number };
   }>(cookie, 'POST', `/api/uploads/${staged.data.id}/save`);
+  phase('save');
   return { staged, report, saved };
 }
 
@@ -210,7 +220,7 @@ async function ingest(planner: string): Promise<string> {
     statedAreaUnit: 'ha',
   };
   const stopWatch = watchIngest(server.pid!);
-  const { staged, report, saved } = await importFile(planner, 'parcels', 'bench.zip', bytes, mapping);
+  const { staged, report, saved } = await importFile(planner, 'parcels', 'bench.zip', bytes, mapping, stopWatch.phase);
   const total = staged.ms + report.ms + saved.ms;
   const watched = await stopWatch();
   const peakMb = Math.max(vm('VmHWM'), watched.peakMb);
@@ -231,6 +241,9 @@ async function ingest(planner: string): Promise<string> {
   console.log(
     `  server memory: RSS before ingest ${rssBefore.toFixed(0)} MB, peak ${peakMb.toFixed(0)} MB ` +
       `(VmHWM ${vm('VmHWM').toFixed(0)} MB, process tree sampled ${watched.peakMb.toFixed(0)} MB) ${memoryMark(peakMb)}`,
+  );
+  console.log(
+    `  sampled peak per request: ${watched.phases.map((p) => `${p.name} ${p.peakMb.toFixed(0)} MB`).join(', ')}`,
   );
   console.log(`  ${healthLine(watched.times, watched.failed)}\n`);
   return (saved.data as unknown as { batchId: string }).batchId;

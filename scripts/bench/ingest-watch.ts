@@ -41,13 +41,27 @@ export function treeRssMb(pid: number): number {
   return rssMb(pid) + children(pid).reduce((sum, c) => sum + treeRssMb(c), 0);
 }
 
-/** Starts sampling the tree's memory and polling /api/health; `stop()` gives the peak and the answer times. */
+/**
+ * Starts sampling the tree's memory and polling /api/health; `stop()` gives the peak and the answer times.
+ * `phase(name)` ends a phase: `stop()` also gives the sampled peak of each phase, by name.
+ */
 export function watchIngest(pid: number) {
   let peakMb = treeRssMb(pid);
+  let phasePeakMb = peakMb;
+  const phases: { name: string; peakMb: number }[] = [];
+  const phase = (name: string) => {
+    phasePeakMb = Math.max(phasePeakMb, treeRssMb(pid));
+    phases.push({ name, peakMb: phasePeakMb });
+    phasePeakMb = 0;
+  };
   const times: number[] = [];
   let failed = 0;
   let running = true;
-  const sampler = setInterval(() => (peakMb = Math.max(peakMb, treeRssMb(pid))), 50);
+  const sampler = setInterval(() => {
+    const mb = treeRssMb(pid);
+    peakMb = Math.max(peakMb, mb);
+    phasePeakMb = Math.max(phasePeakMb, mb);
+  }, 50);
   const poll = (async () => {
     while (running) {
       const t0 = performance.now();
@@ -60,12 +74,13 @@ export function watchIngest(pid: number) {
       await new Promise((r) => setTimeout(r, 25));
     }
   })();
-  return async () => {
+  const stop = async () => {
     running = false;
     clearInterval(sampler);
     await poll;
-    return { peakMb, times, failed };
+    return { peakMb, times, failed, phases };
   };
+  return Object.assign(stop, { phase });
 }
 
 export function healthLine(times: number[], failed: number): string {

@@ -60,6 +60,8 @@ export async function computeOverlay(db: Db, sel: ParcelSelector, versionIds: nu
      where coalesce(m.a, g.a) > 0`,
     [versionIds, ...fp.args],
   );
+  // Statistics of the scratch table, so the joins below are planned from its real size (a temp table has none).
+  if (bulk) await db.raw('analyze overlay_scratch');
   await db.raw(
     `insert into parcel_overlay_run (parcel_id, layer_version_id, covered_share)
      select p.id, v, least(1, coalesce(s.total, 0))

@@ -63,18 +63,22 @@ export async function insertEventsFromStaging(
   by: string,
   evidence: string,
 ): Promise<void> {
-  const part = (kind: string, dateSql: string, valueSql: string, field: string) =>
-    `select p.id, ${dateSql}, '${kind}', ${valueSql}, ?, ?, ?::uuid from upload_staging_feature f join parcel p on p.reference = f.reference and p.batch_id = ?
-     where f.staging_id = ? and f.status <> 'rejected' and f.fields->>'${field}' is not null`;
-  const args = [evidence, by, batchId, batchId, stagingId];
+  // One join of the staged features with their new parcels; each feature gives up to five events,
+  // in this order per parcel (ids decide between events of one day).
   await db.raw(
     `insert into land_use_event (parcel_id, event_date, kind, value, evidence, recorded_by, batch_id)
-     ${part('land-use', 'current_date', "f.fields->>'landUse'", 'landUse')}
-     union all ${part('management', 'current_date', "f.fields->>'management'", 'management')}
-     union all ${part('tillage', "(f.fields->>'lastTillage')::date", 'null', 'lastTillage')}
-     union all ${part('reseeding', "(f.fields->>'lastReseeding')::date", 'null', 'lastReseeding')}
-     union all ${part('land-use', "(f.fields->>'grassSince')::date", "'grassland'", 'grassSince')}`,
-    [...args, ...args, ...args, ...args, ...args],
+     select p.id, e.d, e.k, e.v, ?, ?, ?::uuid
+     from upload_staging_feature f join parcel p on p.reference = f.reference and p.batch_id = ?
+     cross join lateral (values
+       (current_date, 'land-use', f.fields->>'landUse'),
+       (current_date, 'management', f.fields->>'management'),
+       ((f.fields->>'lastTillage')::date, 'tillage', null),
+       ((f.fields->>'lastReseeding')::date, 'reseeding', null),
+       ((f.fields->>'grassSince')::date, 'land-use', 'grassland')
+     ) e(d, k, v)
+     where f.staging_id = ? and f.status <> 'rejected' and e.d is not null
+       and (e.v is not null or e.k in ('tillage', 'reseeding'))`,
+    [evidence, by, batchId, batchId, stagingId],
   );
   await analyzeAfterBulkWrite(db, 'land_use_event');
 }

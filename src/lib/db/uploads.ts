@@ -99,6 +99,22 @@ export async function deleteStaging(db: Db, id: string): Promise<void> {
   await db('upload_staging').where({ id }).delete();
 }
 
+/** Removes an upload's staged features (before it is validated again). */
+export async function deleteStagedFeatures(db: Db, stagingId: string): Promise<void> {
+  await db('upload_staging_feature').where({ staging_id: stagingId }).delete();
+}
+
+/** Inserts one JSON chunk of staged features (`stagedFeatureChunks`, built in the worker pool). */
+export async function insertStagedChunk(db: Db, stagingId: string, chunk: string): Promise<void> {
+  await db.raw(
+    `insert into upload_staging_feature (staging_id, idx, status, reference, issues, fields, geom, raw_geom)
+     select ?, (r->>'idx')::int, r->>'status', r->>'reference', r->'issues', r->'fields',
+            st_geomfromgeojson(r->>'geom'), st_geomfromgeojson(r->>'rawGeom')
+     from jsonb_array_elements(?::jsonb) r`,
+    [stagingId, chunk],
+  );
+}
+
 /** Replaces the staged features, given as JSON chunks (`stagedFeatureChunks`, built in the worker pool). */
 export async function replaceStagedFeatureChunks(
   db: Db,
@@ -106,16 +122,10 @@ export async function replaceStagedFeatureChunks(
   chunks: string[],
   onChunk?: (done: number) => Promise<void>,
 ): Promise<void> {
-  await db('upload_staging_feature').where({ staging_id: stagingId }).delete();
+  await deleteStagedFeatures(db, stagingId);
   for (const [i, chunk] of chunks.entries()) {
     if (onChunk && i > 0) await onChunk(i * STAGE_CHUNK);
-    await db.raw(
-      `insert into upload_staging_feature (staging_id, idx, status, reference, issues, fields, geom, raw_geom)
-       select ?, (r->>'idx')::int, r->>'status', r->>'reference', r->'issues', r->'fields',
-              st_geomfromgeojson(r->>'geom'), st_geomfromgeojson(r->>'rawGeom')
-       from jsonb_array_elements(?::jsonb) r`,
-      [stagingId, chunk],
-    );
+    await insertStagedChunk(db, stagingId, chunk);
   }
   await analyzeAfterBulkWrite(db, 'upload_staging_feature');
 }

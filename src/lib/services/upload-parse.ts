@@ -7,7 +7,7 @@ import type { CrsDefinition } from '../gis/crs';
 import { assertDatumShiftKnown, crsFromEpsg, crsFromPrj } from '../gis/crs-catalogue.server';
 import { isGisInputError, type GisInputError } from '../gis/errors';
 import { parseGeoJson } from '../gis/ingest/geojson';
-import { parseShapefileZip } from '../gis/ingest/shapefile-zip';
+import { describeColumns, openShapefileZip, parseShapefileZip } from '../gis/ingest/shapefile-zip';
 import { layerBbox } from '../gis/ingest/to-wgs84';
 import { bboxLooksLikeDegrees } from '../gis/crs';
 import type { GisSettings } from '../gis/settings';
@@ -35,6 +35,109 @@ export type LayerInfo = Omit<ParsedLayer, 'features'> & {
 export function layerInfo(layer: ParsedLayer): LayerInfo {
   const { features, ...rest } = layer;
   return { ...rest, featureCount: features.length, bbox: layerBbox(features) };
+}
+
+/** A layer whose features are read a slice at a time (a zipped shapefile is not read whole; see openShapefileZip). */
+export type OpenLayer = Omit<ParsedLayer, 'features' | 'columns'> & {
+  featureCount: number;
+  readFeatures(from: number, to: number): RawFeature[];
+  /** The columns, or how to describe them from a slice of features (describeColumns). */
+  columns:
+    | ColumnInfo[]
+    | ((
+        features: RawFeature[],
+      ) => ColumnInfo[]); /** Extent and columns with samples found without building the shapes (zipped shapefiles). */
+  quickInfo?: () => { bbox: LayerInfo['bbox']; columns: ColumnInfo[] };
+};
+
+const SAMPLES = 5;
+
+/**
+ * The layer's info read `slice` features at a time: its extent and its columns' samples, never the whole file in the
+ * heap. Merging each slice's first distinct samples in file order gives the file's first distinct samples.
+ */
+export function openLayerInfo(layer: OpenLayer, slice = 2000): LayerInfo {
+  const { readFeatures, columns, quickInfo, ...rest } = layer;
+  if (quickInfo) return { ...rest, ...quickInfo() };
+  let bbox: LayerInfo['bbox'] = null;
+  let described: ColumnInfo[] | null = typeof columns === 'function' ? null : columns;
+  for (let at = 0; at < layer.featureCount; at += slice) {
+    const part = readFeatures(at, at + slice);
+    const b = layerBbox(part);
+    if (b)
+      bbox = bbox
+        ? [Math.min(bbox[0], b[0]), Math.min(bbox[1], b[1]), Math.max(bbox[2], b[2]), Math.max(bbox[3], b[3])]
+        : b;
+    if (typeof columns === 'function') {
+      const more = columns(part);
+      described = described
+        ? described.map((c, i) => ({
+            ...c,
+            samples: [...new Set([...c.samples, ...more[i]!.samples])].slice(0, SAMPLES),
+          }))
+        : more;
+    }
+  }
+  return { ...rest, columns: described ?? (typeof columns === 'function' ? columns([]) : columns), bbox };
+}
+
+/** Like parseUpload, but a zipped shapefile's features are read when asked for (OpenLayer). */
+export async function openUpload(
+  bytes: Uint8Array,
+  format: UploadFormat,
+  fileName: string,
+  settings: GisSettings,
+): Promise<OpenLayer[]> {
+  if (format !== 'shapefile-zip')
+    return (await parseUpload(bytes, format, fileName, settings)).map(({ features, ...rest }) => ({
+      ...rest,
+      featureCount: features.length,
+      readFeatures: (from, to) => features.slice(from, to),
+    }));
+  try {
+    const layers = await openShapefileZip(bytes, {
+      maxUncompressedBytes: settings['upload.max-uncompressed-bytes'],
+      maxEntries: settings['upload.max-zip-entries'],
+    });
+    return layers.map((l) => ({
+      name: l.name,
+      featureCount: l.featureCount,
+      readFeatures: (from, to) => {
+        try {
+          return l.readFeatures(from, to);
+        } catch (error) {
+          throw isGisInputError(error) ? gisError(error) : error;
+        }
+      },
+      columns: (part) => describeColumns(l.fields, part),
+      quickInfo: () => {
+        // The first shape is built (an unsupported shape type is refused here); the rest only give their points.
+        try {
+          l.readFeatures(0, 1);
+        } catch (error) {
+          throw isGisInputError(error) ? gisError(error) : error;
+        }
+        let columns = describeColumns(l.fields, []);
+        for (let at = 0; at < l.featureCount && columns.some((c) => c.samples.length < SAMPLES); at += 2000) {
+          const more = describeColumns(
+            l.fields,
+            l.readRows(at, at + 2000).map((properties) => ({ geometry: null, properties })),
+          );
+          columns = columns.map((c, i) => ({
+            ...c,
+            samples: [...new Set([...c.samples, ...more[i]!.samples])].slice(0, SAMPLES),
+          }));
+        }
+        return { bbox: l.extent(), columns };
+      },
+      geometryType: l.shapeType,
+      prjWkt: l.prjWkt,
+      geojsonEpsg: null,
+    }));
+  } catch (error) {
+    if (isGisInputError(error)) throw gisError(error);
+    throw error;
+  }
 }
 
 export interface LayerCrs {

@@ -58,17 +58,20 @@ export async function trackStep<T>(by: Caller, id: string, phase: ProgressPhase,
 
 /**
  * A channel the worker pool posts `{ done, total }` on while it checks a file's features
- * (gis-tasks.ts, stageFile), recorded as the `checking` phase. `stop()` closes it and waits for
+ * (gis-tasks.ts, stageFile), recorded as `phase`. `stop()` closes it and waits for
  * the last write, so no late count overwrites the next phase.
  */
-export function watchChunks(uploadId: string): { name: string; stop: () => Promise<void> } {
+export function watchChunks(
+  uploadId: string,
+  phase: ProgressPhase = 'checking',
+): { name: string; stop: () => Promise<void> } {
   const name = `upload-progress:${uploadId}`;
   const channel = new BroadcastChannel(name);
   let last: Promise<void> = Promise.resolve();
   let open = true;
   channel.onmessage = (event) => {
     const { done, total } = (event as { data: { done: number; total: number } }).data;
-    if (open) last = last.then(() => recordProgress(uploadId, 'checking', done, total));
+    if (open) last = last.then(() => recordProgress(uploadId, phase, done, total));
   };
   return {
     name,

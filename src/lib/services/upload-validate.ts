@@ -19,7 +19,7 @@ import type { CrsDefinition } from '../gis/crs';
 import { db, withTransaction } from '../db/client';
 import { getGisSettings } from '../db/gis-settings';
 import { reprojectLayer, reprojectsInPostgis } from '../db/transform';
-import { runGisTask } from '../workers/pool';
+import { runGisStream, runGisTask } from '../workers/pool';
 import { stringify } from 'csv-stringify/sync';
 import { issueCountText } from '../gis/issue-words';
 import { textStream } from '../http/text-stream';
@@ -27,7 +27,7 @@ import * as uploads from '../db/uploads';
 import { HttpError } from '../http/errors';
 import { zodIssues, type Caller } from '../http/handle';
 import { addStagedIssues } from '../db/parcel-integrity';
-import { serialPlans } from '../db/bulk';
+import { analyzeAfterBulkWrite, serialPlans } from '../db/bulk';
 import { checkStagedOverlaps } from './parcel-integrity';
 import { checkStagedTerritory } from './territory';
 import { loadOwnStaging, sourceKey } from './upload-stage';
@@ -79,7 +79,8 @@ async function checkUpload(by: Caller, id: string, input: ValidationInput) {
   const started = performance.now();
   const bytes = await uploads.getStagingBytes(db, id);
   const file = { bytes, format: staging.format, fileName: staging.file_name, settings };
-  const layers = await runGisTask('inspect', file);
+  // The layers without reading their features; the extent is read only when it may name the CRS (no .prj, no code).
+  const layers = await runGisTask('describe', file);
   const layer = layers.find((l) => l.name === input.layer);
   if (!layer)
     throw new HttpError(
@@ -95,38 +96,55 @@ async function checkUpload(by: Caller, id: string, input: ValidationInput) {
       `Layer "${layer.name}" has no column ${missing.map((c) => `"${c}"`).join(', ')}.`,
       [{ path: ['mapping'], message: 'unknown column' }],
     );
-  const { crs, source } = await resolveCrs(layer, input.epsg);
+  const needsExtent = input.epsg === undefined && !layer.prjWkt && layer.geojsonEpsg === null;
+  const { crs, source } = await resolveCrs(
+    needsExtent ? (await runGisTask('inspect', file)).find((l) => l.name === layer.name)! : layer,
+    input.epsg,
+  );
   const parseMs = Math.round(performance.now() - started);
   await recordProgress(id, 'checking', 0, layer.featureCount);
   const t1 = performance.now();
   const inPostgis = await reprojectsInPostgis(db, crs);
-  const counts = watchChunks(id);
   const stage = {
     layerName: layer.name,
     purpose: staging.purpose,
     mapping,
     options: validationOptions(settings, crs, staging.purpose),
   };
-  // The features stay in the worker pool (parse, reproject, validate, serialise); only JSON text comes back.
   // A CRS with a datum shift is reprojected by PostGIS, so those features make the round trip through here.
-  const chunks = await (async () => {
-    if (!inPostgis) return runGisTask('stageFile', { ...file, ...stage, proj4Crs: crs, progressChannel: counts.name });
-    const parsed = (await runGisTask('parse', file)).find((l) => l.name === layer.name)!;
-    return runGisTask('stage', {
-      ...stage,
-      features: await reprojectLayer(db, parsed.features, crs, layer.name),
-      proj4Crs: null,
-    });
-  })()
-    .catch((error) => {
-      throw isGisInputError(error) ? gisError(error) : error;
-    })
-    .finally(counts.stop);
   const total = layer.featureCount;
+  const shifted = inPostgis
+    ? await (async () => {
+        const parsed = (await runGisTask('parse', file)).find((l) => l.name === layer.name)!;
+        return runGisTask('stage', {
+          ...stage,
+          features: await reprojectLayer(db, parsed.features, crs, layer.name),
+          proj4Crs: null,
+        });
+      })().catch((error) => {
+        throw isGisInputError(error) ? gisError(error) : error;
+      })
+    : null;
   await recordProgress(id, 'keeping', 0, total);
   const result = await withTransaction(db, async (trx) => {
     await serialPlans(trx);
-    await uploads.replaceStagedFeatureChunks(trx, id, chunks, (done) => recordProgress(id, 'keeping', done, total));
+    if (shifted)
+      await uploads.replaceStagedFeatureChunks(trx, id, shifted, (done) => recordProgress(id, 'keeping', done, total));
+    else {
+      // Otherwise the features stay in the worker pool (parse, reproject, validate, serialise): each chunk's JSON
+      // text is inserted as soon as the worker has written it, so neither thread holds the text of the whole file.
+      // Checking and recording go together, so the worker's counts are recorded as `keeping`.
+      await uploads.deleteStagedFeatures(trx, id);
+      const counts = watchChunks(id, 'keeping');
+      await runGisStream('stageFile', { ...file, ...stage, proj4Crs: crs, progressChannel: counts.name }, (chunk) =>
+        uploads.insertStagedChunk(trx, id, chunk),
+      )
+        .catch((error) => {
+          throw isGisInputError(error) ? gisError(error) : error;
+        })
+        .finally(counts.stop);
+      await analyzeAfterBulkWrite(trx, 'upload_staging_feature');
+    }
     await recordProgress(id, 'comparing', null, total);
     await uploads.repairWithMakeValid(trx, id, validationOptions(settings, crs, staging.purpose).minAreaM2);
     if (staging.purpose === 'parcels') {

@@ -3,8 +3,16 @@
  * flowing meanwhile: parsing a file, reprojecting with proj4 and validating. Pure apart from the
  * parse; expected failures come back as data (errors do not cross threads as classes).
  */
+import { BroadcastChannel, type MessagePort } from 'node:worker_threads';
 import { HttpError } from '../http/errors';
-import { layerInfo, parseUpload, type UploadFormat } from '../services/upload-parse';
+import {
+  openLayerInfo,
+  openUpload,
+  parseUpload,
+  type LayerInfo,
+  type OpenLayer,
+  type UploadFormat,
+} from '../services/upload-parse';
 import { STAGE_CHUNK, stagedFeatureChunks } from '../gis/staged-json';
 import { reproject, type CrsDefinition } from '../gis/crs';
 import { isGisInputError } from '../gis/errors';
@@ -13,7 +21,6 @@ import { layerToWgs84 } from '../gis/ingest/to-wgs84';
 import type { GisSettings } from '../gis/settings';
 import { stageFeatures, type StagedFeature, type StageOptions } from '../gis/stage-features';
 import type { RawFeature } from '../gis/types';
-import { BroadcastChannel } from 'node:worker_threads';
 import {
   seenNothing,
   validateFeatures,
@@ -38,24 +45,64 @@ async function guarded<T>(fn: () => T | Promise<T>): Promise<TaskResult<T>> {
 }
 
 /**
- * Reprojects, validates and serialises STAGE_CHUNK features at a time, letting go of each chunk's
- * parsed features once its JSON is written, so only the parsed file and one chunk's copies are in
- * memory at once (not a reprojected, a validated and a serialised copy of the whole file).
+ * Reads, reprojects, validates and serialises STAGE_CHUNK features at a time and hands each chunk's
+ * JSON to `send` at once, so only the file's bytes and one chunk's copies are in memory at once (not a
+ * parsed, a reprojected, a validated and a serialised copy of the whole file).
  */
-function stageInChunks(
-  features: (RawFeature | undefined)[],
+async function stageInChunks(
+  layer: OpenLayer,
   stage: (part: RawFeature[], seen: SeenSoFar, offset: number) => StagedFeature[],
+  send: (json: string) => Promise<void>,
   onChunk?: (done: number, total: number) => void,
-): string[] {
+): Promise<number> {
   const seen = seenNothing();
-  const out: string[] = [];
-  for (let at = 0; at < features.length; at += STAGE_CHUNK) {
-    const part = features.slice(at, at + STAGE_CHUNK) as RawFeature[];
-    out.push(...stagedFeatureChunks(stage(part, seen, at)));
-    features.fill(undefined, at, at + part.length);
-    onChunk?.(at + part.length, features.length);
+  let chunks = 0;
+  for (let at = 0; at < layer.featureCount; at += STAGE_CHUNK) {
+    for (const json of stagedFeatureChunks(stage(layer.readFeatures(at, at + STAGE_CHUNK), seen, at))) {
+      await send(json);
+      chunks++;
+    }
+    onChunk?.(Math.min(at + STAGE_CHUNK, layer.featureCount), layer.featureCount);
   }
-  return out;
+  return chunks;
+}
+
+/** Thrown in the worker when the request thread asks it to stop (its insert failed). */
+class StreamStopped extends Error {}
+
+/**
+ * Sends JSON chunks to the request thread over `port`, at most two unanswered at a time, so the
+ * worker never runs far ahead of PostgreSQL and unsent text does not pile up in either thread.
+ * The request thread answers each chunk with 'ack' once stored, or 'stop'.
+ */
+function chunkSender(port: MessagePort) {
+  let sent = 0;
+  let answered = 0;
+  let stopped = false;
+  let wake: (() => void) | null = null;
+  port.on('message', (answer: string) => {
+    answered++;
+    if (answer !== 'ack') stopped = true;
+    wake?.();
+  });
+  const until = async (inFlight: number) => {
+    while (sent - answered > inFlight && !stopped) await new Promise<void>((r) => (wake = r));
+    if (stopped) throw new StreamStopped('stopped by the request thread');
+  };
+  return {
+    send: async (json: string) => {
+      await until(1);
+      port.postMessage(json);
+      sent++;
+    },
+    end: async () => {
+      try {
+        await until(0);
+      } finally {
+        port.close();
+      }
+    },
+  };
 }
 
 export const tasks = {
@@ -63,7 +110,18 @@ export const tasks = {
     guarded(() => parseUpload(i.bytes, i.format, i.fileName, i.settings)),
   /** The file's layers without their features (columns, counts, CRS hints, extent): cheap to send back to the request thread. */
   inspect: (i: { bytes: Uint8Array; format: UploadFormat; fileName: string; settings: GisSettings }) =>
-    guarded(async () => (await parseUpload(i.bytes, i.format, i.fileName, i.settings)).map(layerInfo)),
+    guarded(async () => (await openUpload(i.bytes, i.format, i.fileName, i.settings)).map((l) => openLayerInfo(l))),
+  /** Like inspect, but without reading a shapefile's features: no extent (null) and no column samples. */
+  describe: (i: { bytes: Uint8Array; format: UploadFormat; fileName: string; settings: GisSettings }) =>
+    guarded(async () =>
+      (await openUpload(i.bytes, i.format, i.fileName, i.settings)).map(
+        ({ readFeatures: _read, quickInfo: _quick, columns, ...rest }): LayerInfo => ({
+          ...rest,
+          columns: typeof columns === 'function' ? columns([]) : columns,
+          bbox: null,
+        }),
+      ),
+    ),
   /**
    * Reprojects with proj4 when `proj4Crs` is given (else the features are in EPSG:4326 already), then maps and
    * validates; returns the staging insert's JSON chunks.
@@ -86,8 +144,12 @@ export const tasks = {
         ),
       ),
     ),
-  /** Parses the file again here and stages one layer (the proj4 path): no feature crosses threads, only the JSON chunks. */
+  /**
+   * Parses the file again here and stages one layer (the proj4 path): no feature crosses threads, only
+   * the JSON chunks, each posted on `port` as soon as it is written (see chunkSender).
+   */
   stageFile: (i: {
+    port: MessagePort;
     bytes: Uint8Array;
     format: UploadFormat;
     fileName: string;
@@ -101,19 +163,27 @@ export const tasks = {
     progressChannel?: string;
   }) =>
     guarded(async () => {
-      const layer = (await parseUpload(i.bytes, i.format, i.fileName, i.settings)).find((l) => l.name === i.layerName);
+      const layer = (await openUpload(i.bytes, i.format, i.fileName, i.settings)).find((l) => l.name === i.layerName);
       if (!layer)
         throw new HttpError('UNPROCESSABLE_CONTENT', `The file has no layer "${i.layerName}".`, [
           { path: ['layer'], message: 'unknown layer' },
         ]);
+      const sender = chunkSender(i.port);
       const channel = i.progressChannel ? new BroadcastChannel(i.progressChannel) : null;
       try {
-        return stageInChunks(
-          layer.features,
+        const chunks = await stageInChunks(
+          layer,
           (part, seen, offset) =>
             stageFeatures(layerToWgs84(part, i.proj4Crs, layer.name), i.purpose, i.mapping, i.options, seen, offset),
+          sender.send,
           (done, total) => channel?.postMessage({ done, total }),
         );
+        await sender.end();
+        return { chunks };
+      } catch (error) {
+        i.port.close();
+        if (error instanceof StreamStopped) return { chunks: -1 };
+        throw error;
       } finally {
         channel?.close();
       }

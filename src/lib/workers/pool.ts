@@ -7,12 +7,14 @@
  */
 import { resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
+import { MessageChannel, type MessagePort } from 'node:worker_threads';
 import Tinypool from 'tinypool';
 import { GisInputError, type GisInputErrorCode } from '../gis/errors';
 import { HttpError, type ErrorCode } from '../http/errors';
 import type { TaskName, TaskResult, tasks } from './gis-tasks';
 
 let pool: Tinypool | null = null;
+const YOUNG_GENERATION_MB = 12;
 
 function getPool(): Tinypool {
   pool ??= new Tinypool({
@@ -21,6 +23,9 @@ function getPool(): Tinypool {
     minThreads: 1,
     maxThreads: Math.max(1, Number(process.env.GIS_WORKERS ?? 2)),
     idleTimeout: 120_000,
+    // A small young generation (V8's default grows to tens of megabytes per thread): an upload's chunks make much
+    // short-lived garbage, and a smaller nursery keeps the threads' resident memory down at no measured cost in speed.
+    resourceLimits: { maxYoungGenerationSizeMb: YOUNG_GENERATION_MB },
   });
   return pool;
 }
@@ -29,12 +34,56 @@ type Input<N extends TaskName> = Parameters<(typeof tasks)[N]>[0];
 type Output<N extends TaskName> = Awaited<ReturnType<(typeof tasks)[N]>> extends TaskResult<infer T> ? T : never;
 
 /** Runs a task in the pool; expected failures come back as GisInputError or HttpError. */
-export async function runGisTask<N extends TaskName>(task: N, input: Input<N>): Promise<Output<N>> {
-  const result = (await getPool().run({ task, input })) as TaskResult<Output<N>>;
+export async function runGisTask<N extends TaskName>(
+  task: N,
+  input: Input<N>,
+  transferList?: MessagePort[],
+): Promise<Output<N>> {
+  const result = (await getPool().run({ task, input }, transferList ? { transferList } : {})) as TaskResult<Output<N>>;
   if (result.ok) return result.value;
   const e = result.error;
   if (e.kind === 'gis') throw new GisInputError(e.code as GisInputErrorCode, e.message);
   throw new HttpError(e.code as ErrorCode, e.message, e.issues as ConstructorParameters<typeof HttpError>[2]);
+}
+
+type StreamTask = { [N in TaskName]: Input<N> extends { port: MessagePort } ? N : never }[TaskName];
+
+/**
+ * Runs a task that posts text chunks on a port (gis-tasks.ts, chunkSender) and hands each chunk to
+ * `onChunk` as it arrives, one at a time and in order, answering the worker when it is done. When
+ * `onChunk` fails the worker is told to stop and that error is thrown once the task has ended.
+ */
+export async function runGisStream<N extends StreamTask>(
+  task: N,
+  input: Omit<Input<N>, 'port'>,
+  onChunk: (text: string) => Promise<void>,
+): Promise<Output<N>> {
+  const { port1, port2 } = new MessageChannel();
+  let failed: { error: unknown } | null = null;
+  let chain = Promise.resolve();
+  port1.on('message', (text: string) => {
+    chain = chain.then(async () => {
+      if (!failed) {
+        try {
+          await onChunk(text);
+        } catch (error) {
+          failed = { error };
+        }
+      }
+      port1.postMessage(failed ? 'stop' : 'ack');
+    });
+  });
+  try {
+    const result = await runGisTask(task, { ...input, port: port2 } as Input<N>, [port2]);
+    await chain;
+    if (failed) throw (failed as { error: unknown }).error;
+    return result;
+  } catch (error) {
+    await chain;
+    throw failed ? (failed as { error: unknown }).error : error;
+  } finally {
+    port1.close();
+  }
 }
 
 /** Stops the pool's threads (command-line scripts call it so the process can end). */

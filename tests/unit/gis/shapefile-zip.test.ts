@@ -1,8 +1,10 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { GisInputError } from '~/lib/gis/errors';
-import { parseShapefileZip } from '~/lib/gis/ingest/shapefile-zip';
-import { layerToWgs84 } from '~/lib/gis/ingest/to-wgs84';
+import { openShapefileZip, parseShapefileZip } from '~/lib/gis/ingest/shapefile-zip';
+import { layerBbox, layerToWgs84 } from '~/lib/gis/ingest/to-wgs84';
+import { readGisSettings } from '~/lib/gis/settings';
+import { openLayerInfo, openUpload } from '~/lib/services/upload-parse';
 import { ringSignedArea2 } from '~/lib/gis/rings';
 import { LIMITS, layerEntries, sampleFiles, zipOf } from './shapefile-fixtures';
 
@@ -99,6 +101,31 @@ describe('parseShapefileZip: well-formed input', () => {
     const [layer] = await parseShapefileZip(bytes, { maxUncompressedBytes: 50_000_000, maxEntries: 100 });
     expect(layer!.features).toHaveLength(303);
     expect(layer!.prjWkt).toMatch(/AUTHORITY\["EPSG","32628"\]\]$/);
+  });
+});
+
+describe('openShapefileZip: the features read a slice at a time', () => {
+  const demo = () =>
+    new Uint8Array(readFileSync(new URL('../../../gis/demo/corrowmere-parcels-utm28n.zip', import.meta.url)));
+  const limits = { maxUncompressedBytes: 50_000_000, maxEntries: 100 };
+
+  it('gives, slice by slice, the same features as shpjs reading the whole file', async () => {
+    const [whole] = await parseShapefileZip(demo(), limits);
+    const [open] = await openShapefileZip(demo(), limits);
+    expect(open!.featureCount).toBe(303);
+    const sliced = [0, 100, 200, 300].flatMap((at) => open!.readFeatures(at, at + 100));
+    expect(sliced).toEqual(whole!.features);
+    expect(open!.readFeatures(303, 400)).toEqual([]);
+  });
+
+  it('finds the extent from the .shp records and the samples from the .dbf rows, as from the parsed shapes', async () => {
+    const [whole] = await parseShapefileZip(demo(), limits);
+    const [open] = await openUpload(demo(), 'shapefile-zip', 'demo.zip', readGisSettings([]));
+    const info = openLayerInfo(open!);
+    expect(info.bbox).toEqual(layerBbox(whole!.features));
+    expect(info.columns).toEqual(whole!.columns);
+    // The same without the short cut: slices of built shapes.
+    expect(openLayerInfo({ ...open!, quickInfo: undefined })).toEqual(info);
   });
 });
 

@@ -87,15 +87,17 @@ function readFields(bytes: Uint8Array, headerLength: number, file: string): DbfF
   return fields;
 }
 
-/** Reads all records with the given TextDecoder encoding label. Call readDbfHeader first. */
+/** Reads records [from, to) (default all) with the given TextDecoder encoding label. Call readDbfHeader first. */
 export function readDbfRecords(
   bytes: Uint8Array,
   header: DbfHeader,
   encoding: string,
+  from = 0,
+  to = header.records,
 ): Record<string, AttributeValue>[] {
   const decoder = new TextDecoder(encoding);
   const rows: Record<string, AttributeValue>[] = [];
-  for (let r = 0; r < header.records; r++) {
+  for (let r = from; r < Math.min(to, header.records); r++) {
     let at = header.headerLength + r * header.recordLength + 1; // skip the deletion flag
     const row: Record<string, AttributeValue> = {};
     for (const field of header.fields) {

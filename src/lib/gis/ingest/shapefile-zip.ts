@@ -5,7 +5,7 @@ import { rewindGeometry } from '../rings';
 import type { ColumnInfo, RawFeature } from '../types';
 import { readDbfHeader, readDbfRecords, type DbfField } from './dbf-reader';
 import { resolveDbfEncoding } from './encoding';
-import { checkShp, checkShx } from './shp-header';
+import { checkShp, checkShx, type ShpSummary } from './shp-header';
 import { readZipEntries, type ZipLimits } from './zip-reader';
 
 export type { ZipLimits } from './zip-reader';
@@ -26,6 +26,20 @@ export interface ShapefileLayer {
   shapeType: string;
   features: RawFeature[];
   columns: ColumnInfo[];
+}
+
+/**
+ * A layer opened without reading its features: they are read `readFeatures(from, to)` at a time, so a
+ * large file never has all its geometries in the heap at once.
+ */
+export interface OpenShapefileLayer extends Omit<ShapefileLayer, 'features' | 'columns'> {
+  featureCount: number;
+  fields: DbfField[];
+  readFeatures(from: number, to: number): RawFeature[];
+  /** Attribute rows [from, to) without their shapes. */
+  readRows(from: number, to: number): RawFeature['properties'][];
+  /** Extent of every shape's points, read from the .shp records without building geometries. */
+  extent(): [number, number, number, number] | null;
 }
 
 const PARTS = ['shp', 'shx', 'dbf', 'prj', 'cpg'] as const;
@@ -51,6 +65,15 @@ function isPart(ext: string): ext is Part {
  * UTF-8 → windows-1252). Throws GisInputError with a message naming the file and problem.
  */
 export async function parseShapefileZip(bytes: Uint8Array, limits: ZipLimits): Promise<ShapefileLayer[]> {
+  return (await openShapefileZip(bytes, limits)).map((layer) => {
+    const { featureCount, fields, readFeatures, ...rest } = layer;
+    const features = readFeatures(0, featureCount);
+    return { ...rest, features, columns: describeColumns(fields, features) };
+  });
+}
+
+/** The same checks as parseShapefileZip, but each layer's features are read when asked for (OpenShapefileLayer). */
+export async function openShapefileZip(bytes: Uint8Array, limits: ZipLimits): Promise<OpenShapefileLayer[]> {
   const entries = await readZipEntries(bytes, limits, (name) => {
     const parts = splitName(name);
     return parts !== null && isPart(parts.ext);
@@ -71,7 +94,7 @@ export async function parseShapefileZip(bytes: Uint8Array, limits: ZipLimits): P
   return stems.map((stem) => parseLayer(stem, groups.get(stem)!));
 }
 
-function parseLayer(path: string, files: Partial<Record<Part, Uint8Array>>): ShapefileLayer {
+function parseLayer(path: string, files: Partial<Record<Part, Uint8Array>>): OpenShapefileLayer {
   const name = path.split('/').pop() ?? path;
   const shp = files.shp!;
   if (!files.dbf)
@@ -99,20 +122,23 @@ function parseLayer(path: string, files: Partial<Record<Part, Uint8Array>>): Sha
     header.headerLength + header.records * header.recordLength,
   );
   const encoding = resolveDbfEncoding(cpg, recordBytes, `${name}.dbf`);
-  const rows = readDbfRecords(files.dbf, header, encoding);
-  const geometries = readShapes(shp, name);
-  if (geometries.length !== rows.length) {
-    throw new GisInputError(
-      'bad-shp',
-      `Layer "${name}": only ${geometries.length} of ${rows.length} shapes in ${name}.shp could be read.`,
-    );
-  }
-  if (geometries.length === 0) throw new GisInputError('no-features', `Layer "${name}" contains no features.`);
-  // Shapefile outer rings are clockwise by format; convert to RFC 7946 winding here (not a repair).
-  const features: RawFeature[] = geometries.map((geometry, i) => ({
-    geometry: rewindGeometry(geometry),
-    properties: rows[i]!,
-  }));
+  const dbf = files.dbf;
+  const count = header.records;
+  if (count === 0) throw new GisInputError('no-features', `Layer "${name}" contains no features.`);
+  const readFeatures = (from: number, to: number): RawFeature[] => {
+    const end = Math.min(to, count);
+    if (from >= end) return [];
+    const rows = readDbfRecords(dbf, header, encoding, from, end);
+    const geometries = readShapes(shp, name, summary, from, end);
+    if (geometries.length !== rows.length) {
+      throw new GisInputError(
+        'bad-shp',
+        `Layer "${name}": only ${from + geometries.length} of ${count} shapes in ${name}.shp could be read.`,
+      );
+    }
+    // Shapefile outer rings are clockwise by format; convert to RFC 7946 winding here (not a repair).
+    return geometries.map((geometry, i) => ({ geometry: rewindGeometry(geometry), properties: rows[i]! }));
+  };
   return {
     name,
     path,
@@ -120,19 +146,67 @@ function parseLayer(path: string, files: Partial<Record<Part, Uint8Array>>): Sha
     cpg,
     encoding,
     shapeType: summary.shapeTypeName,
-    features,
-    columns: describeColumns(header.fields, features),
+    featureCount: count,
+    fields: header.fields,
+    readFeatures,
+    readRows: (from, to) => readDbfRecords(dbf, header, encoding, from, Math.min(to, count)),
+    extent: () => shpExtent(shp, summary),
   };
 }
 
-function readShapes(shp: Uint8Array, name: string): (Geometry | null)[] {
-  const declared = new DataView(shp.buffer, shp.byteOffset, shp.byteLength).getInt32(24, false) * 2;
-  const exact = shp.subarray(0, declared); // trailing bytes beyond the declared length are ignored
+/** The shapes of records [from, to): the header and just those records go to shpjs (checkShp walked them all). */
+function readShapes(shp: Uint8Array, name: string, summary: ShpSummary, from: number, to: number): (Geometry | null)[] {
+  const offsets = summary.recordOffsets;
+  const start = offsets[from]!;
+  const stop = to < offsets.length ? offsets[to]! : offsets[to - 1]! + 8 + summary.recordLengths[to - 1]!;
+  const part = new Uint8Array(100 + stop - start);
+  part.set(shp.subarray(0, 100));
+  part.set(shp.subarray(start, stop), 100);
+  const dv = new DataView(part.buffer);
+  dv.setInt32(24, part.byteLength / 2, false); // the part's own length, in 16-bit words
   try {
-    return parseShp(new DataView(exact.buffer, exact.byteOffset, exact.byteLength));
+    return parseShp(dv);
   } catch (error) {
     throw new GisInputError('bad-shp', `${name}.shp could not be read: ${(error as Error).message}.`, { cause: error });
   }
+}
+
+/**
+ * The extent of the points of every record (null shapes and records without points left out), read from
+ * the .shp bytes: the same box as bboxOf over the parsed shapes, without building them. Layout per the
+ * ESRI Shapefile Technical Description: points (x, y little-endian doubles) at content + 4 for points,
+ * after numPoints at + 40 for multipoints, after the part indexes at + 44 + 4 × numParts for multipart shapes.
+ */
+function shpExtent(shp: Uint8Array, summary: ShpSummary): [number, number, number, number] | null {
+  const dv = new DataView(shp.buffer, shp.byteOffset, shp.byteLength);
+  let box: [number, number, number, number] | null = null;
+  for (const offset of summary.recordOffsets) {
+    const c = offset + 8;
+    const type = dv.getInt32(c, true);
+    if (type === 0) continue;
+    const kind = type % 10;
+    let at: number;
+    let points: number;
+    if (kind === 1) [at, points] = [c + 4, 1];
+    else if (kind === 8) [at, points] = [c + 40, dv.getInt32(c + 36, true)];
+    else {
+      const parts = dv.getInt32(c + 36, true);
+      if (parts === 0) continue; // shpjs reads such a shape as null
+      [at, points] = [c + 44 + 4 * parts, dv.getInt32(c + 40, true)];
+    }
+    const r: [number, number, number, number] = [Infinity, Infinity, -Infinity, -Infinity];
+    for (let i = 0; i < points; i++, at += 16) {
+      const x = dv.getFloat64(at, true);
+      const y = dv.getFloat64(at + 8, true);
+      r[0] = Math.min(r[0], x);
+      r[1] = Math.min(r[1], y);
+      r[2] = Math.max(r[2], x);
+      r[3] = Math.max(r[3], y);
+    }
+    if (!Number.isFinite(r[0])) continue;
+    box = box ? [Math.min(box[0], r[0]), Math.min(box[1], r[1]), Math.max(box[2], r[2]), Math.max(box[3], r[3])] : r;
+  }
+  return box;
 }
 
 function kindOf(type: string): ColumnInfo['kind'] {
