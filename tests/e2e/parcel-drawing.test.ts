@@ -65,7 +65,7 @@ describe('drawing and editing parcels on the map', () => {
 
     // Go to the south-west corner field, then pan four arrow-key steps (128 px each, OpenLayers' default) west into open ground.
     await page.locator('#parcel-search').fill('CM-0001');
-    await page.getByRole('button', { name: /CM-0001/ }).click();
+    await page.getByRole('button', { name: /^CM-0001 / }).click();
     await expect.poll(() => page.locator('#parcel-heading').textContent()).toBe('Parcel CM-0001');
     await mapRegion(page).focus();
     for (let i = 0; i < 4; i++) {
