@@ -72,12 +72,12 @@ describe('upload wizard after a reload', () => {
         .toBe('keeping');
       // The page that started the check shows the same stored progress while it waits for the answer.
       await expect
-        .poll(() => page.getByRole('status').filter({ hasText: 'Recording the results' }).count(), { timeout: 10_000 })
+        .poll(() => page.getByRole('status').filter({ hasText: 'Checking and recording' }).count(), { timeout: 10_000 })
         .toBe(1);
       await reload(page);
       await expect.poll(() => heading(page).textContent(), { timeout: 10_000 }).toBe('Checking every feature');
-      const status = page.getByRole('status').filter({ hasText: 'Recording the results' });
-      await expect(status.textContent()).resolves.toMatch(/Recording the results: 0 of 600 parcels/);
+      const status = page.getByRole('status').filter({ hasText: 'Checking and recording' });
+      await expect(status.textContent()).resolves.toMatch(/Checking and recording: 0 of 600 parcels/);
       await expect(status.textContent()).resolves.toMatch(/started \d{1,2} [A-Z][a-z]{2} \d{4}, \d{2}:\d{2} UTC/);
       await expect(page.locator('[aria-current=step]').textContent()).resolves.toMatch(/Check/);
       await screenshotBoth(page, 'upload-restore-running');

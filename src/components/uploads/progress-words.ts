@@ -34,7 +34,7 @@ export function phaseWords(
           ? `Checking the boundaries of${all}`
           : 'Reading the file to check it';
     case 'keeping':
-      return `Recording the results${of}`;
+      return `Checking and recording${of}`;
     case 'comparing':
       return purpose === 'parcels'
         ? `Comparing${all} with the register and the authority’s territory`
