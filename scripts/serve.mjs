@@ -189,7 +189,11 @@ async function main() {
       // API paths are never files: no file-system look-up for them.
       if (req.url?.startsWith('/api/')) {
         const direct = laneOn ? globalThis[DIRECT_LANE]?.(req.method, req.url) : null;
-        if (direct) compress(req, res, () => void direct(req, res));
+        // Without Accept-Encoding nothing is compressed: only the header compression would add is set.
+        if (direct && req.headers['accept-encoding'] === undefined) {
+          res.setHeader('vary', 'Accept-Encoding');
+          void direct(req, res);
+        } else if (direct) compress(req, res, () => void direct(req, res));
         else app();
       } else serveStatic(req, res).then((served) => (served ? (record.route = 'static') : app()), app);
     });

@@ -18,9 +18,12 @@ export type GateRequest = { method: string; pathname: string; header: (name: str
 
 /** The background workers this instance runs (config MAIL_WORKER, JOB_QUEUE), started on the first request. */
 export function startBackgroundWork(): void {
+  if (begun) return;
+  begun = true;
   if (config().MAIL_WORKER === 'on') startMailWorker();
   if (config().JOB_QUEUE === 'on') void startJobQueue().catch(() => undefined);
 }
+let begun = false;
 
 function refuse(api: boolean, code: ErrorCode, message: string, headers: Record<string, string> = {}): Response {
   const res = api
