@@ -73,17 +73,30 @@ export function mediaTypeOfHeader(header: string | null | undefined): string | n
 
 /** Throws 400 when any string (or object key) in a parsed value contains the NUL character. */
 export function rejectNul(value: unknown, path: (string | number)[] = []): void {
+  nulWalk(value, [...path]);
+}
+
+/** rejectNul's walk: `path` is pushed and popped on the way (copied only for the error). */
+function nulWalk(value: unknown, path: (string | number)[]): void {
   if (typeof value === 'string') {
     if (value.includes('\u0000'))
       throw new HttpError('BAD_REQUEST', 'Text may not contain the NUL character (code 0).', [
-        { path, message: 'contains NUL' },
+        { path: [...path], message: 'contains NUL' },
       ]);
   } else if (Array.isArray(value)) {
-    value.forEach((v, i) => rejectNul(v, [...path, i]));
+    for (let i = 0; i < value.length; i++) {
+      if (!(i in value)) continue;
+      path.push(i);
+      nulWalk(value[i], path);
+      path.pop();
+    }
   } else if (value && typeof value === 'object') {
-    for (const [k, v] of Object.entries(value)) {
-      rejectNul(k, path);
-      rejectNul(v, [...path, k]);
+    const o = value as Record<string, unknown>;
+    for (const k of Object.keys(o)) {
+      nulWalk(k, path);
+      path.push(k);
+      nulWalk(o[k], path);
+      path.pop();
     }
   }
 }
@@ -100,11 +113,14 @@ export function requireJson(contentTypeHeader: string | null | undefined): void 
     throw new HttpError('UNSUPPORTED_MEDIA_TYPE', 'Send the request body as application/json.');
 }
 
+/** Decodes whole bodies (no streaming state), so one decoder serves every request. */
+const UTF8 = new TextDecoder('utf-8', { fatal: true });
+
 /** The parsed JSON of a body's bytes: 400 when not UTF-8 or not JSON, or when it holds a NUL character. */
 export function jsonOfBytes(bytes: Uint8Array): unknown {
   let value: unknown;
   try {
-    value = JSON.parse(new TextDecoder('utf-8', { fatal: true }).decode(bytes));
+    value = JSON.parse(UTF8.decode(bytes));
   } catch {
     throw new HttpError('BAD_REQUEST', 'The request body is not valid JSON.');
   }

@@ -58,12 +58,25 @@ function checkIntegers(value: unknown, where: string, path: (string | number)[] 
     throw new HttpError(
       'UNPROCESSABLE_CONTENT',
       `Invalid ${where}${at}: whole numbers must lie between -${MAX_INT} and ${MAX_INT}.`,
-      [{ path, message: 'out of range' }],
+      [{ path: [...path], message: 'out of range' }],
     );
   }
-  if (Array.isArray(value)) value.forEach((v, i) => checkIntegers(v, where, [...path, i]));
-  else if (value && typeof value === 'object' && !(value instanceof Date))
-    for (const [k, v] of Object.entries(value)) checkIntegers(v, where, [...path, k]);
+  // `path` is pushed and popped on the way down (copied only for the error).
+  if (Array.isArray(value)) {
+    for (let i = 0; i < value.length; i++) {
+      if (!(i in value)) continue;
+      path.push(i);
+      checkIntegers(value[i], where, path);
+      path.pop();
+    }
+  } else if (value && typeof value === 'object' && !(value instanceof Date)) {
+    const o = value as Record<string, unknown>;
+    for (const k of Object.keys(o)) {
+      path.push(k);
+      checkIntegers(o[k], where, path);
+      path.pop();
+    }
+  }
 }
 
 function edge<T>(value: T, where: string): T {
