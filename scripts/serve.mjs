@@ -64,8 +64,9 @@ function prepare(req, res) {
   const socketAddress = req.socket.remoteAddress ?? '';
   const viaProxy = trust(socketAddress, 0);
   const client = viaProxy ? proxyaddr(req, trust) : socketAddress;
-  if (!viaProxy) for (const h of FORWARDING) delete req.headers[h];
-  else for (const h of ['forwarded', 'x-real-ip', 'x-client-ip']) delete req.headers[h];
+  // Only headers that are there are deleted (deleting makes the headers object slower to read).
+  if (!viaProxy) for (const h of FORWARDING) h in req.headers && delete req.headers[h];
+  else for (const h of ['forwarded', 'x-real-ip', 'x-client-ip']) h in req.headers && delete req.headers[h];
   req.headers['x-forwarded-for'] = client;
   res.setHeader('x-content-type-options', 'nosniff');
   res.setHeader('x-frame-options', 'DENY');

@@ -36,6 +36,14 @@ function refuse(api: boolean, code: ErrorCode, message: string, headers: Record<
   return res;
 }
 
+/** The origin of BETTER_AUTH_URL, parsed once per value of the setting. */
+let own: { url: string; origin: string } | null = null;
+function ownOrigin(): string {
+  const url = config().BETTER_AUTH_URL;
+  if (own?.url !== url) own = { url, origin: new URL(url).origin };
+  return own.origin;
+}
+
 /**
  * A state-changing request must come from our own pages: its Origin must be the configured public
  * URL (BETTER_AUTH_URL); without Origin, the browser's Sec-Fetch-Site must say "same-origin".
@@ -44,7 +52,7 @@ function refuse(api: boolean, code: ErrorCode, message: string, headers: Record<
 function foreignOrigin(request: GateRequest): string | null {
   const origin = request.header('origin');
   if (origin !== null)
-    return origin === new URL(config().BETTER_AUTH_URL).origin
+    return origin === ownOrigin()
       ? null
       : `the request came from ${origin === 'null' ? 'an opaque origin' : 'another site'}`;
   const site = request.header('sec-fetch-site');
