@@ -15,6 +15,7 @@ import { sessionOf, type RequestSession } from '../auth/request-session';
 import { requestRecord } from '../request-context';
 import { declaredOver, jsonOfBytes, MAX_JSON_BYTES, requireJson, tooLarge } from './body';
 import { DIRECT_ROUTES, type DirectRoute } from './direct-routes';
+import { HttpError } from './errors';
 import { gate, secure, securityHeaders, startBackgroundWork } from './gate';
 import { failure, handlePlain } from './handle';
 
@@ -49,7 +50,10 @@ function bodyOf(req: IncomingMessage, res: ServerResponse, cap: number): Promise
     };
     req.on('data', onData);
     req.once('end', () => resolve(chunks.length === 1 ? chunks[0]! : Buffer.concat(chunks, total)));
-    req.once('error', reject);
+    // A client that goes away mid-body: nothing to answer, nothing to log as a server error.
+    const cut = () => reject(new HttpError('BAD_REQUEST', 'The request body did not arrive in full.'));
+    req.once('error', cut);
+    req.once('close', () => req.complete || cut());
   });
 }
 
