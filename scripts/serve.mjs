@@ -17,7 +17,11 @@
  * - Graceful shutdown on SIGTERM/SIGINT: stop accepting, let requests in flight finish (up to
  *   SHUTDOWN_GRACE_MS, default 15000), run the app's stop hooks (job queue, mail worker), then its
  *   close hooks (the database pool), exit 0 (1 if requests had to be cut off).
- * Environment: HOST, PORT, SWARDKEEP_DIST (build folder), TRUSTED_PROXIES, LOG_LEVEL, SHUTDOWN_GRACE_MS.
+ * - The direct lane: the few pure-computation API routes listed in src/lib/http/direct-routes.ts
+ *   (POST /api/estimates) skip Astro's pipeline and run the same gate, session, contract checks and
+ *   security headers from the app's own code (src/lib/http/direct-lane.ts, which the app registers
+ *   on globalThis); request id, log line and compression stay as here. DIRECT_LANE=off turns it off.
+ * Environment: HOST, PORT, SWARDKEEP_DIST (build folder), TRUSTED_PROXIES, LOG_LEVEL, SHUTDOWN_GRACE_MS, DIRECT_LANE.
  */
 import { AsyncLocalStorage } from 'node:async_hooks';
 import { randomUUID } from 'node:crypto';
@@ -60,8 +64,9 @@ function prepare(req, res) {
   const socketAddress = req.socket.remoteAddress ?? '';
   const viaProxy = trust(socketAddress, 0);
   const client = viaProxy ? proxyaddr(req, trust) : socketAddress;
-  if (!viaProxy) for (const h of FORWARDING) delete req.headers[h];
-  else for (const h of ['forwarded', 'x-real-ip', 'x-client-ip']) delete req.headers[h];
+  // Only headers that are there are deleted (deleting makes the headers object slower to read).
+  if (!viaProxy) for (const h of FORWARDING) h in req.headers && delete req.headers[h];
+  else for (const h of ['forwarded', 'x-real-ip', 'x-client-ip']) h in req.headers && delete req.headers[h];
   req.headers['x-forwarded-for'] = client;
   res.setHeader('x-content-type-options', 'nosniff');
   res.setHeader('x-frame-options', 'DENY');
@@ -118,6 +123,9 @@ function requestIdOf(req) {
   const given = req.headers['x-request-id'];
   return typeof given === 'string' && REQUEST_ID.test(given) ? given : randomUUID();
 }
+
+const DIRECT_LANE = Symbol.for('swardkeep.direct-lane');
+const laneOn = process.env.DIRECT_LANE !== 'off';
 
 /** Probes from the load balancer come every few seconds: logged at debug level unless they fail. */
 const PROBES = new Set(['/api/health', '/api/ready']);
@@ -180,8 +188,15 @@ async function main() {
     const app = () => compress(req, res, () => handler(req, res, undefined, { room: roomFor(res) }));
     requestContext.run(record, () => {
       // API paths are never files: no file-system look-up for them.
-      if (req.url?.startsWith('/api/')) app();
-      else serveStatic(req, res).then((served) => (served ? (record.route = 'static') : app()), app);
+      if (req.url?.startsWith('/api/')) {
+        const direct = laneOn ? globalThis[DIRECT_LANE]?.(req.method, req.url) : null;
+        // Without Accept-Encoding nothing is compressed: only the header compression would add is set.
+        if (direct && req.headers['accept-encoding'] === undefined) {
+          res.setHeader('vary', 'Accept-Encoding');
+          void direct(req, res);
+        } else if (direct) compress(req, res, () => void direct(req, res));
+        else app();
+      } else serveStatic(req, res).then((served) => (served ? (record.route = 'static') : app()), app);
     });
   });
   const host = process.env.HOST ?? '127.0.0.1';

@@ -11,13 +11,18 @@ export const MAX_JSON_BYTES = 1_000_000;
 /** Sign-in, reset and the plain sign-in form carry a few short fields. */
 export const MAX_AUTH_BODY_BYTES = 16 * 1024;
 
-function tooLarge(cap: number): HttpError {
+export function tooLarge(cap: number): HttpError {
   return new HttpError('PAYLOAD_TOO_LARGE', `The request body is larger than the allowed ${cap} bytes.`);
 }
 
 /** The declared length is over the cap (no body is read). */
 export function declaredTooLarge(request: Request, cap: number): boolean {
-  const declared = Number(request.headers.get('content-length') ?? 0);
+  return declaredOver(request.headers.get('content-length'), cap);
+}
+
+/** A Content-Length header value over the cap. */
+export function declaredOver(contentLength: string | null, cap: number): boolean {
+  const declared = Number(contentLength ?? 0);
   return Number.isFinite(declared) && declared > cap;
 }
 
@@ -49,7 +54,11 @@ export async function readBodyCapped(request: Request, cap: number): Promise<Uin
 
 /** The media type ("application/json"), lower case, or null without a Content-Type; 415 when unreadable or not UTF-8. */
 export function mediaTypeOf(request: Request): string | null {
-  const header = request.headers.get('content-type');
+  return mediaTypeOfHeader(request.headers.get('content-type'));
+}
+
+/** mediaTypeOf for a Content-Type header value. */
+export function mediaTypeOfHeader(header: string | null | undefined): string | null {
   if (!header) return null;
   let parsed: contentType.ParsedMediaType;
   try {
@@ -64,29 +73,54 @@ export function mediaTypeOf(request: Request): string | null {
 
 /** Throws 400 when any string (or object key) in a parsed value contains the NUL character. */
 export function rejectNul(value: unknown, path: (string | number)[] = []): void {
+  nulWalk(value, [...path]);
+}
+
+/** rejectNul's walk: `path` is pushed and popped on the way (copied only for the error). */
+function nulWalk(value: unknown, path: (string | number)[]): void {
   if (typeof value === 'string') {
     if (value.includes('\u0000'))
       throw new HttpError('BAD_REQUEST', 'Text may not contain the NUL character (code 0).', [
-        { path, message: 'contains NUL' },
+        { path: [...path], message: 'contains NUL' },
       ]);
   } else if (Array.isArray(value)) {
-    value.forEach((v, i) => rejectNul(v, [...path, i]));
+    for (let i = 0; i < value.length; i++) {
+      if (!(i in value)) continue;
+      path.push(i);
+      nulWalk(value[i], path);
+      path.pop();
+    }
   } else if (value && typeof value === 'object') {
-    for (const [k, v] of Object.entries(value)) {
-      rejectNul(k, path);
-      rejectNul(v, [...path, k]);
+    const o = value as Record<string, unknown>;
+    for (const k of Object.keys(o)) {
+      nulWalk(k, path);
+      path.push(k);
+      nulWalk(o[k], path);
+      path.pop();
     }
   }
 }
 
 /** A JSON body: exactly application/json, at most `cap` bytes, valid, without NUL characters. */
 export async function readJson(request: Request, cap = MAX_JSON_BYTES): Promise<unknown> {
-  if (mediaTypeOf(request) !== 'application/json')
+  requireJson(request.headers.get('content-type'));
+  return jsonOfBytes(await readBodyCapped(request, cap));
+}
+
+/** 415 unless the Content-Type header value says application/json (UTF-8). */
+export function requireJson(contentTypeHeader: string | null | undefined): void {
+  if (mediaTypeOfHeader(contentTypeHeader) !== 'application/json')
     throw new HttpError('UNSUPPORTED_MEDIA_TYPE', 'Send the request body as application/json.');
-  const bytes = await readBodyCapped(request, cap);
+}
+
+/** Decodes whole bodies (no streaming state), so one decoder serves every request. */
+const UTF8 = new TextDecoder('utf-8', { fatal: true });
+
+/** The parsed JSON of a body's bytes: 400 when not UTF-8 or not JSON, or when it holds a NUL character. */
+export function jsonOfBytes(bytes: Uint8Array): unknown {
   let value: unknown;
   try {
-    value = JSON.parse(new TextDecoder('utf-8', { fatal: true }).decode(bytes));
+    value = JSON.parse(UTF8.decode(bytes));
   } catch {
     throw new HttpError('BAD_REQUEST', 'The request body is not valid JSON.');
   }

@@ -58,12 +58,25 @@ function checkIntegers(value: unknown, where: string, path: (string | number)[] 
     throw new HttpError(
       'UNPROCESSABLE_CONTENT',
       `Invalid ${where}${at}: whole numbers must lie between -${MAX_INT} and ${MAX_INT}.`,
-      [{ path, message: 'out of range' }],
+      [{ path: [...path], message: 'out of range' }],
     );
   }
-  if (Array.isArray(value)) value.forEach((v, i) => checkIntegers(v, where, [...path, i]));
-  else if (value && typeof value === 'object' && !(value instanceof Date))
-    for (const [k, v] of Object.entries(value)) checkIntegers(v, where, [...path, k]);
+  // `path` is pushed and popped on the way down (copied only for the error).
+  if (Array.isArray(value)) {
+    for (let i = 0; i < value.length; i++) {
+      if (!(i in value)) continue;
+      path.push(i);
+      checkIntegers(value[i], where, path);
+      path.pop();
+    }
+  } else if (value && typeof value === 'object' && !(value instanceof Date)) {
+    const o = value as Record<string, unknown>;
+    for (const k of Object.keys(o)) {
+      path.push(k);
+      checkIntegers(o[k], where, path);
+      path.pop();
+    }
+  }
 }
 
 function edge<T>(value: T, where: string): T {
@@ -88,34 +101,77 @@ export function authorise(spec: ApiSpec, user: Caller | null): void {
   }
 }
 
+/** What handle() reads of a request, so the direct lane (direct-lane.ts) runs the very same steps. */
+export type RequestParts = {
+  method: string;
+  user: Caller | null;
+  params: Record<string, string | undefined>;
+  search: URLSearchParams;
+  /** The parsed JSON body (readJson's checks: media type, size cap, valid UTF-8 JSON, no NUL). */
+  readBody: () => Promise<unknown>;
+};
+
+/** Authorise → parse params, query and body with the spec's schemas; throws HttpError when refused. */
+async function checkedInput<S extends ApiSpec>(spec: S, parts: RequestParts): Promise<Omit<HandlerInput<S>, 'ctx'>> {
+  const user = parts.user;
+  authorise(spec, user);
+  rejectNul(parts.params, ['path']);
+  const search = Object.fromEntries(parts.search);
+  rejectNul(search, ['query']);
+  const params = spec.params ? edge(parse(spec.params, parts.params, 'path parameter'), 'path parameter') : undefined;
+  const query = spec.query ? edge(parse(spec.query, search, 'query'), 'query') : undefined;
+  const body =
+    spec.body && !spec.multipart ? edge(parse(spec.body, await parts.readBody(), 'request'), 'request') : undefined;
+  return { user, body, query, params } as Omit<HandlerInput<S>, 'ctx'>;
+}
+
+/** The answer for a thrown error: its own status for a known one, else a logged 500. */
+export function failure(err: unknown, spec: ApiSpec, method: string): Response {
+  const known = err instanceof HttpError ? err : inputErrorOf(err);
+  if (known) return errorResponse(known.code, known.message, known.issues);
+  const record = requestRecord();
+  logger.error({ reqId: record?.id, method, route: record?.route ?? spec.path, err }, 'request failed');
+  return errorResponse('INTERNAL_SERVER_ERROR', 'Something went wrong on the server. The error has been logged.');
+}
+
 export function handle<S extends ApiSpec>(spec: S, fn: (input: HandlerInput<S>) => Promise<unknown>): APIRoute {
   return async (ctx) => {
     try {
-      const user = ctx.locals.user;
-      authorise(spec, user);
-      rejectNul(ctx.params, ['path']);
-      rejectNul(Object.fromEntries(ctx.url.searchParams), ['query']);
-      const params = spec.params ? edge(parse(spec.params, ctx.params, 'path parameter'), 'path parameter') : undefined;
-      const query = spec.query
-        ? edge(parse(spec.query, Object.fromEntries(ctx.url.searchParams), 'query'), 'query')
-        : undefined;
-      const body =
-        spec.body && !spec.multipart
-          ? edge(parse(spec.body, await readJson(ctx.request), 'request'), 'request')
-          : undefined;
-      const result = await fn({ ctx, user, body, query, params } as HandlerInput<S>);
+      const input = await checkedInput(spec, {
+        method: ctx.request.method,
+        user: ctx.locals.user,
+        params: ctx.params,
+        search: ctx.url.searchParams,
+        readBody: () => readJson(ctx.request),
+      });
+      const result = await fn({ ctx, ...input } as HandlerInput<S>);
       if (result instanceof Response) return result;
       if (result === undefined) return new Response(null, { status: 204 });
       return json(result, spec.status ?? 200);
     } catch (err) {
-      const known = err instanceof HttpError ? err : inputErrorOf(err);
-      if (known) return errorResponse(known.code, known.message, known.issues);
-      const record = requestRecord();
-      logger.error(
-        { reqId: record?.id, method: ctx.request.method, route: record?.route ?? spec.path, err },
-        'request failed',
-      );
-      return errorResponse('INTERNAL_SERVER_ERROR', 'Something went wrong on the server. The error has been logged.');
+      return failure(err, spec, ctx.request.method);
     }
   };
+}
+
+/** A handler that needs nothing of Astro's context: it may also be served by the direct lane. */
+export type PlainHandler<S extends ApiSpec> = (input: Omit<HandlerInput<S>, 'ctx'>) => Promise<unknown>;
+
+/**
+ * handle() for the direct lane: the same checks and error answers, the result as JSON text
+ * (what json() would put in its Response) or a Response for anything else (errors, 204).
+ */
+export async function handlePlain<S extends ApiSpec>(
+  spec: S,
+  fn: PlainHandler<S>,
+  parts: RequestParts,
+): Promise<{ status: number; text: string } | Response> {
+  try {
+    const result = await fn(await checkedInput(spec, parts));
+    if (result instanceof Response) return result;
+    if (result === undefined) return new Response(null, { status: 204 });
+    return { status: spec.status ?? 200, text: JSON.stringify(result) };
+  } catch (err) {
+    return failure(err, spec, parts.method);
+  }
 }

@@ -1,5 +1,5 @@
-import { createEstimate } from '~/lib/api/estimates';
 import { handle } from '~/lib/http/handle';
-import { runEstimate } from '~/lib/services/estimates';
+import { estimateRoute } from '~/lib/http/direct-routes';
 
-export const POST = handle(createEstimate, async ({ body }) => runEstimate(body));
+// Also served by the direct lane (lib/http/direct-lane.ts) with the same contract and handler.
+export const POST = handle(estimateRoute.spec, estimateRoute.run);
