@@ -2,8 +2,9 @@
  * The worker pool for CPU-heavy GIS steps (tinypool over worker_threads): parsing, proj4
  * reprojection and validation run there, so /api/health and every other request keep flowing
  * while a 300,000-vertex polygon is checked. Each instance has its own pool (threads, not shared
- * state). GIS_WORKERS sets the number of threads (default 2); the worker source is found under
- * the app's root (SWARDKEEP_ROOT, default the working directory).
+ * state). GIS_WORKERS sets the number of threads (default 2). The threads load SWARDKEEP_GIS_WORKER
+ * when set (the built app: scripts/serve.mjs sets it to the bundle scripts/build-worker.mjs writes), else
+ * the TypeScript source through tsx, found under the app's root (SWARDKEEP_ROOT, default the working directory).
  */
 import { resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
@@ -16,10 +17,14 @@ import type { TaskName, TaskResult, tasks } from './gis-tasks';
 let pool: Tinypool | null = null;
 const YOUNG_GENERATION_MB = 12;
 
+function workerFile(): string {
+  const root = process.env.SWARDKEEP_ROOT ?? process.cwd();
+  return pathToFileURL(resolve(root, process.env.SWARDKEEP_GIS_WORKER || 'src/lib/workers/gis-worker.mjs')).href;
+}
+
 function getPool(): Tinypool {
   pool ??= new Tinypool({
-    filename: pathToFileURL(resolve(process.env.SWARDKEEP_ROOT ?? process.cwd(), 'src/lib/workers/gis-worker.mjs'))
-      .href,
+    filename: workerFile(),
     minThreads: 1,
     maxThreads: Math.max(1, Number(process.env.GIS_WORKERS ?? 2)),
     idleTimeout: 120_000,
