@@ -16,6 +16,12 @@ import type { TaskName, TaskResult, tasks } from './gis-tasks';
 
 let pool: Tinypool | null = null;
 const YOUNG_GENERATION_MB = 12;
+/**
+ * The threads' old-generation limit. V8 sizes a heap's growth by its limit (by up to 4x the live objects with the
+ * default of several gigabytes, about 1.8x at 1,536 MB), so the limit keeps the garbage of a 100,000-parcel upload from
+ * piling up before it is collected: some 70 MB less resident memory for a few per cent more time in the thread.
+ */
+const OLD_GENERATION_MB = Number(process.env.GIS_WORKER_HEAP_MB ?? 1536);
 
 function workerFile(): string {
   const root = process.env.SWARDKEEP_ROOT ?? process.cwd();
@@ -30,7 +36,7 @@ function getPool(): Tinypool {
     idleTimeout: 120_000,
     // A small young generation (V8's default grows to tens of megabytes per thread): an upload's chunks make much
     // short-lived garbage, and a smaller nursery keeps the threads' resident memory down at no measured cost in speed.
-    resourceLimits: { maxYoungGenerationSizeMb: YOUNG_GENERATION_MB },
+    resourceLimits: { maxYoungGenerationSizeMb: YOUNG_GENERATION_MB, maxOldGenerationSizeMb: OLD_GENERATION_MB },
   });
   return pool;
 }
@@ -44,7 +50,15 @@ export async function runGisTask<N extends TaskName>(
   input: Input<N>,
   transferList?: MessagePort[],
 ): Promise<Output<N>> {
-  const result = (await getPool().run({ task, input }, transferList ? { transferList } : {})) as TaskResult<Output<N>>;
+  const result = (await getPool()
+    .run({ task, input }, transferList ? { transferList } : {})
+    .catch((error: unknown) => {
+      if ((error as { code?: unknown } | null)?.code !== 'ERR_WORKER_OUT_OF_MEMORY') throw error;
+      throw new HttpError(
+        'PAYLOAD_TOO_LARGE',
+        'The file is too large to check in one go: the checking ran out of memory. Split it into smaller files.',
+      );
+    })) as TaskResult<Output<N>>;
   if (result.ok) return result.value;
   const e = result.error;
   if (e.kind === 'gis') throw new GisInputError(e.code as GisInputErrorCode, e.message);
