@@ -25,6 +25,7 @@ build_if_stale() {
   fi
   echo "setup: building the app"
   npx astro build --silent
+  node scripts/build-worker.mjs "${SWARDKEEP_DIST:-dist}"
   node scripts/precompress.mjs "${SWARDKEEP_DIST:-dist}/client"
   touch "${SWARDKEEP_DIST:-dist}/.build-stamp"
 }

@@ -25,6 +25,7 @@
  */
 import { AsyncLocalStorage } from 'node:async_hooks';
 import { randomUUID } from 'node:crypto';
+import { existsSync } from 'node:fs';
 import http from 'node:http';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
@@ -148,6 +149,9 @@ function logRequest(req, res, record, started) {
 async function main() {
   process.env.ASTRO_NODE_AUTOSTART = 'disabled';
   const entry = path.resolve(process.env.SWARDKEEP_DIST ?? 'dist', 'server/entry.mjs');
+  // The GIS pool's threads load the build's bundled tasks (scripts/build-worker.mjs), not the source through tsx.
+  const worker = path.resolve(process.env.SWARDKEEP_DIST ?? 'dist', 'server/gis-worker.mjs');
+  if (!process.env.SWARDKEEP_GIS_WORKER && existsSync(worker)) process.env.SWARDKEEP_GIS_WORKER = worker;
   const { handler } = await import(pathToFileURL(entry).href);
   const clientDir = path.resolve(process.env.SWARDKEEP_DIST ?? 'dist', 'client');
   const [compressedFile, plainFile] = [compressedStatic(clientDir), plainStatic(clientDir)];

@@ -78,12 +78,14 @@ const READ_PIECE_BYTES = 1 << 20;
 /**
  * The staged file, read in pieces of 1 MiB: one value of tens of megabytes would be decoded from
  * hex and reassembled in a single turn of the event loop, stalling every other request meanwhile.
+ * The bytes live in a SharedArrayBuffer, so the worker pool's tasks (describe, inspect, stageFile) read
+ * them where they are instead of each getting a copy (nothing writes to them once read).
  */
 export async function getStagingBytes(db: Db, id: string): Promise<Uint8Array> {
   const size = (await db('upload_staging').select(db.raw('octet_length(file_bytes)::int as n')).where({ id }).first())
     ?.n as number | undefined;
   if (size === undefined) throw new Error(`staged upload ${id} is gone`);
-  const out = new Uint8Array(size);
+  const out = new Uint8Array(new SharedArrayBuffer(size));
   for (let at = 0; at < size; at += READ_PIECE_BYTES) {
     const r = await db.raw('select substring(file_bytes from ? for ?) as piece from upload_staging where id = ?', [
       at + 1,
