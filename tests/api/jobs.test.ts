@@ -90,4 +90,40 @@ describe('the job queue', () => {
       (await api('GET', `/api/jobs/deadline-reminders/runs/${crypto.randomUUID()}`, { session: admin })).status,
     ).toBe(404);
   });
+
+  it('the register check recomputes the chain on a schedule; a break is logged and audited with the first broken entry', async () => {
+    const ok = await finished(
+      'register-check',
+      (await api('POST', '/api/jobs/register-check/run', { session: admin })).body.jobId,
+    );
+    const entries = Number((await testDb('register_entry').count('* as n').first())?.n);
+    expect(entries).toBeGreaterThan(0); // the demo history
+    expect(ok).toMatchObject({ state: 'completed', output: { ok: true, entries, firstBrokenEntry: null } });
+
+    // An entry's content edited by hand, as the database owner past the trigger: the next check names it.
+    const target = 3;
+    const original = (await testDb.raw('select content::text as c from register_entry where seq = ?', [target])).rows[0]
+      .c;
+    const edit = (sql: string, args: unknown[]) =>
+      testDb.transaction(async (trx) => {
+        await trx.raw('alter table register_entry disable trigger register_entry_no_update');
+        await trx.raw(sql, args as never[]);
+        await trx.raw('alter table register_entry enable trigger register_entry_no_update');
+      });
+    await edit(`update register_entry set content = jsonb_set(content, '{outcome}', '"tampered"') where seq = ?`, [
+      target,
+    ]);
+    try {
+      const broken = await finished(
+        'register-check',
+        (await api('POST', '/api/jobs/register-check/run', { session: admin })).body.jobId,
+      );
+      expect(broken).toMatchObject({ state: 'completed', output: { ok: false, firstBrokenEntry: target } });
+      const audit = await testDb('audit_event').where({ action: 'job.register-check' }).orderBy('id', 'desc').first();
+      expect(audit.details).toMatchObject({ ok: false, firstBrokenEntry: target });
+    } finally {
+      await edit('update register_entry set content = ?::jsonb where seq = ?', [original, target]);
+    }
+    expect((await api('GET', '/api/register/verify')).body).toMatchObject({ ok: true, firstBrokenEntry: null });
+  });
 });

@@ -8,6 +8,7 @@
 import PgBoss from 'pg-boss';
 import { config } from '../config';
 import { sendDeadlineReminders, sendFollowUpOverdueNotices } from '../services/reminders';
+import { checkRegisterChain } from '../services/register';
 import { JOB_INFO, JOB_NAMES, type JobName } from './names';
 import { logger } from '../log.mjs';
 
@@ -16,6 +17,7 @@ export const JOB_SCHEMA = 'pgboss';
 const HANDLERS: Record<JobName, () => Promise<object>> = {
   'deadline-reminders': () => sendDeadlineReminders(),
   'follow-up-overdue': () => sendFollowUpOverdueNotices(),
+  'register-check': () => checkRegisterChain(),
 };
 
 const QUEUE_OPTIONS = { retryLimit: 3, retryDelay: 60, retryBackoff: true, expireInSeconds: 15 * 60 };

@@ -15,6 +15,7 @@ import { keptAnswer, type KeptAnswer } from '../http/kept-answer';
 import { textStream, type Room } from '../http/text-stream';
 import type { Caller } from '../http/handle';
 import { ChainVerifier } from '../register/chain';
+import { logger } from '../log.mjs';
 import type { Condition, Outcome, RegisterContent } from '../register/content';
 
 const VERIFY_BATCH = 5000;
@@ -70,6 +71,29 @@ export async function verifyRegister(blockSize = VERIFY_BLOCK) {
     },
     { isolationLevel: 'repeatable read' },
   );
+}
+
+/**
+ * The scheduled check (job `register-check`): the same verify as the public route, run in the
+ * background so the blocks that hold are recorded before anyone asks; a broken chain is logged as
+ * an error and audited, naming the first broken entry.
+ */
+export async function checkRegisterChain(): Promise<{ ok: boolean; entries: number; firstBrokenEntry: number | null }> {
+  const r = await verifyRegister();
+  const out = { ok: r.ok, entries: r.entries, firstBrokenEntry: r.firstBrokenEntry };
+  if (!r.ok) {
+    logger.error(out, 'the register chain is broken');
+    await withTransaction(db, (trx) =>
+      recordAudit(trx, {
+        actorId: null,
+        action: 'job.register-check',
+        entityType: 'job',
+        entityId: 'register-check',
+        details: out,
+      }),
+    );
+  }
+  return out;
 }
 
 export async function registerHead() {
