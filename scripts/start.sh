@@ -25,7 +25,8 @@ if [ -z "${SMTP_HOST:-}" ]; then
   require_port "$SMTP_PORT" "the local mail fake" SMTP_PORT
   node --import tsx scripts/mail-fake.ts & pids+=($!)
 fi
-node scripts/serve.mjs & server=$!; pids+=($server)
+# A 4 MB semi-space (young generation) keeps the resident memory of large uploads down (DEVELOPERS.md, worker pool).
+node --max-semi-space-size=4 scripts/serve.mjs & server=$!; pids+=($server)
 if ! wait_http "http://${HOST}:${PORT}/api/health" "$server"; then
   echo "start: the app did not come up; see the messages above." >&2
   exit 1

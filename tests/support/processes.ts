@@ -34,7 +34,11 @@ export async function stopProcess(child: ChildProcess | undefined): Promise<void
 
 /** Starts one more app instance on `port` against the test database (multi-instance tests). */
 export async function startAppInstance(env: NodeJS.ProcessEnv, port: number): Promise<ChildProcess> {
-  const child = startProcess([`scripts/serve.mjs`], { SWARDKEEP_DIST: DIST, ...env }, `.data/test-app-${port}.log`);
+  const child = startProcess(
+    ['--max-semi-space-size=4', `scripts/serve.mjs`],
+    { SWARDKEEP_DIST: DIST, ...env },
+    `.data/test-app-${port}.log`,
+  );
   await waitForHttp(`http://127.0.0.1:${port}/api/health`, child);
   return child;
 }
