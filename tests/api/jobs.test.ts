@@ -7,7 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { addDays } from '~/lib/proposals/states';
 import { JOB_INFO, JOB_NAMES } from '~/lib/jobs/names';
 import { decidedProposal, today } from '../support/board';
-import { lastMailId, testDb, waitForMail } from '../support/db';
+import { editRegisterByHand, lastMailId, testDb, waitForMail } from '../support/db';
 import { api, DEMO, signIn, type Session } from '../support/http';
 
 let planner: Session, assessor: Session, board: Session, chair: Session, admin: Session;
@@ -104,15 +104,10 @@ describe('the job queue', () => {
     const target = 3;
     const original = (await testDb.raw('select content::text as c from register_entry where seq = ?', [target])).rows[0]
       .c;
-    const edit = (sql: string, args: unknown[]) =>
-      testDb.transaction(async (trx) => {
-        await trx.raw('alter table register_entry disable trigger register_entry_no_update');
-        await trx.raw(sql, args as never[]);
-        await trx.raw('alter table register_entry enable trigger register_entry_no_update');
-      });
-    await edit(`update register_entry set content = jsonb_set(content, '{outcome}', '"tampered"') where seq = ?`, [
-      target,
-    ]);
+    await editRegisterByHand(
+      `update register_entry set content = jsonb_set(content, '{outcome}', '"tampered"') where seq = ?`,
+      [target],
+    );
     try {
       const broken = await finished(
         'register-check',
@@ -122,7 +117,7 @@ describe('the job queue', () => {
       const audit = await testDb('audit_event').where({ action: 'job.register-check' }).orderBy('id', 'desc').first();
       expect(audit.details).toMatchObject({ ok: false, firstBrokenEntry: target });
     } finally {
-      await edit('update register_entry set content = ?::jsonb where seq = ?', [original, target]);
+      await editRegisterByHand('update register_entry set content = ?::jsonb where seq = ?', [original, target]);
     }
     expect((await api('GET', '/api/register/verify')).body).toMatchObject({ ok: true, firstBrokenEntry: null });
   });

@@ -13,7 +13,7 @@ import http from 'node:http';
 import zlib from 'node:zlib';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_PEOPLE } from '../../scripts/demo/people';
-import { testDb } from '../support/db';
+import { editRegisterByHand, testDb } from '../support/db';
 import { BASE_URL } from '../support/env';
 import { api, DEMO, signIn, type Session } from '../support/http';
 import { decidedProposal } from '../support/board';
@@ -90,21 +90,16 @@ describe('the hash chain', () => {
     const target = decided[1]!.seq;
     const original = (await testDb.raw('select content::text as c from register_entry where seq = ?', [target])).rows[0]
       .c;
-    const edit = async (sql: string, args: unknown[]) =>
-      testDb.transaction(async (trx) => {
-        await trx.raw('alter table register_entry disable trigger register_entry_no_update');
-        await trx.raw(sql, args as never[]);
-        await trx.raw('alter table register_entry enable trigger register_entry_no_update');
-      });
-    await edit(`update register_entry set content = jsonb_set(content, '{outcome}', '"approved"') where seq = ?`, [
-      target,
-    ]);
+    await editRegisterByHand(
+      `update register_entry set content = jsonb_set(content, '{outcome}', '"approved"') where seq = ?`,
+      [target],
+    );
     try {
       const v = (await api('GET', '/api/register/verify')).body;
       expect(v).toMatchObject({ ok: false, firstBrokenEntry: target });
       expect(v.problem).toMatch(new RegExp(`content of entry ${target}`));
     } finally {
-      await edit('update register_entry set content = ?::jsonb where seq = ?', [original, target]);
+      await editRegisterByHand('update register_entry set content = ?::jsonb where seq = ?', [original, target]);
     }
     expect((await api('GET', '/api/register/verify')).body).toMatchObject({ ok: true, firstBrokenEntry: null });
   });

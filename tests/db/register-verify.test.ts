@@ -10,7 +10,7 @@ import { db } from '~/lib/db/client';
 import { appendEntry } from '~/lib/db/register';
 import type { RegisterContent } from '~/lib/register/content';
 import { verifyRegister } from '~/lib/services/register';
-import { testDb } from '../support/db';
+import { editRegisterByHand, testDb } from '../support/db';
 
 const today = new Date().toISOString().slice(0, 10);
 /** A square of 1.5 ha at 39.9° S: 122.47 m a side; a degree of latitude is about 111.32 km and of longitude that times cos(latitude) (common practice). */
@@ -68,12 +68,6 @@ const blockOf = (first: number) =>
   testDb('register_verified_block')
     .where({ first_seq: first, last_seq: first + 1 })
     .first();
-const edit = (sql: string, args: unknown[]) =>
-  testDb.transaction(async (trx) => {
-    await trx.raw('alter table register_entry disable trigger register_entry_no_update');
-    await trx.raw(sql, args as never[]);
-    await trx.raw('alter table register_entry enable trigger register_entry_no_update');
-  });
 
 beforeAll(async () => {
   await db.transaction(async (trx) => {
@@ -107,7 +101,7 @@ describe('verify with recorded blocks', () => {
   it('hashes a block again when its rows changed, naming exactly the edited entry', async () => {
     const original = (await testDb.raw('select content::text as c from register_entry where seq = 1')).rows[0].c;
     const before = await blockOf(1);
-    await edit(
+    await editRegisterByHand(
       `update register_entry set content = jsonb_set(content, '{reasons}', '"Changed by hand"') where seq = 1`,
       [],
     );
@@ -116,7 +110,7 @@ describe('verify with recorded blocks', () => {
       expect(v).toMatchObject({ ok: false, firstBrokenEntry: 1 });
       expect(v.problem).toMatch(/content of entry 1 /);
     } finally {
-      await edit('update register_entry set content = ?::jsonb where seq = 1', [original]);
+      await editRegisterByHand('update register_entry set content = ?::jsonb where seq = 1', [original]);
     }
     // A broken chain records nothing: the block keeps the digest of the rows as verified, which
     // the restored rows give again.

@@ -4,6 +4,14 @@ import { TEST_DATABASE_URL } from './env';
 
 export const testDb = knexFactory({ client: 'pg', connection: TEST_DATABASE_URL, pool: { min: 0, max: 3 } });
 
+/** Changes stored register entries by hand, as the database owner past the append-only trigger (tamper tests). */
+export const editRegisterByHand = (sql: string, args: unknown[]) =>
+  testDb.transaction(async (trx) => {
+    await trx.raw('alter table register_entry disable trigger register_entry_no_update');
+    await trx.raw(sql, args as never[]);
+    await trx.raw('alter table register_entry enable trigger register_entry_no_update');
+  });
+
 /** Waits for the SMTP fake to have stored a mail to `to` whose subject matches, newer than `afterId`. */
 export async function waitForMail(
   to: string,
