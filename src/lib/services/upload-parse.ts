@@ -81,6 +81,14 @@ export function openLayerInfo(layer: OpenLayer, slice = 2000): LayerInfo {
   return { ...rest, columns: described ?? (typeof columns === 'function' ? columns([]) : columns), bbox };
 }
 
+/** The authority's limits on a zip's unpacked size and entry count (zip bombs). */
+function zipLimits(settings: GisSettings) {
+  return {
+    maxUncompressedBytes: settings['upload.max-uncompressed-bytes'],
+    maxEntries: settings['upload.max-zip-entries'],
+  };
+}
+
 /** Like parseUpload, but a zipped shapefile's features are read when asked for (OpenLayer). */
 export async function openUpload(
   bytes: Uint8Array,
@@ -95,10 +103,7 @@ export async function openUpload(
       readFeatures: (from, to) => features.slice(from, to),
     }));
   try {
-    const layers = await openShapefileZip(bytes, {
-      maxUncompressedBytes: settings['upload.max-uncompressed-bytes'],
-      maxEntries: settings['upload.max-zip-entries'],
-    });
+    const layers = await openShapefileZip(bytes, zipLimits(settings));
     return layers.map((l) => ({
       name: l.name,
       featureCount: l.featureCount,
@@ -176,10 +181,7 @@ export async function parseUpload(
 ): Promise<ParsedLayer[]> {
   try {
     if (format === 'shapefile-zip') {
-      const layers = await parseShapefileZip(bytes, {
-        maxUncompressedBytes: settings['upload.max-uncompressed-bytes'],
-        maxEntries: settings['upload.max-zip-entries'],
-      });
+      const layers = await parseShapefileZip(bytes, zipLimits(settings));
       return layers.map((l) => ({
         name: l.name,
         features: l.features,
