@@ -102,7 +102,6 @@ async function checkUpload(by: Caller, id: string, input: ValidationInput) {
     input.epsg,
   );
   const parseMs = Math.round(performance.now() - started);
-  await recordProgress(id, 'checking', 0, layer.featureCount);
   const t1 = performance.now();
   const inPostgis = await reprojectsInPostgis(db, crs);
   const stage = {
@@ -111,10 +110,12 @@ async function checkUpload(by: Caller, id: string, input: ValidationInput) {
     mapping,
     options: validationOptions(settings, crs, staging.purpose),
   };
-  // A CRS with a datum shift is reprojected by PostGIS, so those features make the round trip through here.
   const total = layer.featureCount;
+  // A CRS with a datum shift is reprojected by PostGIS, so those features make the round trip through here:
+  // checked first, then recorded, so the check has a progress phase of its own.
   const shifted = inPostgis
     ? await (async () => {
+        await recordProgress(id, 'checking', 0, total);
         const parsed = (await runGisTask('parse', file)).find((l) => l.name === layer.name)!;
         return runGisTask('stage', {
           ...stage,
