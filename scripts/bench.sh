@@ -9,7 +9,8 @@
 # Then the public register at BENCH_REGISTER_ENTRIES entries (default 100000; scripts/bench/register.ts).
 # Switches for iterating: BENCH_SIZES=none (register only), BENCH_STATES (default "fresh warm"; "again" re-runs the assessment and
 # screening on the database a fresh run left, without an upload), BENCH_SKIP (any of ref, huge, tiles,
-# assess, screening, register).
+# assess, screening, register), BENCH_NODE_FLAGS (the server's Node flags, default "--max-semi-space-size=4",
+# as scripts/start.sh runs it; set another value to weigh a flag's memory against its speed).
 set -euo pipefail
 cd "$(dirname "$0")/.."
 source scripts/env.sh

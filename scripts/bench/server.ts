@@ -16,7 +16,9 @@ export const skipped = (part: string) => (process.env.BENCH_SKIP ?? '').split(/[
 /** BENCH_CPU_PROF=<folder>: the server writes a V8 CPU profile there when it stops (node --cpu-prof). */
 export function startServer() {
   const prof = process.env.BENCH_CPU_PROF ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_CPU_PROF}`] : [];
-  const server = spawn(process.execPath, [...prof, '--max-semi-space-size=4', `scripts/serve.mjs`], {
+  // BENCH_NODE_FLAGS: the server's Node flags, by default those of scripts/start.sh.
+  const flags = (process.env.BENCH_NODE_FLAGS ?? '--max-semi-space-size=4').split(' ').filter(Boolean);
+  const server = spawn(process.execPath, [...prof, ...flags, `scripts/serve.mjs`], {
     env: {
       ...process.env,
       NODE_ENV: 'production',
